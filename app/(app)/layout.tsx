@@ -1,0 +1,28 @@
+import Link from 'next/link';
+import { redirect } from 'next/navigation';
+import { Wordmark } from '@/components/brand/logo';
+import { SignOutButton } from '@/components/railway/sign-out-button';
+import { currentUser } from '@/lib/current-user';
+
+export default async function AppLayout({ children }: { children: React.ReactNode }) {
+  const user = await currentUser();
+  if (!user) redirect('/sign-in');
+  return (
+    <div className="min-h-dvh">
+      <header className="no-print border-b border-line bg-surface">
+        <div className="mx-auto flex max-w-6xl items-center justify-between gap-3 px-4 py-3">
+          <Link href="/railways" aria-label="My railways">
+            <Wordmark />
+          </Link>
+          <div className="flex items-center gap-3 text-sm">
+            <span className="hidden text-muted sm:inline" data-testid="signed-in-as">
+              {user.name}
+            </span>
+            <SignOutButton />
+          </div>
+        </div>
+      </header>
+      <div className="mx-auto max-w-6xl px-4 py-6">{children}</div>
+    </div>
+  );
+}

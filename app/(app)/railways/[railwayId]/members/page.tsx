@@ -1,0 +1,51 @@
+import type { Metadata } from 'next';
+import { notFound } from 'next/navigation';
+import { listMembers } from '@/db/queries/memberships';
+import { InviteMemberForm, MemberRow } from '@/components/members/member-forms';
+import { Card } from '@/components/ui/card';
+import { memberForPage } from '@/lib/page-access';
+import { ROLE_LABELS, ROLE_SUMMARIES, ROLES } from '@/lib/roles';
+
+export const metadata: Metadata = { title: 'Members' };
+
+export default async function MembersPage({ params }: { params: Promise<{ railwayId: string }> }) {
+  const { railwayId } = await params;
+  const { member } = await memberForPage(railwayId, 'operator', `/railways/${railwayId}/members`);
+  if (!member) notFound();
+  const isHost = member.role === 'host';
+  const members = listMembers(railwayId);
+  return (
+    <div className="grid gap-6 lg:grid-cols-[1fr_22rem]">
+      <Card title={`Members (${members.length})`}>
+        <ul className="divide-y divide-line" data-testid="member-list">
+          {members.map((m) => (
+            <MemberRow
+              key={m.userId}
+              railwayId={railwayId}
+              member={{ userId: m.userId, name: m.name, email: isHost || member.role === 'planner' ? m.email : null, role: m.role, pending: !m.hasPassword }}
+              editable={isHost}
+              isSelf={m.userId === member.user.id}
+            />
+          ))}
+        </ul>
+      </Card>
+      <div className="space-y-6">
+        {isHost ? (
+          <Card title="Add a member">
+            <InviteMemberForm railwayId={railwayId} />
+          </Card>
+        ) : null}
+        <Card title="Roles">
+          <dl className="space-y-2 text-sm">
+            {[...ROLES].reverse().map((r) => (
+              <div key={r}>
+                <dt className="font-semibold">{ROLE_LABELS[r]}</dt>
+                <dd className="text-muted">{ROLE_SUMMARIES[r]}</dd>
+              </div>
+            ))}
+          </dl>
+        </Card>
+      </div>
+    </div>
+  );
+}

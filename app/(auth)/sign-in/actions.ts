@@ -1,0 +1,22 @@
+'use server';
+
+import { getUserByEmail } from '@/db/queries/users';
+import { toActionState, type ActionState, parseOrThrow } from '@/lib/errors';
+import { queueSignInLinkMail } from '@/lib/mail/account-mail';
+import { issueAuthToken } from '@/lib/tokens';
+import { requestLinkSchema } from '@/lib/validations/account';
+
+/**
+ * E-mails a one-time sign-in link. The answer is the same whether or not the address has an
+ * account, so the form cannot be used to find out who is registered.
+ */
+export async function requestSignInLink(_prev: ActionState, formData: FormData): Promise<ActionState> {
+  try {
+    const { email } = parseOrThrow(requestLinkSchema, { email: formData.get('email') });
+    const user = getUserByEmail(email);
+    if (user) queueSignInLinkMail(user.email, issueAuthToken(user.id, 'sign-in'));
+    return { ok: true, message: `If ${email} has a Fishplate account, a sign-in link is on its way.` };
+  } catch (error) {
+    return toActionState(error);
+  }
+}

@@ -1,0 +1,48 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import Database from 'better-sqlite3';
+import { drizzle, type BetterSQLite3Database } from 'drizzle-orm/better-sqlite3';
+import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
+import * as schema from './schema';
+
+export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
+
+/** Where the SQLite file lives: DATABASE_URL (a path, optionally prefixed with file:). */
+export function databasePath(): string {
+  const url = process.env.DATABASE_URL ?? 'data/fishplate.db';
+  return url.startsWith('file:') ? url.slice('file:'.length) : url;
+}
+
+/**
+ * Opens the database file with the settings every connection needs: WAL so readers never wait for
+ * the writer, foreign keys enforced, and a busy timeout so concurrent writers queue instead of failing.
+ */
+export function openDatabase(file = databasePath(), options: { migrate?: boolean } = {}): Db {
+  if (file !== ':memory:') fs.mkdirSync(path.dirname(path.resolve(file)), { recursive: true });
+  const sqlite = new Database(file);
+  sqlite.pragma('journal_mode = WAL');
+  sqlite.pragma('foreign_keys = ON');
+  sqlite.pragma('busy_timeout = 5000');
+  sqlite.pragma('synchronous = NORMAL');
+  const db = drizzle(sqlite, { schema }) as Db;
+  if (options.migrate !== false) {
+    migrate(db, { migrationsFolder: path.join(process.cwd(), 'drizzle') });
+  }
+  return db;
+}
+
+const globalForDb = globalThis as unknown as { fishplateDb?: Db };
+
+/** The one database handle of this process, opened (and migrated) on first use. */
+export function getDb(): Db {
+  globalForDb.fishplateDb ??= openDatabase();
+  return globalForDb.fishplateDb;
+}
+
+/** Closes the cached handle (tests and scripts that switch DATABASE_URL). */
+export function closeDb(): void {
+  globalForDb.fishplateDb?.$client.close();
+  globalForDb.fishplateDb = undefined;
+}
+
+export { schema };

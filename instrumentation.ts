@@ -1,0 +1,6 @@
+export async function register() {
+  if (process.env.NEXT_RUNTIME === 'nodejs') {
+    const { startServerServices } = await import('./lib/server-start');
+    await startServerServices();
+  }
+}
