@@ -1,0 +1,337 @@
+import bcrypt from 'bcryptjs';
+import { eq } from 'drizzle-orm';
+import type { Db } from '@/db';
+import * as t from '@/db/schema';
+import { DRIVER_PRESETS, findRoute, timeRun, type DriverPreset } from '@/lib/planning';
+
+// The demo railway is a scenario of our own invention: the club, its places and its people are
+// made up. Currents are the common-practice figures of the reference notes (an HO can motor runs
+// at 0.1–0.5 A and stalls near 0.9 A; coach lamps about 30 mA, LEDs about 20 mA).
+
+export const DEMO_PASSWORD = 'demo-railway';
+export const DEMO_USERS = [
+  { key: 'host', email: 'host@fishplate.example', name: 'Hazel Brightwater', role: 'host' },
+  { key: 'planner', email: 'planner@fishplate.example', name: 'Milo Ferrand', role: 'planner' },
+  { key: 'operator', email: 'operator@fishplate.example', name: 'Juno Carraway', role: 'operator' },
+  { key: 'op2', email: 'priya@fishplate.example', name: 'Priya Lindholt', role: 'operator' },
+  { key: 'op3', email: 'bram@fishplate.example', name: 'Bram Odell', role: 'operator' },
+  { key: 'op4', email: 'sasha@fishplate.example', name: 'Sasha Verrin', role: 'operator' },
+  { key: 'op5', email: 'tomas@fishplate.example', name: 'Tomas Quill', role: 'operator' },
+  { key: 'op6', email: 'wren@fishplate.example', name: 'Wren Halloway', role: 'operator' },
+] as const;
+type UserKey = (typeof DEMO_USERS)[number]['key'];
+
+const preset = (id: string): DriverPreset => {
+  const found = DRIVER_PRESETS.find((p) => p.id === id);
+  if (!found) throw new Error(`demo: no driver preset ${id}`);
+  return found;
+};
+
+const INDOOR_BLOCKS = [
+  // key, name, length mm, position along the line mm
+  ['Y1', 'Larkholm yard road 1', 1400, 0],
+  ['Y2', 'Larkholm yard road 2', 1400, 0],
+  ['YL', 'Larkholm yard lead', 800, 1200],
+  ['M1', 'Wrenhollow east', 2000, 2000],
+  ['M2', 'Mossgate approach', 1500, 4000],
+  ['L1', 'Mossgate loop, main road', 2000, 5500],
+  ['L2', 'Mossgate loop, passing road', 2000, 5500],
+  ['M3', 'Mossgate west', 1500, 7500],
+  ['M4', 'Fernwick bank', 2000, 9000],
+  ['M5', 'Fernwick approach', 1500, 11000],
+  ['T1', 'Fernwick platform 1', 1400, 12500],
+  ['T2', 'Fernwick platform 2', 1400, 12500],
+] as const;
+const INDOOR_LINKS = [
+  ['Y1', 'YL'], ['Y2', 'YL'], ['YL', 'M1'], ['M1', 'M2'], ['M2', 'L1'], ['M2', 'L2'],
+  ['L1', 'M3'], ['L2', 'M3'], ['M3', 'M4'], ['M4', 'M5'], ['M5', 'T1'], ['M5', 'T2'],
+] as const;
+
+const GARDEN_BLOCKS = [
+  ['G1', 'Quillon halt', 3000, 0],
+  ['G2', 'Bramble cutting', 6000, 3000],
+  ['G3', 'Pond viaduct', 5000, 9000],
+  ['G4', 'Orchard loop', 4000, 14000],
+  ['G5', 'Shed siding', 2500, 18000],
+] as const;
+const GARDEN_LINKS = [['G1', 'G2'], ['G2', 'G3'], ['G3', 'G4'], ['G4', 'G5']] as const;
+
+const INDOOR_LOCOS = [
+  // key, name, running A, stall A, rated V, top scale km/h
+  ['tank41', 'Tank engine No. 41', 0.35, 0.9, 12, 80],
+  ['diesel7', 'Mixed-traffic diesel No. 7', 0.45, 1.0, 12, 120],
+  ['railcar12', 'Railcar No. 12', 0.3, 0.8, 12, 100],
+  ['shunter3', 'Yard shunter No. 3', 0.25, 0.7, 12, 50],
+  ['express88', 'Express engine No. 88', 0.5, 1.2, 12, 140],
+  ['freight205', 'Open-frame freight diesel No. 205', 0.6, 1.6, 12, 90],
+] as const;
+const GARDEN_LOCOS = [
+  ['mogul', 'Garden 2-6-0 "Thistle"', 1.5, 3.0, 18, 50],
+  ['railbus', 'Garden railbus', 0.8, 2.0, 18, 45],
+] as const;
+
+const INDOOR_TRAINS = [
+  // key, name, locos, lighting A, length mm
+  ['stopper', 'Wrenhollow stopper', ['tank41'], 0.09, 900],
+  ['express', 'Fernwick express', ['express88'], 0.15, 1300],
+  ['goods', 'Pick-up goods', ['freight205'], 0, 1100],
+  ['shuttle', 'Railcar shuttle', ['railcar12'], 0.04, 350],
+  ['heavy', 'Double-headed stone train', ['diesel7', 'freight205'], 0, 1350],
+] as const;
+const GARDEN_TRAINS = [['garden', 'Orchard passenger', ['mogul'], 0.06, 2600]] as const;
+
+type RunSpec = {
+  train: (typeof INDOOR_TRAINS)[number][0];
+  cab: 'cab1' | 'cab2' | 'cab3' | 'cab4';
+  operator: UserKey | null;
+  from: string;
+  to: string;
+  via?: string;
+  /** Real minutes from the session's start. */
+  departMin: number;
+  speedKmh: number;
+  standBeforeS: number;
+  standAfterS: number;
+};
+
+// About twenty runs over a three-hour evening. Three clash on purpose so that a newcomer sees the
+// checker's point at once: the goods meets the express below the loop, the railcar shuttle is put
+// on cab 3 while the goods is still moving on it, and the double-headed stone train draws more
+// than its 1 A-class channel can carry.
+const RUNS: RunSpec[] = [
+  { train: 'stopper', cab: 'cab1', operator: 'operator', from: 'T1', to: 'Y1', via: 'L1', departMin: 5, speedKmh: 50, standBeforeS: 120, standAfterS: 180 },
+  { train: 'express', cab: 'cab2', operator: 'op2', from: 'Y2', to: 'T2', via: 'L1', departMin: 8, speedKmh: 90, standBeforeS: 180, standAfterS: 300 },
+  { train: 'goods', cab: 'cab3', operator: 'op3', from: 'Y2', to: 'L2', departMin: 14, speedKmh: 40, standBeforeS: 120, standAfterS: 240 },
+  // Clash: the railcar shuttle is put on cab 3 while the goods is still moving on it.
+  { train: 'shuttle', cab: 'cab3', operator: 'op4', from: 'T1', to: 'M3', departMin: 14.3, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
+  { train: 'stopper', cab: 'cab1', operator: 'operator', from: 'Y1', to: 'T1', via: 'L1', departMin: 22, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
+  // Clash: the goods sets off from the loop while the express is still coming down Fernwick bank.
+  { train: 'express', cab: 'cab2', operator: 'op2', from: 'T2', to: 'Y2', via: 'L1', departMin: 32, speedKmh: 90, standBeforeS: 120, standAfterS: 300 },
+  { train: 'goods', cab: 'cab3', operator: 'op3', from: 'L2', to: 'T2', departMin: 32.1, speedKmh: 40, standBeforeS: 60, standAfterS: 300 },
+  { train: 'shuttle', cab: 'cab4', operator: 'op4', from: 'M3', to: 'T1', departMin: 45, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
+  { train: 'stopper', cab: 'cab1', operator: 'operator', from: 'T1', to: 'Y1', via: 'L2', departMin: 52, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
+  { train: 'express', cab: 'cab2', operator: 'op2', from: 'Y2', to: 'T2', via: 'L1', departMin: 58.5, speedKmh: 90, standBeforeS: 120, standAfterS: 300 },
+  { train: 'shuttle', cab: 'cab4', operator: 'op5', from: 'T1', to: 'M4', departMin: 66, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
+  { train: 'goods', cab: 'cab3', operator: 'op3', from: 'T2', to: 'Y1', via: 'L2', departMin: 75, speedKmh: 40, standBeforeS: 60, standAfterS: 300 },
+  { train: 'stopper', cab: 'cab1', operator: 'operator', from: 'Y1', to: 'T1', via: 'L1', departMin: 88, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
+  // Clash: two motors on one 1 A-class channel (0.45 A + 0.6 A running, more at start-up).
+  { train: 'heavy', cab: 'cab1', operator: 'op6', from: 'Y2', to: 'M4', via: 'L2', departMin: 100, speedKmh: 35, standBeforeS: 120, standAfterS: 300 },
+  { train: 'shuttle', cab: 'cab4', operator: 'op4', from: 'M4', to: 'T1', departMin: 108, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
+  { train: 'express', cab: 'cab2', operator: 'op2', from: 'T2', to: 'Y2', via: 'L1', departMin: 118, speedKmh: 90, standBeforeS: 120, standAfterS: 300 },
+  { train: 'stopper', cab: 'cab3', operator: 'operator', from: 'T1', to: 'Y1', via: 'L2', departMin: 130, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
+  { train: 'heavy', cab: 'cab1', operator: 'op6', from: 'M4', to: 'Y2', via: 'L1', departMin: 142, speedKmh: 35, standBeforeS: 60, standAfterS: 300 },
+  { train: 'goods', cab: 'cab3', operator: 'op3', from: 'Y1', to: 'L2', departMin: 150, speedKmh: 40, standBeforeS: 60, standAfterS: 300 },
+  { train: 'shuttle', cab: 'cab4', operator: 'op5', from: 'T1', to: 'M3', departMin: 160, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
+];
+
+/** Next Saturday (at least two days ahead) at 18:30 UTC — always in the future when seeded. */
+export function demoSessionStart(now = new Date()): Date {
+  const d = new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate(), 18, 30));
+  const daysToSaturday = (6 - d.getUTCDay() + 7) % 7 || 7;
+  d.setUTCDate(d.getUTCDate() + (daysToSaturday < 2 ? daysToSaturday + 7 : daysToSaturday));
+  return d;
+}
+
+export function hasDemoData(db: Db): boolean {
+  return db.select({ id: t.users.id }).from(t.users).where(eq(t.users.email, DEMO_USERS[0].email)).get() !== undefined;
+}
+
+/**
+ * Writes the demo railway in one transaction: the club, its members, an indoor H0 layout and an
+ * outdoor garden line, power and rolling stock, and one published session with about twenty runs.
+ */
+export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: string } = {}): { railwayId: string; sessionId: string } {
+  const passwordHash = options.passwordHash ?? bcrypt.hashSync(DEMO_PASSWORD, 10);
+  return db.transaction((tx) => {
+    const userIds = {} as Record<UserKey, string>;
+    for (const u of DEMO_USERS) {
+      userIds[u.key] = tx
+        .insert(t.users)
+        .values({ email: u.email, name: u.name, passwordHash, emailVerifiedAt: new Date() })
+        .returning({ id: t.users.id })
+        .get().id;
+    }
+    const railwayId = tx
+      .insert(t.railways)
+      .values({ name: 'Kestrel Vale Railway Circle', timeZone: 'Europe/London' })
+      .returning({ id: t.railways.id })
+      .get().id;
+    for (const u of DEMO_USERS) tx.insert(t.memberships).values({ railwayId, userId: userIds[u.key], role: u.role }).run();
+
+    const insertLayout = (
+      values: Omit<typeof t.layouts.$inferInsert, 'railwayId'>,
+      blockRows: readonly (readonly [string, string, number, number])[],
+      linkRows: readonly (readonly [string, string])[],
+    ) => {
+      const layoutId = tx.insert(t.layouts).values({ ...values, railwayId }).returning({ id: t.layouts.id }).get().id;
+      const blockIds: Record<string, string> = {};
+      for (const [key, name, lengthMm, positionMm] of blockRows) {
+        blockIds[key] = tx.insert(t.blocks).values({ layoutId, name, lengthMm, positionMm }).returning({ id: t.blocks.id }).get().id;
+      }
+      for (const [a, b] of linkRows) tx.insert(t.links).values({ layoutId, blockAId: blockIds[a]!, blockBId: blockIds[b]! }).run();
+      return { layoutId, blockIds };
+    };
+
+    const indoor = insertLayout(
+      {
+        name: 'Kestrel Vale branch (H0)',
+        scaleName: 'H0',
+        scaleRatio: 87,
+        setting: 'indoor',
+        notes: 'Single-track branch from Larkholm yard through the Mossgate passing loop to the Fernwick terminus. Twelve blocks, four cabs.',
+      },
+      INDOOR_BLOCKS,
+      INDOOR_LINKS,
+    );
+    const garden = insertLayout(
+      {
+        name: 'Quillon garden line (IIm)',
+        scaleName: 'IIm',
+        scaleRatio: 22.5,
+        setting: 'outdoor',
+        notes: 'Outdoor large-scale line on 45 mm track. Low voltage only on the track; weatherproof joints; the supply sits indoors behind a residual-current device.',
+      },
+      GARDEN_BLOCKS,
+      GARDEN_LINKS,
+    );
+
+    const supply = (layoutId: string, name: string, volts: number, amps: number) =>
+      tx.insert(t.supplies).values({ layoutId, name, volts, amps }).returning({ id: t.supplies.id }).get().id;
+    const driver = (layoutId: string, supplyId: string, name: string, p: DriverPreset) =>
+      tx
+        .insert(t.drivers)
+        .values({
+          layoutId,
+          supplyId,
+          name,
+          presetId: p.id,
+          channels: p.channels,
+          channelAmps: p.channelAmps,
+          channelPeakAmps: p.channelPeakAmps,
+          totalAmps: p.totalAmps,
+          dropVolts: p.dropVolts,
+        })
+        .returning({ id: t.drivers.id })
+        .get().id;
+    const cab = (layoutId: string, driverId: string, name: string, channel: number) =>
+      tx.insert(t.cabs).values({ layoutId, driverId, name, channel }).returning({ id: t.cabs.id }).get().id;
+
+    const benchA = supply(indoor.layoutId, 'Bench supply A (14.6 V)', 14.6, 3);
+    const benchB = supply(indoor.layoutId, 'Bench supply B (12.6 V)', 12.6, 2);
+    const gardenSupply = supply(garden.layoutId, 'Shed supply (18 V)', 18, 5);
+    const mainDriver = driver(indoor.layoutId, benchA, 'Main line board', preset('bipolar-quad-half-h-1a'));
+    const terminusDriver = driver(indoor.layoutId, benchB, 'Terminus board', preset('mosfet-dual-low-voltage-1-2a'));
+    const gardenDriver = driver(garden.layoutId, gardenSupply, 'Garden board', preset('bipolar-dual-full-bridge-2a'));
+    const cabIds = {
+      cab1: cab(indoor.layoutId, mainDriver, 'Cab 1', 1),
+      cab2: cab(indoor.layoutId, mainDriver, 'Cab 2', 2),
+      cab3: cab(indoor.layoutId, terminusDriver, 'Cab 3', 1),
+      cab4: cab(indoor.layoutId, terminusDriver, 'Cab 4', 2),
+    };
+    cab(garden.layoutId, gardenDriver, 'Garden cab A', 1);
+    cab(garden.layoutId, gardenDriver, 'Garden cab B', 2);
+
+    const insertStock = (
+      layoutId: string,
+      locoRows: readonly (readonly [string, string, number, number, number, number])[],
+      trainRows: readonly (readonly [string, string, readonly string[], number, number])[],
+    ) => {
+      const locoIds: Record<string, string> = {};
+      for (const [key, name, runningAmps, stallAmps, ratedVolts, topSpeedKmh] of locoRows) {
+        locoIds[key] = tx
+          .insert(t.locomotives)
+          .values({ layoutId, name, runningAmps, stallAmps, ratedVolts, topSpeedKmh })
+          .returning({ id: t.locomotives.id })
+          .get().id;
+      }
+      const trainIds: Record<string, { id: string; lengthMm: number }> = {};
+      for (const [key, name, locos, lightingAmps, lengthMm] of trainRows) {
+        const id = tx.insert(t.trains).values({ layoutId, name, lightingAmps, lengthMm }).returning({ id: t.trains.id }).get().id;
+        locos.forEach((loco, position) => tx.insert(t.trainLocomotives).values({ trainId: id, locomotiveId: locoIds[loco]!, position }).run());
+        trainIds[key] = { id, lengthMm };
+      }
+      return trainIds;
+    };
+    const indoorTrains = insertStock(indoor.layoutId, INDOOR_LOCOS, INDOOR_TRAINS);
+    insertStock(garden.layoutId, GARDEN_LOCOS, GARDEN_TRAINS);
+
+    const startsAt = demoSessionStart(options.now);
+    const sessionId = tx
+      .insert(t.sessions)
+      .values({
+        railwayId,
+        layoutId: indoor.layoutId,
+        title: 'December running evening',
+        place: 'Kestrel Vale clubroom, layout room 2',
+        description: 'Evening timetable on the branch: stopper, express, goods and the railcar shuttle. Tea at half time.',
+        startsAt,
+        endsAt: new Date(startsAt.getTime() + 3 * 3600_000),
+        timeZone: 'Europe/London',
+        clockRatio: 4,
+        fastStart: '06:00',
+        headwayS: 30,
+        surgeS: 2,
+        derate: 0.8,
+        status: 'published',
+        sequence: 0,
+      })
+      .returning({ id: t.sessions.id })
+      .get().id;
+
+    const track = {
+      blocks: INDOOR_BLOCKS.map(([key, , lengthMm]) => ({ id: key, lengthMm })),
+      links: INDOOR_LINKS.map(([a, b]) => ({ a, b })),
+    };
+    for (const spec of RUNS) {
+      const route = spec.via
+        ? [...(findRoute(track, spec.from, spec.via) ?? []), ...(findRoute(track, spec.via, spec.to) ?? []).slice(1)]
+        : findRoute(track, spec.from, spec.to);
+      if (!route || route.length < 2) throw new Error(`demo: no route ${spec.from} → ${spec.to}`);
+      const train = indoorTrains[spec.train]!;
+      const timed = timeRun({
+        blocks: track.blocks,
+        scaleRatio: 87,
+        trainLengthMm: train.lengthMm,
+        route,
+        departS: spec.departMin * 60,
+        speedKmh: spec.speedKmh,
+        standBeforeS: spec.standBeforeS,
+        standAfterS: spec.standAfterS,
+      });
+      const runId = tx
+        .insert(t.runs)
+        .values({
+          sessionId,
+          trainId: train.id,
+          cabId: cabIds[spec.cab],
+          operatorId: spec.operator ? userIds[spec.operator] : null,
+          departS: timed.departS,
+          arriveS: timed.arriveS,
+          speedKmh: spec.speedKmh,
+        })
+        .returning({ id: t.runs.id })
+        .get().id;
+      timed.steps.forEach((step, position) =>
+        tx.insert(t.runSteps).values({ runId, position, blockId: indoor.blockIds[step.blockId]!, enterS: step.enterS, exitS: step.exitS }).run(),
+      );
+    }
+
+    const crew: UserKey[] = ['operator', 'op2', 'op3', 'op4', 'op5', 'op6'];
+    for (const key of crew) {
+      tx.insert(t.crewAssignments).values({ sessionId, userId: userIds[key], duty: 'driver' }).run();
+      tx.insert(t.invitations)
+        .values({
+          sessionId,
+          userId: userIds[key],
+          email: DEMO_USERS.find((u) => u.key === key)!.email,
+          rsvp: key === 'op2' || key === 'op3' ? 'accepted' : key === 'op5' ? 'tentative' : 'needs-action',
+          respondedAt: key === 'op2' || key === 'op3' || key === 'op5' ? new Date() : null,
+          sentSequence: 0,
+        })
+        .run();
+    }
+    tx.insert(t.crewAssignments).values({ sessionId, userId: userIds.op5, duty: 'stand-by', note: 'Covers any cab if a driver is late.' }).run();
+    tx.insert(t.auditLog).values({ railwayId, userId: userIds.host, action: 'seed', entity: 'railway', entityId: railwayId }).run();
+    return { railwayId, sessionId };
+  });
+}

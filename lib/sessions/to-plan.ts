@@ -1,0 +1,78 @@
+import type { Plan } from '@/lib/planning';
+import type { loadLayoutRows, loadSessionRows } from '@/db/queries/plan-data';
+
+type LayoutRows = ReturnType<typeof loadLayoutRows>;
+type SessionRows = NonNullable<ReturnType<typeof loadSessionRows>>;
+
+/** A layout's rows as the engine's plan interchange, version 1, with no runs. */
+export function layoutToPlan(rows: LayoutRows, extra: Pick<Plan, 'clock' | 'rules'> & { operators?: Plan['operators'] }): Plan {
+  const layout = rows.layout;
+  if (!layout) throw new Error('layoutToPlan: layout rows without a layout');
+  const locosOf = new Map<string, string[]>();
+  for (const c of rows.consists) locosOf.set(c.trainId, [...(locosOf.get(c.trainId) ?? []), c.locomotiveId]);
+  return {
+    version: 1,
+    scale: { name: layout.scaleName, ratio: layout.scaleRatio },
+    clock: extra.clock,
+    rules: extra.rules,
+    supplies: rows.supplies.map((s) => ({ id: s.id, name: s.name, volts: s.volts, amps: s.amps })),
+    drivers: rows.drivers.map((d) => ({
+      id: d.id,
+      name: d.name,
+      supplyId: d.supplyId,
+      channels: d.channels,
+      channelAmps: d.channelAmps,
+      channelPeakAmps: d.channelPeakAmps,
+      totalAmps: d.totalAmps,
+      dropVolts: d.dropVolts,
+    })),
+    cabs: rows.cabs.map((c) => ({ id: c.id, name: c.name, driverId: c.driverId, channel: c.channel })),
+    blocks: rows.blocks.map((b) => ({ id: b.id, name: b.name, lengthMm: b.lengthMm })),
+    links: rows.links.map((l) => ({ a: l.blockAId, b: l.blockBId })),
+    locos: rows.locomotives.map((l) => ({
+      id: l.id,
+      name: l.name,
+      runningAmps: l.runningAmps,
+      stallAmps: l.stallAmps,
+      ratedVolts: l.ratedVolts,
+    })),
+    // A train without locomotives cannot be in a valid plan; the rolling-stock screens refuse to
+    // save one, so none should reach here.
+    trains: rows.trains.map((tr) => ({
+      id: tr.id,
+      name: tr.name,
+      locoIds: locosOf.get(tr.id) ?? [],
+      lightingAmps: tr.lightingAmps,
+      lengthMm: tr.lengthMm,
+    })),
+    operators: extra.operators ?? [],
+    runs: [],
+  };
+}
+
+/** A stored session as the engine's plan interchange, version 1. */
+export function sessionToPlan(rows: SessionRows): Plan {
+  const stepsOf = new Map<string, Plan['runs'][number]['steps']>();
+  for (const s of rows.steps) {
+    const list = stepsOf.get(s.runId) ?? [];
+    list.push({ blockId: s.blockId, enterS: s.enterS, exitS: s.exitS });
+    stepsOf.set(s.runId, list);
+  }
+  const base = layoutToPlan(rows, {
+    clock: { ratio: rows.session.clockRatio, fastStart: rows.session.fastStart },
+    rules: { headwayS: rows.session.headwayS, surgeS: rows.session.surgeS, derate: rows.session.derate },
+    operators: rows.operators,
+  });
+  return {
+    ...base,
+    runs: rows.runs.map((r) => ({
+      id: r.id,
+      trainId: r.trainId,
+      cabId: r.cabId,
+      operatorId: r.operatorId,
+      departS: r.departS,
+      arriveS: r.arriveS,
+      steps: stepsOf.get(r.id) ?? [],
+    })),
+  };
+}
