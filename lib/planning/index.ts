@@ -1,0 +1,58 @@
+export {
+  planSchema,
+  scaleSchema,
+  clockSchema,
+  rulesSchema,
+  supplySchema,
+  driverSchema,
+  cabSchema,
+  blockSchema,
+  linkSchema,
+  locoSchema,
+  trainSchema,
+  operatorSchema,
+  runSchema,
+  stepSchema,
+  formatPlanIssues,
+  formatIssuePath,
+  HH_MM_PATTERN,
+} from './schema';
+export type {
+  Plan,
+  Scale,
+  FastClock,
+  Rules,
+  Supply,
+  Driver,
+  Cab,
+  Block,
+  Link,
+  Loco,
+  Train,
+  Operator,
+  Run,
+  Step,
+} from './schema';
+export { checkPlan } from './check';
+export type { PlanCheck } from './check';
+export { FINDING_KINDS, compareFindings } from './finding';
+export type { Finding, FindingKind } from './finding';
+export { buildLoadProfile, runCurrents } from './load';
+export type { LoadPoint, LoadSeries, LoadProfile } from './load';
+export { nominalTrackVolts, trackVoltsOf } from './voltage';
+export { suggestRetime, applyRetime } from './retime';
+export type { Retime, RetimeOptions } from './retime';
+export { timeRun, modelSpeedMmPerS } from './timing';
+export type { TimeRunInput, TimedRun } from './timing';
+export { findRoute } from './route';
+export type { TrackGraph } from './route';
+export { dutyFor } from './duty';
+export type { DutyInput, DutyResult } from './duty';
+export { realToFast, fastToReal, formatFast, parseFastTime, formatTimeOfDay, formatSessionTime } from './clock';
+export { SCALES, findScale, gaugeForScale } from './scales';
+export type { ScaleEntry } from './scales';
+export { DRIVER_PRESETS, findDriverPreset, driverFromPreset } from './presets';
+export type { DriverPreset } from './presets';
+export { defaultRules, AMPS_TOLERANCE, VOLTS_TOLERANCE } from './rules';
+export { indexPlan } from './plan-index';
+export type { PlanIndex } from './plan-index';

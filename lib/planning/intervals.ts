@@ -1,0 +1,142 @@
+/**
+ * Calls `visit(earlier, later)` once for every pair of half-open intervals `[start, end)` that
+ * overlap, given the interval indices in `order` sorted by start. A sweep with an active list: an
+ * interval stays active while it ends after the current start, so the work is O(n + pairs) after the
+ * sort. Overlap here is exactly `a.start < b.end && b.start < a.end` in floating point: when b starts
+ * no earlier than a and `b.start < a.end`, then `a.start <= b.start < b.end`.
+ */
+export function forEachOverlap(
+  order: ArrayLike<number>,
+  start: ArrayLike<number>,
+  end: ArrayLike<number>,
+  visit: (earlier: number, later: number) => void,
+): void {
+  const active: number[] = [];
+  for (let k = 0; k < order.length; k++) {
+    const current = order[k]!;
+    const from = start[current]!;
+    let kept = 0;
+    for (let i = 0; i < active.length; i++) {
+      const other = active[i]!;
+      if (end[other]! > from) active[kept++] = other;
+    }
+    active.length = kept;
+    for (let i = 0; i < kept; i++) visit(active[i]!, current);
+    active.push(current);
+  }
+}
+
+/**
+ * Sorts `items` (indices) in place by `key[i]`, ties by index; returns it. Sorting plain number
+ * arrays with a comparator is the fastest general sort V8 offers for keyed indices.
+ */
+export function sortByKey<T extends number[]>(items: T, key: ArrayLike<number>): T {
+  return items.sort((a, b) => key[a]! - key[b]! || a - b);
+}
+
+/**
+ * Groups indices 0..n-1 by a group number (counting sort, stable), so each group keeps the order the
+ * indices had. Returns the concatenated indices and where each group starts.
+ */
+export function groupBy(groupOf: ArrayLike<number>, groups: number): { items: Int32Array; offsets: Int32Array } {
+  const offsets = new Int32Array(groups + 1);
+  for (let i = 0; i < groupOf.length; i++) {
+    const g = groupOf[i]!;
+    if (g >= 0) offsets[g + 1]!++;
+  }
+  for (let g = 0; g < groups; g++) offsets[g + 1]! += offsets[g]!;
+  const fill = offsets.slice(0, groups);
+  let total = 0;
+  for (let i = 0; i < groupOf.length; i++) if (groupOf[i]! >= 0) total++;
+  const items = new Int32Array(total);
+  for (let i = 0; i < groupOf.length; i++) {
+    const g = groupOf[i]!;
+    if (g >= 0) items[fill[g]!++] = i;
+  }
+  return { items, offsets };
+}
+
+const scratch = new Float64Array(1);
+const scratchBits = new BigInt64Array(scratch.buffer);
+
+/** The next double above x (x finite). */
+export function nextUp(x: number): number {
+  if (x === 0) return Number.MIN_VALUE;
+  scratch[0] = x;
+  scratchBits[0] = x > 0 ? scratchBits[0]! + 1n : scratchBits[0]! - 1n;
+  return scratch[0]!;
+}
+
+/**
+ * The smallest shift d, no smaller than target − base, with `base + d >= target` in floating point,
+ * so that a time moved by d is certain to reach the target when a checker adds them up again.
+ */
+export function shiftReaching(base: number, target: number): number {
+  let shift = target - base;
+  // The difference is off by at most a rounding or two; a few single steps settle it, and when the
+  // shift is far smaller than the times, steps scaled to the times' own precision finish the job.
+  for (let i = 0; i < 4 && base + shift < target && Number.isFinite(shift); i++) shift = nextUp(shift);
+  let step = Number.EPSILON * Math.max(Math.abs(base), Math.abs(target));
+  while (base + shift < target && Number.isFinite(shift)) {
+    shift += step;
+    step *= 2;
+  }
+  return shift;
+}
+
+/**
+ * Half-open intervals kept sorted, disjoint and merged where they touch or overlap: the occupied
+ * time of one block, cab or operator among runs already placed by the retimer. Because placed runs
+ * never clash with each other, merging loses nothing: a window overlaps the union exactly when it
+ * overlaps one of the members.
+ */
+export class IntervalUnion {
+  private readonly starts: number[] = [];
+  private readonly ends: number[] = [];
+
+  /**
+   * The latest end among intervals overlapping `[from, to)`, or -Infinity when none does. Sorted
+   * and disjoint, the last interval starting before `to` is the only one to look at.
+   */
+  overlapEnd(from: number, to: number): number {
+    const starts = this.starts;
+    let lo = 0;
+    let hi = starts.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (starts[mid]! < to) lo = mid + 1;
+      else hi = mid;
+    }
+    if (lo === 0) return -Infinity;
+    const end = this.ends[lo - 1]!;
+    return end > from ? end : -Infinity;
+  }
+
+  /** Adds `[from, to)`, merging with any interval it touches or overlaps. */
+  add(from: number, to: number): void {
+    const { starts, ends } = this;
+    // First interval that ends at or after `from` (ends are sorted too: the intervals are disjoint).
+    let lo = 0;
+    let hi = ends.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (ends[mid]! < from) lo = mid + 1;
+      else hi = mid;
+    }
+    let last = lo;
+    let start = from;
+    let end = to;
+    while (last < starts.length && starts[last]! <= to) {
+      if (starts[last]! < start) start = starts[last]!;
+      if (ends[last]! > end) end = ends[last]!;
+      last++;
+    }
+    if (last === lo) {
+      starts.splice(lo, 0, start);
+      ends.splice(lo, 0, end);
+    } else {
+      starts.splice(lo, last - lo, start);
+      ends.splice(lo, last - lo, end);
+    }
+  }
+}

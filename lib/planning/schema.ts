@@ -1,0 +1,249 @@
+import { z } from 'zod';
+
+/** Fast-clock time of day, two-digit hours and minutes. */
+export const HH_MM_PATTERN = /^([01]\d|2[0-3]):([0-5]\d)$/;
+
+const id = z.string().min(1, 'must not be empty');
+const name = z.string();
+const positive = z.number().positive('must be greater than 0');
+const nonNegative = z.number().min(0, 'must be 0 or more');
+// zod 4 numbers are finite by default, so times can never be Infinity or NaN.
+const seconds = z.number();
+
+export const scaleSchema = z.object({ name, ratio: positive });
+
+export const clockSchema = z.object({
+  ratio: z.number().min(1, 'must be 1 or more'),
+  fastStart: z.string().regex(HH_MM_PATTERN, 'must be a time of day written HH:MM'),
+});
+
+export const rulesSchema = z.object({
+  headwayS: nonNegative,
+  surgeS: nonNegative,
+  derate: z.number().gt(0, 'must be greater than 0').max(1, 'must be 1 or less'),
+});
+
+export const supplySchema = z.object({ id, name, volts: positive, amps: positive });
+
+export const driverSchema = z.object({
+  id,
+  name,
+  supplyId: id,
+  channels: z.number().int('must be a whole number').min(1, 'must be 1 or more'),
+  channelAmps: positive,
+  channelPeakAmps: positive,
+  totalAmps: positive.nullable(),
+  dropVolts: nonNegative,
+});
+
+export const cabSchema = z.object({
+  id,
+  name,
+  driverId: id,
+  channel: z.number().int('must be a whole number').min(1, 'must be 1 or more'),
+});
+
+export const blockSchema = z.object({ id, name, lengthMm: positive });
+
+export const linkSchema = z.object({ a: id, b: id });
+
+export const locoSchema = z.object({
+  id,
+  name,
+  runningAmps: nonNegative,
+  stallAmps: nonNegative,
+  ratedVolts: positive,
+});
+
+export const trainSchema = z.object({
+  id,
+  name,
+  locoIds: z.array(id).min(1, 'a train needs at least one loco'),
+  lightingAmps: nonNegative,
+  lengthMm: positive,
+});
+
+export const operatorSchema = z.object({ id, name });
+
+export const stepSchema = z.object({ blockId: id, enterS: seconds, exitS: seconds });
+
+export const runSchema = z.object({
+  id,
+  trainId: id,
+  cabId: id,
+  operatorId: id.nullable(),
+  departS: seconds,
+  arriveS: seconds,
+  steps: z.array(stepSchema).min(1, 'a run needs at least one step'),
+});
+
+const planShape = z.object({
+  version: z.literal(1),
+  scale: scaleSchema,
+  clock: clockSchema,
+  rules: rulesSchema,
+  supplies: z.array(supplySchema),
+  drivers: z.array(driverSchema),
+  cabs: z.array(cabSchema),
+  blocks: z.array(blockSchema),
+  links: z.array(linkSchema),
+  locos: z.array(locoSchema),
+  trains: z.array(trainSchema),
+  operators: z.array(operatorSchema),
+  runs: z.array(runSchema),
+});
+
+type PlanShape = z.infer<typeof planShape>;
+type IssuePath = (string | number)[];
+
+/**
+ * The plan interchange, version 1. The object shape checks each field on its own; the refinement
+ * checks what needs the whole plan: unique ids, references that resolve, channel numbers, and the
+ * time order inside each run.
+ */
+export const planSchema = planShape.superRefine((plan, ctx) => {
+  const report = (path: IssuePath, message: string) => ctx.addIssue({ code: 'custom', path, message });
+  checkPlanReferences(plan, report);
+});
+
+export type Plan = z.infer<typeof planSchema>;
+export type Scale = Plan['scale'];
+export type FastClock = Plan['clock'];
+export type Rules = Plan['rules'];
+export type Supply = Plan['supplies'][number];
+export type Driver = Plan['drivers'][number];
+export type Cab = Plan['cabs'][number];
+export type Block = Plan['blocks'][number];
+export type Link = Plan['links'][number];
+export type Loco = Plan['locos'][number];
+export type Train = Plan['trains'][number];
+export type Operator = Plan['operators'][number];
+export type Run = Plan['runs'][number];
+export type Step = Run['steps'][number];
+
+function indexIds(
+  list: readonly { id: string }[],
+  listName: string,
+  noun: string,
+  report: (path: IssuePath, message: string) => void,
+): Map<string, number> {
+  const index = new Map<string, number>();
+  list.forEach((item, i) => {
+    const first = index.get(item.id);
+    if (first === undefined) index.set(item.id, i);
+    else report([listName, i, 'id'], `duplicate ${noun} id "${item.id}" (also ${listName}[${first}])`);
+  });
+  return index;
+}
+
+function checkPlanReferences(plan: PlanShape, report: (path: IssuePath, message: string) => void): void {
+  const supplies = indexIds(plan.supplies, 'supplies', 'supply', report);
+  const drivers = indexIds(plan.drivers, 'drivers', 'driver', report);
+  const cabs = indexIds(plan.cabs, 'cabs', 'cab', report);
+  const blocks = indexIds(plan.blocks, 'blocks', 'block', report);
+  const locos = indexIds(plan.locos, 'locos', 'loco', report);
+  const trains = indexIds(plan.trains, 'trains', 'train', report);
+  const operators = indexIds(plan.operators, 'operators', 'operator', report);
+  indexIds(plan.runs, 'runs', 'run', report);
+
+  plan.drivers.forEach((driver, i) => {
+    if (!supplies.has(driver.supplyId)) report(['drivers', i, 'supplyId'], `unknown supply "${driver.supplyId}"`);
+  });
+
+  const channelTaken = new Map<string, string>();
+  plan.cabs.forEach((cab, i) => {
+    const driverIndex = drivers.get(cab.driverId);
+    if (driverIndex === undefined) {
+      report(['cabs', i, 'driverId'], `unknown driver "${cab.driverId}"`);
+      return;
+    }
+    const driver = plan.drivers[driverIndex]!;
+    if (cab.channel > driver.channels) {
+      report(['cabs', i, 'channel'], `channel ${cab.channel} is outside 1..${driver.channels} of driver "${driver.id}"`);
+      return;
+    }
+    // A NUL separator cannot occur in a JSON-typed id without being escaped, so keys cannot collide.
+    const key = `${cab.driverId}\u0000${cab.channel}`;
+    const holder = channelTaken.get(key);
+    if (holder !== undefined) {
+      report(['cabs', i, 'channel'], `channel ${cab.channel} of driver "${cab.driverId}" is already cab "${holder}"`);
+    } else {
+      channelTaken.set(key, cab.id);
+    }
+  });
+
+  plan.links.forEach((link, i) => {
+    if (!blocks.has(link.a)) report(['links', i, 'a'], `unknown block "${link.a}"`);
+    if (!blocks.has(link.b)) report(['links', i, 'b'], `unknown block "${link.b}"`);
+  });
+
+  plan.trains.forEach((train, i) => {
+    const seen = new Set<string>();
+    train.locoIds.forEach((locoId, j) => {
+      if (!locos.has(locoId)) report(['trains', i, 'locoIds', j], `unknown loco "${locoId}"`);
+      // One loco cannot be coupled into the same consist twice; counting it twice would double its current.
+      else if (seen.has(locoId)) report(['trains', i, 'locoIds', j], `loco "${locoId}" is already in this train`);
+      seen.add(locoId);
+    });
+  });
+
+  plan.runs.forEach((run, i) => {
+    if (!trains.has(run.trainId)) report(['runs', i, 'trainId'], `unknown train "${run.trainId}"`);
+    if (!cabs.has(run.cabId)) report(['runs', i, 'cabId'], `unknown cab "${run.cabId}"`);
+    if (run.operatorId !== null && !operators.has(run.operatorId)) {
+      report(['runs', i, 'operatorId'], `unknown operator "${run.operatorId}"`);
+    }
+    if (!(run.departS < run.arriveS)) {
+      report(['runs', i, 'arriveS'], `arriveS ${run.arriveS} must be after departS ${run.departS}`);
+    }
+    run.steps.forEach((step, j) => {
+      if (!blocks.has(step.blockId)) report(['runs', i, 'steps', j, 'blockId'], `unknown block "${step.blockId}"`);
+      if (!(step.enterS < step.exitS)) {
+        report(['runs', i, 'steps', j, 'exitS'], `exitS ${step.exitS} must be after enterS ${step.enterS}`);
+      }
+      const previous = run.steps[j - 1];
+      if (previous !== undefined && step.enterS < previous.enterS) {
+        report(
+          ['runs', i, 'steps', j, 'enterS'],
+          `steps must be sorted by enterS: ${step.enterS} comes after ${previous.enterS}`,
+        );
+      }
+    });
+    const first = run.steps[0];
+    const last = run.steps[run.steps.length - 1];
+    if (first !== undefined && first.enterS > run.departS) {
+      report(
+        ['runs', i, 'steps', 0, 'enterS'],
+        `the first step must begin no later than departS ${run.departS}, not at ${first.enterS}`,
+      );
+    }
+    if (last !== undefined && last.exitS < run.arriveS) {
+      report(
+        ['runs', i, 'steps', run.steps.length - 1, 'exitS'],
+        `the last step must end no earlier than arriveS ${run.arriveS}, not at ${last.exitS}`,
+      );
+    }
+  });
+}
+
+/** Writes a zod issue path the way a reader finds the field: `runs[3].steps[0].blockId`. */
+export function formatIssuePath(path: readonly PropertyKey[]): string {
+  let text = '';
+  for (const key of path) {
+    if (typeof key === 'number') text += `[${key}]`;
+    else if (typeof key === 'string') text += text === '' ? key : `.${key}`;
+    else text += `[${String(key)}]`;
+  }
+  return text;
+}
+
+/**
+ * One line per issue, `path: message`, for example `runs[3].cabId: unknown cab "c9"`. Issues on the
+ * plan as a whole (an empty path) are written as the message alone.
+ */
+export function formatPlanIssues(error: { issues: readonly { path: readonly PropertyKey[]; message: string }[] }): string[] {
+  return error.issues.map((issue) => {
+    const path = formatIssuePath(issue.path);
+    return path === '' ? issue.message : `${path}: ${issue.message}`;
+  });
+}
