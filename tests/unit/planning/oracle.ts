@@ -1,0 +1,257 @@
+/**
+ * Brute-force versions of the plan check and the baseline retimer, written for clarity rather
+ * than speed: every pair of steps, every pair of runs, every breakpoint of the session.
+ */
+import type { Plan } from '@/lib/planning';
+
+export interface OracleFinding {
+  kind: string;
+  severity: 'error' | 'warning';
+  ids: string[];
+  fromS?: number;
+  toS?: number;
+  peakAmps?: number;
+  limitAmps?: number;
+}
+
+const TOL = 1e-9;
+const pair = (a: string, b: string) => (a < b ? [a, b] : [b, a]);
+const movementsOverlap = (a: Plan['runs'][number], b: Plan['runs'][number]) => a.departS < b.arriveS && b.departS < a.arriveS;
+
+export function oracleClashes(plan: Plan): OracleFinding[] {
+  const out: OracleFinding[] = [];
+  const h = plan.rules.headwayS;
+  const runs = plan.runs;
+  const blockPairs = new Set<string>();
+  for (let i = 0; i < runs.length; i++) {
+    for (let j = i + 1; j < runs.length; j++) {
+      const a = runs[i]!;
+      const b = runs[j]!;
+      for (const sa of a.steps) {
+        for (const sb of b.steps) {
+          if (sa.blockId !== sb.blockId) continue;
+          if (sa.enterS < sb.exitS + h && sb.enterS < sa.exitS + h) blockPairs.add([sa.blockId, ...pair(a.id, b.id)].join('|'));
+        }
+      }
+      if (!movementsOverlap(a, b)) continue;
+      if (a.cabId === b.cabId) out.push({ kind: 'cab-double-booked', severity: 'error', ids: [a.cabId, ...pair(a.id, b.id)] });
+      if (a.operatorId !== null && a.operatorId === b.operatorId) {
+        out.push({ kind: 'operator-double-booked', severity: 'error', ids: [a.operatorId, ...pair(a.id, b.id)] });
+      }
+      if (a.trainId === b.trainId) out.push({ kind: 'train-double-booked', severity: 'error', ids: [a.trainId, ...pair(a.id, b.id)] });
+    }
+  }
+  for (const key of blockPairs) out.push({ kind: 'block-overlap', severity: 'error', ids: key.split('|') });
+  return out;
+}
+
+export function oracleContinuityAndRoutes(plan: Plan): OracleFinding[] {
+  const out: OracleFinding[] = [];
+  for (const train of plan.trains) {
+    const own = plan.runs
+      .filter((run) => run.trainId === train.id)
+      .sort((a, b) => a.departS - b.departS || (a.id < b.id ? -1 : 1));
+    for (let i = 1; i < own.length; i++) {
+      const earlier = own[i - 1]!;
+      const later = own[i]!;
+      if (earlier.steps.at(-1)!.blockId !== later.steps[0]!.blockId) {
+        out.push({ kind: 'train-continuity', severity: 'warning', ids: [train.id, earlier.id, later.id] });
+      }
+    }
+  }
+  for (const run of plan.runs) {
+    for (let i = 1; i < run.steps.length; i++) {
+      const a = run.steps[i - 1]!.blockId;
+      const b = run.steps[i]!.blockId;
+      const linked = plan.links.some((l) => (l.a === a && l.b === b) || (l.a === b && l.b === a));
+      if (a !== b && !linked) out.push({ kind: 'route-gap', severity: 'error', ids: [run.id, a, b] });
+    }
+    const train = plan.trains.find((t) => t.id === run.trainId)!;
+    const stands = new Set([run.steps[0]!.blockId, run.steps.at(-1)!.blockId]);
+    for (const blockId of stands) {
+      const block = plan.blocks.find((b) => b.id === blockId)!;
+      if (block.lengthMm < train.lengthMm) out.push({ kind: 'train-too-long', severity: 'warning', ids: [run.id, blockId] });
+    }
+  }
+  return out;
+}
+
+export function runAmps(plan: Plan, run: Plan['runs'][number]): { running: number; stall: number } {
+  const train = plan.trains.find((t) => t.id === run.trainId)!;
+  let running = train.lightingAmps;
+  let stall = train.lightingAmps;
+  for (const id of train.locoIds) {
+    const loco = plan.locos.find((l) => l.id === id)!;
+    running += loco.runningAmps;
+    stall += loco.stallAmps;
+  }
+  return { running, stall };
+}
+
+/** Every time at which some load can change, sorted, without repeats. */
+export function breakpoints(plan: Plan): number[] {
+  const times = new Set<number>();
+  for (const run of plan.runs) {
+    times.add(run.departS);
+    times.add(run.arriveS);
+    if (run.departS + plan.rules.surgeS < run.arriveS) times.add(run.departS + plan.rules.surgeS);
+  }
+  return [...times].sort((a, b) => a - b);
+}
+
+/** Load at time t, summed directly over the runs that pass the filter. */
+export function loadAt(plan: Plan, t: number, counts: (run: Plan['runs'][number]) => boolean): { running: number; peak: number } {
+  let running = 0;
+  let peak = 0;
+  for (const run of plan.runs) {
+    if (!counts(run) || !(run.departS <= t && t < run.arriveS)) continue;
+    const amps = runAmps(plan, run);
+    running += amps.running;
+    peak += t < run.departS + plan.rules.surgeS ? amps.stall : amps.running;
+  }
+  return { running, peak };
+}
+
+export function cabOwner(plan: Plan) {
+  const driverOfCab = (cabId: string) => plan.drivers.find((d) => d.id === plan.cabs.find((c) => c.id === cabId)!.driverId)!;
+  return {
+    cab: (cabId: string) => (run: Plan['runs'][number]) => run.cabId === cabId,
+    driver: (driverId: string) => (run: Plan['runs'][number]) => driverOfCab(run.cabId).id === driverId,
+    supply: (supplyId: string) => (run: Plan['runs'][number]) => driverOfCab(run.cabId).supplyId === supplyId,
+  };
+}
+
+export function oraclePower(plan: Plan): OracleFinding[] {
+  const times = breakpoints(plan);
+  const owner = cabOwner(plan);
+  const out: OracleFinding[] = [];
+  const scan = (kind: string, severity: 'error' | 'warning', id: string, counts: (run: Plan['runs'][number]) => boolean, which: 'running' | 'peak', limit: number | null) => {
+    if (limit === null) return;
+    let open: OracleFinding | null = null;
+    for (let i = 0; i + 1 < times.length; i++) {
+      const load = loadAt(plan, times[i]!, counts)[which];
+      if (load > limit + TOL) {
+        if (open === null) open = { kind, severity, ids: [id], fromS: times[i]!, toS: times[i + 1]!, peakAmps: load, limitAmps: limit };
+        else {
+          open.toS = times[i + 1]!;
+          open.peakAmps = Math.max(open.peakAmps!, load);
+        }
+      } else if (open !== null) {
+        out.push(open);
+        open = null;
+      }
+    }
+    if (open !== null) out.push(open);
+  };
+  for (const cab of plan.cabs) {
+    const driver = plan.drivers.find((d) => d.id === cab.driverId)!;
+    scan('channel-overload', 'error', cab.id, owner.cab(cab.id), 'running', driver.channelAmps);
+    scan('channel-peak-overload', 'error', cab.id, owner.cab(cab.id), 'peak', driver.channelPeakAmps);
+  }
+  for (const driver of plan.drivers) scan('driver-overload', 'error', driver.id, owner.driver(driver.id), 'peak', driver.totalAmps);
+  for (const supply of plan.supplies) {
+    scan('supply-overload', 'error', supply.id, owner.supply(supply.id), 'peak', supply.amps);
+    scan('supply-derate', 'warning', supply.id, owner.supply(supply.id), 'running', supply.amps * plan.rules.derate);
+  }
+  return out;
+}
+
+/**
+ * Voltage: full-throttle track volts = supply − drop. High: above a loco's rating, per cab and
+ * loco. Low: below NEM 630 Table 1's nominal for the scale's gauge (8 / 12 / 16 V), per cab with runs.
+ */
+export function oracleVoltage(plan: Plan, gaugeMm: number | null): OracleFinding[] {
+  const out: OracleFinding[] = [];
+  const nominal = gaugeMm === null ? null : gaugeMm <= 6.5 ? 8 : gaugeMm < 32 ? 12 : 16;
+  for (const cab of plan.cabs) {
+    const driver = plan.drivers.find((d) => d.id === cab.driverId)!;
+    const supply = plan.supplies.find((s) => s.id === driver.supplyId)!;
+    const track = supply.volts - driver.dropVolts;
+    const runs = plan.runs.filter((run) => run.cabId === cab.id);
+    if (runs.length === 0) continue;
+    for (const loco of plan.locos) {
+      const on = runs.filter((run) => plan.trains.find((t) => t.id === run.trainId)!.locoIds.includes(loco.id));
+      if (on.length > 0 && track > loco.ratedVolts + TOL) {
+        out.push({
+          kind: 'track-voltage-high',
+          severity: 'warning',
+          ids: [cab.id, loco.id],
+          fromS: Math.min(...on.map((r) => r.departS)),
+          toS: Math.max(...on.map((r) => r.arriveS)),
+        });
+      }
+    }
+    if (nominal !== null && track < nominal - TOL) {
+      out.push({
+        kind: 'track-voltage-low',
+        severity: 'warning',
+        ids: [cab.id],
+        fromS: Math.min(...runs.map((r) => r.departS)),
+        toS: Math.max(...runs.map((r) => r.arriveS)),
+      });
+    }
+  }
+  return out;
+}
+
+/** The shifted copy of a plan, written out independently of the engine's applyRetime. */
+export function shiftRuns(plan: Plan, delays: readonly { runId: string; delayS: number }[]): Plan {
+  const delayOf = new Map(delays.map((d) => [d.runId, d.delayS]));
+  return {
+    ...plan,
+    runs: plan.runs.map((run) => {
+      const d = delayOf.get(run.id) ?? 0;
+      return {
+        ...run,
+        departS: run.departS + d,
+        arriveS: run.arriveS + d,
+        steps: run.steps.map((s) => ({ ...s, enterS: s.enterS + d, exitS: s.exitS + d })),
+      };
+    }),
+  };
+}
+
+/** Do two (shifted) runs clash in a way the retimer must clear? */
+function clash(plan: Plan, a: Plan['runs'][number], b: Plan['runs'][number]): boolean {
+  const h = plan.rules.headwayS;
+  if (movementsOverlap(a, b)) {
+    if (a.cabId === b.cabId || a.trainId === b.trainId) return true;
+    if (a.operatorId !== null && a.operatorId === b.operatorId) return true;
+  }
+  return a.steps.some((sa) => b.steps.some((sb) => sa.blockId === sb.blockId && sa.enterS < sb.exitS + h && sb.enterS < sa.exitS + h));
+}
+
+/**
+ * The baseline of the issue, done the obvious way: runs by departS (ties by id), each given the
+ * smallest delay at which it clashes with none placed and leaves after its train's placed runs
+ * arrive. The smallest delay is either the lower bound or a point where some clash just ends, so
+ * those are the only candidates to try.
+ */
+export function oracleBaselineTotal(plan: Plan): number {
+  const order = [...plan.runs].sort((a, b) => a.departS - b.departS || (a.id < b.id ? -1 : 1));
+  const h = plan.rules.headwayS;
+  const placed: Plan['runs'][number][] = [];
+  let total = 0;
+  for (const run of order) {
+    let low = 0;
+    for (const p of placed) if (p.trainId === run.trainId) low = Math.max(low, p.arriveS - run.departS);
+    const candidates = [low];
+    for (const p of placed) {
+      candidates.push(p.arriveS - run.departS);
+      for (const sp of p.steps) for (const s of run.steps) if (sp.blockId === s.blockId) candidates.push(sp.exitS + h - s.enterS);
+    }
+    const shift = (d: number) => shiftRuns({ ...plan, runs: [run] }, [{ runId: run.id, delayS: d }]).runs[0]!;
+    let chosen = Infinity;
+    for (const d of candidates.filter((c) => c >= low).sort((a, b) => a - b)) {
+      const moved = shift(d);
+      const trainFree = placed.every((p) => p.trainId !== run.trainId || moved.departS >= p.arriveS);
+      if (trainFree && placed.every((p) => !clash(plan, moved, p))) {
+        chosen = d;
+        break;
+      }
+    }
+    total += chosen;
+    placed.push(shift(chosen));
+  }
+  return total;
+}
