@@ -221,6 +221,22 @@ function clash(plan: Plan, a: Plan['runs'][number], b: Plan['runs'][number]): bo
   return a.steps.some((sa) => b.steps.some((sb) => sa.blockId === sb.blockId && sa.enterS < sb.exitS + h && sb.enterS < sa.exitS + h));
 }
 
+/** The next double above x, by its bit pattern. */
+function nextUp(x: number): number {
+  if (x === 0) return Number.MIN_VALUE;
+  const view = new DataView(new ArrayBuffer(8));
+  view.setFloat64(0, x);
+  view.setBigInt64(0, view.getBigInt64(0) + (x > 0 ? 1n : -1n));
+  return view.getFloat64(0);
+}
+
+/** Smallest shift d with base + d >= target as the computer adds them (one bump at a time). */
+function reach(base: number, target: number): number {
+  let d = target - base;
+  while (base + d < target) d = nextUp(d);
+  return d;
+}
+
 /**
  * The baseline of the issue, done the obvious way: runs by departS (ties by id), each given the
  * smallest delay at which it clashes with none placed and leaves after its train's placed runs
@@ -234,11 +250,11 @@ export function oracleBaselineTotal(plan: Plan): number {
   let total = 0;
   for (const run of order) {
     let low = 0;
-    for (const p of placed) if (p.trainId === run.trainId) low = Math.max(low, p.arriveS - run.departS);
+    for (const p of placed) if (p.trainId === run.trainId) low = Math.max(low, reach(run.departS, p.arriveS));
     const candidates = [low];
     for (const p of placed) {
-      candidates.push(p.arriveS - run.departS);
-      for (const sp of p.steps) for (const s of run.steps) if (sp.blockId === s.blockId) candidates.push(sp.exitS + h - s.enterS);
+      candidates.push(reach(run.departS, p.arriveS));
+      for (const sp of p.steps) for (const s of run.steps) if (sp.blockId === s.blockId) candidates.push(reach(s.enterS, sp.exitS + h));
     }
     const shift = (d: number) => shiftRuns({ ...plan, runs: [run] }, [{ runId: run.id, delayS: d }]).runs[0]!;
     let chosen = Infinity;
