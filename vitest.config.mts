@@ -1,7 +1,11 @@
+import { fileURLToPath } from 'node:url';
 import { defineConfig } from 'vitest/config';
 
 export default defineConfig({
-  resolve: { tsconfigPaths: true },
+  resolve: {
+    tsconfigPaths: true,
+    alias: { 'server-only': fileURLToPath(new URL('./tests/stubs/empty.ts', import.meta.url)) },
+  },
   test: {
     projects: [
       {

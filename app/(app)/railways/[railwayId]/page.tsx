@@ -46,7 +46,7 @@ export default async function RailwayDashboard({ params }: { params: Promise<{ r
         ) : (
           <ul className="divide-y divide-line" data-testid="upcoming-sessions">
             {sessions.map((s) => (
-              <li key={s.id} className="flex flex-col gap-1 py-3 sm:flex-row sm:items-center sm:justify-between">
+              <li key={s.id} className="flex flex-col items-start gap-1 py-3 sm:flex-row sm:items-center sm:justify-between">
                 <div>
                   <p className="font-semibold">{s.title}</p>
                   <p className="text-sm text-muted">

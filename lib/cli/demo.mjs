@@ -1,0 +1,37 @@
+// npm run demo — Fishplate with the demo railway on SQLite and the local mail catcher, on a fresh
+// machine: applies migrations, seeds the demo railway into an empty database, builds once, starts.
+import { spawnSync, spawn } from 'node:child_process';
+import crypto from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+
+const port = process.env.PORT ?? '3000';
+const secretFile = path.join('data', '.demo-secret');
+fs.mkdirSync('data', { recursive: true });
+if (!process.env.NEXTAUTH_SECRET && !fs.existsSync(secretFile)) {
+  fs.writeFileSync(secretFile, crypto.randomBytes(32).toString('base64url'), { mode: 0o600 });
+}
+const env = {
+  ...process.env,
+  DATABASE_URL: process.env.DATABASE_URL ?? 'data/fishplate.db',
+  NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? fs.readFileSync(secretFile, 'utf8').trim(),
+  NEXTAUTH_URL: process.env.NEXTAUTH_URL ?? `http://localhost:${port}`,
+  PORT: port,
+  FISHPLATE_DEMO: '1',
+  NEXT_TELEMETRY_DISABLED: '1',
+};
+
+function step(command, args) {
+  const status = spawnSync(command, args, { stdio: 'inherit', env }).status;
+  if (status !== 0) process.exit(status ?? 1);
+}
+
+step('npx', ['tsx', 'lib/cli/seed.ts']);
+if (!fs.existsSync('.next/BUILD_ID') || process.env.FISHPLATE_REBUILD === '1') {
+  console.log('Building Fishplate once (about a minute)…');
+  step('npx', ['next', 'build']);
+}
+console.log(`\nFishplate: ${env.NEXTAUTH_URL}  — sign in as host@, planner@ or operator@fishplate.example, password "demo-railway"\n`);
+const server = spawn('npx', ['next', 'start', '-p', port], { stdio: 'inherit', env });
+for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => server.kill(signal));
+server.on('exit', (code) => process.exit(code ?? 0));

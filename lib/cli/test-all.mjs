@@ -1,0 +1,61 @@
+// npm test — every suite: Vitest (unit + integration), the production build, then Playwright in
+// Chromium. Ends with one line "N passed, N failed" over all of them.
+import { spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+
+const env = { ...process.env, NEXT_TELEMETRY_DISABLED: '1' };
+fs.mkdirSync('test-results', { recursive: true });
+
+function run(command, args) {
+  console.log(`\n$ ${command} ${args.join(' ')}`);
+  return spawnSync(command, args, { stdio: 'inherit', env }).status ?? 1;
+}
+
+function readJson(file) {
+  try {
+    return JSON.parse(fs.readFileSync(file, 'utf8'));
+  } catch {
+    return null;
+  }
+}
+
+// Browser tests drive Debian's Chromium. On a fresh machine (where we are root) install it.
+const chromium = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+if (!fs.existsSync(chromium)) {
+  if (process.getuid?.() === 0) {
+    run('apt-get', ['update', '-qq']);
+    run('apt-get', ['install', '-y', '-qq', 'chromium']);
+  }
+  if (!fs.existsSync(chromium)) {
+    console.error(`Chromium is missing at ${chromium}: run "sudo apt-get install -y chromium" or set CHROMIUM_PATH.`);
+  }
+}
+
+let passed = 0;
+let failed = 0;
+
+fs.rmSync('test-results/vitest.json', { force: true });
+const vitestStatus = run('npx', ['vitest', 'run', '--reporter=default', '--reporter=json', '--outputFile.json=test-results/vitest.json']);
+const vitest = readJson('test-results/vitest.json');
+if (vitest) {
+  passed += vitest.numPassedTests;
+  failed += vitest.numFailedTests;
+}
+if (vitestStatus !== 0 && (!vitest || vitest.numFailedTests === 0)) failed += 1; // crashed before reporting
+
+const buildStatus = run('npx', ['next', 'build']);
+if (buildStatus !== 0) {
+  failed += 1;
+} else {
+  fs.rmSync('test-results/e2e-results.json', { force: true });
+  const e2eStatus = run('npx', ['playwright', 'test']);
+  const e2e = readJson('test-results/e2e-results.json');
+  if (e2e?.stats) {
+    passed += e2e.stats.expected + (e2e.stats.flaky ?? 0);
+    failed += e2e.stats.unexpected;
+  }
+  if (e2eStatus !== 0 && (!e2e?.stats || e2e.stats.unexpected === 0)) failed += 1;
+}
+
+console.log(`\n${passed} passed, ${failed} failed`);
+process.exit(failed === 0 && passed > 0 ? 0 : 1);

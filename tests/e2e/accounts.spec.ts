@@ -1,0 +1,62 @@
+import { DEMO, DEMO_PASSWORD, DEMO_RAILWAY, expect, screenshotBoth, test } from './fixtures';
+
+test('a newcomer signs up, starts a railway and lands on its overview', async ({ page }) => {
+  await page.goto('/');
+  await screenshotBoth(page, 'landing');
+  await page.getByRole('link', { name: 'Create an account' }).click();
+  await page.getByLabel('Your name').fill('Nell Tester');
+  await page.getByLabel('E-mail address').fill(`nell-${Date.now()}@test.example`);
+  await page.getByLabel('Password').fill('short');
+  await page.getByRole('button', { name: 'Create account' }).click();
+  await expect(page.getByText('Use at least 10 characters.')).toBeVisible();
+  await page.getByLabel('Password').fill('a long enough password');
+  await page.getByRole('button', { name: 'Create account' }).click();
+  await expect(page).toHaveURL(/\/railways$/);
+  await expect(page.getByText('You are not a member of any railway yet')).toBeVisible();
+  await screenshotBoth(page, 'railways-empty');
+  await page.getByLabel('Railway name').fill('Nell’s attic line');
+  await page.getByRole('button', { name: 'Create railway' }).click();
+  await expect(page.getByTestId('railway-name')).toHaveText('Nell’s attic line');
+  await expect(page.getByText('Host ·')).toBeVisible();
+});
+
+test('a wrong password is refused with a message', async ({ page, signInPage }) => {
+  await signInPage.goto();
+  await signInPage.signIn(DEMO.host, 'not-the-password');
+  await expect(page.getByText('do not match an account')).toBeVisible();
+  await expect(page).toHaveURL(/\/sign-in/);
+});
+
+test('a sign-in link arrives in the mail outbox and signs the operator in once', async ({ page, browser, signInPage, signInAs, railwayPage }) => {
+  await signInPage.goto();
+  await screenshotBoth(page, 'sign-in');
+  await signInPage.requestLink(DEMO.operator);
+
+  await signInAs('host');
+  await railwayPage.openFromList(DEMO_RAILWAY);
+  await railwayPage.openTab('Mail outbox');
+  const message = page.getByTestId('caught-mail').locator('li').filter({ hasText: 'Your Fishplate sign-in link' }).filter({ hasText: DEMO.operator });
+  await expect(async () => {
+    await page.reload();
+    await expect(message.first()).toBeVisible({ timeout: 1000 });
+  }).toPass({ timeout: 20_000 });
+  await message.first().locator('summary').click();
+  await screenshotBoth(page, 'mail-outbox');
+  const link = await message.first().getByRole('link', { name: /sign-in\/link\?token=/ }).getAttribute('href');
+  expect(link).toBeTruthy();
+
+  const fresh = await browser.newContext();
+  const operatorPage = await fresh.newPage();
+  await operatorPage.goto(link!);
+  await operatorPage.getByRole('button', { name: 'Sign in to Fishplate' }).click();
+  await expect(operatorPage).toHaveURL(/\/railways$/);
+  await expect(operatorPage.getByTestId('signed-in-as')).toHaveText('Juno Carraway');
+
+  // The link works once.
+  const again = await (await browser.newContext()).newPage();
+  await again.goto(link!);
+  await again.getByRole('button', { name: 'Sign in to Fishplate' }).click();
+  await expect(again.getByText('expired or was already used')).toBeVisible();
+  await fresh.close();
+  void DEMO_PASSWORD;
+});

@@ -1,0 +1,125 @@
+import { formData, makeWorld, type RoleKey } from './world';
+import { signInAs } from './caller';
+import type { ActionState } from '@/lib/errors';
+
+export type World = ReturnType<typeof makeWorld>;
+type Expect = Record<RoleKey, number>;
+
+export type AuthzCase = {
+  /** `path/to/file.ts#exportName`, relative to the project root. */
+  target: string;
+  /** Runs the target as the signed-in user of `role` in a fresh world and returns its status. */
+  call: (world: World) => Promise<number>;
+  expect: Expect;
+};
+
+/** An exempt target: said why, and tested elsewhere. */
+export type AuthzExemption = { target: string; why: string };
+
+/** A server action's result as an HTTP-like status (redirects count as 303). */
+export async function actionStatus(run: () => Promise<ActionState>): Promise<number> {
+  try {
+    const state = await run();
+    return state?.ok ? 200 : (state?.status ?? 500);
+  } catch (error) {
+    if (error && typeof error === 'object' && 'digest' in error && String(error.digest).startsWith('NEXT_REDIRECT')) {
+      return 303;
+    }
+    throw error;
+  }
+}
+
+const MEMBERS = 'app/(app)/railways/[railwayId]/members/actions.ts';
+const hostOnly: Expect = { anon: 401, outsider: 404, operator: 403, planner: 403, host: 200 };
+const signedIn: Expect = { anon: 401, outsider: 303, operator: 303, planner: 303, host: 303 };
+const everyone: Expect = { anon: 200, outsider: 200, operator: 200, planner: 200, host: 200 };
+
+export const AUTHZ_CASES: AuthzCase[] = [
+  {
+    target: 'app/api/health/route.ts#GET',
+    call: async () => (await (await import('@/app/api/health/route')).GET()).status,
+    expect: everyone,
+  },
+  {
+    target: 'app/(app)/railways/actions.ts#createRailway',
+    call: async () => {
+      const { createRailway } = await import('@/app/(app)/railways/actions');
+      return actionStatus(() => createRailway(null, formData({ name: 'New railway', timeZone: 'UTC' })));
+    },
+    expect: signedIn,
+  },
+  {
+    target: `${MEMBERS}#inviteMember`,
+    call: async (w) => {
+      const { inviteMember } = await import('@/app/(app)/railways/[railwayId]/members/actions');
+      return actionStatus(() => inviteMember(w.railway.id, null, formData({ email: 'new-member@test.example', role: 'operator' })));
+    },
+    expect: hostOnly,
+  },
+  {
+    target: `${MEMBERS}#changeMemberRole`,
+    call: async (w) => {
+      const { changeMemberRole } = await import('@/app/(app)/railways/[railwayId]/members/actions');
+      return actionStatus(() => changeMemberRole(w.railway.id, null, formData({ userId: w.operator.id, role: 'planner' })));
+    },
+    expect: hostOnly,
+  },
+  {
+    target: `${MEMBERS}#removeMember`,
+    call: async (w) => {
+      const { removeMember } = await import('@/app/(app)/railways/[railwayId]/members/actions');
+      return actionStatus(() => removeMember(w.railway.id, null, formData({ userId: w.operator.id })));
+    },
+    expect: hostOnly,
+  },
+  // Account actions are for people who are not signed in yet: every caller gets the same answer.
+  {
+    target: 'app/(auth)/sign-in/actions.ts#requestSignInLink',
+    call: async (w) => {
+      const { requestSignInLink } = await import('@/app/(auth)/sign-in/actions');
+      return actionStatus(() => requestSignInLink(null, formData({ email: w.operator.email })));
+    },
+    expect: everyone,
+  },
+  {
+    target: 'app/(auth)/sign-up/actions.ts#signUp',
+    call: async () => {
+      const { signUp } = await import('@/app/(auth)/sign-up/actions');
+      return actionStatus(() =>
+        signUp(null, formData({ name: 'Fresh', email: `fresh-${crypto.randomUUID()}@test.example`, password: 'long-enough-pass' })),
+      );
+    },
+    expect: everyone,
+  },
+  {
+    target: 'app/(auth)/reset-password/actions.ts#requestPasswordReset',
+    call: async (w) => {
+      const { requestPasswordReset } = await import('@/app/(auth)/reset-password/actions');
+      return actionStatus(() => requestPasswordReset(null, formData({ email: w.host.email })));
+    },
+    expect: everyone,
+  },
+  {
+    target: 'app/(auth)/reset-password/actions.ts#resetPassword',
+    call: async (w) => {
+      const { resetPassword } = await import('@/app/(auth)/reset-password/actions');
+      const { issueAuthToken } = await import('@/lib/tokens');
+      const token = issueAuthToken(w.operator.id, 'reset-password');
+      return actionStatus(() => resetPassword(null, formData({ token, password: 'another-long-pass', confirm: 'another-long-pass' })));
+    },
+    expect: everyone,
+  },
+];
+
+export const AUTHZ_EXEMPTIONS: AuthzExemption[] = [
+  {
+    target: 'app/api/auth/[...nextauth]/route.ts#GET',
+    why: 'next-auth’s own endpoints (sign-in, session, CSRF); covered by the browser sign-in tests',
+  },
+  {
+    target: 'app/api/auth/[...nextauth]/route.ts#POST',
+    why: 'next-auth’s own endpoints (sign-in, session, CSRF); covered by the browser sign-in tests',
+  },
+];
+
+export { signInAs };

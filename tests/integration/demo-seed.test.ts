@@ -1,0 +1,64 @@
+import { describe, expect, it } from 'vitest';
+import { getDb } from '@/db';
+import { loadSessionRows } from '@/db/queries/plan-data';
+import { listRailwaySessions } from '@/db/queries/sessions';
+import * as t from '@/db/schema';
+import { DEMO_USERS, demoSessionStart, hasDemoData, seedDemoRailway } from '@/lib/demo/demo-railway';
+import { checkPlan, planSchema } from '@/lib/planning';
+import { sessionToPlan } from '@/lib/sessions/to-plan';
+
+describe('demo railway seed', () => {
+  const now = new Date('2026-12-01T12:00:00Z');
+  const seeded = () => {
+    const db = getDb();
+    if (!hasDemoData(db)) seedDemoRailway(db, { now, passwordHash: '$2a$04$demo.hash.for.tests.only.............' });
+    return db.select().from(t.sessions).get()!;
+  };
+
+  it('has the shape the README promises', () => {
+    seeded();
+    const db = getDb();
+    expect(db.select().from(t.railways).all()).toHaveLength(1);
+    expect(db.select().from(t.layouts).all().map((l) => l.setting).sort()).toEqual(['indoor', 'outdoor']);
+    expect(db.select().from(t.supplies).all().length).toBeGreaterThanOrEqual(2);
+    expect(new Set(db.select().from(t.drivers).all().map((d) => d.presetId)).size).toBeGreaterThanOrEqual(2);
+    expect(db.select().from(t.cabs).all()).toHaveLength(6);
+    expect(db.select().from(t.locomotives).all()).toHaveLength(8);
+    expect(db.select().from(t.trains).all()).toHaveLength(6);
+    const roles = db.select().from(t.memberships).all().map((m) => m.role);
+    expect(roles.filter((r) => r === 'operator').length).toBeGreaterThanOrEqual(6);
+    const indoor = db.select().from(t.layouts).all().find((l) => l.setting === 'indoor')!;
+    expect(db.select().from(t.blocks).all().filter((b) => b.layoutId === indoor.id).length).toBe(12);
+  });
+
+  it('the session is published, upcoming, about twenty runs, and invites and assigns the demo operator', () => {
+    const session = seeded();
+    expect(session.status).toBe('published');
+    expect(session.startsAt.getTime()).toBe(demoSessionStart(now).getTime());
+    expect(session.startsAt.getTime()).toBeGreaterThan(now.getTime());
+    const operator = getDb().select().from(t.users).all().find((u) => u.email === DEMO_USERS[2].email)!;
+    const visible = listRailwaySessions(session.railwayId, { userId: operator.id, role: 'operator' });
+    expect(visible.map((s) => s.id)).toEqual([session.id]);
+    const rows = loadSessionRows(session.id)!;
+    expect(rows.runs.length).toBeGreaterThanOrEqual(18);
+    expect(rows.runs.filter((r) => r.operatorId === operator.id).length).toBeGreaterThanOrEqual(3);
+  });
+
+  it('is a valid plan whose deliberate clashes the checker finds: a shared block, a double-booked cab, an overloaded channel', () => {
+    const session = seeded();
+    const parsed = planSchema.safeParse(sessionToPlan(loadSessionRows(session.id)!));
+    expect(parsed.success).toBe(true);
+    if (!parsed.success) return;
+    const kinds = new Set(checkPlan(parsed.data).findings.filter((f) => f.severity === 'error').map((f) => f.kind));
+    expect(kinds).toEqual(new Set(['block-overlap', 'cab-double-booked', 'channel-overload', 'channel-peak-overload']));
+  });
+
+  it('demo sessions always start on a Saturday at least two days ahead', () => {
+    for (const day of ['2026-12-01', '2026-12-04', '2026-12-05', '2026-12-06', '2027-02-28']) {
+      const from = new Date(`${day}T20:00:00Z`);
+      const start = demoSessionStart(from);
+      expect(start.getUTCDay()).toBe(6);
+      expect(start.getTime() - from.getTime()).toBeGreaterThan(2 * 86_400_000 - 2 * 3600_000);
+    }
+  });
+});
