@@ -16,6 +16,8 @@ const contentSecurityPolicy = [
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {
+  // Lets parallel work (or a second checkout) build without sharing one .next folder.
+  distDir: process.env.NEXT_DIST_DIR ?? '.next',
   poweredByHeader: false,
   serverExternalPackages: ['better-sqlite3', 'smtp-server', 'mailparser', 'nodemailer'],
   async headers() {

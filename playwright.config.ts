@@ -2,16 +2,17 @@ import { defineConfig, devices } from '@playwright/test';
 
 const PORT = Number(process.env.E2E_PORT ?? 3210);
 const BASE_URL = `http://127.0.0.1:${PORT}`;
+const DB = `data/e2e-${PORT}.db`;
 
 export default defineConfig({
   testDir: 'tests/e2e',
-  outputDir: 'test-results',
+  outputDir: `test-results/e2e-${PORT}`,
   fullyParallel: false,
   workers: 1,
   retries: process.env.CI ? 1 : 0,
   timeout: 60_000,
   expect: { timeout: 10_000 },
-  reporter: [['list'], ['json', { outputFile: 'test-results/e2e-results.json' }]],
+  reporter: [['list'], ['json', { outputFile: process.env.E2E_JSON ?? 'test-results/e2e-results.json' }]],
   use: {
     baseURL: BASE_URL,
     trace: 'retain-on-failure',
@@ -34,13 +35,14 @@ export default defineConfig({
   ],
   webServer: {
     // A fresh database with the demo railway, then the production build (`next build` runs first).
-    command: 'rm -f data/e2e.db data/e2e.db-wal data/e2e.db-shm && npx tsx lib/cli/seed.ts && npx next start -p ' + PORT,
+    command: `rm -f ${DB} ${DB}-wal ${DB}-shm && npx tsx lib/cli/seed.ts && npx next start -p ${PORT}`,
     url: `${BASE_URL}/api/health`,
     timeout: 120_000,
     reuseExistingServer: false,
     stdout: 'pipe',
     env: {
-      DATABASE_URL: 'data/e2e.db',
+      DATABASE_URL: DB,
+      NEXT_DIST_DIR: process.env.NEXT_DIST_DIR ?? '.next',
       NEXTAUTH_URL: BASE_URL,
       NEXTAUTH_SECRET: 'e2e-secret-not-for-production-0123456789',
       LOCAL_SMTP_PORT: String(PORT + 1),

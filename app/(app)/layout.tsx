@@ -15,6 +15,9 @@ export default async function AppLayout({ children }: { children: React.ReactNod
             <Wordmark />
           </Link>
           <div className="flex items-center gap-3 text-sm">
+            <Link href="/my-runs" className="font-semibold text-verdigris hover:underline">
+              My runs
+            </Link>
             <span className="hidden text-muted sm:inline" data-testid="signed-in-as">
               {user.name}
             </span>

@@ -6,6 +6,8 @@ import { roleAtLeast, type Role } from '@/lib/roles';
 
 const TABS: { href: string; label: string; minimum: Role }[] = [
   { href: '', label: 'Overview', minimum: 'operator' },
+  { href: '/sessions', label: 'Sessions', minimum: 'operator' },
+  { href: '/layouts', label: 'Layouts', minimum: 'operator' },
   { href: '/members', label: 'Members', minimum: 'operator' },
   { href: '/mail', label: 'Mail outbox', minimum: 'host' },
 ];

@@ -1,7 +1,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { AUTHZ_CASES, AUTHZ_EXEMPTIONS } from './authz-cases';
+import { AUTHZ_CASES, AUTHZ_EXEMPTIONS } from './authz';
 import { signInAs } from './caller';
 import { makeWorld, ROLE_KEYS } from './world';
 

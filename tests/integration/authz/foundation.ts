@@ -1,40 +1,10 @@
-import { formData, makeWorld, type RoleKey } from './world';
-import { signInAs } from './caller';
-import type { ActionState } from '@/lib/errors';
-
-export type World = ReturnType<typeof makeWorld>;
-type Expect = Record<RoleKey, number>;
-
-export type AuthzCase = {
-  /** `path/to/file.ts#exportName`, relative to the project root. */
-  target: string;
-  /** Runs the target as the signed-in user of `role` in a fresh world and returns its status. */
-  call: (world: World) => Promise<number>;
-  expect: Expect;
-};
-
-/** An exempt target: said why, and tested elsewhere. */
-export type AuthzExemption = { target: string; why: string };
-
-/** A server action's result as an HTTP-like status (redirects count as 303). */
-export async function actionStatus(run: () => Promise<ActionState>): Promise<number> {
-  try {
-    const state = await run();
-    return state?.ok ? 200 : (state?.status ?? 500);
-  } catch (error) {
-    if (error && typeof error === 'object' && 'digest' in error && String(error.digest).startsWith('NEXT_REDIRECT')) {
-      return 303;
-    }
-    throw error;
-  }
-}
+import { formData } from '../world';
+import { actionStatus, type AuthzCase, type AuthzExemption } from './shared';
 
 const MEMBERS = 'app/(app)/railways/[railwayId]/members/actions.ts';
-const hostOnly: Expect = { anon: 401, outsider: 404, operator: 403, planner: 403, host: 200 };
-const signedIn: Expect = { anon: 401, outsider: 303, operator: 303, planner: 303, host: 303 };
-const everyone: Expect = { anon: 200, outsider: 200, operator: 200, planner: 200, host: 200 };
+import { everyone, hostOnly, signedIn } from './shared';
 
-export const AUTHZ_CASES: AuthzCase[] = [
+export const FOUNDATION_CASES: AuthzCase[] = [
   {
     target: 'app/api/health/route.ts#GET',
     call: async () => (await (await import('@/app/api/health/route')).GET()).status,
@@ -111,7 +81,7 @@ export const AUTHZ_CASES: AuthzCase[] = [
   },
 ];
 
-export const AUTHZ_EXEMPTIONS: AuthzExemption[] = [
+export const FOUNDATION_EXEMPTIONS: AuthzExemption[] = [
   {
     target: 'app/api/auth/[...nextauth]/route.ts#GET',
     why: 'next-auth’s own endpoints (sign-in, session, CSRF); covered by the browser sign-in tests',
@@ -122,4 +92,3 @@ export const AUTHZ_EXEMPTIONS: AuthzExemption[] = [
   },
 ];
 
-export { signInAs };

@@ -1,0 +1,4 @@
+import type { AuthzCase, AuthzExemption } from './shared';
+
+export const SESSION_CASES: AuthzCase[] = [];
+export const SESSION_EXEMPTIONS: AuthzExemption[] = [];
