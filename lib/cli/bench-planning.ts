@@ -16,7 +16,7 @@ import {
   suggestRetime,
   timeRun,
   type Plan,
-} from '../lib/planning';
+} from '@/lib/planning';
 
 const BLOCKS_PER_LOOP = 24;
 const STATION_SPACING = 6;
