@@ -3,6 +3,7 @@ import bcrypt from 'bcryptjs';
 import type { NextAuthOptions } from 'next-auth';
 import CredentialsProvider from 'next-auth/providers/credentials';
 import { getUserByEmail, getUserById, markEmailVerified } from '@/db/queries/users';
+import { rateLimit } from '@/lib/rate-limit';
 import { spendAuthToken } from '@/lib/tokens';
 import { signInSchema } from '@/lib/validations/account';
 
@@ -20,6 +21,8 @@ export const authOptions: NextAuthOptions = {
       async authorize(credentials) {
         const parsed = signInSchema.safeParse(credentials);
         if (!parsed.success) return null;
+        // Ten tries per address per quarter hour slows password guessing to a crawl.
+        rateLimit(`sign-in:${parsed.data.email}`, 10, 15 * 60_000);
         const user = getUserByEmail(parsed.data.email);
         if (!user?.passwordHash) return null;
         const ok = await bcrypt.compare(parsed.data.password, user.passwordHash);

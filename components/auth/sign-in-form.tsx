@@ -27,6 +27,8 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
     if (result?.ok) {
       router.push(callbackUrl);
       router.refresh();
+    } else if (result?.error?.startsWith('Too many attempts')) {
+      setError(result.error);
     } else {
       setError('That e-mail address and password do not match an account.');
     }

@@ -1,9 +1,10 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { afterAll, beforeAll, vi } from 'vitest';
+import { afterAll, beforeAll, beforeEach, vi } from 'vitest';
 import { closeDb } from '@/db';
 import { resetEnvCache } from '@/lib/env';
+import { resetRateLimits } from '@/lib/rate-limit';
 import { caller } from './caller';
 
 // Who is asking: integration tests set `caller.user` instead of carrying a signed cookie. Every
@@ -23,6 +24,8 @@ beforeAll(() => {
   delete process.env.SMTP_URL;
   resetEnvCache();
 });
+
+beforeEach(() => resetRateLimits());
 
 afterAll(() => {
   closeDb();

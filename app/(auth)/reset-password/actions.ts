@@ -4,6 +4,8 @@ import bcrypt from 'bcryptjs';
 import { getUserByEmail, markEmailVerified, setPasswordHash } from '@/db/queries/users';
 import { AppError, toActionState, type ActionState, parseOrThrow } from '@/lib/errors';
 import { queueResetMail } from '@/lib/mail/account-mail';
+import { clientAddress } from '@/lib/client-key';
+import { rateLimit } from '@/lib/rate-limit';
 import { issueAuthToken, spendAuthToken } from '@/lib/tokens';
 import { requestLinkSchema, resetPasswordSchema } from '@/lib/validations/account';
 
@@ -11,6 +13,8 @@ import { requestLinkSchema, resetPasswordSchema } from '@/lib/validations/accoun
 export async function requestPasswordReset(_prev: ActionState, formData: FormData): Promise<ActionState> {
   try {
     const { email } = parseOrThrow(requestLinkSchema, { email: formData.get('email') });
+    rateLimit(`reset-ip:${await clientAddress()}`, 20, 15 * 60_000);
+    rateLimit(`reset:${email}`, 5, 15 * 60_000);
     const user = getUserByEmail(email);
     if (user) queueResetMail(user.email, issueAuthToken(user.id, 'reset-password'));
     return { ok: true, message: `If ${email} has a Fishplate account, a reset link is on its way.` };
@@ -27,6 +31,7 @@ export async function resetPassword(_prev: ActionState, formData: FormData): Pro
       password: formData.get('password'),
       confirm: formData.get('confirm'),
     });
+    rateLimit(`reset-use:${await clientAddress()}`, 20, 15 * 60_000);
     const passwordHash = await bcrypt.hash(input.password, 10);
     const userId = spendAuthToken(input.token, 'reset-password');
     if (!userId) {

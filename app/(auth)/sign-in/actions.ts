@@ -3,6 +3,8 @@
 import { getUserByEmail } from '@/db/queries/users';
 import { toActionState, type ActionState, parseOrThrow } from '@/lib/errors';
 import { queueSignInLinkMail } from '@/lib/mail/account-mail';
+import { clientAddress } from '@/lib/client-key';
+import { rateLimit } from '@/lib/rate-limit';
 import { issueAuthToken } from '@/lib/tokens';
 import { requestLinkSchema } from '@/lib/validations/account';
 
@@ -13,6 +15,8 @@ import { requestLinkSchema } from '@/lib/validations/account';
 export async function requestSignInLink(_prev: ActionState, formData: FormData): Promise<ActionState> {
   try {
     const { email } = parseOrThrow(requestLinkSchema, { email: formData.get('email') });
+    rateLimit(`link-ip:${await clientAddress()}`, 20, 15 * 60_000);
+    rateLimit(`link:${email}`, 5, 15 * 60_000);
     const user = getUserByEmail(email);
     if (user) queueSignInLinkMail(user.email, issueAuthToken(user.id, 'sign-in'));
     return { ok: true, message: `If ${email} has a Fishplate account, a sign-in link is on its way.` };
