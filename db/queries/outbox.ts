@@ -43,7 +43,7 @@ export function claimDueMail(limit: number, now = new Date()): OutboxMessage[] {
       .where(inArray(outbox.id, due))
       .returning()
       .all();
-  });
+  }, { behavior: 'immediate' });
 }
 
 export function markMailSent(id: string): void {

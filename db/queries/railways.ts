@@ -18,7 +18,7 @@ export function createRailway(input: { name: string; timeZone: string; hostUserI
       .values({ railwayId: railway.id, userId: input.hostUserId, action: 'create', entity: 'railway', entityId: railway.id })
       .run();
     return railway;
-  });
+  }, { behavior: 'immediate' });
 }
 
 /** Writes one audit entry: who changed what. */

@@ -333,5 +333,5 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
     tx.insert(t.crewAssignments).values({ sessionId, userId: userIds.op5, duty: 'stand-by', note: 'Covers any cab if a driver is late.' }).run();
     tx.insert(t.auditLog).values({ railwayId, userId: userIds.host, action: 'seed', entity: 'railway', entityId: railwayId }).run();
     return { railwayId, sessionId };
-  });
+  }, { behavior: 'immediate' });
 }
