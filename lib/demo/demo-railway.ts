@@ -335,3 +335,82 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
     return { railwayId, sessionId };
   }, { behavior: 'immediate' });
 }
+
+/**
+ * Adds a large draft session to the seeded demo railway: the evening's twenty runs repeated
+ * `repeats` times, three hours apart (200 runs for 10). Used by the speed benchmarks.
+ */
+export function seedLargeSession(db: Db, repeats = 10): { sessionId: string; runCount: number } {
+  const railway = db.select().from(t.railways).where(eq(t.railways.name, 'Kestrel Vale Railway Circle')).get();
+  if (!railway) throw new Error('seedLargeSession: seed the demo railway first');
+  const layout = db.select().from(t.layouts).where(eq(t.layouts.railwayId, railway.id)).all().find((l) => l.setting === 'indoor')!;
+  const byName = <R extends { name: string; id: string }>(rows: R[]) => new Map(rows.map((r) => [r.name, r]));
+  const blocks = byName(db.select().from(t.blocks).where(eq(t.blocks.layoutId, layout.id)).all());
+  const trains = byName(db.select().from(t.trains).where(eq(t.trains.layoutId, layout.id)).all());
+  const cabs = byName(db.select().from(t.cabs).where(eq(t.cabs.layoutId, layout.id)).all());
+  const users = new Map(db.select().from(t.users).all().map((u) => [u.email, u.id]));
+  const blockId = (key: string) => blocks.get(INDOOR_BLOCKS.find(([k]) => k === key)![1])!.id;
+  const trainOf = (key: string) => trains.get(INDOOR_TRAINS.find(([k]) => k === key)![1])!;
+  const cabId = (key: RunSpec['cab']) => cabs.get(`Cab ${key.slice(3)}`)!.id;
+  const userId = (key: UserKey) => users.get(DEMO_USERS.find((u) => u.key === key)!.email)!;
+  const track = {
+    blocks: INDOOR_BLOCKS.map(([key, , lengthMm]) => ({ id: key, lengthMm })),
+    links: INDOOR_LINKS.map(([a, b]) => ({ a, b })),
+  };
+  const startsAt = demoSessionStart(new Date(Date.now() + 7 * 86_400_000));
+  return db.transaction((tx) => {
+    const sessionId = tx
+      .insert(t.sessions)
+      .values({
+        railwayId: railway.id,
+        layoutId: layout.id,
+        title: `Marathon weekend (${repeats * RUNS.length} runs)`,
+        startsAt,
+        endsAt: new Date(startsAt.getTime() + repeats * 3 * 3600_000),
+        timeZone: railway.timeZone,
+        clockRatio: 4,
+        fastStart: '06:00',
+        headwayS: 30,
+        surgeS: 2,
+        derate: 0.8,
+        status: 'draft',
+      })
+      .returning({ id: t.sessions.id })
+      .get().id;
+    for (let r = 0; r < repeats; r++) {
+      for (const spec of RUNS) {
+        const route = spec.via
+          ? [...(findRoute(track, spec.from, spec.via) ?? []), ...(findRoute(track, spec.via, spec.to) ?? []).slice(1)]
+          : (findRoute(track, spec.from, spec.to) ?? []);
+        const train = trainOf(spec.train);
+        const timed = timeRun({
+          blocks: track.blocks,
+          scaleRatio: layout.scaleRatio,
+          trainLengthMm: train.lengthMm,
+          route,
+          departS: r * 3 * 3600 + spec.departMin * 60,
+          speedKmh: spec.speedKmh,
+          standBeforeS: spec.standBeforeS,
+          standAfterS: spec.standAfterS,
+        });
+        const runId = tx
+          .insert(t.runs)
+          .values({
+            sessionId,
+            trainId: train.id,
+            cabId: cabId(spec.cab),
+            operatorId: spec.operator ? userId(spec.operator) : null,
+            departS: timed.departS,
+            arriveS: timed.arriveS,
+            speedKmh: spec.speedKmh,
+          })
+          .returning({ id: t.runs.id })
+          .get().id;
+        timed.steps.forEach((step, position) =>
+          tx.insert(t.runSteps).values({ runId, position, blockId: blockId(step.blockId), enterS: step.enterS, exitS: step.exitS }).run(),
+        );
+      }
+    }
+    return { sessionId, runCount: repeats * RUNS.length };
+  }, { behavior: 'immediate' });
+}
