@@ -1,0 +1,131 @@
+import crypto from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { getDb } from '@/db';
+import { resetRateLimits } from '@/lib/rate-limit';
+import { signInAs } from './caller';
+import { HOSTILE_TARGETS } from './hostile';
+import { makeWorld } from './world';
+
+const ROOT = path.resolve(__dirname, '../..');
+
+/** A checksum of every row of every table: equal before and after means nothing changed. */
+function databaseChecksum(): string {
+  const sqlite = getDb().$client;
+  const tables = sqlite
+    .prepare("select name from sqlite_master where type = 'table' and name not like 'sqlite_%' and name not like '__drizzle%' order by name")
+    .all() as { name: string }[];
+  const hash = crypto.createHash('sha256');
+  for (const { name } of tables) {
+    hash.update(name);
+    for (const row of sqlite.prepare(`select * from "${name}" order by rowid`).all()) hash.update(JSON.stringify(row));
+  }
+  return hash.digest('hex');
+}
+
+// Strings that break naive code: huge, control characters, lone surrogates, RTL marks, zero-width,
+// NUL, SQL and HTML fragments, path traversal, numbers at the edge of IEEE 754.
+const nastyString = fc.oneof(
+  fc.string({ maxLength: 40 }),
+  fc.string({ unit: 'binary', maxLength: 40 }),
+  fc.constantFrom(
+    '',
+    ' ',
+    '\u0000',
+    '\ud800',
+    '\u202e\u202d',
+    '\u200b',
+    "'; drop table users; --",
+    '<script>alert(1)</script>',
+    '../../etc/passwd',
+    'NaN',
+    'Infinity',
+    '-0',
+    '1e308',
+    '9'.repeat(400),
+    'x'.repeat(100_000),
+    'host',
+    'operator@',
+    '@@',
+    'a@b',
+  ),
+);
+const nastyJson = fc.oneof(
+  fc.json({ depthSize: 'large', maxDepth: 6 }),
+  fc.constantFrom(
+    '',
+    'null',
+    '[]',
+    '{',
+    '{"version": NaN}',
+    '{"version": 1e308}',
+    '{"__proto__": {"admin": true}}',
+    JSON.stringify({ version: 1, extra: 'x'.repeat(2_000_000) }),
+    '['.repeat(5_000) + ']'.repeat(5_000),
+    JSON.stringify({ runs: Array.from({ length: 10_000 }, () => ({})) }),
+  ),
+  fc.anything({ maxDepth: 5 }).map((v) => {
+    try {
+      return JSON.stringify(v) ?? 'null';
+    } catch {
+      return '{}';
+    }
+  }),
+);
+
+function discoverMutatingTargets(): string[] {
+  const found: string[] = [];
+  const walk = (dir: string): string[] =>
+    fs.readdirSync(dir, { withFileTypes: true }).flatMap((e) => (e.isDirectory() ? walk(path.join(dir, e.name)) : [path.join(dir, e.name)]));
+  for (const file of walk(path.join(ROOT, 'app'))) {
+    const rel = path.relative(ROOT, file).split(path.sep).join('/');
+    const source = fs.readFileSync(file, 'utf8');
+    if (rel.endsWith('/route.ts')) {
+      for (const m of source.matchAll(/export\s+(?:async\s+)?function\s+(POST|PUT|PATCH|DELETE)\b/g)) found.push(`${rel}#${m[1]}`);
+      for (const m of source.matchAll(/export\s*\{([^}]*)\}/g)) {
+        for (const part of m[1]!.split(',')) {
+          const name = part.trim().split(/\s+as\s+/).pop()?.trim();
+          if (name && /^(POST|PUT|PATCH|DELETE)$/.test(name)) found.push(`${rel}#${name}`);
+        }
+      }
+    }
+    if (/^['"]use server['"]/.test(source.trimStart())) {
+      for (const m of source.matchAll(/export\s+async\s+function\s+(\w+)/g)) found.push(`${rel}#${m[1]}`);
+    }
+  }
+  return found.sort();
+}
+
+describe('hostile input', () => {
+  it('covers every mutating route handler and server action', () => {
+    expect(discoverMutatingTargets()).toEqual(HOSTILE_TARGETS.map((t) => t.target).sort());
+  });
+
+  for (const target of HOSTILE_TARGETS) {
+    if (target.kind === 'exempt') continue;
+    it(`${target.target}: malformed input answers 4xx and changes nothing`, async () => {
+      const world = makeWorld();
+      signInAs(world.host);
+      const arbitrary =
+        target.kind === 'action'
+          ? fc.record(Object.fromEntries(target.fields.map((f) => [f, nastyString])) as Record<string, fc.Arbitrary<string>>)
+          : nastyJson;
+      await fc.assert(
+        fc.asyncProperty(arbitrary, async (input) => {
+          resetRateLimits();
+          const before = databaseChecksum();
+          const status =
+            target.kind === 'action'
+              ? await target.send(world, input as Record<string, string>)
+              : await target.send(world, input as string);
+          expect(status).toBeGreaterThanOrEqual(400);
+          expect(status).toBeLessThan(500);
+          expect(databaseChecksum()).toBe(before);
+        }),
+        { numRuns: 40 },
+      );
+    }, 120_000);
+  }
+});
