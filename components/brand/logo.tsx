@@ -8,10 +8,9 @@ export function LogoMark({ className = 'h-8 w-8' }: { className?: string }) {
       <rect x="4" y="20" width="18.5" height="8" rx="1.5" fill="var(--paper)" opacity="0.55" />
       <rect x="25.5" y="20" width="18.5" height="8" rx="1.5" fill="var(--paper)" opacity="0.55" />
       <rect x="9" y="16" width="30" height="16" rx="4" fill="var(--brass)" />
-      {[14, 20, 28, 34].map((cx) => (
-        <circle key={cx} cx={cx} cy="24" r="2.2" fill="var(--surface)" stroke="var(--ink)" strokeWidth="0.8" />
+      {[14.5, 20.5, 27.5, 33.5].map((cx) => (
+        <circle key={cx} cx={cx} cy="24" r="2.5" fill="var(--paper)" />
       ))}
-      <line x1="24" y1="13" x2="24" y2="35" stroke="var(--paper)" strokeWidth="1.2" strokeDasharray="2 2" />
     </svg>
   );
 }
