@@ -1,0 +1,179 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { getRailwaySession, listSessionInvitations } from '@/db/queries/invitation-records';
+import { listMembers } from '@/db/queries/memberships';
+import { loadSessionRows } from '@/db/queries/plan-data';
+import { AutoRefresh } from '@/components/invitations/auto-refresh';
+import { InviteCrewForm, ResendButton, SendNoticeButton } from '@/components/invitations/tracker-forms';
+import { NotAllowed } from '@/components/railway/not-allowed';
+import { Badge, Card, Notice } from '@/components/ui/card';
+import { formatInZone } from '@/lib/format';
+import { countStates, DELIVERY_LABELS, deliveryOf, needsCancel, needsUpdate, RSVP_LABELS, type Delivery } from '@/lib/invitations/tracker';
+import { memberForPage } from '@/lib/page-access';
+
+export const metadata: Metadata = { title: 'Invitations' };
+export const dynamic = 'force-dynamic';
+
+const DELIVERY_TONE: Record<Delivery, 'neutral' | 'info' | 'warn' | 'good' | 'bad'> = {
+  'not-sent': 'neutral',
+  queued: 'info',
+  retrying: 'warn',
+  sent: 'good',
+  failed: 'bad',
+};
+const RSVP_TONE = { 'needs-action': 'neutral', accepted: 'good', tentative: 'warn', declined: 'bad' } as const;
+const STATUS_TONE = { draft: 'neutral', published: 'good', cancelled: 'bad' } as const;
+
+export default async function InvitationTrackerPage({ params }: { params: Promise<{ railwayId: string; sessionId: string }> }) {
+  const { railwayId, sessionId } = await params;
+  const path = `/railways/${railwayId}/sessions/${sessionId}/invitations`;
+  const { member } = await memberForPage(railwayId, 'host', path);
+  if (!member) return <NotAllowed needs="host" />;
+  const session = getRailwaySession(railwayId, sessionId);
+  if (!session) notFound();
+  const invitations = listSessionInvitations(sessionId);
+  const counts = countStates(invitations);
+  const invited = new Set(invitations.map((i) => i.userId));
+  const runCount = new Map<string, number>();
+  for (const run of loadSessionRows(sessionId)?.runs ?? []) {
+    if (run.operatorId) runCount.set(run.operatorId, (runCount.get(run.operatorId) ?? 0) + 1);
+  }
+  const pickable = listMembers(railwayId)
+    .filter((m) => !invited.has(m.userId))
+    .map((m) => ({ userId: m.userId, name: m.name, email: m.email, role: m.role, runCount: runCount.get(m.userId) ?? 0 }));
+  const zone = session.timeZone;
+  const pending = invitations.filter((i) => i.mailCount === 0).length;
+  const outdated = invitations.filter((i) => needsUpdate(i, session)).length;
+  const toCancel = invitations.filter((i) => needsCancel(i, session)).length;
+  const ended = session.endsAt.getTime() < Date.now();
+  const open = session.status === 'published' && !ended;
+
+  return (
+    <div className="space-y-6">
+      <AutoRefresh />
+      <div className="flex flex-col gap-2 sm:flex-row sm:items-end sm:justify-between">
+        <div>
+          <p className="text-sm text-muted">
+            <Link href={`/railways/${railwayId}/sessions/${sessionId}`} className="text-verdigris hover:underline">
+              ← {session.title}
+            </Link>
+          </p>
+          <h2 className="font-display text-xl font-bold">Invitations</h2>
+          <p className="text-sm text-muted">
+            {formatInZone(session.startsAt, zone)} – {formatInZone(session.endsAt, zone, { weekday: undefined, day: undefined, month: undefined, year: undefined })} · {zone} ·{' '}
+            <Badge tone={STATUS_TONE[session.status]}>{session.status}</Badge> · calendar sequence {session.sequence}
+          </p>
+        </div>
+        <a href={`/api/sessions/${sessionId}/calendar.ics`} className="text-sm font-semibold text-verdigris hover:underline">
+          Download .ics (whole session)
+        </a>
+      </div>
+
+      {session.status === 'draft' ? (
+        <Notice tone="warn">This session is a draft. Publish it before inviting the crew; operators cannot see drafts.</Notice>
+      ) : null}
+      {ended ? <Notice tone="info">This session is over; invitations and replies are closed.</Notice> : null}
+
+      <dl className="grid grid-cols-2 gap-2 sm:grid-cols-4 lg:grid-cols-8" data-testid="invitation-counts">
+        {(
+          [
+            ['Invited', counts.total],
+            ['Not sent yet', counts.delivery['not-sent']],
+            ['Queued', counts.delivery.queued + counts.delivery.retrying],
+            ['Sent', counts.delivery.sent],
+            ['Failed', counts.delivery.failed],
+            ['Accepted', counts.replies.accepted],
+            ['Maybe', counts.replies.tentative],
+            ['Declined', counts.replies.declined],
+          ] as const
+        ).map(([label, value]) => (
+          <div key={label} className="rounded-plate border border-line bg-surface p-3" data-testid={`count-${label.toLowerCase().replaceAll(' ', '-')}`}>
+            <dt className="text-xs text-muted">{label}</dt>
+            <dd className="font-display text-2xl font-bold">{value}</dd>
+          </div>
+        ))}
+      </dl>
+
+      {open && (pending || outdated) ? (
+        <div className="flex flex-wrap gap-3">
+          {pending ? (
+            <SendNoticeButton railwayId={railwayId} sessionId={sessionId} kind="pending" label={`Send ${pending} invitation${pending === 1 ? '' : 's'} not sent yet`} />
+          ) : null}
+          {outdated ? (
+            <SendNoticeButton railwayId={railwayId} sessionId={sessionId} kind="update" variant="secondary" label={`Send update to ${outdated} (sequence ${session.sequence})`} />
+          ) : null}
+        </div>
+      ) : null}
+      {session.status === 'cancelled' && toCancel ? (
+        <SendNoticeButton railwayId={railwayId} sessionId={sessionId} kind="cancel" variant="danger" label={`Send cancellation to ${toCancel}`} />
+      ) : null}
+
+      <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
+        <Card title={`Invitees (${invitations.length})`}>
+          {invitations.length === 0 ? (
+            <p className="text-sm text-muted">No one is invited yet. Pick the crew on the right.</p>
+          ) : (
+            <div className="-mx-4 overflow-x-auto px-4 sm:mx-0 sm:px-0">
+              <table className="w-full min-w-[36rem] text-left text-sm" data-testid="invitation-table">
+                <thead className="text-muted">
+                  <tr>
+                    <th className="py-2 pr-3">Invitee</th>
+                    <th className="py-2 pr-3">E-mail</th>
+                    <th className="py-2 pr-3">Reply</th>
+                    <th className="py-2 pr-3">Replied</th>
+                    <th className="py-2"><span className="sr-only">Actions</span></th>
+                  </tr>
+                </thead>
+                <tbody className="divide-y divide-line">
+                  {invitations.map((inv) => {
+                    const delivery = deliveryOf(inv);
+                    return (
+                      <tr key={inv.id} data-testid="invitation-row" data-email={inv.email}>
+                        <td className="py-2 pr-3">
+                          <span className="font-semibold">{inv.name}</span>
+                          <span className="block text-xs text-muted">{inv.email}</span>
+                        </td>
+                        <td className="py-2 pr-3">
+                          <Badge tone={DELIVERY_TONE[delivery]}>{DELIVERY_LABELS[delivery]}</Badge>
+                          {inv.mail?.calendarMethod === 'CANCEL' ? <span className="ml-1 text-xs text-muted">cancellation</span> : null}
+                          {needsUpdate(inv, session) ? <span className="ml-1 text-xs text-amber">sent sequence {inv.sentSequence}</span> : null}
+                          {inv.mail?.lastError ? <span className="block max-w-xs truncate text-xs text-signal" title={inv.mail.lastError}>{inv.mail.lastError}</span> : null}
+                        </td>
+                        <td className="py-2 pr-3" data-testid="rsvp">
+                          <Badge tone={RSVP_TONE[inv.rsvp]}>{RSVP_LABELS[inv.rsvp]}</Badge>
+                        </td>
+                        <td className="py-2 pr-3 text-muted">{inv.respondedAt ? formatInZone(inv.respondedAt, zone) : '—'}</td>
+                        <td className="py-2 text-right">
+                          {(open || (session.status === 'cancelled' && inv.mailCount > 0)) && delivery !== 'queued' ? (
+                            <ResendButton
+                              railwayId={railwayId}
+                              sessionId={sessionId}
+                              invitationId={inv.id}
+                              label={delivery === 'failed' ? 'Retry' : delivery === 'not-sent' ? 'Send' : 'Resend'}
+                            />
+                          ) : null}
+                        </td>
+                      </tr>
+                    );
+                  })}
+                </tbody>
+              </table>
+            </div>
+          )}
+          <p className="mt-3 text-xs text-muted">
+            “Not sent yet” means the person is on the list but no e-mail was written for them. Replies appear here as they
+            arrive; this page refreshes itself.
+          </p>
+        </Card>
+        <div>
+          {open ? (
+            <Card title="Invite crew">
+              <InviteCrewForm railwayId={railwayId} sessionId={sessionId} members={pickable} />
+            </Card>
+          ) : null}
+        </div>
+      </div>
+    </div>
+  );
+}

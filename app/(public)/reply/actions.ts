@@ -1,0 +1,38 @@
+'use server';
+
+import { headers } from 'next/headers';
+import { revalidatePath } from 'next/cache';
+import { parseOrThrow, toActionState, type ActionState } from '@/lib/errors';
+import { replyByToken as recordReply } from '@/lib/invitations/reply';
+import { claimedInvitationId } from '@/lib/invitations/reply-token';
+import { rateLimit } from '@/lib/rate-limit';
+import { replyByTokenSchema } from '@/lib/validations/invitation';
+
+export type ReplyResult = { answer: string; sessionTitle: string; railwayName: string; joined: boolean; nextToken: string };
+
+async function clientAddress(): Promise<string> {
+  try {
+    const h = await headers();
+    return h.get('x-forwarded-for')?.split(',')[0]?.trim() || h.get('x-real-ip') || 'local';
+  } catch {
+    return 'local';
+  }
+}
+
+/**
+ * Anyone holding a reply link: records accept, maybe or decline without signing in. The link's
+ * signature, expiry, railway and once-per-answer nonce are checked in lib/invitations/reply.ts.
+ */
+export async function replyByToken(_prev: ActionState<ReplyResult>, formData: FormData): Promise<ActionState<ReplyResult>> {
+  try {
+    const token = String(formData.get('token') ?? '');
+    rateLimit(`rsvp-ip:${await clientAddress()}`, 60, 60_000);
+    rateLimit(`rsvp:${claimedInvitationId(token)}`, 10, 60_000);
+    const input = parseOrThrow(replyByTokenSchema, { token, answer: formData.get('answer') });
+    const result = recordReply(input.token, input.answer);
+    revalidatePath('/railways', 'layout');
+    return { ok: true, message: 'Thank you — your answer is recorded.', data: result };
+  } catch (error) {
+    return toActionState(error);
+  }
+}

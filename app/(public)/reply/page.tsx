@@ -1,0 +1,47 @@
+import type { Metadata } from 'next';
+import { ReplyForm } from '@/components/invitations/reply-form';
+import { Card, Notice } from '@/components/ui/card';
+import { formatInZone } from '@/lib/format';
+import { ANSWER_LABELS, inspectReplyToken } from '@/lib/invitations/reply';
+import { ANSWERS, type Answer } from '@/lib/validations/invitation';
+
+export const metadata: Metadata = { title: 'Reply to an invitation', robots: { index: false } };
+export const dynamic = 'force-dynamic';
+
+// Opening the link changes nothing: the answer is recorded when the person presses the button,
+// so a mail scanner that follows links ahead of the reader cannot answer for them.
+export default async function ReplyPage({ searchParams }: { searchParams: Promise<{ token?: string; answer?: string }> }) {
+  const { token, answer } = await searchParams;
+  const chosen: Answer = ANSWERS.includes(answer as Answer) ? (answer as Answer) : 'accepted';
+  const inspected = token ? inspectReplyToken(token) : null;
+  return (
+    <div className="space-y-4">
+      <h1 className="font-display text-2xl font-bold">Reply to an invitation</h1>
+      {!token ? <Notice tone="bad">This link has no reply token. Use the buttons in your invitation e-mail.</Notice> : null}
+      {inspected && !inspected.ok ? (
+        <Notice tone="bad">
+          {inspected.error}
+          {'current' in inspected && inspected.current ? ` (Recorded now: ${ANSWER_LABELS[inspected.current]}.)` : ''}
+        </Notice>
+      ) : null}
+      {token && inspected?.ok ? (
+        <Card>
+          <div className="space-y-1" data-testid="reply-session">
+            <p className="text-xs font-semibold uppercase tracking-widest text-brass">{inspected.found.railwayName}</p>
+            <h2 className="font-display text-xl font-bold">{inspected.found.session.title}</h2>
+            <p className="text-sm text-muted">
+              {formatInZone(inspected.found.session.startsAt, inspected.found.session.timeZone)} · {inspected.found.session.timeZone}
+              {inspected.found.session.place ? ` · ${inspected.found.session.place}` : ''}
+            </p>
+            <p className="text-sm">
+              For {inspected.found.inviteeName} · now: <strong>{ANSWER_LABELS[inspected.found.invitation.rsvp]}</strong>
+            </p>
+          </div>
+          <div className="mt-4">
+            <ReplyForm token={token} chosen={chosen} />
+          </div>
+        </Card>
+      ) : null}
+    </div>
+  );
+}

@@ -1,0 +1,39 @@
+'use client';
+
+import { useActionState } from 'react';
+import { answerInvitation } from '@/app/(app)/my-runs/actions';
+import { Button } from '@/components/ui/button';
+
+type Rsvp = 'needs-action' | 'accepted' | 'tentative' | 'declined';
+const OPTIONS = [
+  ['accepted', 'Accept'],
+  ['tentative', 'Maybe'],
+  ['declined', 'Decline'],
+] as const;
+
+/** My answer to one invitation, as three buttons with the current one pressed. */
+export function RsvpButtons({ invitationId, current }: { invitationId: string; current: Rsvp }) {
+  const [state, action, pending] = useActionState(answerInvitation.bind(null, invitationId), null);
+  return (
+    <form action={action} className="space-y-2" data-testid="my-rsvp">
+      <div className="grid grid-cols-3 gap-2" role="group" aria-label="My answer">
+        {OPTIONS.map(([value, label]) => (
+          <Button
+            key={value}
+            type="submit"
+            name="answer"
+            value={value}
+            disabled={pending}
+            aria-pressed={current === value}
+            variant={current === value ? 'primary' : 'secondary'}
+            className="py-3"
+          >
+            {label}
+          </Button>
+        ))}
+      </div>
+      {current === 'needs-action' ? <p className="text-xs text-muted">You have not answered yet.</p> : null}
+      {state && !state.ok ? <p className="text-sm text-signal" role="alert">{state.error}</p> : null}
+    </form>
+  );
+}

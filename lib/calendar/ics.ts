@@ -1,0 +1,191 @@
+import ical, {
+  ICalAttendeeRole,
+  ICalAttendeeStatus,
+  ICalCalendarMethod,
+  ICalEventStatus,
+  type ICalCalendar,
+} from 'ical-generator';
+import type { SessionStatus } from '@/db/enums';
+import type { RunAssignment } from '@/lib/invitations/assignments';
+import { formatStand } from '@/lib/invitations/assignments';
+
+/** The fields of a session a calendar needs. */
+export type CalendarSession = {
+  id: string;
+  title: string;
+  place: string;
+  description: string;
+  startsAt: Date;
+  endsAt: Date;
+  timeZone: string;
+  status: SessionStatus;
+  sequence: number;
+};
+
+export type Person = { name: string; email: string };
+
+const PRODID = { company: 'Fishplate', product: 'Fishplate sessions', language: 'EN' };
+
+/** The session's UID: the same in every invitation, update, cancellation, download and feed. */
+export function sessionUid(sessionId: string): string {
+  return `session-${sessionId}@fishplate`;
+}
+
+export function runUid(runId: string): string {
+  return `run-${runId}@fishplate`;
+}
+
+function localParts(date: Date, timeZone: string) {
+  const parts = new Intl.DateTimeFormat('en-GB', {
+    timeZone,
+    year: 'numeric',
+    month: '2-digit',
+    day: '2-digit',
+    hour: '2-digit',
+    minute: '2-digit',
+    second: '2-digit',
+    hourCycle: 'h23',
+  }).formatToParts(date);
+  const get = (type: string) => Number(parts.find((p) => p.type === type)?.value ?? '0');
+  return { year: get('year'), month: get('month'), day: get('day'), hour: get('hour'), minute: get('minute'), second: get('second') };
+}
+
+/**
+ * When a session is in a calendar. A session that starts and ends at midnight in its own zone is
+ * an all-day event of DATE values (the local dates, DTEND the day after the last day, exclusive as
+ * RFC 5545 3.6.1 says); every other session is written in UTC with a trailing Z, so no VTIMEZONE
+ * is needed (RFC 5545 3.3.5 form 2) and one that runs past midnight simply ends on the next date.
+ */
+export function sessionTimes(session: Pick<CalendarSession, 'startsAt' | 'endsAt' | 'timeZone'>) {
+  const start = localParts(session.startsAt, session.timeZone);
+  const end = localParts(session.endsAt, session.timeZone);
+  const midnight = (p: typeof start) => p.hour === 0 && p.minute === 0 && p.second === 0;
+  if (midnight(start) && midnight(end) && session.endsAt > session.startsAt) {
+    return {
+      allDay: true as const,
+      // ical-generator writes an all-day Date from its UTC fields: give it the local dates at UTC midnight.
+      start: new Date(Date.UTC(start.year, start.month - 1, start.day)),
+      end: new Date(Date.UTC(end.year, end.month - 1, end.day)),
+    };
+  }
+  return { allDay: false as const, start: session.startsAt, end: session.endsAt };
+}
+
+const STATUS: Record<SessionStatus, ICalEventStatus> = {
+  draft: ICalEventStatus.TENTATIVE,
+  published: ICalEventStatus.CONFIRMED,
+  cancelled: ICalEventStatus.CANCELLED,
+};
+
+function finish(calendar: ICalCalendar): string {
+  // ical-generator ends the last line without CRLF; RFC 5545 3.1 ends every content line with one.
+  const text = calendar.toString();
+  return text.endsWith('\r\n') ? text : `${text}\r\n`;
+}
+
+/**
+ * The iTIP message of an invitation e-mail (RFC 5546): METHOD:REQUEST for an invitation or an
+ * update, METHOD:CANCEL with STATUS:CANCELLED for a cancellation; one VEVENT with the session's
+ * UID, the given SEQUENCE, DTSTAMP now in UTC, ORGANIZER the host and ATTENDEE the invitee, asked
+ * to reply (PARTSTAT=NEEDS-ACTION;RSVP=TRUE) on a request.
+ */
+export function buildInvitationCalendar(input: {
+  method: 'REQUEST' | 'CANCEL';
+  session: CalendarSession;
+  sequence: number;
+  organizer: Person;
+  attendee: Person;
+  description: string;
+  url?: string;
+  now?: Date;
+}): string {
+  const calendar = ical({
+    prodId: PRODID,
+    method: input.method === 'CANCEL' ? ICalCalendarMethod.CANCEL : ICalCalendarMethod.REQUEST,
+  });
+  const times = sessionTimes(input.session);
+  calendar.createEvent({
+    id: sessionUid(input.session.id),
+    sequence: input.sequence,
+    stamp: input.now ?? new Date(),
+    start: times.start,
+    end: times.end,
+    allDay: times.allDay,
+    summary: input.session.title,
+    location: input.session.place || null,
+    description: input.description,
+    url: input.url ?? null,
+    status: input.method === 'CANCEL' ? ICalEventStatus.CANCELLED : STATUS[input.session.status],
+    organizer: { name: input.organizer.name, email: input.organizer.email },
+    attendees: [
+      {
+        name: input.attendee.name,
+        email: input.attendee.email,
+        role: ICalAttendeeRole.REQ,
+        ...(input.method === 'REQUEST' ? { status: ICalAttendeeStatus.NEEDSACTION, rsvp: true } : {}),
+      },
+    ],
+  });
+  return finish(calendar);
+}
+
+/** What one run says in a calendar: where the train goes, the stand times and the cab hand-overs. */
+export function describeRunForCalendar(run: RunAssignment): string {
+  const lines = [
+    `Train: ${run.trainName}`,
+    `Cab: ${run.cabName}`,
+    `Fast clock: departs ${run.fastDepart}, arrives ${run.fastArrive}`,
+    `Real time: departs ${run.realDepart}, arrives ${run.realArrive}`,
+    `Route: ${run.route.join(' → ')}`,
+    `Stands ${formatStand(run.standBeforeS)} before departure and ${formatStand(run.standAfterS)} after arrival`,
+  ];
+  if (run.operatorName) lines.push(`Operator: ${run.operatorName}`);
+  if (run.before) lines.push(`Cab before: ${run.before.operatorName ?? 'no one named'} with ${run.before.trainName} at ${run.before.fastDepart}`);
+  if (run.after) lines.push(`Cab after: ${run.after.operatorName ?? 'no one named'} with ${run.after.trainName} at ${run.after.fastDepart}`);
+  if (run.note) lines.push(run.note);
+  return lines.join('\n');
+}
+
+/**
+ * A calendar file to download or subscribe to (no METHOD: it is not an iTIP message, RFC 5545
+ * 3.7.2): one event per session with the session's UID and SEQUENCE, and one per run given.
+ */
+export function buildCalendarFile(input: {
+  name: string;
+  entries: { session: CalendarSession; runs: RunAssignment[]; url?: string }[];
+  now?: Date;
+}): string {
+  const calendar = ical({ prodId: PRODID, name: input.name });
+  const stamp = input.now ?? new Date();
+  for (const { session, runs, url } of input.entries) {
+    const times = sessionTimes(session);
+    calendar.createEvent({
+      id: sessionUid(session.id),
+      sequence: session.sequence,
+      stamp,
+      start: times.start,
+      end: times.end,
+      allDay: times.allDay,
+      summary: session.title,
+      location: session.place || null,
+      description: session.description || null,
+      url: url ?? null,
+      status: STATUS[session.status],
+    });
+    for (const run of runs) {
+      calendar.createEvent({
+        id: runUid(run.runId),
+        sequence: session.sequence,
+        stamp,
+        start: run.departAt,
+        end: run.arriveAt > run.departAt ? run.arriveAt : new Date(run.departAt.getTime() + 60_000),
+        summary: `${run.trainName} on ${run.cabName} — ${session.title}`,
+        location: session.place || null,
+        description: describeRunForCalendar(run),
+        url: url ?? null,
+        status: STATUS[session.status],
+      });
+    }
+  }
+  return finish(calendar);
+}

@@ -1,0 +1,237 @@
+import 'server-only';
+import {
+  getRailwaySession,
+  insertInvitations,
+  listSessionInvitations,
+  markInvitationsQueued,
+  requeueFailedInvitationMail,
+  runInTransaction,
+} from '@/db/queries/invitation-records';
+import { listCrewDuties } from '@/db/queries/crew';
+import { listMembers } from '@/db/queries/memberships';
+import { loadSessionRows } from '@/db/queries/plan-data';
+import { getRailway, recordAudit } from '@/db/queries/railways';
+import { createUser, getUserByEmail } from '@/db/queries/users';
+import type { Session } from '@/db/schema';
+import { buildInvitationCalendar, type Person } from '@/lib/calendar/ics';
+import { AppError, notFound } from '@/lib/errors';
+import { runsOf } from '@/lib/invitations/assignments';
+import { assignmentSummary, buildInvitationBody, type InvitationContent } from '@/lib/invitations/message';
+import { replyExpiry, signReplyToken } from '@/lib/invitations/reply-token';
+import { absoluteUrl } from '@/lib/mail/account-mail';
+import { enqueueMail } from '@/lib/mail/outbox';
+import type { NoticeKind } from '@/lib/validations/invitation';
+
+export type Host = { id: string; name: string; email: string };
+type InvitationRow = ReturnType<typeof listSessionInvitations>[number];
+
+/** The e-mail kind of an invitation message in the outbox. */
+export const INVITATION_MAIL_KIND = 'session-invitation';
+
+/** One key per (invitation, SEQUENCE, METHOD): queueing the same notice twice sends it once. */
+export function invitationDedupeKey(invitationId: string, sequence: number, method: string, resend?: number): string {
+  return `invitation:${invitationId}:${sequence}:${method}${resend ? `:resend-${resend}` : ''}`;
+}
+
+export function replyUrl(token: string, answer: 'accepted' | 'tentative' | 'declined'): string {
+  return absoluteUrl(`/reply?token=${encodeURIComponent(token)}&answer=${answer}`);
+}
+
+function loadSession(railwayId: string, sessionId: string): Session {
+  const session = getRailwaySession(railwayId, sessionId);
+  if (!session) throw notFound('That session');
+  return session;
+}
+
+function requirePublished(session: Session, now: Date) {
+  if (session.status === 'draft') throw new AppError('bad_request', 'Publish the session before inviting the crew.');
+  if (session.status === 'cancelled') {
+    throw new AppError('bad_request', 'This session is cancelled: send the cancellation notice instead of invitations.');
+  }
+  if (session.endsAt.getTime() <= now.getTime()) throw new AppError('bad_request', 'This session is over; there is nothing to invite to.');
+}
+
+/**
+ * Writes one message per invitation into the outbox (nothing is sent here; the worker does that),
+ * REQUEST with the session's SEQUENCE, or CANCEL with STATUS:CANCELLED and a SEQUENCE above the
+ * last one sent (RFC 5546 3.2.5). Returns how many were queued and how many were already there.
+ */
+function queueNotices(input: {
+  session: Session;
+  host: Host;
+  invitations: InvitationRow[];
+  method: 'REQUEST' | 'CANCEL';
+  resend?: boolean;
+  now: Date;
+}): { queued: number; skipped: number } {
+  const { session, host, now } = input;
+  const railway = getRailway(session.railwayId);
+  const rows = loadSessionRows(session.id);
+  if (!railway || !rows) throw notFound('That session');
+  const duties = listCrewDuties(session.id);
+  const timetable = absoluteUrl(`/railways/${session.railwayId}/sessions/${session.id}`);
+  const myRuns = absoluteUrl('/my-runs');
+  let queued = 0;
+  let skipped = 0;
+  const bySequence = new Map<number, string[]>();
+  for (const inv of input.invitations) {
+    const sequence =
+      input.method === 'CANCEL' ? Math.max(session.sequence, (inv.sentSequence ?? -1) + 1) : session.sequence;
+    const token = signReplyToken({
+      railwayId: session.railwayId,
+      invitationId: inv.id,
+      nonce: inv.replyNonce,
+      expiresAt: replyExpiry(session.endsAt, now.getTime()),
+    });
+    const invitee: Person = { name: inv.name, email: inv.email };
+    const content: InvitationContent = {
+      method: input.method,
+      isUpdate: input.method === 'REQUEST' && inv.mailCount > 0 && (inv.sentSequence ?? session.sequence) < session.sequence,
+      session,
+      railwayName: railway.name,
+      host: { name: host.name, email: host.email },
+      invitee,
+      runs: runsOf(rows, inv.userId),
+      duties: duties.filter((d) => d.userId === inv.userId),
+      links: {
+        accept: replyUrl(token, 'accepted'),
+        tentative: replyUrl(token, 'tentative'),
+        decline: replyUrl(token, 'declined'),
+        myRuns,
+        timetable,
+      },
+    };
+    const body = buildInvitationBody(content);
+    const calendar = buildInvitationCalendar({
+      method: input.method,
+      session,
+      sequence,
+      organizer: { name: host.name, email: host.email },
+      attendee: invitee,
+      description: assignmentSummary(content),
+      url: timetable,
+      now,
+    });
+    // For a cancellation the key names the session's sequence, so pressing "send" twice finds it.
+    const keySequence = input.method === 'CANCEL' ? session.sequence : sequence;
+    const added = enqueueMail({
+      railwayId: session.railwayId,
+      invitationId: inv.id,
+      dedupeKey: invitationDedupeKey(inv.id, keySequence, input.method, input.resend ? inv.mailCount : undefined),
+      kind: INVITATION_MAIL_KIND,
+      toAddress: inv.email,
+      subject: body.subject,
+      text: body.text,
+      html: body.html,
+      calendarMethod: input.method,
+      calendar,
+    });
+    if (added) {
+      queued += 1;
+      bySequence.set(sequence, [...(bySequence.get(sequence) ?? []), inv.id]);
+    } else {
+      skipped += 1;
+    }
+  }
+  for (const [sequence, ids] of bySequence) markInvitationsQueued(ids, sequence);
+  return { queued, skipped };
+}
+
+/**
+ * Host: invites members and guests (by e-mail) to a published session and queues their
+ * invitations, in one transaction. A guest without an account gets one with no password; they
+ * become an operator of the railway when they accept.
+ */
+export function inviteToSession(input: {
+  railwayId: string;
+  sessionId: string;
+  host: Host;
+  userIds: string[];
+  guestEmails: string[];
+  now?: Date;
+}) {
+  const now = input.now ?? new Date();
+  return runInTransaction(() => {
+    const session = loadSession(input.railwayId, input.sessionId);
+    requirePublished(session, now);
+    const members = new Map(listMembers(input.railwayId).map((m) => [m.userId, m]));
+    const byEmail = new Map([...members.values()].map((m) => [m.email, m]));
+    const unknown = input.userIds.filter((id) => !members.has(id));
+    if (unknown.length) {
+      throw new AppError('bad_request', 'Some of the people picked are not members of this railway.', {
+        issues: [{ path: 'userIds', message: 'Pick members of this railway only.' }],
+      });
+    }
+    const invitees = new Map<string, { userId: string; email: string }>();
+    for (const id of input.userIds) invitees.set(id, { userId: id, email: members.get(id)!.email });
+    let newAccounts = 0;
+    for (const email of input.guestEmails) {
+      const member = byEmail.get(email);
+      const user =
+        member ? { id: member.userId, email: member.email } : (getUserByEmail(email) ?? (newAccounts++, createUser({ email, name: email.split('@')[0] ?? email, passwordHash: null })));
+      invitees.set(user.id, { userId: user.id, email: user.email });
+    }
+    const already = new Set(listSessionInvitations(session.id).map((i) => i.userId));
+    const fresh = insertInvitations(session.id, [...invitees.values()].filter((i) => !already.has(i.userId)));
+    const freshIds = new Set(fresh.map((f) => f.id));
+    const toSend = listSessionInvitations(session.id).filter((i) => freshIds.has(i.id));
+    const result = queueNotices({ session, host: input.host, invitations: toSend, method: 'REQUEST', now });
+    recordAudit({
+      railwayId: input.railwayId,
+      userId: input.host.id,
+      action: 'invite',
+      entity: 'session',
+      entityId: session.id,
+      detail: { invited: fresh.length, alreadyInvited: invitees.size - fresh.length, newAccounts },
+    });
+    return { invited: fresh.length, alreadyInvited: invitees.size - fresh.length, queued: result.queued };
+  });
+}
+
+/**
+ * Host: sends what the session's state calls for. "pending": the invitation to everyone invited
+ * who has had no e-mail yet; "update": the new SEQUENCE to everyone who was sent an older one
+ * (RFC 5546 2.1.4); "cancel": METHOD:CANCEL to everyone who was sent anything (RFC 5546 3.2.5).
+ */
+export function sendNotices(input: { railwayId: string; sessionId: string; host: Host; kind: NoticeKind; now?: Date }) {
+  const now = input.now ?? new Date();
+  return runInTransaction(() => {
+    const session = loadSession(input.railwayId, input.sessionId);
+    const all = listSessionInvitations(session.id);
+    let result: { queued: number; skipped: number };
+    if (input.kind === 'cancel') {
+      if (session.status !== 'cancelled') throw new AppError('bad_request', 'Only a cancelled session sends a cancellation notice.');
+      result = queueNotices({ session, host: input.host, invitations: all.filter((i) => i.mailCount > 0), method: 'CANCEL', now });
+    } else {
+      requirePublished(session, now);
+      const chosen =
+        input.kind === 'pending'
+          ? all.filter((i) => i.mailCount === 0)
+          : all.filter((i) => i.mailCount > 0 && (i.sentSequence ?? -1) < session.sequence);
+      result = queueNotices({ session, host: input.host, invitations: chosen, method: 'REQUEST', now });
+    }
+    recordAudit({ railwayId: input.railwayId, userId: input.host.id, action: `send-${input.kind}`, entity: 'session', entityId: session.id, detail: result });
+    return result;
+  });
+}
+
+/**
+ * Host: sends one invitation again. A failed e-mail goes back in the queue as it was; otherwise a
+ * fresh copy (current SEQUENCE, current reply links) is queued.
+ */
+export function resendInvitation(input: { railwayId: string; sessionId: string; host: Host; invitationId: string; now?: Date }) {
+  const now = input.now ?? new Date();
+  return runInTransaction(() => {
+    const session = loadSession(input.railwayId, input.sessionId);
+    const invitation = listSessionInvitations(session.id).find((i) => i.id === input.invitationId);
+    if (!invitation) throw notFound('That invitation');
+    if (invitation.mail?.status === 'failed' && requeueFailedInvitationMail(invitation.mail.outboxId, invitation.id)) {
+      return { requeued: true, queued: 1 };
+    }
+    const method = session.status === 'cancelled' ? 'CANCEL' : 'REQUEST';
+    if (method === 'REQUEST') requirePublished(session, now);
+    else if (invitation.mailCount === 0) throw new AppError('bad_request', 'Nothing was sent to this person, so there is nothing to cancel.');
+    const result = queueNotices({ session, host: input.host, invitations: [invitation], method, resend: invitation.mailCount > 0, now });
+    return { requeued: false, queued: result.queued };
+  });
+}
