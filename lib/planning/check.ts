@@ -1,7 +1,7 @@
-import { formatSessionTime } from './clock';
 import { compareFindings, orderedPair, type Finding } from './finding';
 import { forEachOverlap, groupBy, sortByKey } from './intervals';
 import { buildLoadProfile, findPowerOverloads, type LoadProfile } from './load';
+import { planNames, withNoun, type PlanNames } from './names';
 import { indexPlan, type PlanIndex } from './plan-index';
 import type { Plan } from './schema';
 import { findVoltageIssues } from './voltage';
@@ -37,24 +37,23 @@ export interface PlanCheck {
  */
 export function checkPlan(plan: Plan): PlanCheck {
   const index = indexPlan(plan);
+  const names = planNames(plan);
   const findings: Finding[] = [];
-  findBlockOverlaps(plan, index, findings);
-  findDoubleBookings(plan, index.runCab, plan.cabs, 'cab-double-booked', 'cab', findings);
-  findDoubleBookings(plan, index.runOperator, plan.operators, 'operator-double-booked', 'operator', findings);
-  findDoubleBookings(plan, index.runTrain, plan.trains, 'train-double-booked', 'train', findings);
-  findContinuityBreaks(plan, index, findings);
-  findRouteGaps(plan, index, findings);
-  findTooLong(plan, index, findings);
+  findBlockOverlaps(plan, index, names, findings);
+  findDoubleBookings(plan, index.runCab, plan.cabs, 'cab-double-booked', (id) => withNoun('cab', names.cab(id)), names, findings);
+  findDoubleBookings(plan, index.runOperator, plan.operators, 'operator-double-booked', names.operator, names, findings);
+  findDoubleBookings(plan, index.runTrain, plan.trains, 'train-double-booked', (id) => withNoun('train', names.train(id)), names, findings);
+  findContinuityBreaks(plan, index, names, findings);
+  findRouteGaps(plan, index, names, findings);
+  findTooLong(plan, index, names, findings);
   const load = buildLoadProfile(plan, index);
-  findPowerOverloads(load, plan.rules.derate, findings);
-  findVoltageIssues(plan, index, findings);
+  findPowerOverloads(load, plan.rules.derate, findings, names);
+  findVoltageIssues(plan, index, findings, names);
   findings.sort(compareFindings);
   return { findings, load };
 }
 
-const at = formatSessionTime;
-
-function findBlockOverlaps(plan: Plan, index: PlanIndex, findings: Finding[]): void {
+function findBlockOverlaps(plan: Plan, index: PlanIndex, names: PlanNames, findings: Finding[]): void {
   const headway = plan.rules.headwayS;
   const { stepEnter, stepExit, stepRun, stepBlock } = index;
   const reach = new Float64Array(stepExit.length);
@@ -92,10 +91,12 @@ function findBlockOverlaps(plan: Plan, index: PlanIndex, findings: Finding[]): v
     const blockId = plan.blocks[b]!.id;
     for (const pair of pairs.values()) {
       const [runA, runB] = orderedPair(plan.runs[pair.a]!.id, plan.runs[pair.b]!.id);
+      const both = `${names.run(runA)} and ${names.run(runB)}`;
+      const block = withNoun('block', names.block(blockId));
       const message = pair.shared
-        ? `runs "${runA}" and "${runB}" are both in block "${blockId}" from ${at(pair.fromS)} to ${at(pair.toS)}`
-        : `runs "${runA}" and "${runB}" pass through block "${blockId}" only ${round1(pair.toS - pair.fromS)} s apart ` +
-          `(${at(pair.fromS)} to ${at(pair.toS)}); the headway is ${headway} s`;
+        ? `${both} are both in ${block} ${names.span(pair.fromS, pair.toS)}`
+        : `${both} pass through ${block} only ${round1(pair.toS - pair.fromS)} s apart ` +
+          `(${names.span(pair.fromS, pair.toS)}); the headway is ${headway} s`;
       findings.push({
         kind: 'block-overlap',
         severity: 'error',
@@ -113,7 +114,8 @@ function findDoubleBookings(
   runOwner: Int32Array,
   owners: readonly { id: string }[],
   kind: 'cab-double-booked' | 'operator-double-booked' | 'train-double-booked',
-  noun: string,
+  ownerName: (id: string) => string,
+  names: PlanNames,
   findings: Finding[],
 ): void {
   const runs = plan.runs;
@@ -136,13 +138,13 @@ function findDoubleBookings(
         ids: [ownerId, runA, runB],
         fromS,
         toS,
-        message: `${noun} "${ownerId}" is booked for runs "${runA}" and "${runB}" at once, from ${at(fromS)} to ${at(toS)}`,
+        message: `${ownerName(ownerId)} is booked for ${names.run(runA)} and ${names.run(runB)} at once, ${names.span(fromS, toS)}`,
       });
     });
   }
 }
 
-function findContinuityBreaks(plan: Plan, index: PlanIndex, findings: Finding[]): void {
+function findContinuityBreaks(plan: Plan, index: PlanIndex, names: PlanNames, findings: Finding[]): void {
   const runs = plan.runs;
   const { items, offsets } = groupBy(index.runTrain, plan.trains.length);
   for (let t = 0; t < plan.trains.length; t++) {
@@ -168,13 +170,15 @@ function findContinuityBreaks(plan: Plan, index: PlanIndex, findings: Finding[])
         ids: [trainId, earlier.id, later.id],
         fromS: Math.min(earlier.arriveS, later.departS),
         toS: Math.max(earlier.arriveS, later.departS),
-        message: `train "${trainId}" ends run "${earlier.id}" in block "${endedIn}" but starts run "${later.id}" in block "${startsIn}"`,
+        message:
+          `${withNoun('train', names.train(trainId))} ends ${names.run(earlier.id)} in ${withNoun('block', names.block(endedIn))} ` +
+          `but starts ${names.run(later.id)} in ${withNoun('block', names.block(startsIn))}`,
       });
     }
   }
 }
 
-function findRouteGaps(plan: Plan, index: PlanIndex, findings: Finding[]): void {
+function findRouteGaps(plan: Plan, index: PlanIndex, names: PlanNames, findings: Finding[]): void {
   const blockCount = plan.blocks.length;
   const joined = new Set<number>();
   for (const link of plan.links) {
@@ -199,13 +203,15 @@ function findRouteGaps(plan: Plan, index: PlanIndex, findings: Finding[]): void 
         ids: [run.id, before.blockId, after.blockId],
         fromS: Math.min(before.exitS, after.enterS),
         toS: Math.max(before.exitS, after.enterS),
-        message: `run "${run.id}" goes from block "${before.blockId}" to block "${after.blockId}", which no link joins`,
+        message:
+          `${names.run(run.id)} goes from ${withNoun('block', names.block(before.blockId))} straight to ` +
+          `${withNoun('block', names.block(after.blockId))}, which no link joins`,
       });
     }
   });
 }
 
-function findTooLong(plan: Plan, index: PlanIndex, findings: Finding[]): void {
+function findTooLong(plan: Plan, index: PlanIndex, names: PlanNames, findings: Finding[]): void {
   plan.runs.forEach((run, r) => {
     const train = plan.trains[index.runTrain[r]!];
     if (train === undefined) return;
@@ -227,7 +233,9 @@ function findTooLong(plan: Plan, index: PlanIndex, findings: Finding[]): void {
         ids: [run.id, block.id],
         fromS: stand.fromS,
         toS: stand.toS,
-        message: `run "${run.id}" ${stand.where} in block "${block.id}" (${block.lengthMm} mm), shorter than train "${train.id}" (${train.lengthMm} mm)`,
+        message:
+          `${names.run(run.id)} ${stand.where} in ${withNoun('block', names.block(block.id))} (${block.lengthMm} mm), ` +
+          `shorter than the train (${train.lengthMm} mm)`,
       });
     }
   });

@@ -1,6 +1,7 @@
 import { formatSessionTime } from './clock';
 import type { Finding, FindingKind } from './finding';
 import { sortByKey } from './intervals';
+import { withNoun, type PlanNames } from './names';
 import { indexPlan, type PlanIndex } from './plan-index';
 import { AMPS_TOLERANCE } from './rules';
 import type { Plan } from './schema';
@@ -218,29 +219,35 @@ function overloads(
 }
 
 const amps = (value: number) => `${Math.round(value * 1000) / 1000} A`;
-const span = (fromS: number, toS: number) => `from ${formatSessionTime(fromS)} to ${formatSessionTime(toS)}`;
 
-/** The five power findings over a load profile. */
-export function findPowerOverloads(profile: LoadProfile, derate: number, findings: Finding[]): void {
+/**
+ * The five power findings over a load profile. `names` words the messages (checkPlan passes the
+ * plan's); without it, series are named as the profile names them and times as session time.
+ */
+export function findPowerOverloads(profile: LoadProfile, derate: number, findings: Finding[], names?: PlanNames): void {
+  const span = names
+    ? names.span
+    : (fromS: number, toS: number) => `from ${formatSessionTime(fromS)} to ${formatSessionTime(toS)}`;
+  const called = (s: LoadSeries, noun: string) => withNoun(noun, s.name.trim() || `"${s.id}"`);
   for (const cab of profile.cabs) {
     overloads(cab, 1, cab.runningLimitAmps, 'channel-overload', 'error', (peak, limit, from, to) =>
-      `cab "${cab.id}" draws up to ${amps(peak)} running ${span(from, to)}, above its channel's ${amps(limit)} continuous rating`,
+      `${called(cab, 'cab')} draws up to ${amps(peak)} running ${span(from, to)}, above its channel's ${amps(limit)} continuous rating`,
       findings);
     overloads(cab, 2, cab.peakLimitAmps, 'channel-peak-overload', 'error', (peak, limit, from, to) =>
-      `cab "${cab.id}" draws up to ${amps(peak)} with start-up surge ${span(from, to)}, above its channel's ${amps(limit)} peak rating`,
+      `${called(cab, 'cab')} draws up to ${amps(peak)} with start-up surge ${span(from, to)}, above its channel's ${amps(limit)} peak rating`,
       findings);
   }
   for (const driver of profile.drivers) {
     overloads(driver, 2, driver.peakLimitAmps, 'driver-overload', 'error', (peak, limit, from, to) =>
-      `driver "${driver.id}" carries up to ${amps(peak)} across its channels ${span(from, to)}, above its ${amps(limit)} total rating`,
+      `${called(driver, 'driver')} carries up to ${amps(peak)} across its channels ${span(from, to)}, above its ${amps(limit)} total rating`,
       findings);
   }
   for (const supply of profile.supplies) {
     overloads(supply, 2, supply.peakLimitAmps, 'supply-overload', 'error', (peak, limit, from, to) =>
-      `supply "${supply.id}" must deliver up to ${amps(peak)} ${span(from, to)}, above its ${amps(limit)} rating`,
+      `${called(supply, 'supply')} must deliver up to ${amps(peak)} ${span(from, to)}, above its ${amps(limit)} rating`,
       findings);
     overloads(supply, 1, supply.runningLimitAmps, 'supply-derate', 'warning', (peak, limit, from, to) =>
-      `supply "${supply.id}" runs at up to ${amps(peak)} ${span(from, to)}, above ${Math.round(derate * 100)} % of its rating (${amps(limit)}); continuous loads are best kept to 80 %`,
+      `${called(supply, 'supply')} runs at up to ${amps(peak)} ${span(from, to)}, above ${Math.round(derate * 100)} % of its rating (${amps(limit)}); continuous loads are best kept to 80 %`,
       findings);
   }
 }

@@ -1,4 +1,5 @@
 import type { Finding } from './finding';
+import { planNames, withNoun, type PlanNames } from './names';
 import type { PlanIndex } from './plan-index';
 import { VOLTS_TOLERANCE } from './rules';
 import { gaugeForScale } from './scales';
@@ -34,7 +35,7 @@ const volts = (value: number) => `${Math.round(value * 100) / 100} V`;
  *   also sets as the least full-throttle voltage at the rails). Skipped when the plan's scale is not
  *   in the scale table, since there is no standard gauge to judge by.
  */
-export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Finding[]): void {
+export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Finding[], names: PlanNames = planNames(plan)): void {
   const gauge = gaugeForScale(plan.scale);
   const nominal = gauge === null ? null : nominalTrackVolts(gauge);
   const locoOf = new Map<string, Plan['locos'][number]>();
@@ -85,7 +86,7 @@ export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Findin
       fromS: entry.fromS,
       toS: entry.toS,
       message:
-        `cab "${cab.id}" puts ${volts(track)} on the rails at full throttle, above the ${volts(loco.ratedVolts)} rating of loco "${loco.id}" ` +
+        `${withNoun('cab', names.cab(cab.id))} puts ${volts(track)} on the rails at full throttle, above the ${volts(loco.ratedVolts)} rating of ${names.loco(loco.id)} ` +
         `(${entry.runs} run${entry.runs === 1 ? '' : 's'}); keep its duty at or below ${safeDuty} % (NEM 630 Table 2 judges PWM by its average voltage)`,
     });
   }
@@ -105,7 +106,7 @@ export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Findin
       fromS,
       toS,
       message:
-        `cab "${cab.id}" gives at most ${volts(track)} at the rails (supply ${volts(supply.volts)} less ${volts(driver.dropVolts)} bridge drop), ` +
+        `${withNoun('cab', names.cab(cab.id))} gives at most ${volts(track)} at the rails (supply ${volts(supply.volts)} less ${volts(driver.dropVolts)} bridge drop), ` +
         `below the ${nominal} V nominal of NEM 630 Table 1 for ${gauge} mm gauge${nmra}; trains may not reach their top speed`,
     });
   }

@@ -1,0 +1,74 @@
+import { formatFast } from './clock';
+import type { Plan } from './schema';
+
+/** How findings name the things of a plan: by the names people gave them, never by ids. */
+export interface PlanNames {
+  /** A run as its train and fast-clock departure, e.g. `Pick-up goods (06:56 departure)`. */
+  run(runId: string): string;
+  block(blockId: string): string;
+  cab(cabId: string): string;
+  operator(operatorId: string): string;
+  train(trainId: string): string;
+  driver(driverId: string): string;
+  supply(supplyId: string): string;
+  loco(locoId: string): string;
+  /** A real session time on the fast clock's face, `HH:MM`. */
+  fast(realS: number): string;
+  /** `from HH:MM to HH:MM fast` (one time when both fall in the same fast minute). */
+  span(fromS: number, toS: number): string;
+}
+
+function namesOf(list: readonly { id: string; name: string }[]): Map<string, string> {
+  const map = new Map<string, string>();
+  for (const item of list) if (!map.has(item.id)) map.set(item.id, item.name.trim());
+  return map;
+}
+
+/**
+ * Name lookups for a plan's findings. A thing with an empty name (or an id the plan does not
+ * hold) falls back to its id in quotes, so a message always says which one is meant.
+ */
+export function planNames(plan: Plan): PlanNames {
+  const blocks = namesOf(plan.blocks);
+  const cabs = namesOf(plan.cabs);
+  const operators = namesOf(plan.operators);
+  const trains = namesOf(plan.trains);
+  const drivers = namesOf(plan.drivers);
+  const supplies = namesOf(plan.supplies);
+  const locos = namesOf(plan.locos);
+  const runs = new Map<string, { trainId: string; departS: number }>();
+  for (const run of plan.runs) if (!runs.has(run.id)) runs.set(run.id, run);
+  const lookup = (map: Map<string, string>) => (id: string) => {
+    const name = map.get(id);
+    return name ? name : `"${id}"`;
+  };
+  const fast = (realS: number) => formatFast(realS, plan.clock);
+  const train = lookup(trains);
+  return {
+    run: (runId) => {
+      const run = runs.get(runId);
+      return run ? `${train(run.trainId)} (${fast(run.departS)} departure)` : `run "${runId}"`;
+    },
+    block: lookup(blocks),
+    cab: lookup(cabs),
+    operator: lookup(operators),
+    train,
+    driver: lookup(drivers),
+    supply: lookup(supplies),
+    loco: lookup(locos),
+    fast,
+    span: (fromS, toS) => {
+      const from = fast(fromS);
+      const to = fast(toS);
+      return from === to ? `at ${from} fast` : `from ${from} to ${to} fast`;
+    },
+  };
+}
+
+/**
+ * `Cab 3` stays `Cab 3`, but a cab named `North` becomes `cab North`: the noun is added only when
+ * the name does not already say what it is.
+ */
+export function withNoun(noun: string, name: string): string {
+  return name.toLowerCase().includes(noun.toLowerCase()) ? name : `${noun} ${name}`;
+}
