@@ -1,0 +1,26 @@
+import { parseOrThrow } from '@/lib/errors';
+import { handler } from '@/lib/http';
+import { snapshotOf } from '@/lib/sessions/builder';
+import { requireSession } from '@/lib/sessions/access';
+import { sessionParamsSchema } from './schema';
+
+export const dynamic = 'force-dynamic';
+
+/** The engine's findings and load profile for the stored session. */
+const getCheck = handler<{ sessionId: string }>(async (_request, { params }) => {
+  const { sessionId } = parseOrThrow(sessionParamsSchema, await params);
+  const { session } = await requireSession(sessionId, 'view');
+  const { findings, load, checkMs, runs } = snapshotOf(session.id);
+  const errors = findings.filter((f) => f.severity === 'error').length;
+  return Response.json({
+    sessionId: session.id,
+    runCount: runs.length,
+    errors,
+    warnings: findings.length - errors,
+    findings,
+    load,
+    checkMs,
+  });
+});
+
+export { getCheck as GET };

@@ -1,0 +1,1 @@
+export { sessionParamsSchema } from '@/lib/validations/session';

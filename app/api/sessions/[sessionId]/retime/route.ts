@@ -1,0 +1,28 @@
+import { parseOrThrow, readJson } from '@/lib/errors';
+import { handler } from '@/lib/http';
+import { requireSession } from '@/lib/sessions/access';
+import { assertTimetableEditable } from '@/lib/sessions/changes';
+import { applyMoves, retimeSuggestions } from '@/lib/sessions/retime';
+import { retimeMovesSchema, sessionParamsSchema } from './schema';
+
+export const dynamic = 'force-dynamic';
+
+type Params = { sessionId: string };
+
+/** The engine's proposed delays (suggestRetime) as old and new departures; changes nothing. */
+const suggest = handler<Params>(async (_request, { params }) => {
+  const { sessionId } = parseOrThrow(sessionParamsSchema, await params);
+  const { session } = await requireSession(sessionId, 'edit');
+  return Response.json({ moves: retimeSuggestions(session.id) });
+});
+
+/** Applies delays (usually the suggested ones) in one transaction; answers with the moves that undo them. */
+const apply = handler<Params>(async (request, { params }) => {
+  const { sessionId } = parseOrThrow(sessionParamsSchema, await params);
+  const { session, member } = await requireSession(sessionId, 'edit');
+  assertTimetableEditable(session);
+  const { moves } = parseOrThrow(retimeMovesSchema, await readJson(request));
+  return Response.json(applyMoves(session, member, moves, 'retime'));
+});
+
+export { suggest as GET, apply as POST };

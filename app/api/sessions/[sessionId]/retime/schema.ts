@@ -1,0 +1,1 @@
+export { retimeMovesSchema, sessionParamsSchema } from '@/lib/validations/session';

@@ -1,0 +1,1 @@
+export { retimeMovesSchema as undoRetimeSchema, sessionParamsSchema } from '@/lib/validations/session';

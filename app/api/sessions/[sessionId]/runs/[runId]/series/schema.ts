@@ -1,0 +1,1 @@
+export { runParamsSchema, seriesSchema } from '@/lib/validations/session';

@@ -1,0 +1,1 @@
+export { createRunSchema, sessionParamsSchema } from '@/lib/validations/session';

@@ -1,0 +1,186 @@
+import 'server-only';
+import { and, asc, eq, inArray } from 'drizzle-orm';
+import { getDb, type Db } from '@/db';
+import { runs, runSteps } from '@/db/schema';
+
+export type StepValues = { blockId: string; enterS: number; exitS: number };
+
+/** A run as the builder sees it: its row and its steps in order. */
+export type StoredRun = {
+  id: string;
+  version: number;
+  trainId: string;
+  cabId: string;
+  operatorId: string | null;
+  departS: number;
+  arriveS: number;
+  speedKmh: number | null;
+  note: string;
+  steps: StepValues[];
+};
+
+export type RunValues = Omit<StoredRun, 'id' | 'version'> & { id?: string };
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+const STEP_CHUNK = 1000;
+
+function writeSteps(tx: Tx, runId: string, steps: readonly StepValues[]) {
+  for (let i = 0; i < steps.length; i += STEP_CHUNK) {
+    tx.insert(runSteps)
+      .values(steps.slice(i, i + STEP_CHUNK).map((s, j) => ({ runId, position: i + j, blockId: s.blockId, enterS: s.enterS, exitS: s.exitS })))
+      .run();
+  }
+}
+
+function readRun(tx: Tx | Db, sessionId: string, runId: string): StoredRun | undefined {
+  const row = tx
+    .select()
+    .from(runs)
+    .where(and(eq(runs.id, runId), eq(runs.sessionId, sessionId)))
+    .get();
+  if (!row) return undefined;
+  const steps = tx
+    .select({ blockId: runSteps.blockId, enterS: runSteps.enterS, exitS: runSteps.exitS })
+    .from(runSteps)
+    .where(eq(runSteps.runId, runId))
+    .orderBy(asc(runSteps.position))
+    .all();
+  const { sessionId: _s, ...rest } = row;
+  return { ...rest, steps };
+}
+
+/** One run of a session with its steps, or undefined (also when it belongs to another session). */
+export function getRun(sessionId: string, runId: string): StoredRun | undefined {
+  return readRun(getDb(), sessionId, runId);
+}
+
+/** Inserts runs with their steps in one transaction; returns their ids in order. */
+export function insertRuns(sessionId: string, values: readonly RunValues[]): string[] {
+  const db = getDb();
+  return db.transaction((tx) =>
+    values.map((v) => {
+      const { steps, ...row } = v;
+      const id = tx.insert(runs).values({ ...row, sessionId }).returning({ id: runs.id }).get().id;
+      writeSteps(tx, id, steps);
+      return id;
+    }),
+  );
+}
+
+export type RunPatch = Partial<Omit<StoredRun, 'id' | 'version' | 'steps'>> & { steps?: StepValues[] };
+
+/**
+ * Applies a patch to a run if it is still at `version` (steps are replaced when given), raising its
+ * version. `stale` carries the current run for the 409 answer.
+ */
+export function updateRun(
+  sessionId: string,
+  runId: string,
+  version: number,
+  patch: RunPatch,
+): { run: StoredRun } | { stale: StoredRun } | { missing: true } {
+  const db = getDb();
+  return db.transaction((tx) => {
+    const current = readRun(tx, sessionId, runId);
+    if (!current) return { missing: true as const };
+    if (current.version !== version) return { stale: current };
+    const { steps, ...row } = patch;
+    tx.update(runs)
+      .set({ ...row, version: current.version + 1 })
+      .where(eq(runs.id, runId))
+      .run();
+    if (steps) {
+      tx.delete(runSteps).where(eq(runSteps.runId, runId)).run();
+      writeSteps(tx, runId, steps);
+    }
+    return { run: readRun(tx, sessionId, runId)! };
+  });
+}
+
+/** Deletes a run if it is still at `version`; returns what was deleted (for undo). */
+export function deleteRun(
+  sessionId: string,
+  runId: string,
+  version: number,
+): { deleted: StoredRun } | { stale: StoredRun } | { missing: true } {
+  const db = getDb();
+  return db.transaction((tx) => {
+    const current = readRun(tx, sessionId, runId);
+    if (!current) return { missing: true as const };
+    if (current.version !== version) return { stale: current };
+    tx.delete(runs).where(eq(runs.id, runId)).run();
+    return { deleted: current };
+  });
+}
+
+/**
+ * Shifts runs (departure, arrival and every step) by their delay in one transaction, if every one
+ * is still at the version named; otherwise nothing changes and the stale runs come back.
+ */
+export function shiftRuns(
+  sessionId: string,
+  moves: readonly { runId: string; version: number; delayS: number }[],
+): { shifted: StoredRun[] } | { stale: StoredRun[] } | { missing: string[] } {
+  const db = getDb();
+  return db.transaction((tx) => {
+    const ids = moves.map((m) => m.runId);
+    const rows = tx
+      .select()
+      .from(runs)
+      .where(and(eq(runs.sessionId, sessionId), inArray(runs.id, ids)))
+      .all();
+    const byId = new Map(rows.map((r) => [r.id, r]));
+    const missing = ids.filter((runId) => !byId.has(runId));
+    if (missing.length) return { missing };
+    const stale = moves.filter((m) => byId.get(m.runId)!.version !== m.version).map((m) => readRun(tx, sessionId, m.runId)!);
+    if (stale.length) return { stale };
+    const shifted: StoredRun[] = [];
+    for (const move of moves) {
+      const row = byId.get(move.runId)!;
+      const current = readRun(tx, sessionId, move.runId)!;
+      tx.update(runs)
+        .set({ departS: row.departS + move.delayS, arriveS: row.arriveS + move.delayS, version: row.version + 1 })
+        .where(eq(runs.id, move.runId))
+        .run();
+      tx.delete(runSteps).where(eq(runSteps.runId, move.runId)).run();
+      writeSteps(
+        tx,
+        move.runId,
+        current.steps.map((s) => ({ blockId: s.blockId, enterS: s.enterS + move.delayS, exitS: s.exitS + move.delayS })),
+      );
+      shifted.push(readRun(tx, sessionId, move.runId)!);
+    }
+    return { shifted };
+  });
+}
+
+/**
+ * Replaces every run of a session in one transaction. A run keeps its id when the id is free or
+ * already this session's (so a plan read and posted back leaves the session as it was).
+ */
+export function replaceSessionRuns(sessionId: string, values: readonly RunValues[]): number {
+  const db = getDb();
+  return db.transaction((tx) => {
+    tx.delete(runs).where(eq(runs.sessionId, sessionId)).run();
+    const wanted = values.map((v) => v.id).filter((x): x is string => Boolean(x));
+    const taken = new Set(
+      wanted.length
+        ? tx.select({ id: runs.id }).from(runs).where(inArray(runs.id, wanted)).all().map((r) => r.id)
+        : [],
+    );
+    const used = new Set<string>();
+    for (const v of values) {
+      const { steps, id, ...row } = v;
+      const keep = id && !taken.has(id) && !used.has(id) ? id : undefined;
+      if (keep) used.add(keep);
+      const runId = tx
+        .insert(runs)
+        .values({ ...row, ...(keep ? { id: keep } : {}), sessionId })
+        .returning({ id: runs.id })
+        .get().id;
+      writeSteps(tx, runId, steps);
+    }
+    return values.length;
+  });
+}

@@ -1,0 +1,37 @@
+import 'server-only';
+import { getSessionById, isInvited } from '@/db/queries/session-records';
+import type { Session } from '@/db/schema';
+import { requireMember, requireUser, type Member } from '@/lib/auth';
+import { notFound } from '@/lib/errors';
+
+/**
+ * The gate for one session. `edit` needs a planner or host of the session's railway; `view` lets an
+ * operator in only to a published session they are invited to. No session: 401; another railway's
+ * session, an unknown id, or one an operator may not see: 404; an operator editing: 403.
+ */
+export async function requireSession(sessionId: string, need: 'view' | 'edit'): Promise<{ member: Member; session: Session }> {
+  const user = await requireUser();
+  const session = getSessionById(sessionId);
+  if (!session) throw notFound('That session');
+  let member: Member;
+  try {
+    member = await requireMember(session.railwayId, need === 'edit' ? 'planner' : 'operator', 'change this timetable');
+  } catch (error) {
+    // An operator who may not even see the session should not learn that it exists.
+    if (need === 'edit' && error instanceof Error && 'status' in error && error.status === 403 && !operatorMaySee(session, user.id)) {
+      throw notFound('That session');
+    }
+    throw error;
+  }
+  if (member.role === 'operator' && !operatorMaySee(session, user.id)) throw notFound('That session');
+  return { member, session };
+}
+
+function operatorMaySee(session: Session, userId: string): boolean {
+  return session.status === 'published' && isInvited(session.id, userId);
+}
+
+/** Whether this member may change the session's timetable and settings. */
+export function canEdit(member: Member): boolean {
+  return member.role === 'planner' || member.role === 'host';
+}

@@ -1,0 +1,194 @@
+import 'server-only';
+import { loadSessionRows } from '@/db/queries/plan-data';
+import { rsvpByUser } from '@/db/queries/session-records';
+import type { StoredRun } from '@/db/queries/runs';
+import type { Session } from '@/db/schema';
+import { AppError, notFound, type Issue } from '@/lib/errors';
+import {
+  checkPlan,
+  fastToReal,
+  findRoute,
+  formatIssuePath,
+  parseFastTime,
+  planSchema,
+  timeRun,
+  type FastClock,
+  type Plan,
+  type TimedRun,
+} from '@/lib/planning';
+import { sessionToPlan } from '@/lib/sessions/to-plan';
+import type { BuilderLayout, BuilderRun, BuilderSession, BuilderSnapshot } from '@/lib/sessions/types';
+
+export type SessionRows = NonNullable<ReturnType<typeof loadSessionRows>>;
+
+/** A stored session's rows and its plan interchange. */
+export function loadSessionPlan(sessionId: string): { rows: SessionRows; plan: Plan } {
+  const rows = loadSessionRows(sessionId);
+  if (!rows) throw notFound('That session');
+  return { rows, plan: sessionToPlan(rows) };
+}
+
+export function sessionView(session: Session): BuilderSession {
+  return {
+    id: session.id,
+    railwayId: session.railwayId,
+    title: session.title,
+    status: session.status,
+    version: session.version,
+    sequence: session.sequence,
+    startsAtMs: session.startsAt.getTime(),
+    endsAtMs: session.endsAt.getTime(),
+    timeZone: session.timeZone,
+    clockRatio: session.clockRatio,
+    fastStart: session.fastStart,
+    headwayS: session.headwayS,
+    surgeS: session.surgeS,
+    derate: session.derate,
+  };
+}
+
+/** The runs of the loaded rows with their steps, in departure order. */
+export function runsOf(rows: SessionRows): BuilderRun[] {
+  const stepsOf = new Map<string, BuilderRun['steps']>();
+  for (const s of rows.steps) {
+    const list = stepsOf.get(s.runId) ?? [];
+    list.push({ blockId: s.blockId, enterS: s.enterS, exitS: s.exitS });
+    stepsOf.set(s.runId, list);
+  }
+  return rows.runs.map((r) => ({
+    id: r.id,
+    version: r.version,
+    trainId: r.trainId,
+    cabId: r.cabId,
+    operatorId: r.operatorId,
+    departS: r.departS,
+    arriveS: r.arriveS,
+    speedKmh: r.speedKmh,
+    note: r.note,
+    steps: stepsOf.get(r.id) ?? [],
+  }));
+}
+
+/** The session as stored, checked now: what every builder handler answers with. */
+export function snapshotOf(sessionId: string): BuilderSnapshot {
+  const started = performance.now();
+  const { rows, plan } = loadSessionPlan(sessionId);
+  const check = checkPlan(plan);
+  return {
+    session: sessionView(rows.session),
+    runs: runsOf(rows),
+    findings: check.findings,
+    load: check.load,
+    checkMs: Math.round((performance.now() - started) * 10) / 10,
+  };
+}
+
+/** The layout and crew the builder draws with. */
+export function builderLayout(rows: SessionRows): BuilderLayout {
+  const topSpeed = new Map(rows.locomotives.map((l) => [l.id, l.topSpeedKmh]));
+  const consist = new Map<string, number[]>();
+  for (const c of rows.consists) consist.set(c.trainId, [...(consist.get(c.trainId) ?? []), topSpeed.get(c.locomotiveId) ?? Infinity]);
+  const rsvp = rsvpByUser(rows.session.id);
+  return {
+    scaleRatio: rows.layout?.scaleRatio ?? 87,
+    blocks: rows.blocks.map((b) => ({ id: b.id, name: b.name, lengthMm: b.lengthMm, positionMm: b.positionMm })),
+    links: rows.links.map((l) => ({ a: l.blockAId, b: l.blockBId })),
+    cabs: rows.cabs.map((c) => ({ id: c.id, name: c.name, driverId: c.driverId, channel: c.channel })),
+    drivers: rows.drivers.map((d) => ({ id: d.id, name: d.name, supplyId: d.supplyId })),
+    supplies: rows.supplies.map((s) => ({ id: s.id, name: s.name })),
+    trains: rows.trains.map((t) => {
+      const speeds = consist.get(t.id) ?? [];
+      const top = speeds.length ? Math.min(...speeds) : Infinity;
+      return { id: t.id, name: t.name, lengthMm: t.lengthMm, topSpeedKmh: Number.isFinite(top) ? top : null };
+    }),
+    operators: rows.operators.map((o) => ({ id: o.id, name: o.name, rsvp: rsvp.get(o.id) ?? null })),
+  };
+}
+
+/**
+ * Real session seconds for a fast-clock time of day (`HH:MM` or `HH:MM:SS`). A time before the
+ * fast start is read as the next fast day, so a session that runs past fast midnight can be typed.
+ */
+export function departureFromFastTime(text: string, clock: FastClock): number {
+  const [h, m, s] = text.split(':').map(Number);
+  const fastS = (h ?? 0) * 3600 + (m ?? 0) * 60 + (s ?? 0);
+  const startS = parseFastTime(clock.fastStart) ?? 0;
+  const realS = fastToReal(fastS < startS ? fastS + 86_400 : fastS, clock);
+  return Math.round(realS * 1000) / 1000;
+}
+
+/**
+ * Times a run with timeRun over the route through the waypoints (each pair joined by findRoute's
+ * shortest route). Bad references answer 400 naming the field.
+ */
+export function timeFromWaypoints(
+  rows: SessionRows,
+  input: { trainId: string; waypoints: string[]; speedKmh: number; standBeforeS: number; standAfterS: number; departS: number },
+): TimedRun {
+  const train = rows.trains.find((t) => t.id === input.trainId);
+  if (!train) throw fieldError('trainId', 'That train is not on this session’s layout.');
+  const blockName = new Map(rows.blocks.map((b) => [b.id, b.name]));
+  input.waypoints.forEach((blockId, i) => {
+    if (!blockName.has(blockId)) throw fieldError(`waypoints[${i}]`, 'That block is not on this session’s layout.');
+  });
+  const track = { blocks: rows.blocks, links: rows.links.map((l) => ({ a: l.blockAId, b: l.blockBId })) };
+  const route: string[] = [input.waypoints[0]!];
+  for (let i = 1; i < input.waypoints.length; i++) {
+    const from = input.waypoints[i - 1]!;
+    const to = input.waypoints[i]!;
+    if (from === to) continue;
+    const leg = findRoute(track, from, to);
+    if (!leg) throw fieldError(`waypoints[${i}]`, `No track joins ${blockName.get(from)} and ${blockName.get(to)}.`);
+    route.push(...leg.slice(1));
+  }
+  if (route.length < 2) throw fieldError('waypoints', 'Pick two different blocks: a run has to go somewhere.');
+  return timeRun({
+    blocks: rows.blocks,
+    scaleRatio: rows.layout?.scaleRatio ?? 87,
+    trainLengthMm: train.lengthMm,
+    route,
+    departS: input.departS,
+    speedKmh: input.speedKmh,
+    standBeforeS: input.standBeforeS,
+    standAfterS: input.standAfterS,
+  });
+}
+
+function fieldError(path: string, message: string): AppError {
+  return new AppError('bad_request', message, { issues: [{ path, message }] });
+}
+
+/**
+ * Refuses (400) a plan whose named runs the plan interchange would not accept: unknown trains,
+ * cabs, operators or blocks, steps out of order, a departure outside the first step. Issues
+ * elsewhere in the plan are not the caller's doing and do not block their edit.
+ */
+export function assertRunsValid(plan: Plan, runIds: ReadonlySet<string>): void {
+  const result = planSchema.safeParse(plan);
+  if (result.success) return;
+  const issues: Issue[] = [];
+  for (const issue of result.error.issues) {
+    const [list, index, ...rest] = issue.path;
+    if (list !== 'runs' || typeof index !== 'number') continue;
+    const run = plan.runs[index];
+    if (!run || !runIds.has(run.id)) continue;
+    issues.push({ path: formatIssuePath(rest) || 'run', message: issue.message });
+  }
+  if (issues.length) {
+    const first = issues[0]!;
+    throw new AppError('bad_request', `${first.path}: ${first.message}`, { issues });
+  }
+}
+
+/** A stored run as the plan interchange's run. */
+export function planRun(run: StoredRun | (Omit<StoredRun, 'id' | 'version'> & { id: string })): Plan['runs'][number] {
+  return {
+    id: run.id,
+    trainId: run.trainId,
+    cabId: run.cabId,
+    operatorId: run.operatorId,
+    departS: run.departS,
+    arriveS: run.arriveS,
+    steps: run.steps.map((s) => ({ blockId: s.blockId, enterS: s.enterS, exitS: s.exitS })),
+  };
+}

@@ -1,0 +1,39 @@
+import 'server-only';
+import { shiftRuns } from '@/db/queries/runs';
+import type { Session } from '@/db/schema';
+import type { Member } from '@/lib/auth';
+import { AppError, conflict, notFound } from '@/lib/errors';
+import { suggestRetime } from '@/lib/planning';
+import { loadSessionPlan } from '@/lib/sessions/builder';
+import { auditRunChange, changeAnswer } from '@/lib/sessions/changes';
+import type { BuilderChange, RetimeSuggestion } from '@/lib/sessions/types';
+import type { RetimeMoves } from '@/lib/validations/session';
+
+/** suggestRetime's delays for the stored session, as a diff of departures with the versions they apply to. */
+export function retimeSuggestions(sessionId: string): RetimeSuggestion[] {
+  const { rows, plan } = loadSessionPlan(sessionId);
+  const versionOf = new Map(rows.runs.map((r) => [r.id, r.version]));
+  const runOf = new Map(plan.runs.map((r) => [r.id, r]));
+  return suggestRetime(plan)
+    .map((m) => {
+      const run = runOf.get(m.runId)!;
+      return { runId: m.runId, version: versionOf.get(m.runId)!, delayS: m.delayS, oldDepartS: run.departS, newDepartS: run.departS + m.delayS };
+    })
+    .sort((a, b) => a.oldDepartS - b.oldDepartS || a.runId.localeCompare(b.runId));
+}
+
+/**
+ * Shifts runs by the given delays in one transaction (all or nothing: a stale version answers 409
+ * with the runs as they are now). The answer carries the moves that take it back.
+ */
+export function applyMoves(session: Session, member: Member, moves: RetimeMoves, action: 'retime' | 'undo-retime'): BuilderChange {
+  if (new Set(moves.map((m) => m.runId)).size !== moves.length) {
+    throw new AppError('bad_request', 'Each run may be moved once per request.');
+  }
+  const result = shiftRuns(session.id, moves);
+  if ('missing' in result) throw notFound(`Run ${result.missing[0]}`);
+  if ('stale' in result) throw conflict(result.stale);
+  auditRunChange(member, action, null, { sessionId: session.id, runs: moves.length });
+  const undo = result.shifted.map((r) => ({ runId: r.id, version: r.version, delayS: -moves.find((m) => m.runId === r.id)!.delayS }));
+  return changeAnswer(session.id, { undo });
+}

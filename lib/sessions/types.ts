@@ -1,0 +1,79 @@
+// Shapes the builder's route handlers answer with and its client components read. Plain types
+// only, so client code can import them without pulling in anything from the server.
+import type { Finding, LoadProfile } from '@/lib/planning';
+import type { SessionStatus } from '@/db/enums';
+
+export type BuilderStep = { blockId: string; enterS: number; exitS: number };
+
+export type BuilderRun = {
+  id: string;
+  version: number;
+  trainId: string;
+  cabId: string;
+  operatorId: string | null;
+  /** Real seconds from the session's start. */
+  departS: number;
+  arriveS: number;
+  speedKmh: number | null;
+  note: string;
+  steps: BuilderStep[];
+};
+
+export type BuilderSession = {
+  id: string;
+  railwayId: string;
+  title: string;
+  status: SessionStatus;
+  version: number;
+  sequence: number;
+  startsAtMs: number;
+  endsAtMs: number;
+  timeZone: string;
+  clockRatio: number;
+  fastStart: string;
+  headwayS: number;
+  surgeS: number;
+  derate: number;
+};
+
+/** The session as stored, with the engine's findings and load profile for it. */
+export type BuilderSnapshot = {
+  session: BuilderSession;
+  runs: BuilderRun[];
+  findings: Finding[];
+  load: LoadProfile;
+  /** How long the server took to load and check the plan, ms. */
+  checkMs: number;
+};
+
+/** What a change answers: the new snapshot, and what to send to take the change back. */
+export type BuilderChange = BuilderSnapshot & {
+  run?: BuilderRun;
+  runs: BuilderRun[];
+  /** Runs created by the change (a series). */
+  createdIds?: string[];
+  /** A deleted run, as the body that puts it back. */
+  deleted?: BuilderRun;
+  /** Moves that undo a retime. */
+  undo?: { runId: string; version: number; delayS: number }[];
+};
+
+/** The layout and crew the builder draws with; loaded once with the page. */
+export type BuilderLayout = {
+  scaleRatio: number;
+  blocks: { id: string; name: string; lengthMm: number; positionMm: number }[];
+  links: { a: string; b: string }[];
+  cabs: { id: string; name: string; driverId: string; channel: number }[];
+  drivers: { id: string; name: string; supplyId: string }[];
+  supplies: { id: string; name: string }[];
+  trains: { id: string; name: string; lengthMm: number; topSpeedKmh: number | null }[];
+  operators: { id: string; name: string; rsvp: string | null }[];
+};
+
+export type RetimeSuggestion = {
+  runId: string;
+  version: number;
+  delayS: number;
+  oldDepartS: number;
+  newDepartS: number;
+};
