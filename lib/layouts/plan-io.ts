@@ -1,0 +1,143 @@
+import 'server-only';
+import { z } from 'zod';
+import type { LayoutImport } from '@/db/queries/layout-import';
+import type { loadLayoutRows } from '@/db/queries/plan-data';
+import { AppError, type Issue } from '@/lib/errors';
+import { defaultRules, formatIssuePath, planSchema, type Plan } from '@/lib/planning';
+import { layoutToPlan } from '@/lib/sessions/to-plan';
+import { blockSchema, cabSchema, driverSchema, locomotiveSchema, supplySchema, trainSchema } from '@/lib/validations/layout';
+
+type LayoutRows = ReturnType<typeof loadLayoutRows>;
+
+/**
+ * A layout has no clock of its own; its plan carries real time (1:1 from 00:00) and the default
+ * rules, which a session replaces with its own.
+ */
+export const EXPORT_CLOCK = { ratio: 1, fastStart: '00:00' } as const;
+
+/**
+ * Fields Fishplate keeps beside the interchange's own: the engine's schema ignores keys it does not
+ * know, so a plan with them is still a valid version-1 plan, and an export imports back whole.
+ */
+const extras = z.object({
+  layout: z.object({ name: z.string().optional(), setting: z.enum(['indoor', 'outdoor']).optional(), notes: z.string().optional() }).optional(),
+  blocks: z.array(z.object({ positionMm: z.number().min(0).optional() })),
+  drivers: z.array(z.object({ presetId: z.string().nullable().optional(), partNumber: z.string().nullable().optional() })),
+  locos: z.array(z.object({ topSpeedKmh: z.number().optional() })),
+});
+
+/** The layout as the engine's plan interchange, version 1, without runs, with Fishplate's extras. */
+export function exportPlan(rows: LayoutRows): Plan & Record<string, unknown> {
+  const layout = rows.layout;
+  if (!layout) throw new Error('exportPlan: no layout');
+  const plan = layoutToPlan(rows, { clock: { ...EXPORT_CLOCK }, rules: { ...defaultRules } });
+  const block = new Map(rows.blocks.map((b) => [b.id, b]));
+  const driver = new Map(rows.drivers.map((d) => [d.id, d]));
+  const loco = new Map(rows.locomotives.map((l) => [l.id, l]));
+  return {
+    ...plan,
+    layout: { name: layout.name, setting: layout.setting, notes: layout.notes },
+    blocks: plan.blocks.map((b) => ({ ...b, positionMm: block.get(b.id)?.positionMm ?? 0 })),
+    drivers: plan.drivers.map((d) => ({ ...d, presetId: driver.get(d.id)?.presetId ?? null, partNumber: driver.get(d.id)?.partNumber ?? null })),
+    locos: plan.locos.map((l) => ({ ...l, topSpeedKmh: loco.get(l.id)?.topSpeedKmh })),
+  };
+}
+
+function fail(issues: Issue[]): never {
+  const first = issues[0]!;
+  throw new AppError('bad_request', `The plan cannot be imported: ${first.path ? `${first.path}: ` : ''}${first.message}${issues.length > 1 ? ` (and ${issues.length - 1} more)` : ''}`, {
+    issues: issues.slice(0, 50),
+  });
+}
+
+/**
+ * Turns a plan file into a new layout's rows, checking it with the engine's schema first and then
+ * with the same rules as the forms (names, bounds, unique names, channels). Runs are not imported:
+ * a layout holds no timetable. Answers the rows and how many runs were left out.
+ */
+export function planToImport(input: unknown, name: string | undefined): { data: LayoutImport; skippedRuns: number } {
+  const parsed = planSchema.safeParse(input);
+  if (!parsed.success) fail(parsed.error.issues.map((i) => ({ path: formatIssuePath(i.path), message: i.message })));
+  const plan = parsed.data;
+  const extra = extras.safeParse(input);
+  if (!extra.success) fail(extra.error.issues.map((i) => ({ path: formatIssuePath(i.path), message: i.message })));
+  const ext = extra.data;
+
+  const issues: Issue[] = [];
+  const check = <S extends z.ZodType>(schema: S, value: unknown, at: string): z.infer<S> | null => {
+    const r = schema.safeParse(value);
+    if (r.success) return r.data;
+    for (const i of r.error.issues) issues.push({ path: `${at}.${formatIssuePath(i.path)}`, message: i.message });
+    return null;
+  };
+  const unique = (list: readonly { name: string }[], scope: string) => {
+    const seen = new Map<string, number>();
+    list.forEach((item, i) => {
+      const key = item.name.trim().toLowerCase();
+      const first = seen.get(key);
+      if (first !== undefined) issues.push({ path: `${scope}[${i}].name`, message: `the name “${item.name}” is also ${scope}[${first}]; names must be unique` });
+      else seen.set(key, i);
+    });
+  };
+  for (const scope of ['blocks', 'supplies', 'drivers', 'cabs', 'locos', 'trains'] as const) unique(plan[scope], scope);
+
+  const blocks = plan.blocks.map((b, i) => {
+    const v = check(blockSchema, { name: b.name, length: b.lengthMm, unit: 'mm', position: ext.blocks[i]?.positionMm ?? 0 }, `blocks[${i}]`);
+    return v && { ...v, key: b.id };
+  });
+  const seenPairs = new Set<string>();
+  plan.links.forEach((l, i) => {
+    const key = [l.a, l.b].sort().join('\u0000');
+    if (l.a === l.b) issues.push({ path: `links[${i}]`, message: 'a block cannot link to itself' });
+    else if (seenPairs.has(key)) issues.push({ path: `links[${i}]`, message: 'these two blocks are already linked' });
+    seenPairs.add(key);
+  });
+  const supplies = plan.supplies.map((s, i) => {
+    const v = check(supplySchema, { name: s.name, volts: s.volts, amps: s.amps }, `supplies[${i}]`);
+    return v && { ...v, key: s.id };
+  });
+  const drivers = plan.drivers.map((d, i) => {
+    const presetId = ext.drivers[i]?.presetId ?? null;
+    const v = check(driverSchema, { ...d, presetId, partNumber: ext.drivers[i]?.partNumber ?? null }, `drivers[${i}]`);
+    return v && { ...v, key: d.id };
+  });
+  const cabs = plan.cabs.map((c, i) => {
+    const v = check(cabSchema, { name: c.name, driverId: c.driverId, channel: c.channel }, `cabs[${i}]`);
+    return v && { ...v, key: c.id };
+  });
+  const locomotives = plan.locos.map((l, i) => {
+    const top = ext.locos[i]?.topSpeedKmh;
+    if (top === undefined) {
+      issues.push({ path: `locos[${i}].topSpeedKmh`, message: 'missing: Fishplate needs each locomotive’s top scale speed (km/h) to work out PWM duty' });
+      return null;
+    }
+    const v = check(locomotiveSchema, { name: l.name, runningAmps: l.runningAmps, stallAmps: l.stallAmps, ratedVolts: l.ratedVolts, topSpeedKmh: top }, `locos[${i}]`);
+    return v && { ...v, key: l.id };
+  });
+  const trains = plan.trains.map((tr, i) => {
+    const v = check(trainSchema, { name: tr.name, locomotiveIds: tr.locoIds, lightingAmps: tr.lightingAmps, length: tr.lengthMm, unit: 'mm' }, `trains[${i}]`);
+    return v && { ...v, key: tr.id };
+  });
+  if (issues.length) fail(issues);
+
+  const layoutName = name?.trim() || ext.layout?.name?.trim() || 'Imported layout';
+  return {
+    data: {
+      layout: {
+        name: layoutName.slice(0, 80),
+        scaleName: plan.scale.name.trim().slice(0, 40) || `1:${plan.scale.ratio}`,
+        scaleRatio: plan.scale.ratio,
+        setting: ext.layout?.setting ?? 'indoor',
+        notes: (ext.layout?.notes ?? '').slice(0, 4000),
+      },
+      blocks: blocks.filter((b) => b !== null),
+      links: plan.links.map((l) => ({ a: l.a, b: l.b })),
+      supplies: supplies.filter((s) => s !== null),
+      drivers: drivers.filter((d) => d !== null),
+      cabs: cabs.filter((c) => c !== null),
+      locomotives: locomotives.filter((l) => l !== null),
+      trains: trains.filter((tr) => tr !== null),
+    },
+    skippedRuns: plan.runs.length,
+  };
+}

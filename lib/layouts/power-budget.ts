@@ -1,0 +1,338 @@
+import {
+  defaultRules,
+  dutyFor,
+  findDriverPreset,
+  gaugeForScale,
+  nominalTrackVolts,
+  trackVoltsOf,
+  AMPS_TOLERANCE,
+  VOLTS_TOLERANCE,
+  type DriverPreset,
+} from '@/lib/planning';
+
+// The power budget of a layout before any timetable: what each supply and driver could be asked to
+// carry if every cab ran a train at once. Every figure is an input, a sum or product of inputs, or a
+// value from the engine's cited tables (presets, NEM 630), and each result says how it was made.
+
+export interface BudgetInput {
+  scale: { name: string; ratio: number };
+  /** Share of a supply's rating it may carry continuously (rules derate; 0.8 by default). */
+  derate?: number;
+  supplies: { id: string; name: string; volts: number; amps: number }[];
+  drivers: {
+    id: string;
+    name: string;
+    supplyId: string;
+    presetId: string | null;
+    partNumber: string | null;
+    channels: number;
+    channelAmps: number;
+    channelPeakAmps: number;
+    totalAmps: number | null;
+    dropVolts: number;
+  }[];
+  cabs: { id: string; name: string; driverId: string; channel: number }[];
+  locomotives: { id: string; name: string; runningAmps: number; stallAmps: number; ratedVolts: number; topSpeedKmh: number }[];
+  trains: { id: string; name: string; locomotiveIds: string[]; lightingAmps: number; lengthMm: number }[];
+}
+
+export type Status = 'ok' | 'warning' | 'over';
+
+/** A train's current: lighting plus each locomotive's, running and at stall (start-up surge). */
+export interface TrainLoad {
+  id: string;
+  name: string;
+  runningAmps: number;
+  surgeAmps: number;
+  parts: { label: string; runningAmps: number; stallAmps: number }[];
+  /** The slowest locomotive's top speed: the consist cannot go faster. Null without locomotives. */
+  topSpeedKmh: number | null;
+}
+
+/** A worst-case sum: which trains, and how much each adds. */
+export interface WorstCase {
+  amps: number;
+  terms: { trainName: string; amps: number }[];
+}
+
+export interface SupplyBudget {
+  id: string;
+  name: string;
+  volts: number;
+  ratedAmps: number;
+  derate: number;
+  deratedAmps: number;
+  cabCount: number;
+  worstRunning: WorstCase;
+  worstSurge: WorstCase;
+  /** Running load against the derated figure; surge against the rating. */
+  status: Status;
+  headroomAmps: number;
+  messages: string[];
+}
+
+export interface DriverBudget {
+  id: string;
+  name: string;
+  supplyName: string;
+  supplyVolts: number;
+  preset: (Pick<DriverPreset, 'id' | 'label' | 'source' | 'note' | 'minSupplyVolts' | 'maxSupplyVolts'> & { edited: boolean }) | null;
+  partNumber: string | null;
+  channels: number;
+  cabCount: number;
+  channelAmps: number;
+  channelPeakAmps: number;
+  totalAmps: number | null;
+  dropVolts: number;
+  /** The heaviest single train on one channel (a channel drives one train at a time). */
+  channelRunning: WorstCase;
+  channelSurge: WorstCase;
+  worstRunning: WorstCase;
+  worstSurge: WorstCase;
+  trackVolts: number;
+  nominalVolts: number | null;
+  gaugeMm: number | null;
+  status: Status;
+  messages: string[];
+}
+
+export interface PowerBudget {
+  derate: number;
+  trains: TrainLoad[];
+  supplies: SupplyBudget[];
+  drivers: DriverBudget[];
+}
+
+/** Lighting plus every locomotive of the consist, running and at stall. */
+export function trainLoads(input: Pick<BudgetInput, 'locomotives' | 'trains'>): TrainLoad[] {
+  const locoOf = new Map(input.locomotives.map((l) => [l.id, l]));
+  return input.trains.map((train) => {
+    const locos = train.locomotiveIds.map((id) => locoOf.get(id)).filter((l) => l !== undefined);
+    const parts = [
+      ...locos.map((l) => ({ label: l.name, runningAmps: l.runningAmps, stallAmps: l.stallAmps })),
+      ...(train.lightingAmps > 0 ? [{ label: 'lighting', runningAmps: train.lightingAmps, stallAmps: train.lightingAmps }] : []),
+    ];
+    return {
+      id: train.id,
+      name: train.name,
+      runningAmps: round(parts.reduce((s, p) => s + p.runningAmps, 0)),
+      surgeAmps: round(parts.reduce((s, p) => s + p.stallAmps, 0)),
+      parts,
+      topSpeedKmh: locos.length ? Math.min(...locos.map((l) => l.topSpeedKmh)) : null,
+    };
+  });
+}
+
+/**
+ * The `k` largest of one current over distinct trains: k cabs running at once carry k different
+ * trains (a train is on one cab at a time), so the worst case is the k heaviest. Trains sharing a
+ * locomotive cannot really run together; counting them anyway only makes the figure safer.
+ */
+export function heaviest(loads: TrainLoad[], k: number, which: 'runningAmps' | 'surgeAmps'): WorstCase {
+  const terms = [...loads]
+    .sort((a, b) => b[which] - a[which] || a.name.localeCompare(b.name))
+    .slice(0, Math.max(0, k))
+    .map((l) => ({ trainName: l.name, amps: l[which] }));
+  return { amps: round(terms.reduce((s, x) => s + x.amps, 0)), terms };
+}
+
+const a = (v: number) => `${round(v)} A`;
+const v = (x: number) => `${Math.round(x * 100) / 100} V`;
+const worse = (x: Status, y: Status): Status => (x === 'over' || y === 'over' ? 'over' : x === 'warning' || y === 'warning' ? 'warning' : 'ok');
+
+export function powerBudget(input: BudgetInput): PowerBudget {
+  const derate = input.derate ?? defaultRules.derate;
+  const loads = trainLoads(input);
+  const gaugeMm = gaugeForScale(input.scale);
+  const nominalVolts = gaugeMm === null ? null : nominalTrackVolts(gaugeMm);
+  const supplyOf = new Map(input.supplies.map((s) => [s.id, s]));
+  const driverOf = new Map(input.drivers.map((d) => [d.id, d]));
+  const cabsOnDriver = new Map<string, number>();
+  const cabsOnSupply = new Map<string, number>();
+  for (const cab of input.cabs) {
+    const driver = driverOf.get(cab.driverId);
+    if (!driver) continue;
+    cabsOnDriver.set(driver.id, (cabsOnDriver.get(driver.id) ?? 0) + 1);
+    cabsOnSupply.set(driver.supplyId, (cabsOnSupply.get(driver.supplyId) ?? 0) + 1);
+  }
+
+  const supplies: SupplyBudget[] = input.supplies.map((s) => {
+    const cabCount = cabsOnSupply.get(s.id) ?? 0;
+    const deratedAmps = round(s.amps * derate);
+    const worstRunning = heaviest(loads, cabCount, 'runningAmps');
+    const worstSurge = heaviest(loads, cabCount, 'surgeAmps');
+    const messages: string[] = [];
+    let status: Status = 'ok';
+    if (worstRunning.amps > s.amps + AMPS_TOLERANCE) {
+      status = 'over';
+      messages.push(`Running load ${a(worstRunning.amps)} is above the ${a(s.amps)} rating.`);
+    } else if (worstRunning.amps > deratedAmps + AMPS_TOLERANCE) {
+      status = 'warning';
+      messages.push(`Running load ${a(worstRunning.amps)} is above ${Math.round(derate * 100)} % of the rating (${a(deratedAmps)}); continuous loads are best kept to 80 %.`);
+    }
+    if (worstSurge.amps > s.amps + AMPS_TOLERANCE) {
+      status = 'over';
+      messages.push(`Start-up surge ${a(worstSurge.amps)} is above the ${a(s.amps)} rating if every cab starts at once.`);
+    }
+    if (cabCount === 0) messages.push('No cab draws from this supply yet.');
+    return {
+      id: s.id,
+      name: s.name,
+      volts: s.volts,
+      ratedAmps: s.amps,
+      derate,
+      deratedAmps,
+      cabCount,
+      worstRunning,
+      worstSurge,
+      status,
+      headroomAmps: round(deratedAmps - worstRunning.amps),
+      messages,
+    };
+  });
+
+  const drivers: DriverBudget[] = input.drivers.map((d) => {
+    const supply = supplyOf.get(d.supplyId);
+    const cabCount = cabsOnDriver.get(d.id) ?? 0;
+    const preset = d.presetId ? findDriverPreset(d.presetId) : undefined;
+    const edited =
+      preset !== undefined &&
+      !(preset.channels === d.channels && preset.channelAmps === d.channelAmps && preset.channelPeakAmps === d.channelPeakAmps &&
+        preset.totalAmps === d.totalAmps && preset.dropVolts === d.dropVolts);
+    const channelRunning = heaviest(loads, Math.min(1, cabCount), 'runningAmps');
+    const channelSurge = heaviest(loads, Math.min(1, cabCount), 'surgeAmps');
+    const worstRunning = heaviest(loads, cabCount, 'runningAmps');
+    const worstSurge = heaviest(loads, cabCount, 'surgeAmps');
+    const supplyVolts = supply?.volts ?? 0;
+    const trackVolts = round(trackVoltsOf(supplyVolts, d.dropVolts));
+    const messages: string[] = [];
+    let status: Status = 'ok';
+    if (channelRunning.amps > d.channelAmps + AMPS_TOLERANCE) {
+      status = 'over';
+      messages.push(`“${channelRunning.terms[0]?.trainName}” draws ${a(channelRunning.amps)} running, above the ${a(d.channelAmps)} continuous rating of a channel.`);
+    }
+    if (channelSurge.amps > d.channelPeakAmps + AMPS_TOLERANCE) {
+      status = 'over';
+      messages.push(`“${channelSurge.terms[0]?.trainName}” surges to ${a(channelSurge.amps)} at start, above the ${a(d.channelPeakAmps)} peak rating of a channel.`);
+    }
+    if (d.totalAmps !== null && worstSurge.amps > d.totalAmps + AMPS_TOLERANCE) {
+      status = 'over';
+      messages.push(`All cabs at once could surge to ${a(worstSurge.amps)}, above the driver's ${a(d.totalAmps)} total rating.`);
+    }
+    if (nominalVolts !== null && gaugeMm !== null && trackVolts < nominalVolts - VOLTS_TOLERANCE) {
+      status = worse(status, 'warning');
+      messages.push(
+        `Track gets ${v(trackVolts)} at full throttle, below the ${nominalVolts} V nominal of NEM 630 Table 1 for ${gaugeMm} mm gauge` +
+          (nominalVolts === 12 ? ' (NMRA S-9 I.A: at least 12 V at full throttle)' : '') + '.',
+      );
+    }
+    if (preset && supply) {
+      if (supply.volts > preset.maxSupplyVolts + VOLTS_TOLERANCE) {
+        status = 'over';
+        messages.push(`Supply ${v(supply.volts)} is above the ${v(preset.maxSupplyVolts)} motor-supply maximum of this driver class (${preset.source}).`);
+      } else if (preset.minSupplyVolts !== null && supply.volts < preset.minSupplyVolts - VOLTS_TOLERANCE) {
+        status = worse(status, 'warning');
+        messages.push(`Supply ${v(supply.volts)} is below the ${v(preset.minSupplyVolts)} motor-supply minimum of this driver class (${preset.source}).`);
+      }
+    }
+    if (cabCount === 0) messages.push('No cab uses this driver yet.');
+    return {
+      id: d.id,
+      name: d.name,
+      supplyName: supply?.name ?? '—',
+      supplyVolts,
+      preset: preset
+        ? { id: preset.id, label: preset.label, source: preset.source, note: preset.note, minSupplyVolts: preset.minSupplyVolts, maxSupplyVolts: preset.maxSupplyVolts, edited }
+        : null,
+      partNumber: d.partNumber,
+      channels: d.channels,
+      cabCount,
+      channelAmps: d.channelAmps,
+      channelPeakAmps: d.channelPeakAmps,
+      totalAmps: d.totalAmps,
+      dropVolts: d.dropVolts,
+      channelRunning,
+      channelSurge,
+      worstRunning,
+      worstSurge,
+      trackVolts,
+      nominalVolts,
+      gaugeMm,
+      status,
+      messages,
+    };
+  });
+
+  return { derate, trains: loads, supplies, drivers };
+}
+
+export interface DutyCell {
+  ok: boolean;
+  /** 0..1 when ok. */
+  duty: number | null;
+  pwm8: number | null;
+  /** The locomotive that needs the most (in a consist of different locomotives), or why not. */
+  note: string;
+}
+
+export interface DutyTable {
+  trainId: string;
+  trainName: string;
+  topSpeedKmh: number | null;
+  speeds: number[];
+  cabs: { id: string; name: string; trackVolts: number }[];
+  /** rows[speed][cab] */
+  rows: DutyCell[][];
+}
+
+/** Scale speeds for a duty table: a quarter, half, three quarters and all of the top speed. */
+export function dutySpeeds(topSpeedKmh: number): number[] {
+  return [...new Set([0.25, 0.5, 0.75, 1].map((f) => Math.max(1, Math.round(topSpeedKmh * f))))].filter((s) => s <= topSpeedKmh);
+}
+
+/**
+ * PWM duty per train, speed and cab with the engine's linear model (`dutyFor`). Every locomotive of
+ * a consist gets the same duty, so the cab must give the one that needs the most; that one is named.
+ */
+export function dutyTables(input: BudgetInput): DutyTable[] {
+  const locoOf = new Map(input.locomotives.map((l) => [l.id, l]));
+  const driverOf = new Map(input.drivers.map((d) => [d.id, d]));
+  const supplyOf = new Map(input.supplies.map((s) => [s.id, s]));
+  const cabs = input.cabs
+    .map((cab) => {
+      const driver = driverOf.get(cab.driverId);
+      const supply = driver ? supplyOf.get(driver.supplyId) : undefined;
+      return driver && supply ? { cab, driver, supply } : null;
+    })
+    .filter((c) => c !== null);
+  return input.trains.map((train) => {
+    const locos = train.locomotiveIds.map((id) => locoOf.get(id)).filter((l) => l !== undefined);
+    const top = locos.length ? Math.min(...locos.map((l) => l.topSpeedKmh)) : null;
+    const speeds = top === null ? [] : dutySpeeds(top);
+    const rows = speeds.map((speed) =>
+      cabs.map(({ driver, supply }): DutyCell => {
+        let best: { duty: number; pwm8: number; loco: string } | null = null;
+        for (const loco of locos) {
+          const r = dutyFor({ supplyVolts: supply.volts, dropVolts: driver.dropVolts, ratedVolts: loco.ratedVolts, topSpeedKmh: loco.topSpeedKmh, targetSpeedKmh: speed });
+          if (!r.ok) return { ok: false, duty: null, pwm8: null, note: locos.length > 1 ? `${loco.name}: ${r.reason}` : r.reason };
+          if (best === null || r.duty > best.duty) best = { duty: r.duty, pwm8: r.pwm8, loco: loco.name };
+        }
+        if (best === null) return { ok: false, duty: null, pwm8: null, note: 'no locomotive' };
+        const mixed = new Set(locos.map((l) => `${l.ratedVolts}/${l.topSpeedKmh}`)).size > 1;
+        return { ok: true, duty: best.duty, pwm8: best.pwm8, note: mixed ? `set by ${best.loco}` : '' };
+      }),
+    );
+    return {
+      trainId: train.id,
+      trainName: train.name,
+      topSpeedKmh: top,
+      speeds,
+      cabs: cabs.map(({ cab, driver, supply }) => ({ id: cab.id, name: cab.name, trackVolts: round(trackVoltsOf(supply.volts, driver.dropVolts)) })),
+      rows,
+    };
+  });
+}
+
+function round(value: number): number {
+  return Math.round(value * 1e6) / 1e6;
+}
