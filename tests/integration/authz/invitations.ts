@@ -42,7 +42,8 @@ export function makeSessionWorld(w: World, options: SessionOptions = {}) {
   };
   const local = trainOf('Local');
   const freight = trainOf('Freight');
-  const startsAt = options.startsAt ?? new Date(Date.now() + 7 * 24 * 3600_000);
+  // Whole minutes, as a host would type them (iCalendar times have whole seconds).
+  const startsAt = options.startsAt ?? new Date(Math.floor((Date.now() + 7 * 24 * 3600_000) / 60_000) * 60_000);
   const session = db
     .insert(t.sessions)
     .values({

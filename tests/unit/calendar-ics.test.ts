@@ -1,0 +1,182 @@
+import ICAL from 'ical.js';
+import { describe, expect, it } from 'vitest';
+import { buildCalendarFile, buildInvitationCalendar, sessionTimes, sessionUid, type CalendarSession } from '@/lib/calendar/ics';
+import type { RunAssignment } from '@/lib/invitations/assignments';
+
+const host = { name: 'Hazel Brightwater', email: 'host@fishplate.example' };
+const guest = { name: 'Zoë Ångström-Øvergaard', email: 'zoe@fishplate.example' };
+const NOW = new Date('2026-12-01T20:00:00Z');
+
+function session(over: Partial<CalendarSession> = {}): CalendarSession {
+  return {
+    id: 'b3c1f0f2-5a2e-4c44-9d55-3d8c3a7f0a11',
+    title: 'Wintertime running evening on the Kestrel Vale branch — großer Fahrtag ✓ with a title that needs folding',
+    place: 'Clubroom 2, Ærøvej',
+    description: 'Stopper, express, goods and railcar. Tea at half time.',
+    startsAt: new Date('2026-12-05T18:30:00Z'),
+    endsAt: new Date('2026-12-05T21:30:00Z'),
+    timeZone: 'Europe/London',
+    status: 'published',
+    sequence: 0,
+    ...over,
+  };
+}
+
+function parse(text: string) {
+  const root = new ICAL.Component(ICAL.parse(text));
+  const events = root.getAllSubcomponents('vevent');
+  return { root, events, event: events[0]! };
+}
+
+function request(sequence: number, over: Partial<CalendarSession> = {}) {
+  return buildInvitationCalendar({ method: 'REQUEST', session: session({ sequence, ...over }), sequence, organizer: host, attendee: guest, description: 'Your runs: 1. 06:20 Stopper on Cab 1', now: NOW });
+}
+
+/** Checks that hold for every iCalendar object we write. */
+function expectWellFormed(text: string) {
+  // RFC 5545 3.1: content lines end with CRLF; no bare LF.
+  expect(text.endsWith('\r\n')).toBe(true);
+  expect(text.replaceAll('\r\n', '')).not.toMatch(/[\r\n]/);
+  // RFC 5545 3.1: lines are folded so that none is longer than 75 octets (UTF-8).
+  for (const line of text.split('\r\n')) expect(Buffer.byteLength(line, 'utf8')).toBeLessThanOrEqual(75);
+  // RFC 5545 3.1: a fold never splits a UTF-8 character (each line decodes on its own).
+  for (const line of text.split('\r\n')) expect(Buffer.from(line, 'utf8').toString('utf8')).toBe(line);
+  const { root, events } = parse(text);
+  // RFC 5545 3.6: VCALENDAR needs VERSION:2.0 and PRODID.
+  expect(root.getFirstPropertyValue('version')).toBe('2.0');
+  expect(root.getFirstPropertyValue('prodid')).toMatch(/Fishplate/);
+  for (const event of events) {
+    // RFC 5545 3.6.1: UID and DTSTAMP required; DTSTAMP in UTC.
+    expect(event.getFirstPropertyValue('uid')).toBeTruthy();
+    const stamp = event.getFirstPropertyValue('dtstamp') as ICAL.Time;
+    expect(stamp.zone?.tzid).toBe('UTC');
+    // RFC 5545 3.6.1: DTEND and DURATION never both; DTEND after DTSTART (exclusive end).
+    expect(event.hasProperty('dtend') && event.hasProperty('duration')).toBe(false);
+    const start = event.getFirstPropertyValue('dtstart') as ICAL.Time;
+    const end = event.getFirstPropertyValue('dtend') as ICAL.Time;
+    expect(end.compare(start)).toBe(1);
+    // RFC 5545 3.2.19 / 3.6.5: no TZID without a VTIMEZONE — we write UTC (3.3.5 form 2) or DATE values.
+    for (const name of ['dtstart', 'dtend']) expect(event.getFirstProperty(name)!.getParameter('tzid')).toBeUndefined();
+  }
+  return parse(text);
+}
+
+describe('invitation calendars (iTIP over iCalendar), parsed with ical.js', () => {
+  it('METHOD:REQUEST has what RFC 5546 3.2.2 requires', () => {
+    const text = request(0);
+    const { root, event } = expectWellFormed(text);
+    expect(root.getFirstPropertyValue('method')).toBe('REQUEST'); // RFC 5546 3.2.2
+    expect(event.getFirstPropertyValue('uid')).toBe(sessionUid(session().id)); // RFC 5546 3.2.2: UID
+    expect(event.getFirstPropertyValue('summary')).toBe(session().title); // RFC 5546 3.2.2: SUMMARY; UTF-8 survives folding (RFC 5545 3.1)
+    expect(event.getFirstPropertyValue('location')).toBe('Clubroom 2, Ærøvej');
+    expect((event.getFirstPropertyValue('dtstart') as ICAL.Time).toJSDate().toISOString()).toBe('2026-12-05T18:30:00.000Z'); // RFC 5546 3.2.2: DTSTART
+    expect((event.getFirstPropertyValue('dtstamp') as ICAL.Time).toJSDate().toISOString()).toBe(NOW.toISOString()); // RFC 5546 3.2.2: DTSTAMP
+    const organizer = event.getFirstProperty('organizer')!;
+    expect(String(organizer.getFirstValue()).toLowerCase()).toBe('mailto:host@fishplate.example'); // RFC 5546 3.2.2 ORGANIZER; RFC 6047 2.4 mailto: URI
+    expect(organizer.getParameter('cn')).toBe(host.name);
+    const attendees = event.getAllProperties('attendee');
+    expect(attendees).toHaveLength(1); // RFC 5546 3.2.2: one or more ATTENDEE
+    expect(String(attendees[0]!.getFirstValue()).toLowerCase()).toBe('mailto:zoe@fishplate.example'); // RFC 6047 2.4
+    expect(attendees[0]!.getParameter('cn')).toBe(guest.name);
+    expect(attendees[0]!.getParameter('partstat')).toBe('NEEDS-ACTION'); // RFC 5546 3.2.2: attendee asked to reply
+    expect(attendees[0]!.getParameter('rsvp')).toBe('TRUE'); // RFC 5545 3.2.17: RSVP is TRUE or FALSE only
+    expect(event.getFirstPropertyValue('status')).toBe('CONFIRMED');
+    expect(text).not.toMatch(/RSVP=YES/); // RFC 5545 3.2.17 (the RSVP=YES of RFC 6047's examples is invalid)
+  });
+
+  it('an update keeps the UID and raises SEQUENCE (RFC 5546 2.1.4)', () => {
+    const first = parse(request(0)).event;
+    const update = expectWellFormed(request(1, { startsAt: new Date('2026-12-05T19:00:00Z'), endsAt: new Date('2026-12-05T22:00:00Z') }));
+    expect(update.root.getFirstPropertyValue('method')).toBe('REQUEST');
+    expect(update.event.getFirstPropertyValue('uid')).toBe(first.getFirstPropertyValue('uid')); // RFC 5546 2.1.4: same UID
+    expect(Number(update.event.getFirstPropertyValue('sequence'))).toBeGreaterThan(Number(first.getFirstPropertyValue('sequence') ?? 0)); // RFC 5546 2.1.4
+    expect(update.event.getFirstPropertyValue('sequence')).toBe(1); // RFC 5546 3.2.2: SEQUENCE present once above 0
+    expect((update.event.getFirstPropertyValue('dtstart') as ICAL.Time).toJSDate().toISOString()).toBe('2026-12-05T19:00:00.000Z');
+  });
+
+  it('METHOD:CANCEL reuses the UID, raises SEQUENCE and says STATUS:CANCELLED (RFC 5546 3.2.5)', () => {
+    const before = parse(request(1)).event;
+    const text = buildInvitationCalendar({ method: 'CANCEL', session: session({ status: 'cancelled', sequence: 2 }), sequence: 2, organizer: host, attendee: guest, description: 'Cancelled.', now: NOW });
+    const { root, event } = expectWellFormed(text);
+    expect(root.getFirstPropertyValue('method')).toBe('CANCEL'); // RFC 5546 3.2.5
+    expect(event.getFirstPropertyValue('uid')).toBe(before.getFirstPropertyValue('uid')); // RFC 5546 3.2.5: same UID
+    expect(Number(event.getFirstPropertyValue('sequence'))).toBeGreaterThan(Number(before.getFirstPropertyValue('sequence'))); // RFC 5546 3.2.5
+    expect(event.getFirstPropertyValue('status')).toBe('CANCELLED'); // RFC 5546 3.2.5
+    expect(event.hasProperty('organizer')).toBe(true); // RFC 5546 3.2.5: ORGANIZER required
+    expect(event.getAllProperties('attendee')).toHaveLength(1); // RFC 5546 3.2.5: the attendees cancelled
+    expect(event.getFirstProperty('attendee')!.getParameter('rsvp')).toBeUndefined(); // no reply is asked for a cancellation
+  });
+
+  it('an overnight session ends on the next date, written in UTC (RFC 5545 3.3.5 form 2)', () => {
+    const text = request(0, { startsAt: new Date('2026-12-05T22:00:00Z'), endsAt: new Date('2026-12-06T02:30:00Z') });
+    const { event } = expectWellFormed(text);
+    expect(text).toContain('DTSTART:20261205T220000Z');
+    expect(text).toContain('DTEND:20261206T023000Z');
+    const span = (event.getFirstPropertyValue('dtend') as ICAL.Time).subtractDate(event.getFirstPropertyValue('dtstart') as ICAL.Time);
+    expect(span.toSeconds()).toBe(4.5 * 3600);
+  });
+
+  it('a summer-time session is the same instant in UTC (Europe/London is UTC+1 in July)', () => {
+    // 18:30 British Summer Time = 17:30 UTC (UK summer time is UTC+1; common practice / IANA tz database).
+    const text = request(0, { startsAt: new Date('2026-07-04T17:30:00Z'), endsAt: new Date('2026-07-04T20:30:00Z') });
+    expectWellFormed(text);
+    expect(text).toContain('DTSTART:20260704T173000Z');
+  });
+
+  it('a session from local midnight to midnight is an all-day event on the local dates, DTEND exclusive (RFC 5545 3.6.1, 3.3.4)', () => {
+    // Berlin is UTC+1 in December: local midnight of 5 Dec is 23:00 UTC on 4 Dec.
+    const s = { startsAt: new Date('2026-12-04T23:00:00Z'), endsAt: new Date('2026-12-06T23:00:00Z'), timeZone: 'Europe/Berlin' };
+    expect(sessionTimes(s).allDay).toBe(true);
+    const text = request(0, s);
+    const { event } = expectWellFormed(text);
+    const start = event.getFirstPropertyValue('dtstart') as ICAL.Time;
+    const end = event.getFirstPropertyValue('dtend') as ICAL.Time;
+    expect(start.isDate).toBe(true); // RFC 5545 3.3.4: VALUE=DATE
+    expect(start.toString()).toBe('2026-12-05');
+    expect(end.toString()).toBe('2026-12-07'); // two days, 5 and 6 December; DTEND is the day after (exclusive)
+  });
+
+  it('an evening session is not mistaken for an all-day one', () => {
+    expect(sessionTimes(session()).allDay).toBe(false);
+  });
+});
+
+describe('calendar files to download or subscribe to', () => {
+  const run = (id: string, departMin: number): RunAssignment => ({
+    runId: id,
+    operatorId: 'u1',
+    operatorName: 'Zoë',
+    trainName: 'Stopper',
+    cabName: 'Cab 1',
+    route: ['T1', 'M2', 'Y1'],
+    departS: departMin * 60,
+    arriveS: departMin * 60 + 300,
+    departAt: new Date(Date.UTC(2026, 11, 5, 18, 30 + departMin)),
+    arriveAt: new Date(Date.UTC(2026, 11, 5, 18, 35 + departMin)),
+    realDepart: '18:35',
+    realArrive: '18:40',
+    fastDepart: '06:20',
+    fastArrive: '06:40',
+    standBeforeS: 120,
+    standAfterS: 180,
+    before: null,
+    after: { runId: 'x', operatorName: 'Priya', trainName: 'Express', fastDepart: '06:52', realDepart: '18:43' },
+    note: '',
+  });
+
+  it('has no METHOD (not an iTIP message, RFC 5545 3.7.2), the session UID and one event per run', () => {
+    const text = buildCalendarFile({ name: 'Zoë — Fishplate', entries: [{ session: session({ sequence: 3 }), runs: [run('r1', 5), run('r2', 22)] }], now: NOW });
+    const { root, events } = expectWellFormed(text);
+    expect(root.hasProperty('method')).toBe(false); // RFC 5545 3.7.2
+    expect(events).toHaveLength(3);
+    expect(events.map((e) => e.getFirstPropertyValue('uid'))).toEqual([sessionUid(session().id), 'run-r1@fishplate', 'run-r2@fishplate']); // RFC 5545 3.8.4.7: unique UIDs
+    expect(events[0]!.getFirstPropertyValue('sequence')).toBe(3);
+    expect(String(events[1]!.getFirstPropertyValue('description'))).toContain('Route: T1 → M2 → Y1');
+    expect(String(events[1]!.getFirstPropertyValue('description'))).toContain('Cab after: Priya with Express at 06:52');
+  });
+
+  it('a cancelled session stays in the feed as STATUS:CANCELLED (RFC 5545 3.8.1.11) so calendars drop it', () => {
+    const { events } = expectWellFormed(buildCalendarFile({ name: 'Feed', entries: [{ session: session({ status: 'cancelled', sequence: 1 }), runs: [] }], now: NOW }));
+    expect(events[0]!.getFirstPropertyValue('status')).toBe('CANCELLED');
+  });
+});
