@@ -1,0 +1,59 @@
+import type { Metadata } from 'next';
+import { loadLayoutRows } from '@/db/queries/plan-data';
+import { CsvPanel } from '@/components/layouts/csv-panel';
+import { DutyTablesView } from '@/components/layouts/duty-tables-view';
+import { LocomotivesTable, TrainsTable } from '@/components/layouts/stock-tables';
+import { Card } from '@/components/ui/card';
+import { budgetInputOf, layoutForPage } from '@/lib/layouts/layout-page';
+import { dutyTables, trainLoads } from '@/lib/layouts/power-budget';
+
+export const metadata: Metadata = { title: 'Rolling stock' };
+
+export default async function StockPage({ params }: { params: Promise<{ railwayId: string; layoutId: string }> }) {
+  const { railwayId, layoutId } = await params;
+  const { layout, canEdit } = await layoutForPage(railwayId, layoutId, '/stock');
+  const rows = loadLayoutRows(layout.id);
+  const input = budgetInputOf(rows);
+  const loads = new Map(trainLoads(input).map((l) => [l.id, l]));
+  const ids = { railwayId, layoutId: layout.id, canEdit };
+  return (
+    <div className="space-y-6">
+      <Card title={`Locomotives (${rows.locomotives.length})`}>
+        <p className="mb-3 text-sm text-muted">
+          Running and stall current from your own measurement or the maker&apos;s figures. Common practice when unknown: plan on 0.5 A running for a modern HO
+          locomotive; an HO can motor stalls near 0.9 A, older open-frame motors up to about 3 A.
+        </p>
+        <LocomotivesTable {...ids} locomotives={rows.locomotives} />
+        <div className="mt-4">
+          <CsvPanel layoutId={layout.id} table="locomotives" canEdit={canEdit} />
+        </div>
+      </Card>
+      <Card title={`Trains (${rows.trains.length})`}>
+        <p className="mb-3 text-sm text-muted">
+          Running = every locomotive&apos;s running current + lighting; surge = every stall current + lighting. Lighting, common practice: about 50 mA per
+          grain-of-wheat bulb, 30 mA grain-of-rice, 20 mA LED.
+        </p>
+        <TrainsTable
+          {...ids}
+          locomotives={rows.locomotives.map((l) => ({ id: l.id, name: l.name }))}
+          trains={input.trains.map((t) => ({
+            id: t.id,
+            name: t.name,
+            locomotiveIds: t.locomotiveIds,
+            lightingAmps: t.lightingAmps,
+            lengthMm: t.lengthMm,
+            version: rows.trains.find((r) => r.id === t.id)!.version,
+            runningAmps: loads.get(t.id)?.runningAmps ?? 0,
+            surgeAmps: loads.get(t.id)?.surgeAmps ?? 0,
+          }))}
+        />
+        <div className="mt-4">
+          <CsvPanel layoutId={layout.id} table="trains" canEdit={canEdit} />
+        </div>
+      </Card>
+      <Card title="PWM duty per train and cab">
+        <DutyTablesView tables={dutyTables(input)} />
+      </Card>
+    </div>
+  );
+}

@@ -1,0 +1,89 @@
+'use client';
+
+import { useMemo } from 'react';
+import { createBlock, deleteBlock, updateBlock } from '@/app/(app)/railways/[railwayId]/layouts/[layoutId]/actions';
+import { Badge } from '@/components/ui/card';
+import { fromMm } from '@/lib/layouts/units';
+import { blockEditSchema, blockSchema } from '@/lib/validations/layout';
+import { EntityTable, type EntityColumn, type FormValues } from './entity-table';
+import { UnitPicker } from './unit-picker';
+import { useLengthUnit } from './use-length-unit';
+
+export type BlockRow = { id: string; name: string; lengthMm: number; positionMm: number; version: number };
+
+export function BlocksTable({
+  railwayId,
+  layoutId,
+  blocks,
+  neighbours,
+  canEdit,
+}: {
+  railwayId: string;
+  layoutId: string;
+  blocks: BlockRow[];
+  neighbours: Record<string, string[]>;
+  canEdit: boolean;
+}) {
+  const [unit, setUnit] = useLengthUnit();
+  const columns = useMemo<EntityColumn<BlockRow>[]>(
+    () => [
+      { id: 'name', header: 'Name', sortValue: (b) => b.name.toLowerCase(), field: { name: 'name', placeholder: 'e.g. Up main 3', toInput: (b) => b.name } },
+      {
+        id: 'length',
+        header: 'Length',
+        sortValue: (b) => b.lengthMm,
+        field: { name: 'length', kind: 'number', suffix: unit, toInput: (b) => String(fromMm(b.lengthMm, unit)) },
+      },
+      {
+        id: 'position',
+        header: 'Position on the line',
+        sortValue: (b) => b.positionMm,
+        field: { name: 'position', kind: 'number', suffix: unit, toInput: (b) => String(fromMm(b.positionMm, unit)) },
+      },
+      {
+        id: 'neighbours',
+        header: 'Linked to',
+        sortValue: (b) => (neighbours[b.id] ?? []).join(', '),
+        render: (b) =>
+          (neighbours[b.id] ?? []).length ? (
+            <span className="text-muted">{(neighbours[b.id] ?? []).join(', ')}</span>
+          ) : (
+            <Badge tone="warn">not linked</Badge>
+          ),
+      },
+    ],
+    [unit, neighbours],
+  );
+  const nextPosition = useMemo(() => {
+    const end = blocks.reduce((m, b) => Math.max(m, b.positionMm + b.lengthMm), 0);
+    return String(fromMm(end, unit));
+  }, [blocks, unit]);
+  const newDefaults = useMemo<FormValues>(() => ({ name: '', length: '', position: nextPosition }), [nextPosition]);
+  const hidden = useMemo(() => ({ unit }), [unit]);
+  return (
+    <div className="space-y-3">
+      <UnitPicker unit={unit} onChange={setUnit} id="blocks-unit" />
+      <EntityTable
+        label="blocks"
+        noun="block"
+        testId="blocks-table"
+        rows={blocks}
+        columns={columns}
+        createSchema={blockSchema}
+        editSchema={blockEditSchema}
+        hidden={hidden}
+        newDefaults={newDefaults}
+        nextDefaults={(added) => {
+          const position = Number(String(added.position).replace(',', '.')) || 0;
+          const length = Number(String(added.length).replace(',', '.')) || 0;
+          return { name: '', length: String(added.length), position: String(Math.round((position + length) * 1e6) / 1e6) };
+        }}
+        create={(fd) => createBlock(railwayId, layoutId, null, fd)}
+        update={(fd) => updateBlock(railwayId, layoutId, null, fd)}
+        remove={(fd) => deleteBlock(railwayId, layoutId, null, fd)}
+        canEdit={canEdit}
+        rowName={(b) => b.name}
+      />
+    </div>
+  );
+}

@@ -1,0 +1,149 @@
+'use client';
+
+import { useMemo } from 'react';
+import {
+  createCab,
+  createDriver,
+  createSupply,
+  deleteCab,
+  deleteDriver,
+  deleteSupply,
+  updateCab,
+  updateDriver,
+  updateSupply,
+} from '@/app/(app)/railways/[railwayId]/layouts/[layoutId]/actions';
+import { DRIVER_PRESETS, findDriverPreset } from '@/lib/planning';
+import { cabEditSchema, cabSchema, driverEditSchema, driverSchema, supplyEditSchema, supplySchema } from '@/lib/validations/layout';
+import { EntityTable, type EntityColumn } from './entity-table';
+
+export type SupplyRow = { id: string; name: string; volts: number; amps: number; version: number };
+export type DriverRow = {
+  id: string;
+  name: string;
+  supplyId: string;
+  presetId: string | null;
+  partNumber: string | null;
+  channels: number;
+  channelAmps: number;
+  channelPeakAmps: number;
+  totalAmps: number | null;
+  dropVolts: number;
+  version: number;
+};
+export type CabRow = { id: string; name: string; driverId: string; channel: number; version: number };
+
+type Ids = { railwayId: string; layoutId: string; canEdit: boolean };
+const s = (v: number | null) => (v === null ? '' : String(v));
+
+export function SuppliesTable({ railwayId, layoutId, canEdit, supplies }: Ids & { supplies: SupplyRow[] }) {
+  const columns = useMemo<EntityColumn<SupplyRow>[]>(
+    () => [
+      { id: 'name', header: 'Name', sortValue: (r) => r.name.toLowerCase(), field: { name: 'name', placeholder: 'e.g. Bench supply', toInput: (r) => r.name } },
+      { id: 'volts', header: 'Volts', sortValue: (r) => r.volts, field: { name: 'volts', kind: 'number', suffix: 'V', toInput: (r) => s(r.volts) } },
+      { id: 'amps', header: 'Rated current', sortValue: (r) => r.amps, field: { name: 'amps', kind: 'number', suffix: 'A', toInput: (r) => s(r.amps) } },
+    ],
+    [],
+  );
+  return (
+    <EntityTable
+      label="supplies"
+      noun="supply"
+      testId="supplies-table"
+      rows={supplies}
+      columns={columns}
+      createSchema={supplySchema}
+      editSchema={supplyEditSchema}
+      newDefaults={{ name: '', volts: '', amps: '' }}
+      create={(fd) => createSupply(railwayId, layoutId, null, fd)}
+      update={(fd) => updateSupply(railwayId, layoutId, null, fd)}
+      remove={(fd) => deleteSupply(railwayId, layoutId, null, fd)}
+      canEdit={canEdit}
+      rowName={(r) => r.name}
+    />
+  );
+}
+
+const PRESET_OPTIONS = [{ value: '', label: 'Own ratings' }, ...DRIVER_PRESETS.map((p) => ({ value: p.id, label: p.label }))];
+
+export function DriversTable({ railwayId, layoutId, canEdit, drivers, supplies }: Ids & { drivers: DriverRow[]; supplies: { id: string; name: string }[] }) {
+  const supplyOptions = useMemo(() => [{ value: '', label: 'Choose…' }, ...supplies.map((x) => ({ value: x.id, label: x.name }))], [supplies]);
+  const columns = useMemo<EntityColumn<DriverRow>[]>(
+    () => [
+      { id: 'name', header: 'Name', sortValue: (r) => r.name.toLowerCase(), field: { name: 'name', width: 'w-40', placeholder: 'e.g. Main line board', toInput: (r) => r.name } },
+      { id: 'supply', header: 'Supply', sortValue: (r) => supplies.find((x) => x.id === r.supplyId)?.name ?? '', field: { name: 'supplyId', kind: 'select', options: supplyOptions, width: 'w-36', toInput: (r) => r.supplyId } },
+      {
+        id: 'preset',
+        header: 'Class',
+        sortValue: (r) => (r.presetId ? (findDriverPreset(r.presetId)?.label ?? '') : ''),
+        field: { name: 'presetId', kind: 'select', options: PRESET_OPTIONS, width: 'w-56', toInput: (r) => r.presetId ?? '' },
+      },
+      { id: 'part', header: 'Your part no.', sortValue: (r) => r.partNumber ?? '', field: { name: 'partNumber', width: 'w-28', placeholder: 'optional', toInput: (r) => r.partNumber ?? '' } },
+      { id: 'channels', header: 'Channels', sortValue: (r) => r.channels, field: { name: 'channels', kind: 'number', width: 'w-16', toInput: (r) => s(r.channels) } },
+      { id: 'channelAmps', header: 'A / channel', sortValue: (r) => r.channelAmps, field: { name: 'channelAmps', kind: 'number', width: 'w-20', suffix: 'A', toInput: (r) => s(r.channelAmps) } },
+      { id: 'channelPeakAmps', header: 'Peak A', sortValue: (r) => r.channelPeakAmps, field: { name: 'channelPeakAmps', kind: 'number', width: 'w-20', suffix: 'A', toInput: (r) => s(r.channelPeakAmps) } },
+      { id: 'totalAmps', header: 'Total A', sortValue: (r) => r.totalAmps ?? -1, field: { name: 'totalAmps', kind: 'number', width: 'w-20', suffix: 'A', placeholder: 'none', toInput: (r) => s(r.totalAmps) } },
+      { id: 'dropVolts', header: 'Drop', sortValue: (r) => r.dropVolts, field: { name: 'dropVolts', kind: 'number', width: 'w-20', suffix: 'V', toInput: (r) => s(r.dropVolts) } },
+    ],
+    [supplies, supplyOptions],
+  );
+  return (
+    <EntityTable
+      label="drivers"
+      noun="driver"
+      testId="drivers-table"
+      rows={drivers}
+      columns={columns}
+      createSchema={driverSchema}
+      editSchema={driverEditSchema}
+      newDefaults={{ name: '', supplyId: supplies.length === 1 ? supplies[0]!.id : '', presetId: '', partNumber: '', channels: '', channelAmps: '', channelPeakAmps: '', totalAmps: '', dropVolts: '' }}
+      onFieldChange={(name, value, form) => {
+        // Choosing a class fills in its datasheet ratings; they can still be changed by hand.
+        if (name !== 'presetId') return;
+        const preset = findDriverPreset(String(value));
+        if (!preset) return;
+        const set = (k: string, v: string) => form.setValue(k, v, { shouldDirty: true, shouldValidate: false });
+        set('channels', String(preset.channels));
+        set('channelAmps', String(preset.channelAmps));
+        set('channelPeakAmps', String(preset.channelPeakAmps));
+        set('totalAmps', preset.totalAmps === null ? '' : String(preset.totalAmps));
+        set('dropVolts', String(preset.dropVolts));
+        if (!form.getValues('name')) set('name', preset.label);
+      }}
+      create={(fd) => createDriver(railwayId, layoutId, null, fd)}
+      update={(fd) => updateDriver(railwayId, layoutId, null, fd)}
+      remove={(fd) => deleteDriver(railwayId, layoutId, null, fd)}
+      canEdit={canEdit}
+      rowName={(r) => r.name}
+    />
+  );
+}
+
+export function CabsTable({ railwayId, layoutId, canEdit, cabs, drivers }: Ids & { cabs: CabRow[]; drivers: { id: string; name: string; channels: number }[] }) {
+  const driverOptions = useMemo(() => [{ value: '', label: 'Choose…' }, ...drivers.map((d) => ({ value: d.id, label: `${d.name} (${d.channels} ch.)` }))], [drivers]);
+  const columns = useMemo<EntityColumn<CabRow>[]>(
+    () => [
+      { id: 'name', header: 'Name', sortValue: (r) => r.name.toLowerCase(), field: { name: 'name', width: 'w-36', placeholder: 'e.g. Cab 1', toInput: (r) => r.name } },
+      { id: 'driver', header: 'Driver', sortValue: (r) => drivers.find((d) => d.id === r.driverId)?.name ?? '', field: { name: 'driverId', kind: 'select', options: driverOptions, width: 'w-56', toInput: (r) => r.driverId } },
+      { id: 'channel', header: 'Channel', sortValue: (r) => r.channel, field: { name: 'channel', kind: 'number', width: 'w-16', toInput: (r) => String(r.channel) } },
+    ],
+    [drivers, driverOptions],
+  );
+  return (
+    <EntityTable
+      label="cabs"
+      noun="cab"
+      testId="cabs-table"
+      rows={cabs}
+      columns={columns}
+      createSchema={cabSchema}
+      editSchema={cabEditSchema}
+      newDefaults={{ name: '', driverId: drivers.length === 1 ? drivers[0]!.id : '', channel: '' }}
+      nextDefaults={(added) => ({ name: '', driverId: String(added.driverId), channel: String(Number(added.channel) + 1) })}
+      create={(fd) => createCab(railwayId, layoutId, null, fd)}
+      update={(fd) => updateCab(railwayId, layoutId, null, fd)}
+      remove={(fd) => deleteCab(railwayId, layoutId, null, fd)}
+      canEdit={canEdit}
+      rowName={(r) => r.name}
+    />
+  );
+}

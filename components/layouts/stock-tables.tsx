@@ -1,0 +1,113 @@
+'use client';
+
+import { useMemo } from 'react';
+import {
+  createLocomotive,
+  createTrain,
+  deleteLocomotive,
+  deleteTrain,
+  updateLocomotive,
+  updateTrain,
+} from '@/app/(app)/railways/[railwayId]/layouts/[layoutId]/actions';
+import { fromMm } from '@/lib/layouts/units';
+import { locomotiveEditSchema, locomotiveSchema, trainEditSchema, trainSchema } from '@/lib/validations/layout';
+import { EntityTable, type EntityColumn } from './entity-table';
+import { UnitPicker } from './unit-picker';
+import { useLengthUnit } from './use-length-unit';
+
+export type LocomotiveRow = { id: string; name: string; runningAmps: number; stallAmps: number; ratedVolts: number; topSpeedKmh: number; version: number };
+export type TrainRow = {
+  id: string;
+  name: string;
+  locomotiveIds: string[];
+  lightingAmps: number;
+  lengthMm: number;
+  version: number;
+  runningAmps: number;
+  surgeAmps: number;
+};
+
+type Ids = { railwayId: string; layoutId: string; canEdit: boolean };
+const amps = (v: number) => `${Math.round(v * 1000) / 1000} A`;
+
+export function LocomotivesTable({ railwayId, layoutId, canEdit, locomotives }: Ids & { locomotives: LocomotiveRow[] }) {
+  const columns = useMemo<EntityColumn<LocomotiveRow>[]>(
+    () => [
+      { id: 'name', header: 'Name', sortValue: (r) => r.name.toLowerCase(), field: { name: 'name', placeholder: 'e.g. Tank No. 5', toInput: (r) => r.name } },
+      { id: 'runningAmps', header: 'Running', sortValue: (r) => r.runningAmps, field: { name: 'runningAmps', kind: 'number', suffix: 'A', width: 'w-20', placeholder: '0.3', toInput: (r) => String(r.runningAmps) } },
+      { id: 'stallAmps', header: 'Stall', sortValue: (r) => r.stallAmps, field: { name: 'stallAmps', kind: 'number', suffix: 'A', width: 'w-20', placeholder: '0.9', toInput: (r) => String(r.stallAmps) } },
+      { id: 'ratedVolts', header: 'Rated', sortValue: (r) => r.ratedVolts, field: { name: 'ratedVolts', kind: 'number', suffix: 'V', width: 'w-20', placeholder: '12', toInput: (r) => String(r.ratedVolts) } },
+      { id: 'topSpeedKmh', header: 'Top speed', sortValue: (r) => r.topSpeedKmh, field: { name: 'topSpeedKmh', kind: 'number', suffix: 'km/h', width: 'w-20', toInput: (r) => String(r.topSpeedKmh) } },
+    ],
+    [],
+  );
+  return (
+    <EntityTable
+      label="locomotives"
+      noun="locomotive"
+      testId="locomotives-table"
+      rows={locomotives}
+      columns={columns}
+      createSchema={locomotiveSchema}
+      editSchema={locomotiveEditSchema}
+      newDefaults={{ name: '', runningAmps: '', stallAmps: '', ratedVolts: '', topSpeedKmh: '' }}
+      nextDefaults={(added) => ({ ...added, name: '' })}
+      create={(fd) => createLocomotive(railwayId, layoutId, null, fd)}
+      update={(fd) => updateLocomotive(railwayId, layoutId, null, fd)}
+      remove={(fd) => deleteLocomotive(railwayId, layoutId, null, fd)}
+      canEdit={canEdit}
+      rowName={(r) => r.name}
+    />
+  );
+}
+
+export function TrainsTable({ railwayId, layoutId, canEdit, trains, locomotives }: Ids & { trains: TrainRow[]; locomotives: { id: string; name: string }[] }) {
+  const [unit, setUnit] = useLengthUnit();
+  const options = useMemo(() => locomotives.map((l) => ({ value: l.id, label: l.name })), [locomotives]);
+  const columns = useMemo<EntityColumn<TrainRow>[]>(
+    () => [
+      { id: 'name', header: 'Name', sortValue: (r) => r.name.toLowerCase(), field: { name: 'name', placeholder: 'e.g. Morning goods', toInput: (r) => r.name } },
+      {
+        id: 'consist',
+        header: 'Consist',
+        sortValue: (r) => r.locomotiveIds.map((id) => options.find((o) => o.value === id)?.label ?? '').join(', '),
+        field: { name: 'locomotiveIds', kind: 'consist', options, toInput: (r) => r.locomotiveIds },
+      },
+      { id: 'lightingAmps', header: 'Lighting', sortValue: (r) => r.lightingAmps, field: { name: 'lightingAmps', kind: 'number', suffix: 'A', width: 'w-20', placeholder: '0', toInput: (r) => String(r.lightingAmps) } },
+      { id: 'length', header: 'Length', sortValue: (r) => r.lengthMm, field: { name: 'length', kind: 'number', suffix: unit, width: 'w-24', toInput: (r) => String(fromMm(r.lengthMm, unit)) } },
+      {
+        id: 'current',
+        header: 'Running / surge',
+        sortValue: (r) => r.runningAmps,
+        render: (r) => (
+          <span className="whitespace-nowrap font-semibold text-ink" title="Σ locomotives' running current + lighting / Σ stall current + lighting">
+            {amps(r.runningAmps)} / {amps(r.surgeAmps)}
+          </span>
+        ),
+      },
+    ],
+    [options, unit],
+  );
+  const hidden = useMemo(() => ({ unit }), [unit]);
+  return (
+    <div className="space-y-3">
+      <UnitPicker unit={unit} onChange={setUnit} id="trains-unit" />
+      <EntityTable
+        label="trains"
+        noun="train"
+        testId="trains-table"
+        rows={trains}
+        columns={columns}
+        createSchema={trainSchema}
+        editSchema={trainEditSchema}
+        hidden={hidden}
+        newDefaults={{ name: '', locomotiveIds: [], lightingAmps: '', length: '' }}
+        create={(fd) => createTrain(railwayId, layoutId, null, fd)}
+        update={(fd) => updateTrain(railwayId, layoutId, null, fd)}
+        remove={(fd) => deleteTrain(railwayId, layoutId, null, fd)}
+        canEdit={canEdit}
+        rowName={(r) => r.name}
+      />
+    </div>
+  );
+}
