@@ -3,6 +3,8 @@
 import type { Finding, LoadProfile } from '@/lib/planning';
 import type { SessionStatus } from '@/db/enums';
 
+export type { SessionStatus };
+
 export type BuilderStep = { blockId: string; enterS: number; exitS: number };
 
 export type BuilderRun = {

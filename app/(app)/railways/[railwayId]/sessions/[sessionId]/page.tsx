@@ -1,0 +1,50 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { TimetableBuilder } from '@/components/timetable/timetable-builder';
+import { Badge } from '@/components/ui/card';
+import { formatInZone, formatTimeInZone } from '@/lib/format';
+import { memberForPage } from '@/lib/page-access';
+import { roleAtLeast } from '@/lib/roles';
+import { builderLayout, loadSessionPlan, snapshotOf } from '@/lib/sessions/builder';
+import { sessionForPage } from '@/lib/sessions/page-session';
+
+export const metadata: Metadata = { title: 'Timetable' };
+
+const STATUS_TONE = { draft: 'neutral', published: 'good', cancelled: 'bad' } as const;
+
+export default async function SessionBuilderPage({ params }: { params: Promise<{ railwayId: string; sessionId: string }> }) {
+  const { railwayId, sessionId } = await params;
+  const { member } = await memberForPage(railwayId, 'operator', `/railways/${railwayId}/sessions/${sessionId}`);
+  if (!member) notFound();
+  const session = sessionForPage(member, sessionId);
+  const canEdit = roleAtLeast(member.role, 'planner');
+  const { rows } = loadSessionPlan(session.id);
+  const initial = snapshotOf(session.id);
+  const layout = builderLayout(rows);
+  const dateLabel = `${formatInZone(session.startsAt, session.timeZone)}–${formatTimeInZone(session.endsAt, session.timeZone)} (${session.timeZone})`;
+  const base = `/railways/${railwayId}/sessions/${session.id}`;
+  return (
+    <div className="space-y-4">
+      <div className="no-print flex flex-col gap-3 sm:flex-row sm:items-end sm:justify-between">
+        <div>
+          <p className="text-sm">
+            <Link href={`/railways/${railwayId}/sessions`} className="text-verdigris hover:underline">Sessions</Link>
+          </p>
+          <h2 className="flex flex-wrap items-center gap-2 font-display text-xl font-bold sm:text-2xl" data-testid="session-title">
+            {session.title} <Badge tone={STATUS_TONE[session.status]}>{session.status}</Badge>
+          </h2>
+          <p className="text-sm text-muted">
+            {dateLabel} · {rows.layout?.name} · fast clock {session.clockRatio}:1 from {session.fastStart}
+          </p>
+        </div>
+        <nav aria-label="Session" className="flex flex-wrap gap-3 text-sm font-semibold">
+          {canEdit ? <Link href={`${base}/settings`} className="text-verdigris hover:underline">Settings and status</Link> : null}
+          {canEdit ? <Link href={`${base}/invitations`} className="text-verdigris hover:underline">Invitations</Link> : null}
+          <a href={`/api/sessions/${session.id}/plan`} className="text-verdigris hover:underline" download>Plan (JSON)</a>
+        </nav>
+      </div>
+      <TimetableBuilder sessionId={session.id} initial={initial} layout={layout} canEdit={canEdit} dateLabel={dateLabel} />
+    </div>
+  );
+}

@@ -1,0 +1,68 @@
+// The builder's calls to its route handlers. Errors come back as ApiError with the JSON answer.
+import type { BuilderChange, BuilderRun, BuilderSnapshot, RetimeSuggestion } from '@/lib/sessions/types';
+
+export type ApiErrorBody = { error: string; code?: string; issues?: { path: string; message: string }[]; current?: unknown };
+
+export class ApiError extends Error {
+  constructor(
+    readonly status: number,
+    readonly body: ApiErrorBody,
+  ) {
+    super(body.error);
+  }
+}
+
+async function call<T>(method: string, path: string, body?: unknown): Promise<T> {
+  const response = await fetch(path, {
+    method,
+    headers: body === undefined ? {} : { 'content-type': 'application/json' },
+    body: body === undefined ? undefined : JSON.stringify(body),
+    cache: 'no-store',
+  });
+  const data = await response.json().catch(() => ({ error: `The server answered ${response.status}.` }));
+  if (!response.ok) throw new ApiError(response.status, data as ApiErrorBody);
+  return data as T;
+}
+
+export type NewRunBody =
+  | {
+      trainId: string;
+      cabId: string;
+      operatorId: string | null;
+      depart: string;
+      waypoints: string[];
+      speedKmh: number;
+      standBeforeS: number;
+      standAfterS: number;
+      note?: string;
+    }
+  | (Omit<BuilderRun, 'id' | 'version'>);
+
+export type RunPatchBody = {
+  version: number;
+  trainId?: string;
+  cabId?: string;
+  operatorId?: string | null;
+  note?: string;
+  depart?: string;
+  departS?: number;
+  steps?: { departS: number; arriveS: number; steps: BuilderRun['steps'] };
+};
+
+export type Move = { runId: string; version: number; delayS: number };
+
+const base = (sessionId: string) => `/api/sessions/${encodeURIComponent(sessionId)}`;
+
+export const timetableApi = {
+  snapshot: (sessionId: string) => call<BuilderSnapshot>('GET', `${base(sessionId)}/runs`),
+  createRun: (sessionId: string, body: NewRunBody) => call<BuilderChange>('POST', `${base(sessionId)}/runs`, body),
+  patchRun: (sessionId: string, runId: string, body: RunPatchBody) =>
+    call<BuilderChange>('PATCH', `${base(sessionId)}/runs/${encodeURIComponent(runId)}`, body),
+  deleteRun: (sessionId: string, runId: string, version: number) =>
+    call<BuilderChange>('DELETE', `${base(sessionId)}/runs/${encodeURIComponent(runId)}?version=${version}`),
+  series: (sessionId: string, runId: string, body: { everyFastMin: number; count: number }) =>
+    call<BuilderChange>('POST', `${base(sessionId)}/runs/${encodeURIComponent(runId)}/series`, body),
+  suggestRetime: (sessionId: string) => call<{ moves: RetimeSuggestion[] }>('GET', `${base(sessionId)}/retime`),
+  applyRetime: (sessionId: string, moves: Move[]) => call<BuilderChange>('POST', `${base(sessionId)}/retime`, { moves }),
+  undoRetime: (sessionId: string, moves: Move[]) => call<BuilderChange>('POST', `${base(sessionId)}/retime/undo`, { moves }),
+};

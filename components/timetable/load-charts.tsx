@@ -1,0 +1,147 @@
+'use client';
+
+import { CartesianGrid, Line, LineChart, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import type { Finding, LoadProfile, LoadSeries } from '@/lib/planning';
+import type { Highlight } from '@/lib/sessions/highlight';
+import { fastLabel, realLabel, type SessionClock } from '@/lib/sessions/time-labels';
+
+const amps = (v: number) => `${Math.round(v * 100) / 100} A`;
+
+const POWER_KINDS = new Set<Finding['kind']>(['channel-overload', 'channel-peak-overload', 'driver-overload', 'supply-overload', 'supply-derate']);
+
+function SeriesChart({
+  series,
+  kind,
+  overloads,
+  clock,
+  lengthS,
+  marked,
+  derate,
+}: {
+  series: LoadSeries;
+  kind: 'cab' | 'driver' | 'supply';
+  overloads: Finding[];
+  clock: SessionClock;
+  lengthS: number;
+  marked: boolean;
+  derate: number;
+}) {
+  const data = [{ t: 0, running: 0, peak: 0 }, ...series.points.map(([t, running, peak]) => ({ t, running, peak }))];
+  const last = data[data.length - 1]!;
+  if (last.t < lengthS) data.push({ t: lengthS, running: last.running, peak: last.peak });
+  const top = Math.max(series.maxPeakAmps, series.limitAmps ?? 0, series.peakLimitAmps ?? 0) * 1.15 || 1;
+  const over = overloads.length > 0;
+  return (
+    <figure
+      className={`rounded-plate border p-3 ${marked ? 'border-brass bg-brass-soft' : over ? 'border-signal/50' : 'border-line'}`}
+      data-testid="load-chart"
+      data-series={series.id}
+      data-overloaded={over ? 'true' : 'false'}
+    >
+      <figcaption className="mb-1 flex flex-wrap items-baseline justify-between gap-2 text-sm">
+        <span className="font-semibold">{series.name}</span>
+        <span className={over ? 'text-signal' : 'text-muted'}>
+          peak {amps(series.maxPeakAmps)}, running {amps(series.maxRunningAmps)}
+          {series.limitAmps !== null ? ` · rating ${amps(series.limitAmps)}` : ''}
+          {kind === 'supply' && series.runningLimitAmps !== null ? ` · ${Math.round(derate * 100)} % ${amps(series.runningLimitAmps)}` : ''}
+        </span>
+      </figcaption>
+      <div className="h-36">
+        <ResponsiveContainer width="100%" height="100%">
+          <LineChart data={data} margin={{ top: 4, right: 8, bottom: 0, left: -18 }}>
+            <CartesianGrid stroke="var(--line)" strokeDasharray="2 4" />
+            <XAxis
+              dataKey="t"
+              type="number"
+              domain={[0, lengthS]}
+              tickFormatter={(t: number) => fastLabel(t, clock)}
+              tick={{ fontSize: 10, fill: 'var(--muted)' }}
+              stroke="var(--line)"
+            />
+            <YAxis domain={[0, top]} tick={{ fontSize: 10, fill: 'var(--muted)' }} stroke="var(--line)" tickFormatter={(v: number) => `${Math.round(v * 10) / 10}`} />
+            {overloads.map((f) => (
+              <ReferenceArea key={`${f.kind}${f.fromS}`} x1={f.fromS} x2={Math.max(f.toS, f.fromS + lengthS / 400)} fill="var(--signal)" fillOpacity={0.22} stroke="var(--signal)" strokeOpacity={0.6} />
+            ))}
+            {series.peakLimitAmps !== null && series.peakLimitAmps !== series.limitAmps ? (
+              <ReferenceLine y={series.peakLimitAmps} stroke="var(--amber)" strokeDasharray="6 3" label={{ value: 'peak rating', fontSize: 10, fill: 'var(--amber)', position: 'insideTopRight' }} />
+            ) : null}
+            {series.limitAmps !== null ? (
+              <ReferenceLine y={series.limitAmps} stroke="var(--signal)" label={{ value: 'rating', fontSize: 10, fill: 'var(--signal)', position: 'insideTopRight' }} />
+            ) : null}
+            {kind === 'supply' && series.runningLimitAmps !== null ? (
+              <ReferenceLine y={series.runningLimitAmps} stroke="var(--brass)" strokeDasharray="4 4" label={{ value: 'derated', fontSize: 10, fill: 'var(--brass)', position: 'insideBottomRight' }} />
+            ) : null}
+            <Line type="stepAfter" dataKey="peak" name="with start-up surge" stroke="var(--amber)" strokeWidth={1} dot={false} isAnimationActive={false} />
+            <Line type="stepAfter" dataKey="running" name="running" stroke="var(--verdigris)" strokeWidth={2} dot={false} isAnimationActive={false} />
+            <Tooltip
+              labelFormatter={(t) => `${fastLabel(Number(t), clock)} fast · ${realLabel(Number(t), clock)} real`}
+              formatter={(v) => amps(Number(v))}
+              contentStyle={{ background: 'var(--surface)', border: '1px solid var(--line)', fontSize: 12 }}
+            />
+          </LineChart>
+        </ResponsiveContainer>
+      </div>
+    </figure>
+  );
+}
+
+/**
+ * Current over the session for every cab (channel), driver and supply against its rating, with the
+ * derated limit for supplies; overload intervals are shaded.
+ */
+export function LoadCharts({
+  load,
+  findings,
+  clock,
+  lengthS,
+  highlight,
+  derate,
+}: {
+  load: LoadProfile;
+  findings: Finding[];
+  clock: SessionClock;
+  lengthS: number;
+  highlight?: Highlight;
+  derate: number;
+}) {
+  const overloadsOf = (id: string) => findings.filter((f) => POWER_KINDS.has(f.kind) && f.ids[0] === id);
+  const groups: { title: string; kind: 'cab' | 'driver' | 'supply'; series: LoadSeries[] }[] = [
+    { title: 'Cabs (driver channels)', kind: 'cab', series: load.cabs },
+    { title: 'Drivers', kind: 'driver', series: load.drivers },
+    { title: 'Supplies', kind: 'supply', series: load.supplies },
+  ];
+  return (
+    <div className="space-y-5" data-testid="load-view">
+      <p className="rounded-plate bg-amber-soft px-3 py-2 text-sm text-amber">
+        These figures are planning aids, not a substitute for the manufacturer&apos;s ratings, local codes or a licensed electrician.
+        Fuse or current-limit every supply output; an overloaded supply or driver overheats, and driver heat sinks can reach burn temperatures.
+      </p>
+      <p className="text-xs text-muted">
+        Green: running current. Amber: with each train&apos;s start-up surge (stall current for the first seconds). Shaded: over a limit.
+      </p>
+      {groups.map((g) => (
+        <section key={g.kind}>
+          <h3 className="mb-2 font-display font-bold">{g.title}</h3>
+          {g.series.length === 0 ? (
+            <p className="text-sm text-muted">None on this layout.</p>
+          ) : (
+            <div className="grid gap-3 md:grid-cols-2">
+              {g.series.map((s) => (
+                <SeriesChart
+                  key={s.id}
+                  series={s}
+                  kind={g.kind}
+                  overloads={overloadsOf(s.id)}
+                  clock={clock}
+                  lengthS={lengthS}
+                  derate={derate}
+                  marked={g.kind === 'cab' ? Boolean(highlight?.cabIds.has(s.id)) : false}
+                />
+              ))}
+            </div>
+          )}
+        </section>
+      ))}
+    </div>
+  );
+}

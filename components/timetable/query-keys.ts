@@ -1,0 +1,9 @@
+/** Every TanStack Query key the timetable builder uses, in one place. */
+export const timetableKeys = {
+  all: ['timetable'] as const,
+  session: (sessionId: string) => ['timetable', sessionId] as const,
+  /** The stored runs with findings and load: BuilderSnapshot. */
+  builder: (sessionId: string) => ['timetable', sessionId, 'builder'] as const,
+  /** suggestRetime's proposal for the current runs. */
+  retime: (sessionId: string) => ['timetable', sessionId, 'retime'] as const,
+};

@@ -1,0 +1,161 @@
+'use client';
+
+import { useMemo, useState } from 'react';
+import { findRoute, HH_MM_PATTERN } from '@/lib/planning';
+import type { BuilderLayout } from '@/lib/sessions/types';
+import { Button } from '@/components/ui/button';
+import { Field, Select, TextInput } from '@/components/ui/field';
+import type { NewRunBody } from './api';
+
+/**
+ * Adds a run: train, cab, operator, a fast-clock departure, and a route picked by clicking blocks
+ * in order (the first and last are enough: the shortest route between clicks is filled in).
+ */
+export function RunForm({
+  layout,
+  suggestedDepart,
+  onSubmit,
+  pending,
+}: {
+  layout: BuilderLayout;
+  suggestedDepart: string;
+  onSubmit: (body: NewRunBody, label: string) => Promise<boolean>;
+  pending: boolean;
+}) {
+  const [trainId, setTrainId] = useState(layout.trains[0]?.id ?? '');
+  const [cabId, setCabId] = useState(layout.cabs[0]?.id ?? '');
+  const [operatorId, setOperatorId] = useState('');
+  const [depart, setDepart] = useState(suggestedDepart);
+  const [speed, setSpeed] = useState('50');
+  const [standBefore, setStandBefore] = useState('60');
+  const [standAfter, setStandAfter] = useState('120');
+  const [waypoints, setWaypoints] = useState<string[]>([]);
+  const [errors, setErrors] = useState<Record<string, string>>({});
+
+  const train = layout.trains.find((t) => t.id === trainId);
+  const blockName = useMemo(() => new Map(layout.blocks.map((b) => [b.id, b.name])), [layout.blocks]);
+  const route = useMemo(() => {
+    if (waypoints.length < 2) return waypoints;
+    const track = { blocks: layout.blocks, links: layout.links };
+    const out: string[] = [waypoints[0]!];
+    for (let i = 1; i < waypoints.length; i++) {
+      const leg = findRoute(track, waypoints[i - 1]!, waypoints[i]!);
+      if (!leg) return null;
+      out.push(...leg.slice(1));
+    }
+    return out;
+  }, [waypoints, layout.blocks, layout.links]);
+
+  const submit = async () => {
+    const next: Record<string, string> = {};
+    if (!trainId) next.trainId = 'Choose a train.';
+    if (!cabId) next.cabId = 'Choose a cab.';
+    if (!HH_MM_PATTERN.test(depart.trim())) next.depart = 'Enter the departure as HH:MM on the fast clock, e.g. 06:45.';
+    const speedKmh = Number(speed);
+    if (!(speedKmh > 0 && speedKmh <= 500)) next.speedKmh = 'Enter a scale speed above 0 km/h.';
+    else if (train?.topSpeedKmh && speedKmh > train.topSpeedKmh) next.speedKmh = `This train’s top speed is ${train.topSpeedKmh} km/h.`;
+    const before = Number(standBefore);
+    const after = Number(standAfter);
+    if (!(before >= 0 && before <= 3600)) next.standBeforeS = 'Use 0 to 3600 s.';
+    if (!(after >= 0 && after <= 3600)) next.standAfterS = 'Use 0 to 3600 s.';
+    if (waypoints.length < 2) next.waypoints = 'Click at least the first and the last block.';
+    else if (route === null) next.waypoints = 'No track joins the blocks you picked.';
+    else if (new Set(route).size < 2) next.waypoints = 'Pick two different blocks: a run has to go somewhere.';
+    setErrors(next);
+    if (Object.keys(next).length) return;
+    const ok = await onSubmit(
+      { trainId, cabId, operatorId: operatorId || null, depart: depart.trim(), waypoints, speedKmh, standBeforeS: before, standAfterS: after },
+      `${train?.name ?? 'run'} at ${depart.trim()}`,
+    );
+    if (ok) {
+      setWaypoints([]);
+    }
+  };
+
+  return (
+    <form
+      className="space-y-4"
+      noValidate
+      onSubmit={(e) => {
+        e.preventDefault();
+        void submit();
+      }}
+      data-testid="run-form"
+    >
+      <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
+        <Field label="Train" name="run-train" error={errors.trainId}>
+          <Select name="run-train" value={trainId} onChange={(e) => setTrainId(e.target.value)}>
+            {layout.trains.map((t) => (
+              <option key={t.id} value={t.id}>{t.name}</option>
+            ))}
+          </Select>
+        </Field>
+        <Field label="Cab" name="run-cab" error={errors.cabId}>
+          <Select name="run-cab" value={cabId} onChange={(e) => setCabId(e.target.value)}>
+            {layout.cabs.map((c) => (
+              <option key={c.id} value={c.id}>{c.name}</option>
+            ))}
+          </Select>
+        </Field>
+        <Field label="Operator" name="run-operator">
+          <Select name="run-operator" value={operatorId} onChange={(e) => setOperatorId(e.target.value)}>
+            <option value="">None yet</option>
+            {layout.operators.map((o) => (
+              <option key={o.id} value={o.id}>{o.name}{o.rsvp === 'declined' ? ' (declined)' : ''}</option>
+            ))}
+          </Select>
+        </Field>
+        <Field label="Departs (fast clock)" name="run-depart" error={errors.depart} hint="HH:MM on the fast clock">
+          <TextInput name="run-depart" value={depart} onChange={(e) => setDepart(e.target.value)} inputMode="numeric" placeholder="06:45" />
+        </Field>
+        <Field label="Scale speed (km/h)" name="run-speed" error={errors.speedKmh} hint={train?.topSpeedKmh ? `Top speed ${train.topSpeedKmh} km/h` : undefined}>
+          <TextInput name="run-speed" value={speed} onChange={(e) => setSpeed(e.target.value)} inputMode="decimal" />
+        </Field>
+        <Field label="Stands before departing (real s)" name="run-stand-before" error={errors.standBeforeS}>
+          <TextInput name="run-stand-before" value={standBefore} onChange={(e) => setStandBefore(e.target.value)} inputMode="numeric" />
+        </Field>
+        <Field label="Stands after arriving (real s)" name="run-stand-after" error={errors.standAfterS}>
+          <TextInput name="run-stand-after" value={standAfter} onChange={(e) => setStandAfter(e.target.value)} inputMode="numeric" />
+        </Field>
+      </div>
+      <fieldset className="space-y-2">
+        <legend className="text-sm font-semibold">Route</legend>
+        <p className="text-xs text-muted">
+          Click the first and the last block; the shortest route between them is filled in. Click blocks in between to choose the way (a loop road, say).
+        </p>
+        <div className="flex flex-wrap gap-1.5" role="group" aria-label="Blocks">
+          {layout.blocks.map((b) => {
+            const order = waypoints.indexOf(b.id);
+            return (
+              <button
+                key={b.id}
+                type="button"
+                onClick={() => setWaypoints((w) => [...w, b.id])}
+                className={`rounded-full border px-2.5 py-1 text-xs ${order >= 0 ? 'border-verdigris bg-verdigris-soft font-semibold' : 'border-line hover:bg-sunken'}`}
+                data-testid="route-block"
+              >
+                {order >= 0 ? `${order + 1}. ` : ''}
+                {b.name}
+              </button>
+            );
+          })}
+        </div>
+        <div className="flex flex-wrap items-center gap-2 text-sm" data-testid="route-preview">
+          {route && route.length ? (
+            <span>{route.map((id) => blockName.get(id)).join(' → ')}</span>
+          ) : (
+            <span className="text-muted">No blocks picked yet.</span>
+          )}
+          {waypoints.length ? (
+            <>
+              <Button type="button" variant="ghost" onClick={() => setWaypoints((w) => w.slice(0, -1))}>Undo last block</Button>
+              <Button type="button" variant="ghost" onClick={() => setWaypoints([])}>Clear</Button>
+            </>
+          ) : null}
+        </div>
+        {errors.waypoints ? <p className="text-sm text-signal" role="alert">{errors.waypoints}</p> : null}
+      </fieldset>
+      <Button type="submit" disabled={pending}>{pending ? 'Saving…' : 'Add run'}</Button>
+    </form>
+  );
+}

@@ -1,0 +1,64 @@
+import { expect, type Locator, type Page } from '@playwright/test';
+
+/** The timetable builder of one session. */
+export class TimetablePage {
+  constructor(private readonly page: Page) {}
+
+  get findings(): Locator {
+    return this.page.getByTestId('findings-panel');
+  }
+
+  finding(kind: string): Locator {
+    return this.page.locator(`[data-testid="finding"][data-kind="${kind}"]`);
+  }
+
+  get errorCount(): Locator {
+    return this.page.getByTestId('error-count');
+  }
+
+  get graph(): Locator {
+    return this.page.getByTestId('train-graph');
+  }
+
+  get graphClashes(): Locator {
+    return this.page.getByTestId('graph-clash');
+  }
+
+  get clashingGraphRuns(): Locator {
+    return this.page.locator('[data-testid="graph-run"][data-clash="true"]');
+  }
+
+  get selectedGraphRuns(): Locator {
+    return this.page.locator('[data-testid="graph-run"][data-selected="true"]');
+  }
+
+  async openFromSessions(railwayUrl: string, title: string) {
+    await this.page.goto(`${railwayUrl}/sessions`);
+    await this.page.getByRole('link', { name: title }).click();
+    await expect(this.page.getByTestId('session-title')).toContainText(title);
+    await expect(this.graph).toBeVisible();
+  }
+
+  async showView(name: 'Train graph' | 'Calendar' | 'Load' | 'Print') {
+    await this.page.getByRole('tab', { name }).click();
+    await expect(this.page.getByRole('tab', { name })).toHaveAttribute('aria-selected', 'true');
+  }
+
+  runRow(text: string): Locator {
+    return this.page.getByTestId('run-row').filter({ hasText: text });
+  }
+
+  /** Types a new fast-clock departure into a run's row and confirms it. */
+  async setDeparture(row: Locator, fast: string) {
+    const input = row.getByTestId('run-depart');
+    await input.fill(fast);
+    await input.press('Enter');
+  }
+
+  async repairTiming() {
+    await this.page.getByTestId('repair-timing').click();
+    const dialog = this.page.getByTestId('retime-dialog');
+    await expect(dialog.getByTestId('retime-move').first()).toBeVisible();
+    return dialog;
+  }
+}

@@ -1,0 +1,202 @@
+import fs from 'node:fs';
+import { DEMO_RAILWAY, expect, screenshotBoth, test } from './fixtures';
+import { TimetablePage } from './pages/timetable-page';
+
+const SESSION = 'December running evening';
+const TIMING_KINDS = ['block-overlap', 'cab-double-booked', 'operator-double-booked', 'train-double-booked'];
+
+test.describe.configure({ mode: 'serial' });
+
+test('a planner sees the seeded clashes, repairs timing, and brings a clash back by moving a run', async ({ page, signInAs, railwayPage }) => {
+  await signInAs('planner');
+  await railwayPage.openFromList(DEMO_RAILWAY);
+  const railwayUrl = page.url();
+  const timetable = new TimetablePage(page);
+  await timetable.openFromSessions(railwayUrl, SESSION);
+
+  // The three deliberate clashes of the demo session: the goods meets the express below the loop,
+  // the railcar shuttle on cab 3 while the goods still holds it, and the stone train overloading cab 1.
+  await expect(timetable.finding('block-overlap').first()).toBeVisible();
+  await expect(timetable.finding('block-overlap').filter({ hasText: 'Pick-up goods' }).filter({ hasText: 'Fernwick express' }).first()).toBeVisible();
+  await expect(timetable.finding('cab-double-booked')).toContainText('Cab 3 is booked for Railcar shuttle');
+  await expect(timetable.finding('channel-overload').first()).toContainText('Cab 1 draws up to 1.05 A');
+  // Each finding gives its time on the fast and on the real clock.
+  await expect(timetable.finding('cab-double-booked')).toContainText(/06:5\d.* fast · \d\d:\d\d.* real/);
+  // The same clashes are on the train graph: boxes where the goods and the express meet, and the
+  // runs involved marked.
+  await expect(timetable.graphClashes.first()).toBeAttached();
+  expect(await timetable.graphClashes.count()).toBeGreaterThanOrEqual(3);
+  expect(await timetable.clashingGraphRuns.count()).toBeGreaterThanOrEqual(4);
+  await screenshotBoth(page, 'timetable-graph');
+
+  // Choosing a finding marks its runs on the graph.
+  await timetable.finding('cab-double-booked').click();
+  await expect(timetable.selectedGraphRuns).toHaveCount(2);
+  await expect(page.locator('[data-testid="run-row"].bg-brass-soft')).toHaveCount(2);
+  await timetable.finding('cab-double-booked').click();
+
+  await timetable.showView('Calendar');
+  await expect(page.getByTestId('calendar-view').locator('.fc-event').first()).toBeVisible();
+  expect(await page.locator('.fc-event.fp-clash').count()).toBeGreaterThanOrEqual(4);
+  await screenshotBoth(page, 'timetable-calendar');
+
+  await timetable.showView('Load');
+  await expect(page.locator('[data-testid="load-chart"][data-overloaded="true"]').first()).toBeVisible();
+  await screenshotBoth(page, 'timetable-load');
+
+  await timetable.showView('Print');
+  await expect(page.getByTestId('print-row')).toHaveCount(20);
+  await screenshotBoth(page, 'timetable-print');
+  await timetable.showView('Train graph');
+
+  // Repair timing: a diff of old and new departures, applied on confirm.
+  const dialog = await timetable.repairTiming();
+  await expect(dialog.getByTestId('retime-move').filter({ hasText: 'Pick-up goods' })).toBeVisible();
+  await expect(dialog.getByTestId('retime-move').filter({ hasText: 'Railcar shuttle' })).toBeVisible();
+  await screenshotBoth(page, 'timetable-repair');
+  await dialog.getByTestId('apply-retime').click();
+  await expect(dialog).toBeHidden();
+  for (const kind of TIMING_KINDS) await expect(timetable.finding(kind)).toHaveCount(0);
+  await expect(timetable.graphClashes).toHaveCount(0);
+  await expect(page.getByTestId('undo-bar')).toContainText('Repaired timing (2 runs moved)');
+  // Power overloads are not a timing matter and stay.
+  await expect(timetable.finding('channel-overload').first()).toBeVisible();
+  await screenshotBoth(page, 'timetable-repaired');
+
+  // Undo puts the clashes back; redo the repair.
+  await page.getByTestId('undo').click();
+  await expect(timetable.finding('cab-double-booked')).toHaveCount(1);
+  await (await timetable.repairTiming()).getByTestId('apply-retime').click();
+  await expect(timetable.finding('block-overlap')).toHaveCount(0);
+
+  // Move the goods back onto the express's blocks: the clash comes back, on the panel and the graph.
+  const goods = timetable.runRow('Mossgate loop, passing road → Fernwick platform 2');
+  await expect(goods).toHaveCount(1);
+  const started = Date.now();
+  await timetable.setDeparture(goods, '08:08');
+  await expect(timetable.finding('block-overlap').first()).toBeVisible();
+  const editMs = Date.now() - started;
+  await expect(timetable.graphClashes.first()).toBeAttached();
+  await expect(goods).toHaveAttribute('data-clash', 'true');
+  test.info().annotations.push({ type: 'edit-to-findings-ms (demo, 20 runs)', description: String(editMs) });
+});
+
+test('an operator sees the published timetable read-only', async ({ page, signInAs, railwayPage }) => {
+  await signInAs('operator');
+  await railwayPage.openFromList(DEMO_RAILWAY);
+  const timetable = new TimetablePage(page);
+  await timetable.openFromSessions(page.url(), SESSION);
+  await expect(timetable.finding('channel-overload').first()).toBeVisible();
+  await expect(page.getByTestId('run-depart')).toHaveCount(0);
+  await expect(page.getByTestId('repair-timing')).toHaveCount(0);
+  await expect(page.getByRole('heading', { name: 'Add a run' })).toHaveCount(0);
+  await screenshotBoth(page, 'timetable-operator');
+});
+
+test('a planner creates a session and builds runs from an empty timetable', async ({ page, signInAs, railwayPage }) => {
+  await signInAs('planner');
+  await railwayPage.openFromList(DEMO_RAILWAY);
+  await railwayPage.openTab('Sessions');
+  await screenshotBoth(page, 'timetable-sessions');
+  const form = page.getByTestId('session-form');
+  await form.getByLabel('Title').fill('Spring timetable trial');
+  await form.getByLabel('Date').fill('2031-04-12');
+  await form.getByRole('button', { name: 'Create and open the builder' }).click();
+  await expect(page.getByTestId('session-title')).toContainText('Spring timetable trial');
+  await expect(page.getByTestId('no-runs')).toBeVisible();
+
+  const runForm = page.getByTestId('run-form');
+  await runForm.getByLabel('Train').selectOption({ label: 'Wrenhollow stopper' });
+  await runForm.getByLabel('Departs (fast clock)').fill('06:20');
+  await runForm.getByRole('button', { name: 'Larkholm yard road 1' }).click();
+  await runForm.getByRole('button', { name: 'Fernwick platform 1' }).click();
+  await expect(page.getByTestId('route-preview')).toContainText('Larkholm yard road 1 → Larkholm yard lead → Wrenhollow east');
+  await runForm.getByRole('button', { name: 'Add run' }).click();
+  await expect(page.getByTestId('run-row')).toHaveCount(1);
+  await expect(page.getByTestId('no-findings')).toBeVisible();
+
+  // A series every 40 fast minutes, then a second train against it on the same cab: a clash.
+  const row = page.getByTestId('run-row').first();
+  await row.getByRole('button', { name: 'Series' }).click();
+  await page.getByTestId('series-form').getByRole('button', { name: 'Make series' }).click();
+  await expect(page.getByTestId('run-row')).toHaveCount(4);
+  await runForm.getByLabel('Train').selectOption({ label: 'Pick-up goods' });
+  await runForm.getByLabel('Departs (fast clock)').fill('06:22');
+  await runForm.getByRole('button', { name: 'Fernwick platform 2' }).click();
+  await runForm.getByRole('button', { name: 'Larkholm yard road 2' }).click();
+  await runForm.getByRole('button', { name: 'Add run' }).click();
+  await expect(page.getByTestId('run-row')).toHaveCount(5);
+  await expect(page.locator('[data-testid="finding"][data-kind="cab-double-booked"]')).toHaveCount(1);
+  await expect(page.locator('[data-testid="finding"][data-kind="block-overlap"]').first()).toBeVisible();
+
+  // Delete with undo.
+  const goods = page.getByTestId('run-row').filter({ hasText: 'Pick-up goods' });
+  await goods.getByRole('button', { name: /Delete/ }).click();
+  await expect(page.getByTestId('run-row')).toHaveCount(4);
+  await expect(page.locator('[data-testid="finding"][data-kind="cab-double-booked"]')).toHaveCount(0);
+  await page.getByTestId('undo').click();
+  await expect(page.getByTestId('run-row')).toHaveCount(5);
+  await screenshotBoth(page, 'timetable-new-session');
+});
+
+test('speed: a 200-run session opens and re-checks an edit (figures recorded, not asserted)', async ({ page, signInAs, railwayPage }) => {
+  await signInAs('planner');
+  await railwayPage.openFromList(DEMO_RAILWAY);
+  const railwayUrl = page.url();
+  await page.goto(`${railwayUrl}/sessions`);
+  const demoHref = await page.getByRole('link', { name: SESSION }).getAttribute('href');
+  const demoId = demoHref!.split('/').pop()!;
+  // A copy of the demo session with its twenty runs repeated ten times, 17 real minutes apart.
+  const duplicate = page.getByTestId('session-row').filter({ hasText: SESSION }).first();
+  await duplicate.getByText('Duplicate as a starting point…').click();
+  await duplicate.getByLabel(/New date for a copy/).fill('2031-06-07');
+  await duplicate.getByRole('button', { name: 'Duplicate' }).click();
+  await expect(page.getByTestId('session-title')).toBeVisible();
+  const bigId = page.url().split('/').pop()!;
+  expect(bigId).not.toBe(demoId);
+  const plan = await (await page.request.get(`/api/sessions/${bigId}/plan`)).json();
+  const runs = [];
+  for (let k = 0; k < 10; k++) {
+    for (const run of plan.runs) {
+      const shift = k * 1020;
+      runs.push({
+        ...run,
+        id: `${run.id}-x${k}`,
+        departS: run.departS + shift,
+        arriveS: run.arriveS + shift,
+        steps: run.steps.map((s: { blockId: string; enterS: number; exitS: number }) => ({ ...s, enterS: s.enterS + shift, exitS: s.exitS + shift })),
+      });
+    }
+  }
+  const posted = await page.request.post(`/api/sessions/${bigId}/plan`, { data: { ...plan, runs } });
+  expect(posted.status()).toBe(200);
+
+  const figures: Record<string, number[]> = { openMs: [], editMs: [] };
+  for (let i = 0; i < 3; i++) {
+    const started = Date.now();
+    await page.goto(`${railwayUrl}/sessions/${bigId}`);
+    await expect(page.getByTestId('graph-run')).toHaveCount(200);
+    figures.openMs!.push(Date.now() - started);
+  }
+  const before = await page.getByTestId('check-status').textContent();
+  for (let i = 0; i < 3; i++) {
+    const row = page.getByTestId('run-row').nth(5 + i);
+    const input = row.getByTestId('run-depart');
+    const current = await input.inputValue();
+    const [h, m] = current.split(':').map(Number);
+    const next = `${String(h).padStart(2, '0')}:${String(((m ?? 0) + 7) % 60).padStart(2, '0')}`;
+    const status = page.getByTestId('check-status');
+    const revision = Number(await status.getAttribute('data-revision'));
+    const started = Date.now();
+    await input.fill(next);
+    await input.press('Enter');
+    await expect(status).toHaveAttribute('data-revision', String(revision + 1));
+    figures.editMs!.push(Date.now() - started);
+    await expect(page.getByTestId('undo-bar')).toBeVisible();
+  }
+  expect(before).toContain('Checked on the server');
+  await screenshotBoth(page, 'timetable-200-runs');
+  fs.mkdirSync('test-results', { recursive: true });
+  fs.writeFileSync('test-results/timetable-speed.json', JSON.stringify(figures, null, 2));
+  test.info().annotations.push({ type: 'speed', description: JSON.stringify(figures) });
+});
