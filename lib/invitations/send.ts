@@ -15,7 +15,7 @@ import { createUser, getUserByEmail } from '@/db/queries/users';
 import type { Session } from '@/db/schema';
 import { buildInvitationCalendar, type Person } from '@/lib/calendar/ics';
 import { AppError, notFound } from '@/lib/errors';
-import { runsOf } from '@/lib/invitations/assignments';
+import { describeRuns } from '@/lib/invitations/assignments';
 import { assignmentSummary, buildInvitationBody, type InvitationContent } from '@/lib/invitations/message';
 import { replyExpiry, signReplyToken } from '@/lib/invitations/reply-token';
 import { absoluteUrl } from '@/lib/mail/account-mail';
@@ -69,6 +69,8 @@ function queueNotices(input: {
   const rows = loadSessionRows(session.id);
   if (!railway || !rows) throw notFound('That session');
   const duties = listCrewDuties(session.id);
+  // Described once for the whole batch: each message takes its invitee's runs from this list.
+  const allRuns = describeRuns(rows);
   const timetable = absoluteUrl(`/railways/${session.railwayId}/sessions/${session.id}`);
   const myRuns = absoluteUrl('/my-runs');
   let queued = 0;
@@ -91,7 +93,7 @@ function queueNotices(input: {
       railwayName: railway.name,
       host: { name: host.name, email: host.email },
       invitee,
-      runs: runsOf(rows, inv.userId),
+      runs: allRuns.filter((r) => r.operatorId === inv.userId),
       duties: duties.filter((d) => d.userId === inv.userId),
       links: {
         accept: replyUrl(token, 'accepted'),
