@@ -1,13 +1,16 @@
 import { formatStand, type RunAssignment } from '@/lib/invitations/assignments';
 
-function Neighbour({ label, n }: { label: string; n: RunAssignment['before'] }) {
+function Neighbour({ label, n, viewerId }: { label: string; n: RunAssignment['before']; viewerId: string }) {
   return (
     <div className="min-w-0">
       <dt className="text-xs text-muted">{label}</dt>
-      <dd className="truncate text-sm">
+      <dd className="text-sm">
         {n ? (
           <>
-            <span className="font-semibold">{n.operatorName ?? 'no one named'}</span> · {n.trainName} · {n.fastDepart}
+            <span className="block font-semibold">{n.operatorId === viewerId ? 'You' : (n.operatorName ?? 'no one named')}</span>
+            <span className="block text-muted">
+              {n.trainName} · {n.fastDepart}
+            </span>
           </>
         ) : (
           <span className="text-muted">no one</span>
@@ -18,7 +21,7 @@ function Neighbour({ label, n }: { label: string; n: RunAssignment['before'] }) 
 }
 
 /** One of my runs as read on a phone: fast departure large, then train, cab, route and hand-overs. */
-export function RunCard({ run, index }: { run: RunAssignment; index: number }) {
+export function RunCard({ run, index, viewerId }: { run: RunAssignment; index: number; viewerId: string }) {
   return (
     <li className="rounded-plate border border-line bg-surface p-4 shadow-sm" data-testid="my-run">
       <div className="flex items-start justify-between gap-3">
@@ -51,8 +54,8 @@ export function RunCard({ run, index }: { run: RunAssignment; index: number }) {
         Stand {formatStand(run.standBeforeS)} before departure · {formatStand(run.standAfterS)} after arrival
       </p>
       <dl className="mt-3 grid grid-cols-2 gap-3 border-t border-line pt-3">
-        <Neighbour label={`Before me on ${run.cabName}`} n={run.before} />
-        <Neighbour label={`After me on ${run.cabName}`} n={run.after} />
+        <Neighbour label={`Before me on ${run.cabName}`} n={run.before} viewerId={viewerId} />
+        <Neighbour label={`After me on ${run.cabName}`} n={run.after} viewerId={viewerId} />
       </dl>
       {run.note ? <p className="mt-2 text-sm text-muted">{run.note}</p> : null}
     </li>

@@ -11,12 +11,17 @@ const LABELS: Record<Answer, string> = { accepted: 'Accept', tentative: 'Maybe',
 const DONE: Record<string, string> = { accepted: 'accepted', tentative: 'maybe', declined: 'declined' };
 
 /** Three buttons that record an answer with a reply token; after an answer, the fresh token lets the person change it. */
-export function ReplyForm({ token, chosen }: { token: string; chosen: Answer }) {
+export function ReplyForm({ token, chosen, currentLabel }: { token: string; chosen: Answer; currentLabel: string }) {
   const [state, action, pending] = useActionState(replyByToken, null);
   const current = state?.ok && state.data ? state.data : null;
   const activeToken = current?.nextToken ?? token;
   return (
     <div className="space-y-4">
+      {!current ? (
+        <p className="text-sm">
+          Your answer so far: <strong>{currentLabel}</strong>
+        </p>
+      ) : null}
       {current ? (
         <Notice tone="good">
           <span data-testid="reply-recorded">Your answer is recorded: {DONE[current.answer] ?? current.answer}.</span>

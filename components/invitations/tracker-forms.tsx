@@ -24,6 +24,8 @@ export function InviteCrewForm({
   const [state, action, pending] = useActionState(inviteCrew.bind(null, railwayId, sessionId), null);
   const [picked, setPicked] = useState<Set<string>>(() => new Set(members.filter((m) => m.runCount > 0).map((m) => m.userId)));
   const errors = state && !state.ok ? (state.fieldErrors ?? {}) : {};
+  // Members invited a moment ago leave the list; only count the ones still shown.
+  const pickedCount = members.filter((m) => picked.has(m.userId)).length;
   const toggle = (id: string) =>
     setPicked((old) => {
       const next = new Set(old);
@@ -42,9 +44,9 @@ export function InviteCrewForm({
             <button
               type="button"
               className="text-xs font-semibold text-verdigris hover:underline"
-              onClick={() => setPicked(picked.size === members.length ? new Set() : new Set(members.map((m) => m.userId)))}
+              onClick={() => setPicked(pickedCount === members.length ? new Set() : new Set(members.map((m) => m.userId)))}
             >
-              {picked.size === members.length ? 'Pick none' : 'Pick all'}
+              {pickedCount === members.length ? 'Pick none' : 'Pick all'}
             </button>
           </legend>
           <ul className="max-h-72 space-y-1 overflow-y-auto rounded-plate border border-line p-2">
@@ -92,32 +94,52 @@ export function InviteCrewForm({
         />
       </Field>
       <Button type="submit" disabled={pending} className="w-full">
-        {pending ? 'Inviting…' : `Invite and e-mail${picked.size ? ` (${picked.size} picked)` : ''}`}
+        {pending ? 'Inviting…' : `Invite and e-mail${pickedCount ? ` (${pickedCount} picked)` : ''}`}
       </Button>
     </form>
   );
 }
 
-export function SendNoticeButton({
+/**
+ * What the session's state calls for: invitations not sent yet, an update after a change, or the
+ * cancellation. Stays mounted when the counts drop to zero so that the result stays in view.
+ */
+export function NoticeActions({
   railwayId,
   sessionId,
-  kind,
-  label,
-  variant = 'primary',
+  pending,
+  outdated,
+  toCancel,
+  sequence,
 }: {
   railwayId: string;
   sessionId: string;
-  kind: 'pending' | 'update' | 'cancel';
-  label: string;
-  variant?: 'primary' | 'secondary' | 'danger';
+  pending: number;
+  outdated: number;
+  toCancel: number;
+  sequence: number;
 }) {
-  const [state, action, pending] = useActionState(sendNotices.bind(null, railwayId, sessionId), null);
+  const [state, action, busy] = useActionState(sendNotices.bind(null, railwayId, sessionId), null);
+  if (!state && !pending && !outdated && !toCancel) return null;
   return (
-    <form action={action} className="space-y-2">
-      <input type="hidden" name="kind" value={kind} />
-      <Button type="submit" variant={variant} disabled={pending}>
-        {pending ? 'Queueing…' : label}
-      </Button>
+    <form action={action} className="space-y-2" data-testid="notice-actions">
+      <div className="flex flex-wrap gap-3">
+        {pending ? (
+          <Button type="submit" name="kind" value="pending" disabled={busy}>
+            Send {pending} invitation{pending === 1 ? '' : 's'} not sent yet
+          </Button>
+        ) : null}
+        {outdated ? (
+          <Button type="submit" name="kind" value="update" variant="secondary" disabled={busy}>
+            Send update to {outdated} (sequence {sequence})
+          </Button>
+        ) : null}
+        {toCancel ? (
+          <Button type="submit" name="kind" value="cancel" variant="danger" disabled={busy}>
+            Send cancellation to {toCancel}
+          </Button>
+        ) : null}
+      </div>
       {state ? <Notice tone={state.ok ? 'good' : 'bad'}>{state.ok ? state.message : state.error}</Notice> : null}
     </form>
   );

@@ -5,7 +5,7 @@ import { formatTimeInZone } from '@/lib/format';
 type SessionRows = NonNullable<ReturnType<typeof loadSessionRows>>;
 
 /** A neighbouring run on the same cab: who hands the cab over, or takes it next. */
-export type CabNeighbour = { runId: string; operatorName: string | null; trainName: string; fastDepart: string; realDepart: string };
+export type CabNeighbour = { runId: string; operatorId: string | null; operatorName: string | null; trainName: string; fastDepart: string; realDepart: string };
 
 /** One run as a person reads it on their phone or crew card. */
 export type RunAssignment = {
@@ -51,6 +51,7 @@ export function describeRuns(rows: SessionRows): RunAssignment[] {
     run
       ? {
           runId: run.id,
+          operatorId: run.operatorId,
           operatorName: run.operatorId ? (operatorName.get(run.operatorId) ?? null) : null,
           trainName: trainName.get(run.trainId) ?? 'Unknown train',
           fastDepart: formatFast(run.departS, clock),

@@ -12,6 +12,8 @@ export type InvitationContent = {
   railwayName: string;
   host: Person;
   invitee: Person;
+  /** The invitee's user id, so that a hand-over to their own next run reads "you". */
+  inviteeId?: string;
   runs: RunAssignment[];
   duties: { duty: string; note: string }[];
   links: { accept: string; tentative: string; decline: string; myRuns: string; timetable: string };
@@ -32,13 +34,14 @@ function runLine(r: RunAssignment): string {
   return `${r.fastDepart}–${r.fastArrive} fast (${r.realDepart}–${r.realArrive} real): ${r.trainName} on ${r.cabName}`;
 }
 
-function runDetail(r: RunAssignment): string[] {
+function runDetail(r: RunAssignment, inviteeId?: string): string[] {
+  const who = (n: NonNullable<RunAssignment['before']>) => (inviteeId && n.operatorId === inviteeId ? 'you' : (n.operatorName ?? 'no one named'));
   const lines = [
     `Route: ${r.route.join(' → ')}`,
     `Stand: ${formatStand(r.standBeforeS)} before departure, ${formatStand(r.standAfterS)} after arrival`,
   ];
-  if (r.before) lines.push(`Cab before you: ${r.before.operatorName ?? 'no one named'} (${r.before.trainName}, ${r.before.fastDepart})`);
-  if (r.after) lines.push(`Cab after you: ${r.after.operatorName ?? 'no one named'} (${r.after.trainName}, ${r.after.fastDepart})`);
+  if (r.before) lines.push(`Cab before you: ${who(r.before)} (${r.before.trainName}, ${r.before.fastDepart})`);
+  if (r.after) lines.push(`Cab after you: ${who(r.after)} (${r.after.trainName}, ${r.after.fastDepart})`);
   return lines;
 }
 
@@ -54,7 +57,7 @@ export function assignmentSummary(c: InvitationContent): string {
   if (c.runs.length) {
     lines.push(`Your runs (${c.runs.length}):`);
     c.runs.forEach((r, i) => {
-      lines.push(`${i + 1}. ${runLine(r)}`, ...runDetail(r).map((l) => `   ${l}`));
+      lines.push(`${i + 1}. ${runLine(r)}`, ...runDetail(r, c.inviteeId).map((l) => `   ${l}`));
     });
   } else {
     lines.push('You have no runs of your own in this timetable yet.');
@@ -94,7 +97,7 @@ export function buildInvitationBody(c: InvitationContent): { subject: string; te
   const e = escapeHtml;
   const runsHtml = c.runs.length
     ? `<h3>Your runs (${c.runs.length})</h3><ol>${c.runs
-        .map((r) => `<li><strong>${e(runLine(r))}</strong><br>${runDetail(r).map(e).join('<br>')}</li>`)
+        .map((r) => `<li><strong>${e(runLine(r))}</strong><br>${runDetail(r, c.inviteeId).map(e).join('<br>')}</li>`)
         .join('')}</ol>`
     : '<p>You have no runs of your own in this timetable yet.</p>';
   const other = c.duties.filter((d) => d.duty !== 'driver');

@@ -93,6 +93,7 @@ function queueNotices(input: {
       railwayName: railway.name,
       host: { name: host.name, email: host.email },
       invitee,
+      inviteeId: inv.userId,
       runs: allRuns.filter((r) => r.operatorId === inv.userId),
       duties: duties.filter((d) => d.userId === inv.userId),
       links: {

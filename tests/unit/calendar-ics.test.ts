@@ -160,7 +160,7 @@ describe('calendar files to download or subscribe to', () => {
     standBeforeS: 120,
     standAfterS: 180,
     before: null,
-    after: { runId: 'x', operatorName: 'Priya', trainName: 'Express', fastDepart: '06:52', realDepart: '18:43' },
+    after: { runId: 'x', operatorId: 'u2', operatorName: 'Priya', trainName: 'Express', fastDepart: '06:52', realDepart: '18:43' },
     note: '',
   });
 

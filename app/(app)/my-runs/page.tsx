@@ -14,7 +14,7 @@ import { loadMyRuns, type MyRunsSession } from '@/lib/invitations/my-runs';
 export const metadata: Metadata = { title: 'My runs' };
 export const dynamic = 'force-dynamic';
 
-function SessionBlock({ entry, first }: { entry: MyRunsSession; first: boolean }) {
+function SessionBlock({ entry, first, viewerId }: { entry: MyRunsSession; first: boolean; viewerId: string }) {
   const s = entry.session;
   const otherDuties = entry.duties.filter((d) => d.duty !== 'driver');
   return (
@@ -60,7 +60,7 @@ function SessionBlock({ entry, first }: { entry: MyRunsSession; first: boolean }
       {entry.runs.length ? (
         <ol className="space-y-3" aria-label={`My runs in ${s.title}`}>
           {entry.runs.map((run, i) => (
-            <RunCard key={run.runId} run={run} index={i} />
+            <RunCard key={run.runId} run={run} index={i} viewerId={viewerId} />
           ))}
         </ol>
       ) : (
@@ -85,7 +85,7 @@ export default async function MyRunsPage() {
         <p className="text-sm text-muted">When, which cab, which train — for every session you are invited to.</p>
       </div>
       {next ? (
-        <SessionBlock entry={next} first />
+        <SessionBlock entry={next} first viewerId={user.id} />
       ) : (
         <Card>
           <p className="text-muted" data-testid="no-sessions">
@@ -97,7 +97,7 @@ export default async function MyRunsPage() {
         <div className="space-y-6">
           <h2 className="font-display text-lg font-bold">Later sessions</h2>
           {later.map((entry) => (
-            <SessionBlock key={entry.session.id} entry={entry} first={false} />
+            <SessionBlock key={entry.session.id} entry={entry} first={false} viewerId={user.id} />
           ))}
         </div>
       ) : null}

@@ -1,7 +1,6 @@
 'use server';
 
 import { headers } from 'next/headers';
-import { revalidatePath } from 'next/cache';
 import { parseOrThrow, toActionState, type ActionState } from '@/lib/errors';
 import { replyByToken as recordReply } from '@/lib/invitations/reply';
 import { claimedInvitationId } from '@/lib/invitations/reply-token';
@@ -29,8 +28,9 @@ export async function replyByToken(_prev: ActionState<ReplyResult>, formData: Fo
     rateLimit(`rsvp-ip:${await clientAddress()}`, 60, 60_000);
     rateLimit(`rsvp:${claimedInvitationId(token)}`, 10, 60_000);
     const input = parseOrThrow(replyByTokenSchema, { token, answer: formData.get('answer') });
+    // No revalidatePath: re-rendering this page would re-read the now spent link and hide the answer;
+    // the host's tracker is rendered fresh on every request and refreshes itself.
     const result = recordReply(input.token, input.answer);
-    revalidatePath('/railways', 'layout');
     return { ok: true, message: 'Thank you — your answer is recorded.', data: result };
   } catch (error) {
     return toActionState(error);

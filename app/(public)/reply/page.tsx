@@ -33,12 +33,10 @@ export default async function ReplyPage({ searchParams }: { searchParams: Promis
               {formatInZone(inspected.found.session.startsAt, inspected.found.session.timeZone)} · {inspected.found.session.timeZone}
               {inspected.found.session.place ? ` · ${inspected.found.session.place}` : ''}
             </p>
-            <p className="text-sm">
-              For {inspected.found.inviteeName} · now: <strong>{ANSWER_LABELS[inspected.found.invitation.rsvp]}</strong>
-            </p>
+            <p className="text-sm">For {inspected.found.inviteeName}</p>
           </div>
           <div className="mt-4">
-            <ReplyForm token={token} chosen={chosen} />
+            <ReplyForm token={token} chosen={chosen} currentLabel={ANSWER_LABELS[inspected.found.invitation.rsvp]} />
           </div>
         </Card>
       ) : null}

@@ -63,7 +63,9 @@ export default async function CrewCardPage({ params }: { params: Promise<{ sessi
                   <td className="py-1 pr-2">{r.route.join(' → ')}</td>
                   <td className="py-1 pr-2">{formatStand(r.standBeforeS)} / {formatStand(r.standAfterS)}</td>
                   <td className="py-1">
-                    {r.before ? `${r.before.operatorName ?? '—'} (${r.before.fastDepart})` : '—'} / {r.after ? `${r.after.operatorName ?? '—'} (${r.after.fastDepart})` : '—'}
+                    {[r.before, r.after]
+                      .map((n) => (n ? `${n.operatorId === user.id ? 'you' : (n.operatorName ?? '—')} (${n.fastDepart})` : '—'))
+                      .join(' / ')}
                   </td>
                 </tr>
               ))}

@@ -5,7 +5,7 @@ import { getRailwaySession, listSessionInvitations } from '@/db/queries/invitati
 import { listMembers } from '@/db/queries/memberships';
 import { loadSessionRows } from '@/db/queries/plan-data';
 import { AutoRefresh } from '@/components/invitations/auto-refresh';
-import { InviteCrewForm, ResendButton, SendNoticeButton } from '@/components/invitations/tracker-forms';
+import { InviteCrewForm, NoticeActions, ResendButton } from '@/components/invitations/tracker-forms';
 import { NotAllowed } from '@/components/railway/not-allowed';
 import { Badge, Card, Notice } from '@/components/ui/card';
 import { formatInZone } from '@/lib/format';
@@ -75,7 +75,7 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
       ) : null}
       {ended ? <Notice tone="info">This session is over; invitations and replies are closed.</Notice> : null}
 
-      <dl className="grid grid-cols-2 gap-2 sm:grid-cols-4 lg:grid-cols-8" data-testid="invitation-counts">
+      <dl className="grid grid-cols-4 gap-2 lg:grid-cols-8" data-testid="invitation-counts">
         {(
           [
             ['Invited', counts.total],
@@ -88,40 +88,35 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
             ['Declined', counts.replies.declined],
           ] as const
         ).map(([label, value]) => (
-          <div key={label} className="rounded-plate border border-line bg-surface p-3" data-testid={`count-${label.toLowerCase().replaceAll(' ', '-')}`}>
-            <dt className="text-xs text-muted">{label}</dt>
-            <dd className="font-display text-2xl font-bold">{value}</dd>
+          <div key={label} className="rounded-plate border border-line bg-surface p-2 sm:p-3" data-testid={`count-${label.toLowerCase().replaceAll(' ', '-')}`}>
+            <dt className="text-[11px] leading-tight text-muted sm:text-xs">{label}</dt>
+            <dd className="font-display text-xl font-bold sm:text-2xl">{value}</dd>
           </div>
         ))}
       </dl>
 
-      {open && (pending || outdated) ? (
-        <div className="flex flex-wrap gap-3">
-          {pending ? (
-            <SendNoticeButton railwayId={railwayId} sessionId={sessionId} kind="pending" label={`Send ${pending} invitation${pending === 1 ? '' : 's'} not sent yet`} />
-          ) : null}
-          {outdated ? (
-            <SendNoticeButton railwayId={railwayId} sessionId={sessionId} kind="update" variant="secondary" label={`Send update to ${outdated} (sequence ${session.sequence})`} />
-          ) : null}
-        </div>
-      ) : null}
-      {session.status === 'cancelled' && toCancel ? (
-        <SendNoticeButton railwayId={railwayId} sessionId={sessionId} kind="cancel" variant="danger" label={`Send cancellation to ${toCancel}`} />
-      ) : null}
+      <NoticeActions
+        railwayId={railwayId}
+        sessionId={sessionId}
+        pending={open ? pending : 0}
+        outdated={open ? outdated : 0}
+        toCancel={toCancel}
+        sequence={session.sequence}
+      />
 
       <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
-        <Card title={`Invitees (${invitations.length})`}>
+        <Card title={`Invitees (${invitations.length})`} className="min-w-0">
           {invitations.length === 0 ? (
             <p className="text-sm text-muted">No one is invited yet. Pick the crew on the right.</p>
           ) : (
-            <div className="-mx-4 overflow-x-auto px-4 sm:mx-0 sm:px-0">
-              <table className="w-full min-w-[36rem] text-left text-sm" data-testid="invitation-table">
+            <div className="overflow-x-auto">
+              <table className="w-full text-left text-sm" data-testid="invitation-table">
                 <thead className="text-muted">
                   <tr>
                     <th className="py-2 pr-3">Invitee</th>
-                    <th className="py-2 pr-3">E-mail</th>
+                    <th className="py-2 pr-3">Delivery</th>
                     <th className="py-2 pr-3">Reply</th>
-                    <th className="py-2 pr-3">Replied</th>
+                    <th className="hidden py-2 pr-3 sm:table-cell">Replied</th>
                     <th className="py-2"><span className="sr-only">Actions</span></th>
                   </tr>
                 </thead>
@@ -132,18 +127,21 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
                       <tr key={inv.id} data-testid="invitation-row" data-email={inv.email}>
                         <td className="py-2 pr-3">
                           <span className="font-semibold">{inv.name}</span>
-                          <span className="block text-xs text-muted">{inv.email}</span>
+                          <span className="hidden text-xs text-muted sm:block">{inv.email}</span>
                         </td>
-                        <td className="py-2 pr-3">
+                        <td className="whitespace-nowrap py-2 pr-3">
                           <Badge tone={DELIVERY_TONE[delivery]}>{DELIVERY_LABELS[delivery]}</Badge>
                           {inv.mail?.calendarMethod === 'CANCEL' ? <span className="ml-1 text-xs text-muted">cancellation</span> : null}
                           {needsUpdate(inv, session) ? <span className="ml-1 text-xs text-amber">sent sequence {inv.sentSequence}</span> : null}
                           {inv.mail?.lastError ? <span className="block max-w-xs truncate text-xs text-signal" title={inv.mail.lastError}>{inv.mail.lastError}</span> : null}
                         </td>
-                        <td className="py-2 pr-3" data-testid="rsvp">
-                          <Badge tone={RSVP_TONE[inv.rsvp]}>{RSVP_LABELS[inv.rsvp]}</Badge>
+                        <td className="whitespace-nowrap py-2 pr-3">
+                          <span data-testid="rsvp"><Badge tone={RSVP_TONE[inv.rsvp]}>{RSVP_LABELS[inv.rsvp]}</Badge></span>
+                          {inv.respondedAt ? (
+                            <span className="block text-xs text-muted sm:hidden">{formatInZone(inv.respondedAt, zone, { weekday: undefined, year: undefined })}</span>
+                          ) : null}
                         </td>
-                        <td className="py-2 pr-3 text-muted">{inv.respondedAt ? formatInZone(inv.respondedAt, zone) : '—'}</td>
+                        <td className="hidden py-2 pr-3 text-muted sm:table-cell">{inv.respondedAt ? formatInZone(inv.respondedAt, zone) : '—'}</td>
                         <td className="py-2 text-right">
                           {(open || (session.status === 'cancelled' && inv.mailCount > 0)) && delivery !== 'queued' ? (
                             <ResendButton
