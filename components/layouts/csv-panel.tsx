@@ -128,7 +128,7 @@ function PreviewView({ preview }: { preview: Preview }) {
       {issues.length ? (
         <>
           <Notice tone="bad">
-            Nothing will be imported until every row is right: {issues.length} problem{issues.length === 1 ? '' : 's'}. Fix them above and check again.
+            Nothing will be imported until every row is right: {issues.length} problem{issues.length === 1 ? '' : 's'}. Fix {issues.length === 1 ? 'it' : 'them'} above and check again.
           </Notice>
           <div className="overflow-x-auto">
             <table className="w-full text-left text-sm" data-testid="csv-issues">

@@ -72,7 +72,7 @@ export function DataTable<T>({
               table.setPageIndex(0);
             }}
             placeholder={`Filter ${label}…`}
-            className={`${inputClass} max-w-xs`}
+            className={`${inputClass.replace('w-full ', '')} w-full max-w-xs`}
           />
           {filter ? (
             <span className="text-sm text-muted">

@@ -6,7 +6,10 @@ import { useRouter } from 'next/navigation';
 import { useEffect, useMemo, useRef, useState, useTransition, type ReactNode } from 'react';
 import { Controller, useForm, type UseFormReturn } from 'react-hook-form';
 import type { z } from 'zod';
-import { inputClass } from '@/components/ui/field';
+import { inputClass as fieldClass } from '@/components/ui/field';
+
+// Table cells size their inputs themselves, so the form-wide full width is dropped.
+const inputClass = fieldClass.replace('w-full ', '');
 import type { ActionState } from '@/lib/errors';
 import { DataTable } from './data-table';
 

@@ -13,8 +13,8 @@ const TABS = [
 export function LayoutTabs({ base }: { base: string }) {
   const pathname = usePathname();
   return (
-    <nav aria-label="Layout" className="overflow-x-auto">
-      <ul className="flex gap-1">
+    <nav aria-label="Layout">
+      <ul className="flex flex-wrap gap-1">
         {TABS.map((tab) => {
           const href = `${base}${tab.href}`;
           const active = tab.href === '' ? pathname === base : pathname.startsWith(href);
