@@ -35,17 +35,24 @@ export function runUid(runId: string): string {
   return `run-${runId}@fishplate`;
 }
 
+const partFormatters = new Map<string, Intl.DateTimeFormat>();
+
 function localParts(date: Date, timeZone: string) {
-  const parts = new Intl.DateTimeFormat('en-GB', {
-    timeZone,
-    year: 'numeric',
-    month: '2-digit',
-    day: '2-digit',
-    hour: '2-digit',
-    minute: '2-digit',
-    second: '2-digit',
-    hourCycle: 'h23',
-  }).formatToParts(date);
+  let formatter = partFormatters.get(timeZone);
+  if (!formatter) {
+    formatter = new Intl.DateTimeFormat('en-GB', {
+      timeZone,
+      year: 'numeric',
+      month: '2-digit',
+      day: '2-digit',
+      hour: '2-digit',
+      minute: '2-digit',
+      second: '2-digit',
+      hourCycle: 'h23',
+    });
+    partFormatters.set(timeZone, formatter);
+  }
+  const parts = formatter.formatToParts(date);
   const get = (type: string) => Number(parts.find((p) => p.type === type)?.value ?? '0');
   return { year: get('year'), month: get('month'), day: get('day'), hour: get('hour'), minute: get('minute'), second: get('second') };
 }

@@ -1,4 +1,4 @@
-import { formatInZone } from '@/lib/format';
+import { formatInZone as formatInZoneUncached } from '@/lib/format';
 import { formatStand, type RunAssignment } from '@/lib/invitations/assignments';
 import type { CalendarSession, Person } from '@/lib/calendar/ics';
 
@@ -18,6 +18,20 @@ export type InvitationContent = {
   duties: { duty: string; note: string }[];
   links: { accept: string; tentative: string; decline: string; myRuns: string; timetable: string };
 };
+
+// A batch of 200 invitations formats the same few session times over and over; Intl formatters
+// are slow to build, so keep the strings.
+const formatted = new Map<string, string>();
+function formatInZone(date: Date, timeZone: string, options: Intl.DateTimeFormatOptions = {}): string {
+  const key = `${date.getTime()}|${timeZone}|${JSON.stringify(options)}`;
+  let text = formatted.get(key);
+  if (text === undefined) {
+    if (formatted.size > 1000) formatted.clear();
+    text = formatInZoneUncached(date, timeZone, options);
+    formatted.set(key, text);
+  }
+  return text;
+}
 
 function escapeHtml(text: string): string {
   return text.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
