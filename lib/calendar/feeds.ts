@@ -1,6 +1,5 @@
 import 'server-only';
-import { listInvitedSessions } from '@/db/queries/crew';
-import { getInvitationOf } from '@/db/queries/crew';
+import { getInvitationOf, listInvitedSessions } from '@/db/queries/crew';
 import { getRailwaySession } from '@/db/queries/invitation-records';
 import { loadSessionRows } from '@/db/queries/plan-data';
 import type { Member } from '@/lib/auth';
