@@ -1,10 +1,13 @@
 'use client';
 
+import { useState } from 'react';
 import type { Finding } from '@/lib/planning';
 import { FINDING_LABELS, TIMING_KINDS } from '@/lib/sessions/highlight';
 import { spanLabel, type SessionClock } from '@/lib/sessions/time-labels';
 import { Button } from '@/components/ui/button';
 import { Badge } from '@/components/ui/card';
+
+const SHOWN_AT_FIRST = 40;
 
 export const findingKey = (f: Finding) => `${f.kind}:${f.ids.join(',')}:${f.fromS}`;
 
@@ -38,6 +41,12 @@ export function FindingsPanel({
   const errors = findings.filter((f) => f.severity === 'error');
   const warnings = findings.filter((f) => f.severity === 'warning');
   const timing = errors.filter((f) => TIMING_KINDS.has(f.kind)).length;
+  const [showAll, setShowAll] = useState(false);
+  const ordered = [...errors, ...warnings];
+  // A long list (hundreds of clashes in a rough first draft) is cut to its first entries until asked.
+  const shown = showAll || ordered.length <= SHOWN_AT_FIRST ? ordered : ordered.slice(0, SHOWN_AT_FIRST);
+  const selectedHidden = selectedKey !== undefined && !shown.some((f) => findingKey(f) === selectedKey);
+  const list = selectedHidden ? [...shown, ...ordered.filter((f) => findingKey(f) === selectedKey)] : shown;
   return (
     <section className="rounded-plate border border-line bg-surface p-4 shadow-sm" aria-labelledby="findings-title" data-testid="findings-panel">
       <header className="mb-3 flex flex-wrap items-center justify-between gap-2">
@@ -66,7 +75,7 @@ export function FindingsPanel({
         <p className="text-sm text-muted" data-testid="no-findings">No clashes or overloads: the timetable checks out.</p>
       ) : (
         <ol className="max-h-[32rem] space-y-2 overflow-y-auto pr-1" data-testid="finding-list">
-          {[...errors, ...warnings].map((f) => {
+          {list.map((f) => {
             const key = findingKey(f);
             const selected = key === selectedKey;
             return (
@@ -94,6 +103,11 @@ export function FindingsPanel({
           })}
         </ol>
       )}
+      {ordered.length > list.length ? (
+        <Button type="button" variant="ghost" className="mt-2 w-full" onClick={() => setShowAll(true)}>
+          Show all {ordered.length} findings
+        </Button>
+      ) : null}
     </section>
   );
 }

@@ -1,11 +1,14 @@
 'use client';
 
-import { useEffect, useState } from 'react';
+import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import { fastLabel, fastLabelSeconds, fastTextToReal, realLabel, type SessionClock } from '@/lib/sessions/time-labels';
 import type { BuilderLayout, BuilderRun } from '@/lib/sessions/types';
 import { Button } from '@/components/ui/button';
 import { Badge } from '@/components/ui/card';
 import { inputClass } from '@/components/ui/field';
+
+// The form input look without its full width, for inputs that sit in a row.
+const compact = inputClass.replace('w-full', '').replace('px-3 py-2', 'px-2 py-1');
 import { routeSummary } from './run-names';
 import type { RunPatchBody } from './api';
 
@@ -45,7 +48,7 @@ function DepartureInput({ run, clock, onPatch, label }: { run: BuilderRun; clock
         }
         if (e.key === 'Escape') setValue(shown);
       }}
-      className={`${inputClass} w-20 font-semibold tabular-nums`}
+      className={`${compact} w-20 font-semibold tabular-nums`}
     />
   );
 }
@@ -94,7 +97,7 @@ function StepsEditor({ run, layout, clock, onPatch }: { run: BuilderRun; layout:
                       aria-label={`${field === 'enter' ? 'Enters' : 'Leaves'} step ${i + 1}`}
                       value={row[field]}
                       onChange={(e) => setRows((r) => r.map((x, j) => (j === i ? { ...x, [field]: e.target.value } : x)))}
-                      className={`${inputClass} w-28 tabular-nums`}
+                      className={`${compact} w-28 tabular-nums`}
                     />
                   </td>
                 ))}
@@ -129,17 +132,125 @@ function SeriesForm({ run, onSeries }: { run: BuilderRun; onSeries: Actions['onS
     >
       <label className="space-y-1">
         <span className="block text-xs font-semibold">Every (fast minutes)</span>
-        <input value={every} onChange={(e) => setEvery(e.target.value)} className={`${inputClass} w-24`} inputMode="numeric" />
+        <input value={every} onChange={(e) => setEvery(e.target.value)} className={`${compact} w-24`} inputMode="numeric" />
       </label>
       <label className="space-y-1">
         <span className="block text-xs font-semibold">Copies</span>
-        <input value={count} onChange={(e) => setCount(e.target.value)} className={`${inputClass} w-20`} inputMode="numeric" />
+        <input value={count} onChange={(e) => setCount(e.target.value)} className={`${compact} w-20`} inputMode="numeric" />
       </label>
       <Button type="submit" variant="secondary">Make series</Button>
       {error ? <p className="w-full text-signal" role="alert">{error}</p> : null}
     </form>
   );
 }
+
+type RowProps = {
+  run: BuilderRun;
+  layout: BuilderLayout;
+  clock: SessionClock;
+  clash: boolean;
+  lit: boolean;
+  canEdit: boolean;
+  open: 'steps' | 'series' | null;
+  onToggle: (runId: string, panel: 'steps' | 'series') => void;
+  actions: Actions;
+};
+
+/** One run; re-rendered only when the run (its version), its marks or its open panel change. */
+const RunRow = memo(
+  function RunRow({ run, layout, clock, clash, lit, canEdit, open, onToggle, actions }: RowProps) {
+    const trainName = layout.trains.find((t) => t.id === run.trainId)?.name ?? 'Unknown train';
+    const label = `${trainName} at ${fastLabel(run.departS, clock)}`;
+    const operator = layout.operators.find((o) => o.id === run.operatorId);
+    return (
+      <li
+        className={`py-2 pl-2 ${clash ? 'border-l-4 border-signal' : 'border-l-4 border-transparent'} ${lit ? 'bg-brass-soft' : ''}`}
+        data-testid="run-row"
+        data-run-id={run.id}
+        data-clash={clash ? 'true' : 'false'}
+      >
+        <div className="flex flex-wrap items-center gap-x-3 gap-y-2">
+          {canEdit ? (
+            <DepartureInput run={run} clock={clock} onPatch={actions.onPatch} label={label} />
+          ) : (
+            <span className="w-14 font-semibold tabular-nums">{fastLabel(run.departS, clock)}</span>
+          )}
+          <span className="w-24 text-xs text-muted tabular-nums">
+            {realLabel(run.departS, clock)} real
+            <br />
+            arr. {fastLabel(run.arriveS, clock)}
+          </span>
+          <button type="button" className="min-w-0 flex-1 text-left" onClick={() => actions.onSelect(run.id)}>
+            <span className="block font-semibold">
+              {trainName} {clash ? <Badge tone="bad">clash</Badge> : null}
+            </span>
+            <span className="block text-xs text-muted">{routeSummary(run, layout)}</span>
+          </button>
+          {canEdit ? (
+            <>
+              <select
+                aria-label={`Cab for ${label}`}
+                value={run.cabId}
+                onChange={(e) => actions.onPatch(run, { cabId: e.target.value })}
+                className={`${compact} w-28`}
+              >
+                {layout.cabs.map((c) => (
+                  <option key={c.id} value={c.id}>{c.name}</option>
+                ))}
+              </select>
+              <select
+                aria-label={`Operator for ${label}`}
+                value={run.operatorId ?? ''}
+                onChange={(e) => actions.onPatch(run, { operatorId: e.target.value || null })}
+                className={`${compact} w-40`}
+              >
+                <option value="">No operator</option>
+                {layout.operators.map((o) => (
+                  <option key={o.id} value={o.id}>{o.name}{o.rsvp === 'declined' ? ' (declined)' : ''}</option>
+                ))}
+              </select>
+            </>
+          ) : (
+            <span className="text-sm">
+              {layout.cabs.find((c) => c.id === run.cabId)?.name} · {operator?.name ?? 'no operator'}
+            </span>
+          )}
+          {operator?.rsvp === 'declined' ? <Badge tone="bad">operator declined</Badge> : null}
+          {canEdit ? (
+            <span className="flex gap-1">
+              <Button type="button" variant="ghost" className="px-2 py-1" aria-expanded={open === 'steps'} onClick={() => onToggle(run.id, 'steps')}>
+                Steps
+              </Button>
+              <Button type="button" variant="ghost" className="px-2 py-1" aria-expanded={open === 'series'} onClick={() => onToggle(run.id, 'series')}>
+                Series
+              </Button>
+              <Button type="button" variant="danger" className="px-2 py-1" aria-label={`Delete ${label}`} onClick={() => actions.onDelete(run)}>
+                Delete
+              </Button>
+            </span>
+          ) : null}
+        </div>
+        {open === 'steps' ? <StepsEditor key={`${run.id}-${run.version}`} run={run} layout={layout} clock={clock} onPatch={actions.onPatch} /> : null}
+        {open === 'series' ? <SeriesForm run={run} onSeries={actions.onSeries} /> : null}
+      </li>
+    );
+  },
+  (a, b) =>
+    a.run.id === b.run.id &&
+    a.run.version === b.run.version &&
+    a.run.departS === b.run.departS &&
+    a.run.cabId === b.run.cabId &&
+    a.run.operatorId === b.run.operatorId &&
+    a.clash === b.clash &&
+    a.lit === b.lit &&
+    a.open === b.open &&
+    a.canEdit === b.canEdit &&
+    a.clock === b.clock &&
+    a.layout === b.layout,
+);
+
+/** How many runs are listed before "show all": enough for a session, few enough to stay quick. */
+const LISTED_AT_FIRST = 60;
 
 /** The runs by departure, each editable in place: departure, cab and operator; steps, series, delete. */
 export function RunTable({
@@ -160,90 +271,49 @@ export function RunTable({
   actions: Actions;
 }) {
   const [open, setOpen] = useState<{ runId: string; panel: 'steps' | 'series' } | null>(null);
-  const trainName = (id: string) => layout.trains.find((t) => t.id === id)?.name ?? 'Unknown train';
-  const sorted = [...runs].sort((a, b) => a.departS - b.departS || a.id.localeCompare(b.id));
+  const [showAll, setShowAll] = useState(false);
+  // Stable handlers, so that memoised rows are not re-rendered for a new closure.
+  const latest = useRef(actions);
+  latest.current = actions;
+  const stable = useMemo<Actions>(
+    () => ({
+      onPatch: (...a) => latest.current.onPatch(...a),
+      onDelete: (...a) => latest.current.onDelete(...a),
+      onSeries: (...a) => latest.current.onSeries(...a),
+      onSelect: (...a) => latest.current.onSelect(...a),
+    }),
+    [],
+  );
+  const onToggle = useMemo(
+    () => (runId: string, panel: 'steps' | 'series') => setOpen((o) => (o?.runId === runId && o.panel === panel ? null : { runId, panel })),
+    [],
+  );
+  const sorted = useMemo(() => [...runs].sort((a, b) => a.departS - b.departS || a.id.localeCompare(b.id)), [runs]);
   if (runs.length === 0) return <p className="text-sm text-muted" data-testid="no-runs">No runs yet. Add the first one below.</p>;
+  const listed = showAll || sorted.length <= LISTED_AT_FIRST ? sorted : sorted.filter((r, i) => i < LISTED_AT_FIRST || highlighted.has(r.id));
   return (
-    <ul className="divide-y divide-line" data-testid="run-list">
-      {sorted.map((run) => {
-        const label = `${trainName(run.trainId)} at ${fastLabel(run.departS, clock)}`;
-        const operator = layout.operators.find((o) => o.id === run.operatorId);
-        const clash = clashing.has(run.id);
-        const lit = highlighted.has(run.id);
-        return (
-          <li
+    <>
+      <ul className="divide-y divide-line" data-testid="run-list">
+        {listed.map((run) => (
+          <RunRow
             key={run.id}
-            className={`py-2 pl-2 ${clash ? 'border-l-4 border-signal' : 'border-l-4 border-transparent'} ${lit ? 'bg-brass-soft' : ''}`}
-            data-testid="run-row"
-            data-run-id={run.id}
-            data-clash={clash ? 'true' : 'false'}
-          >
-            <div className="flex flex-wrap items-center gap-x-3 gap-y-2">
-              {canEdit ? (
-                <DepartureInput run={run} clock={clock} onPatch={actions.onPatch} label={label} />
-              ) : (
-                <span className="w-14 font-semibold tabular-nums">{fastLabel(run.departS, clock)}</span>
-              )}
-              <span className="w-24 text-xs text-muted tabular-nums">
-                {realLabel(run.departS, clock)} real
-                <br />
-                arr. {fastLabel(run.arriveS, clock)}
-              </span>
-              <button type="button" className="min-w-0 flex-1 text-left" onClick={() => actions.onSelect(run.id)}>
-                <span className="block font-semibold">
-                  {trainName(run.trainId)} {clash ? <Badge tone="bad">clash</Badge> : null}
-                </span>
-                <span className="block text-xs text-muted">{routeSummary(run, layout)}</span>
-              </button>
-              {canEdit ? (
-                <>
-                  <select
-                    aria-label={`Cab for ${label}`}
-                    value={run.cabId}
-                    onChange={(e) => actions.onPatch(run, { cabId: e.target.value })}
-                    className={`${inputClass} w-28`}
-                  >
-                    {layout.cabs.map((c) => (
-                      <option key={c.id} value={c.id}>{c.name}</option>
-                    ))}
-                  </select>
-                  <select
-                    aria-label={`Operator for ${label}`}
-                    value={run.operatorId ?? ''}
-                    onChange={(e) => actions.onPatch(run, { operatorId: e.target.value || null })}
-                    className={`${inputClass} w-40`}
-                  >
-                    <option value="">No operator</option>
-                    {layout.operators.map((o) => (
-                      <option key={o.id} value={o.id}>{o.name}{o.rsvp === 'declined' ? ' (declined)' : ''}</option>
-                    ))}
-                  </select>
-                </>
-              ) : (
-                <span className="text-sm">
-                  {layout.cabs.find((c) => c.id === run.cabId)?.name} · {operator?.name ?? 'no operator'}
-                </span>
-              )}
-              {operator?.rsvp === 'declined' ? <Badge tone="bad">operator declined</Badge> : null}
-              {canEdit ? (
-                <span className="flex gap-1">
-                  <Button type="button" variant="ghost" className="px-2" aria-expanded={open?.runId === run.id && open.panel === 'steps'} onClick={() => setOpen(open?.runId === run.id && open.panel === 'steps' ? null : { runId: run.id, panel: 'steps' })}>
-                    Steps
-                  </Button>
-                  <Button type="button" variant="ghost" className="px-2" aria-expanded={open?.runId === run.id && open.panel === 'series'} onClick={() => setOpen(open?.runId === run.id && open.panel === 'series' ? null : { runId: run.id, panel: 'series' })}>
-                    Series
-                  </Button>
-                  <Button type="button" variant="danger" className="px-2" aria-label={`Delete ${label}`} onClick={() => actions.onDelete(run)}>
-                    Delete
-                  </Button>
-                </span>
-              ) : null}
-            </div>
-            {open?.runId === run.id && open.panel === 'steps' ? <StepsEditor key={`${run.id}-${run.version}`} run={run} layout={layout} clock={clock} onPatch={actions.onPatch} /> : null}
-            {open?.runId === run.id && open.panel === 'series' ? <SeriesForm run={run} onSeries={actions.onSeries} /> : null}
-          </li>
-        );
-      })}
-    </ul>
+            run={run}
+            layout={layout}
+            clock={clock}
+            clash={clashing.has(run.id)}
+            lit={highlighted.has(run.id)}
+            canEdit={canEdit}
+            open={open?.runId === run.id ? open.panel : null}
+            onToggle={onToggle}
+            actions={stable}
+          />
+        ))}
+      </ul>
+      {listed.length < sorted.length ? (
+        <Button type="button" variant="ghost" className="mt-2 w-full" onClick={() => setShowAll(true)}>
+          Show all {sorted.length} runs
+        </Button>
+      ) : null}
+    </>
   );
 }

@@ -91,7 +91,9 @@ function findBlockOverlaps(plan: Plan, index: PlanIndex, names: PlanNames, findi
     const blockId = plan.blocks[b]!.id;
     for (const pair of pairs.values()) {
       const [runA, runB] = orderedPair(plan.runs[pair.a]!.id, plan.runs[pair.b]!.id);
-      const both = `${names.run(runA)} and ${names.run(runB)}`;
+      // Ids stay in string order; the message names the earlier departure first, as people read it.
+      const [early, late] = earlierFirst(plan, pair.a, pair.b);
+      const both = `${names.run(early)} and ${names.run(late)}`;
       const block = withNoun('block', names.block(blockId));
       const message = pair.shared
         ? `${both} are both in ${block} ${names.span(pair.fromS, pair.toS)}`
@@ -138,7 +140,7 @@ function findDoubleBookings(
         ids: [ownerId, runA, runB],
         fromS,
         toS,
-        message: `${ownerName(ownerId)} is booked for ${names.run(runA)} and ${names.run(runB)} at once, ${names.span(fromS, toS)}`,
+        message: `${ownerName(ownerId)} is booked for ${earlierFirst(plan, p, q).map(names.run).join(' and ')} at once, ${names.span(fromS, toS)}`,
       });
     });
   }
@@ -239,6 +241,13 @@ function findTooLong(plan: Plan, index: PlanIndex, names: PlanNames, findings: F
       });
     }
   });
+}
+
+/** Two runs' ids, the one departing first (ties: smaller id) first. */
+function earlierFirst(plan: Plan, a: number, b: number): [string, string] {
+  const x = plan.runs[a]!;
+  const y = plan.runs[b]!;
+  return x.departS < y.departS || (x.departS === y.departS && x.id < y.id) ? [x.id, y.id] : [y.id, x.id];
 }
 
 function round1(value: number): number {

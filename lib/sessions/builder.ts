@@ -13,6 +13,9 @@ import {
   planSchema,
   timeRun,
   type FastClock,
+  type LoadPoint,
+  type LoadProfile,
+  type LoadSeries,
   type Plan,
   type TimedRun,
 } from '@/lib/planning';
@@ -69,16 +72,28 @@ export function runsOf(rows: SessionRows): BuilderRun[] {
   }));
 }
 
+const round = (value: number, places: number) => {
+  const f = 10 ** places;
+  return Math.round(value * f) / f;
+};
+
+/** The load profile for charts: milliseconds and tenths of a milliamp are plenty, and the answer is smaller. */
+function chartLoad(load: LoadProfile): LoadProfile {
+  const series = (list: LoadSeries[]) =>
+    list.map((s) => ({ ...s, points: s.points.map(([t, running, peak]) => [round(t, 3), round(running, 4), round(peak, 4)] as LoadPoint) }));
+  return { supplies: series(load.supplies), drivers: series(load.drivers), cabs: series(load.cabs) };
+}
+
 /** The session as stored, checked now: what every builder handler answers with. */
-export function snapshotOf(sessionId: string): BuilderSnapshot {
+export function snapshotOf(sessionId: string, loaded?: { rows: SessionRows; plan: Plan }): BuilderSnapshot {
   const started = performance.now();
-  const { rows, plan } = loadSessionPlan(sessionId);
+  const { rows, plan } = loaded ?? loadSessionPlan(sessionId);
   const check = checkPlan(plan);
   return {
     session: sessionView(rows.session),
     runs: runsOf(rows),
     findings: check.findings,
-    load: check.load,
+    load: chartLoad(check.load),
     checkMs: Math.round((performance.now() - started) * 10) / 10,
   };
 }

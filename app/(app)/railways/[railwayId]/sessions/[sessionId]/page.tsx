@@ -19,8 +19,9 @@ export default async function SessionBuilderPage({ params }: { params: Promise<{
   if (!member) notFound();
   const session = sessionForPage(member, sessionId);
   const canEdit = roleAtLeast(member.role, 'planner');
-  const { rows } = loadSessionPlan(session.id);
-  const initial = snapshotOf(session.id);
+  const loaded = loadSessionPlan(session.id);
+  const { rows } = loaded;
+  const initial = snapshotOf(session.id, loaded);
   const layout = builderLayout(rows);
   const dateLabel = `${formatInZone(session.startsAt, session.timeZone)}–${formatTimeInZone(session.endsAt, session.timeZone)} (${session.timeZone})`;
   const base = `/railways/${railwayId}/sessions/${session.id}`;
