@@ -1,6 +1,6 @@
 import 'server-only';
 import crypto from 'node:crypto';
-import { insertAuthToken, useAuthToken } from '@/db/queries/users';
+import { insertAuthToken, consumeAuthToken } from '@/db/queries/users';
 
 const TTL_MS = { 'sign-in': 15 * 60_000, 'reset-password': 60 * 60_000 } as const;
 
@@ -23,5 +23,5 @@ export function issueAuthToken(userId: string, purpose: 'sign-in' | 'reset-passw
 /** Spends a one-time token; returns its user id, or null when it is unknown, used or expired. */
 export function spendAuthToken(token: string, purpose: 'sign-in' | 'reset-password'): string | null {
   if (!/^[A-Za-z0-9_-]{20,100}$/.test(token)) return null;
-  return useAuthToken(hashToken(token), purpose);
+  return consumeAuthToken(hashToken(token), purpose);
 }

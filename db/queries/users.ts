@@ -50,7 +50,7 @@ export function insertAuthToken(input: {
  * Uses a one-time token: marks it used and returns its user id, in one statement so that two
  * requests racing with the same token cannot both succeed. Expired or used tokens return null.
  */
-export function useAuthToken(tokenHash: string, purpose: 'sign-in' | 'reset-password'): string | null {
+export function consumeAuthToken(tokenHash: string, purpose: 'sign-in' | 'reset-password'): string | null {
   const row = getDb()
     .update(authTokens)
     .set({ usedAt: new Date() })

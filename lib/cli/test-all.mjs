@@ -34,6 +34,15 @@ if (!fs.existsSync(chromium)) {
 let passed = 0;
 let failed = 0;
 
+// Static checks count as one test each.
+for (const [command, args] of [
+  ['npx', ['tsc', '--noEmit', '-p', '.']],
+  ['npx', ['eslint', '.']],
+]) {
+  if (run(command, args) === 0) passed += 1;
+  else failed += 1;
+}
+
 fs.rmSync('test-results/vitest.json', { force: true });
 const vitestStatus = run('npx', ['vitest', 'run', '--reporter=default', '--reporter=json', '--outputFile.json=test-results/vitest.json']);
 const vitest = readJson('test-results/vitest.json');
