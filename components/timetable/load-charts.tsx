@@ -69,7 +69,7 @@ function SeriesChart({
               <ReferenceLine y={series.limitAmps} stroke="var(--signal)" label={{ value: 'rating', fontSize: 10, fill: 'var(--signal)', position: 'insideTopRight' }} />
             ) : null}
             {kind === 'supply' && series.runningLimitAmps !== null ? (
-              <ReferenceLine y={series.runningLimitAmps} stroke="var(--brass)" strokeDasharray="4 4" label={{ value: 'derated', fontSize: 10, fill: 'var(--brass)', position: 'insideBottomRight' }} />
+              <ReferenceLine y={series.runningLimitAmps} stroke="var(--brass)" strokeDasharray="4 4" label={{ value: 'derated', fontSize: 10, fill: 'var(--brass)', position: 'insideBottomLeft' }} />
             ) : null}
             <Line type="stepAfter" dataKey="peak" name="with start-up surge" stroke="var(--amber)" strokeWidth={1} dot={false} isAnimationActive={false} />
             <Line type="stepAfter" dataKey="running" name="running" stroke="var(--verdigris)" strokeWidth={2} dot={false} isAnimationActive={false} />

@@ -207,6 +207,9 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel }: Props) {
                 }}
               />
             </Card>
+            <div className="lg:hidden">
+              <CrewLoad runs={runs} layout={layout} ratio={session.clockRatio} />
+            </div>
             {editable ? (
               <Card title="Add a run">
                 {layout.trains.length && layout.cabs.length && layout.blocks.length > 1 ? (
@@ -237,7 +240,9 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel }: Props) {
             roundTripMs={t.lastRoundTripMs}
             revision={t.revision}
           />
-          <CrewLoad runs={runs} layout={layout} ratio={session.clockRatio} />
+          <div className="hidden lg:block">
+            <CrewLoad runs={runs} layout={layout} ratio={session.clockRatio} />
+          </div>
         </aside>
       </div>
 

@@ -1,6 +1,6 @@
 'use client';
 
-import { useEffect, useMemo, useRef, useState, type PointerEvent as ReactPointerEvent } from 'react';
+import { memo, useEffect, useMemo, useRef, useState, type PointerEvent as ReactPointerEvent } from 'react';
 import type { Finding } from '@/lib/planning';
 import type { Highlight } from '@/lib/sessions/highlight';
 import { fastLabel, realLabel, type SessionClock } from '@/lib/sessions/time-labels';
@@ -45,6 +45,43 @@ function tickStep(windowS: number, ratio: number, wanted: number): number {
   for (const step of [1, 2, 5, 10, 15, 30, 60, 120, 240]) if (fastMin / step <= wanted) return step;
   return 480;
 }
+
+type GraphRunProps = {
+  runId: string;
+  points: string;
+  ghost?: string;
+  color: string;
+  selected: boolean;
+  clash: boolean;
+  dim: boolean;
+  moving: boolean;
+  canEdit: boolean;
+  title: string;
+};
+
+/** One run's line (all props are plain values, so an unchanged run is not redrawn after an edit). */
+const GraphRun = memo(function GraphRun({ runId, points, ghost, color, selected, clash, dim, moving, canEdit, title }: GraphRunProps) {
+  return (
+    <g opacity={dim ? 0.3 : 1}>
+      {clash ? <polyline points={points} fill="none" className="stroke-signal" strokeWidth={selected ? 9 : 6} opacity={0.35} /> : null}
+      <polyline points={points} fill="none" stroke={color} strokeWidth={selected ? 4 : 2.25} strokeLinejoin="round" strokeDasharray={moving ? '4 3' : undefined} />
+      <polyline
+        points={points}
+        fill="none"
+        stroke="transparent"
+        strokeWidth={14}
+        data-run-id={runId}
+        data-testid="graph-run"
+        data-clash={clash ? 'true' : 'false'}
+        data-selected={selected ? 'true' : 'false'}
+        className={canEdit ? 'cursor-ew-resize' : 'cursor-pointer'}
+      >
+        <title>{title}</title>
+      </polyline>
+      {ghost ? <polyline points={ghost} fill="none" stroke={color} strokeWidth={3} opacity={0.8} pointerEvents="none" /> : null}
+    </g>
+  );
+});
 
 /**
  * The time–distance diagram (Marey's train graph): time across, distance along the line down the
@@ -235,31 +272,23 @@ export function TrainGraph(props: Props) {
               <rect x={x(highlight.fromS) - 2} y={TOP} width={Math.max(4, x(highlight.toS) - x(highlight.fromS) + 4)} height={rows.length * ROW} className="fill-brass" opacity={0.18} />
             ) : null}
             {runs.map((run) => {
-              const selected = highlight?.runIds.has(run.id);
+              const selected = highlight?.runIds.has(run.id) ?? false;
               const clash = clashing.has(run.id);
               const moving = drag?.kind === 'run' && drag.runId === run.id;
-              const points = pathOf(run);
               return (
-                <g key={run.id} opacity={dimOthers && !selected ? 0.3 : 1}>
-                  {clash ? <polyline points={points} fill="none" className="stroke-signal" strokeWidth={selected ? 9 : 6} opacity={0.35} /> : null}
-                  <polyline points={points} fill="none" stroke={colorOf(run)} strokeWidth={selected ? 4 : 2.25} strokeLinejoin="round" strokeDasharray={moving ? '4 3' : undefined} />
-                  <polyline
-                    points={points}
-                    fill="none"
-                    stroke="transparent"
-                    strokeWidth={14}
-                    data-run-id={run.id}
-                    data-testid="graph-run"
-                    data-clash={clash ? 'true' : 'false'}
-                    data-selected={selected ? 'true' : 'false'}
-                    className={canEdit ? 'cursor-ew-resize' : 'cursor-pointer'}
-                  >
-                    <title>{`${trainName(run.trainId)} · departs ${fastLabel(run.departS, clock)} fast (${realLabel(run.departS, clock)} real)${clash ? ' · clashes' : ''}`}</title>
-                  </polyline>
-                  {moving && dragShiftS !== 0 ? (
-                    <polyline points={pathOf(run, dragShiftS)} fill="none" stroke={colorOf(run)} strokeWidth={3} opacity={0.8} pointerEvents="none" />
-                  ) : null}
-                </g>
+                <GraphRun
+                  key={run.id}
+                  runId={run.id}
+                  points={pathOf(run)}
+                  ghost={moving && dragShiftS !== 0 ? pathOf(run, dragShiftS) : undefined}
+                  color={colorOf(run)}
+                  selected={selected}
+                  clash={clash}
+                  dim={Boolean(dimOthers && !selected)}
+                  moving={moving}
+                  canEdit={canEdit}
+                  title={`${trainName(run.trainId)} · departs ${fastLabel(run.departS, clock)} fast (${realLabel(run.departS, clock)} real)${clash ? ' · clashes' : ''}`}
+                />
               );
             })}
             {overlaps.map((f) => {

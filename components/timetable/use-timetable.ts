@@ -138,6 +138,9 @@ export function useTimetable(sessionId: string, initial: BuilderSnapshot) {
     queryFn: () => timetableApi.snapshot(sessionId),
     initialData: initial,
     staleTime: 15_000,
+    // Each answer replaces the whole snapshot; deep-comparing half a megabyte of runs and findings
+    // would cost more than it saves (rows compare their run's version themselves).
+    structuralSharing: false,
   });
   const [undoable, setUndoable] = useState<Undoable | undefined>();
   const [error, setError] = useState<string | undefined>();

@@ -34,7 +34,7 @@ async function main() {
   (globalThis as unknown as { fishplateDb?: typeof db }).fishplateDb = db;
   const { sessionId } = seedDemoRailway(db, { passwordHash: 'not-used' });
 
-  const { snapshotOf, loadSessionPlan } = await import('@/lib/sessions/builder');
+  const { snapshotOf, loadSessionPlan, assertRunsValid } = await import('@/lib/sessions/builder');
   const { copySession } = await import('@/db/queries/session-records');
   const { replaceSessionRuns, updateRun, getRun } = await import('@/db/queries/runs');
 
@@ -61,6 +61,7 @@ async function main() {
   const open: number[] = [];
   const check: number[] = [];
   let bytes = 0;
+  let parts: Record<string, number> = {};
   let findings = 0;
   let steps = 0;
   for (let i = 0; i < REPEATS; i++) {
@@ -69,6 +70,7 @@ async function main() {
     const body = JSON.stringify(snapshot);
     open.push(performance.now() - started);
     bytes = Buffer.byteLength(body);
+    parts = Object.fromEntries(Object.entries(snapshot).map(([k, v]) => [k, Math.round(Buffer.byteLength(JSON.stringify(v)) / 1024)]));
     findings = snapshot.findings.length;
     steps = snapshot.runs.reduce((n, r) => n + r.steps.length, 0);
     const plan = loadSessionPlan(big.id).plan;
@@ -83,6 +85,9 @@ async function main() {
     const run = getRun(big.id, target)!;
     const delta = i % 2 === 0 ? 60 : -60;
     const started = performance.now();
+    // What the PATCH handler does before writing: load the plan and validate the edited run in it.
+    const loaded = loadSessionPlan(big.id);
+    assertRunsValid(loaded.plan, new Set([target]));
     updateRun(big.id, target, run.version, {
       departS: run.departS + delta,
       arriveS: run.arriveS + delta,
@@ -98,9 +103,10 @@ async function main() {
 
   const f = (ms: number) => `${ms.toFixed(1)} ms`;
   console.log(`Builder bench: ${RUNS} runs, ${steps} steps, ${findings} findings, answer ${(bytes / 1024).toFixed(0)} KiB (medians of ${REPEATS})`);
+  console.log(`  answer parts (KiB): ${JSON.stringify(parts)}`);
   console.log(`  open (load rows + plan + checkPlan + JSON): ${f(median(open))}`);
   console.log(`  checkPlan alone:                           ${f(median(check))}`);
-  console.log(`  edit (write run + load + check + JSON):    ${f(median(edit))}`);
+  console.log(`  edit (load + validate + write + load + check + JSON): ${f(median(edit))}`);
   console.log(`  suggestRetime (once):                      ${f(retimeMs)}, ${moves.length} runs moved`);
   db.$client.close();
   fs.rmSync(dir, { recursive: true, force: true });

@@ -50,12 +50,18 @@ export function sessionView(session: Session): BuilderSession {
   };
 }
 
-/** The runs of the loaded rows with their steps, in departure order. */
+const round = (value: number, places: number) => {
+  const f = 10 ** places;
+  return Math.round(value * f) / f;
+};
+
+/** The runs of the loaded rows with their steps, in departure order (times to the millisecond). */
 export function runsOf(rows: SessionRows): BuilderRun[] {
   const stepsOf = new Map<string, BuilderRun['steps']>();
   for (const s of rows.steps) {
     const list = stepsOf.get(s.runId) ?? [];
-    list.push({ blockId: s.blockId, enterS: s.enterS, exitS: s.exitS });
+    // Milliseconds are plenty for the builder's views, and the answer is a third smaller.
+    list.push({ blockId: s.blockId, enterS: round(s.enterS, 3), exitS: round(s.exitS, 3) });
     stepsOf.set(s.runId, list);
   }
   return rows.runs.map((r) => ({
@@ -64,18 +70,13 @@ export function runsOf(rows: SessionRows): BuilderRun[] {
     trainId: r.trainId,
     cabId: r.cabId,
     operatorId: r.operatorId,
-    departS: r.departS,
-    arriveS: r.arriveS,
+    departS: round(r.departS, 3),
+    arriveS: round(r.arriveS, 3),
     speedKmh: r.speedKmh,
     note: r.note,
     steps: stepsOf.get(r.id) ?? [],
   }));
 }
-
-const round = (value: number, places: number) => {
-  const f = 10 ** places;
-  return Math.round(value * f) / f;
-};
 
 /** The load profile for charts: milliseconds and tenths of a milliamp are plenty, and the answer is smaller. */
 function chartLoad(load: LoadProfile): LoadProfile {
