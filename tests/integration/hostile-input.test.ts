@@ -108,6 +108,7 @@ describe('hostile input', () => {
     it(`${target.target}: malformed input answers 4xx and changes nothing`, async () => {
       const world = makeWorld();
       signInAs(world.host);
+      await target.setup?.(world);
       const arbitrary =
         target.kind === 'action'
           ? fc.record(Object.fromEntries(target.fields.map((f) => [f, nastyString])) as Record<string, fc.Arbitrary<string>>)
