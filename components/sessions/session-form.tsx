@@ -148,7 +148,7 @@ export function DuplicateForm({ railwayId, sessionId, title }: { railwayId: stri
       <input type="hidden" name="sessionId" value={sessionId} />
       <label className="space-y-1 text-xs">
         <span className="block font-semibold">New date for a copy of {title}</span>
-        <input type="date" name="date" required className={`${inputClass} w-40`} aria-label={`New date for a copy of ${title}`} />
+        <input type="date" name="date" required className={`${inputClass.replace('w-full', '')} w-40`} aria-label={`New date for a copy of ${title}`} />
       </label>
       <Button type="submit" variant="secondary" disabled={pending}>{pending ? 'Copying…' : 'Duplicate'}</Button>
       {error ? <p className="w-full text-sm text-signal" role="alert">{error}</p> : null}

@@ -23,7 +23,6 @@ function DepartureInput({ run, clock, onPatch, label }: { run: BuilderRun; clock
   const shown = fastLabel(run.departS, clock);
   const [value, setValue] = useState(shown);
   const [error, setError] = useState(false);
-  useEffect(() => setValue(shown), [shown]);
   const commit = () => {
     const text = value.trim();
     if (text === shown) return setError(false);
@@ -171,7 +170,8 @@ const RunRow = memo(
       >
         <div className="flex flex-wrap items-center gap-x-3 gap-y-2">
           {canEdit ? (
-            <DepartureInput run={run} clock={clock} onPatch={actions.onPatch} label={label} />
+            // Keyed by what it shows, so a departure changed elsewhere (a drag, a repair) resets the field.
+            <DepartureInput key={fastLabel(run.departS, clock)} run={run} clock={clock} onPatch={actions.onPatch} label={label} />
           ) : (
             <span className="w-14 font-semibold tabular-nums">{fastLabel(run.departS, clock)}</span>
           )}
@@ -274,7 +274,9 @@ export function RunTable({
   const [showAll, setShowAll] = useState(false);
   // Stable handlers, so that memoised rows are not re-rendered for a new closure.
   const latest = useRef(actions);
-  latest.current = actions;
+  useEffect(() => {
+    latest.current = actions;
+  });
   const stable = useMemo<Actions>(
     () => ({
       onPatch: (...a) => latest.current.onPatch(...a),

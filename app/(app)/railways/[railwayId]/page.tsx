@@ -6,6 +6,8 @@ import { listRailwaySessions } from '@/db/queries/sessions';
 import { Badge, Card } from '@/components/ui/card';
 import { formatInZone } from '@/lib/format';
 import { memberForPage } from '@/lib/page-access';
+import { errorCounts } from '@/lib/sessions/error-counts';
+import Link from 'next/link';
 import { notFound } from 'next/navigation';
 
 export const metadata: Metadata = { title: 'Overview' };
@@ -25,6 +27,13 @@ export default async function RailwayDashboard({ params }: { params: Promise<{ r
   const drafts = sessions.filter((s) => s.status === 'draft');
   if (member.role !== 'operator' && drafts.length) {
     attention.push(`${drafts.length} upcoming session${drafts.length > 1 ? 's are' : ' is'} still a draft and invisible to operators.`);
+  }
+  if (member.role !== 'operator') {
+    const errors = errorCounts(sessions.map((s) => s.id));
+    for (const s of sessions) {
+      const n = errors.get(s.id) ?? 0;
+      if (n) attention.push(`${s.title}: the timetable has ${n} error${n > 1 ? 's' : ''} (clashes or overloads).`);
+    }
   }
   const noPassword = members.filter((m) => !m.hasPassword).length;
   if (member.role === 'host' && noPassword) {
@@ -48,7 +57,9 @@ export default async function RailwayDashboard({ params }: { params: Promise<{ r
             {sessions.map((s) => (
               <li key={s.id} className="flex flex-col items-start gap-1 py-3 sm:flex-row sm:items-center sm:justify-between">
                 <div>
-                  <p className="font-semibold">{s.title}</p>
+                  <Link href={`/railways/${railwayId}/sessions/${s.id}`} className="font-semibold text-verdigris hover:underline">
+                    {s.title}
+                  </Link>
                   <p className="text-sm text-muted">
                     {formatInZone(s.startsAt, s.timeZone)} · {s.layoutName} · {s.runCount} runs
                   </p>
