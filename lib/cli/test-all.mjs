@@ -64,6 +64,10 @@ if (buildStatus !== 0) {
     failed += e2e.stats.unexpected;
   }
   if (e2eStatus !== 0 && (!e2e?.stats || e2e.stats.unexpected === 0)) failed += 1;
+
+  // The HTTP benchmark's short smoke version: every endpoint answers, with no errors, under load.
+  if (run('npx', ['tsx', 'lib/cli/bench-http.ts', '--smoke']) === 0) passed += 1;
+  else failed += 1;
 }
 
 console.log(`\n${passed} passed, ${failed} failed`);
