@@ -124,6 +124,52 @@ const RUNS: RunSpec[] = [
   { train: 'shuttle', cab: 'cab4', operator: 'op5', from: 'T1', to: 'M3', departMin: 160, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
 ];
 
+const INDOOR_TRACK = {
+  blocks: INDOOR_BLOCKS.map(([key, , lengthMm]) => ({ id: key, lengthMm })),
+  links: INDOOR_LINKS.map(([a, b]) => ({ a, b })),
+};
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+/** Times one demo run on the indoor branch (block keys) and writes it with its steps. */
+function insertDemoRun(
+  tx: Tx,
+  spec: RunSpec,
+  ids: { sessionId: string; trainId: string; trainLengthMm: number; cabId: string; operatorId: string | null; blockId: (key: string) => string },
+  offsetS = 0,
+): void {
+  const route = spec.via
+    ? [...(findRoute(INDOOR_TRACK, spec.from, spec.via) ?? []), ...(findRoute(INDOOR_TRACK, spec.via, spec.to) ?? []).slice(1)]
+    : findRoute(INDOOR_TRACK, spec.from, spec.to);
+  if (!route || route.length < 2) throw new Error(`demo: no route ${spec.from} → ${spec.to}`);
+  const timed = timeRun({
+    blocks: INDOOR_TRACK.blocks,
+    scaleRatio: 87,
+    trainLengthMm: ids.trainLengthMm,
+    route,
+    departS: offsetS + spec.departMin * 60,
+    speedKmh: spec.speedKmh,
+    standBeforeS: spec.standBeforeS,
+    standAfterS: spec.standAfterS,
+  });
+  const runId = tx
+    .insert(t.runs)
+    .values({
+      sessionId: ids.sessionId,
+      trainId: ids.trainId,
+      cabId: ids.cabId,
+      operatorId: ids.operatorId,
+      departS: timed.departS,
+      arriveS: timed.arriveS,
+      speedKmh: spec.speedKmh,
+    })
+    .returning({ id: t.runs.id })
+    .get().id;
+  timed.steps.forEach((step, position) =>
+    tx.insert(t.runSteps).values({ runId, position, blockId: ids.blockId(step.blockId), enterS: step.enterS, exitS: step.exitS }).run(),
+  );
+}
+
 /** Next Saturday (at least two days ahead) at 18:30 UTC — always in the future when seeded. */
 export function demoSessionStart(now = new Date()): Date {
   const d = new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate(), 18, 30));
@@ -278,42 +324,16 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
       .returning({ id: t.sessions.id })
       .get().id;
 
-    const track = {
-      blocks: INDOOR_BLOCKS.map(([key, , lengthMm]) => ({ id: key, lengthMm })),
-      links: INDOOR_LINKS.map(([a, b]) => ({ a, b })),
-    };
     for (const spec of RUNS) {
-      const route = spec.via
-        ? [...(findRoute(track, spec.from, spec.via) ?? []), ...(findRoute(track, spec.via, spec.to) ?? []).slice(1)]
-        : findRoute(track, spec.from, spec.to);
-      if (!route || route.length < 2) throw new Error(`demo: no route ${spec.from} → ${spec.to}`);
       const train = indoorTrains[spec.train]!;
-      const timed = timeRun({
-        blocks: track.blocks,
-        scaleRatio: 87,
+      insertDemoRun(tx, spec, {
+        sessionId,
+        trainId: train.id,
         trainLengthMm: train.lengthMm,
-        route,
-        departS: spec.departMin * 60,
-        speedKmh: spec.speedKmh,
-        standBeforeS: spec.standBeforeS,
-        standAfterS: spec.standAfterS,
+        cabId: cabIds[spec.cab],
+        operatorId: spec.operator ? userIds[spec.operator] : null,
+        blockId: (key) => indoor.blockIds[key]!,
       });
-      const runId = tx
-        .insert(t.runs)
-        .values({
-          sessionId,
-          trainId: train.id,
-          cabId: cabIds[spec.cab],
-          operatorId: spec.operator ? userIds[spec.operator] : null,
-          departS: timed.departS,
-          arriveS: timed.arriveS,
-          speedKmh: spec.speedKmh,
-        })
-        .returning({ id: t.runs.id })
-        .get().id;
-      timed.steps.forEach((step, position) =>
-        tx.insert(t.runSteps).values({ runId, position, blockId: indoor.blockIds[step.blockId]!, enterS: step.enterS, exitS: step.exitS }).run(),
-      );
     }
 
     const crew: UserKey[] = ['operator', 'op2', 'op3', 'op4', 'op5', 'op6'];
@@ -353,10 +373,6 @@ export function seedLargeSession(db: Db, repeats = 10): { sessionId: string; run
   const trainOf = (key: string) => trains.get(INDOOR_TRAINS.find(([k]) => k === key)![1])!;
   const cabId = (key: RunSpec['cab']) => cabs.get(`Cab ${key.slice(3)}`)!.id;
   const userId = (key: UserKey) => users.get(DEMO_USERS.find((u) => u.key === key)!.email)!;
-  const track = {
-    blocks: INDOOR_BLOCKS.map(([key, , lengthMm]) => ({ id: key, lengthMm })),
-    links: INDOOR_LINKS.map(([a, b]) => ({ a, b })),
-  };
   const startsAt = demoSessionStart(new Date(Date.now() + 7 * 86_400_000));
   return db.transaction((tx) => {
     const sessionId = tx
@@ -379,35 +395,19 @@ export function seedLargeSession(db: Db, repeats = 10): { sessionId: string; run
       .get().id;
     for (let r = 0; r < repeats; r++) {
       for (const spec of RUNS) {
-        const route = spec.via
-          ? [...(findRoute(track, spec.from, spec.via) ?? []), ...(findRoute(track, spec.via, spec.to) ?? []).slice(1)]
-          : (findRoute(track, spec.from, spec.to) ?? []);
         const train = trainOf(spec.train);
-        const timed = timeRun({
-          blocks: track.blocks,
-          scaleRatio: layout.scaleRatio,
-          trainLengthMm: train.lengthMm,
-          route,
-          departS: r * 3 * 3600 + spec.departMin * 60,
-          speedKmh: spec.speedKmh,
-          standBeforeS: spec.standBeforeS,
-          standAfterS: spec.standAfterS,
-        });
-        const runId = tx
-          .insert(t.runs)
-          .values({
+        insertDemoRun(
+          tx,
+          spec,
+          {
             sessionId,
             trainId: train.id,
+            trainLengthMm: train.lengthMm,
             cabId: cabId(spec.cab),
             operatorId: spec.operator ? userId(spec.operator) : null,
-            departS: timed.departS,
-            arriveS: timed.arriveS,
-            speedKmh: spec.speedKmh,
-          })
-          .returning({ id: t.runs.id })
-          .get().id;
-        timed.steps.forEach((step, position) =>
-          tx.insert(t.runSteps).values({ runId, position, blockId: blockId(step.blockId), enterS: step.enterS, exitS: step.exitS }).run(),
+            blockId,
+          },
+          r * 3 * 3600,
         );
       }
     }
