@@ -114,6 +114,8 @@ test('a planner creates a session and builds runs from an empty timetable', asyn
   await railwayPage.openTab('Sessions');
   await screenshotBoth(page, 'timetable-sessions');
   const form = page.getByTestId('session-form');
+  // Other specs may have added layouts to the demo railway: name the one this test builds on.
+  await form.getByLabel('Layout').selectOption({ label: 'Kestrel Vale branch (H0)' });
   await form.getByLabel('Title').fill('Spring timetable trial');
   await form.getByLabel('Date').fill('2031-04-12');
   await form.getByRole('button', { name: 'Create and open the builder' }).click();
