@@ -81,6 +81,12 @@ async function drive(name: string, url: string, cookie?: string): Promise<Row> {
 let server: ChildProcess | undefined;
 let bare: http.Server | undefined;
 try {
+  try {
+    await fetch(`${BASE}/api/health`);
+    throw new Error(`Something already answers on port ${PORT}: stop it first.`);
+  } catch (error) {
+    if (error instanceof Error && error.message.startsWith('Something')) throw error;
+  }
   if (!fs.existsSync(`${distDir}/BUILD_ID`)) must(spawnSync('npx', ['next', 'build'], { stdio: 'inherit', env }).status, 'next build');
   for (const suffix of ['', '-wal', '-shm']) fs.rmSync(DB + suffix, { force: true });
   must(spawnSync('npx', ['tsx', 'lib/cli/seed.ts', '--large-session'], { stdio: 'inherit', env }).status, 'seed');
@@ -90,7 +96,8 @@ try {
   const demo = sessions.find((s) => s.title === 'December running evening')!;
   const large = sessions.find((s) => s.title.startsWith('Marathon'))!;
 
-  server = spawn('npx', ['next', 'start', '-p', String(PORT)], { env, stdio: ['ignore', 'ignore', 'inherit'] });
+  // Its own process group, so that stopping it also stops the next-server child that npx starts.
+  server = spawn('npx', ['next', 'start', '-p', String(PORT)], { env, stdio: ['ignore', 'ignore', 'inherit'], detached: true });
   await waitFor(`${BASE}/api/health`);
   const planner = await signIn('planner@fishplate.example');
   const operator = await signIn('operator@fishplate.example');
@@ -137,5 +144,5 @@ try {
   }
 } finally {
   bare?.close();
-  server?.kill('SIGTERM');
+  if (server?.pid) process.kill(-server.pid, 'SIGTERM');
 }
