@@ -26,8 +26,20 @@ function step(command, args) {
   if (status !== 0) process.exit(status ?? 1);
 }
 
+/** True when a source file is newer than the last build (after a git pull, say). */
+function buildIsStale() {
+  if (!fs.existsSync('.next/BUILD_ID')) return true;
+  const built = fs.statSync('.next/BUILD_ID').mtimeMs;
+  const newer = (dir) =>
+    fs.readdirSync(dir, { withFileTypes: true }).some((entry) => {
+      const full = path.join(dir, entry.name);
+      return entry.isDirectory() ? newer(full) : fs.statSync(full).mtimeMs > built;
+    });
+  return ['app', 'components', 'lib', 'db', 'drizzle'].some((dir) => fs.existsSync(dir) && newer(dir));
+}
+
 step('npx', ['tsx', 'lib/cli/seed.ts']);
-if (!fs.existsSync('.next/BUILD_ID') || process.env.FISHPLATE_REBUILD === '1') {
+if (buildIsStale() || process.env.FISHPLATE_REBUILD === '1') {
   console.log('Building Fishplate once (about a minute)…');
   step('npx', ['next', 'build']);
 }
