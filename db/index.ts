@@ -39,6 +39,17 @@ export function getDb(): Db {
   return globalForDb.fishplateDb;
 }
 
+type Transaction = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+/**
+ * Runs `fn` as one write transaction that takes the write lock at BEGIN (IMMEDIATE). A deferred
+ * transaction that reads and then writes can fail at once with SQLITE_BUSY when another writer got
+ * in between, whatever the busy timeout; an immediate one waits its turn instead.
+ */
+export function writeTransaction<T>(fn: (tx: Transaction) => T): T {
+  return getDb().transaction(fn, { behavior: 'immediate' });
+}
+
 /** Closes the cached handle (tests and scripts that switch DATABASE_URL). */
 export function closeDb(): void {
   globalForDb.fishplateDb?.$client.close();

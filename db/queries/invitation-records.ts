@@ -1,11 +1,11 @@
 import 'server-only';
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
-import { getDb } from '@/db';
+import { getDb, writeTransaction } from '@/db';
 import { invitations, outbox, railways, sessions, users, type RsvpState } from '@/db/schema';
 
 /** Runs `fn` in one write transaction on the process's one connection (so every query inside joins it). */
 export function runInTransaction<T>(fn: () => T): T {
-  return getDb().transaction(() => fn(), { behavior: 'immediate' });
+  return writeTransaction(() => fn());
 }
 
 /** One session of one railway, or undefined (another railway's id reads as missing). */

@@ -1,6 +1,6 @@
 import 'server-only';
 import { eq } from 'drizzle-orm';
-import { getDb } from '@/db';
+import { getDb, writeTransaction } from '@/db';
 import * as t from '@/db/schema';
 import type { BlockValues } from './layout-blocks';
 import { updateVersionedRow } from './layout-rows';
@@ -24,7 +24,7 @@ export class StaleRowError extends Error {
 
 /** Writes every change of one CSV import in one transaction: all of them or none. */
 export function applyCsvChanges(layoutId: string, input: CsvChanges): void {
-  getDb().transaction((tx) => {
+  writeTransaction((tx) => {
     const update = <T extends typeof t.blocks | typeof t.locomotives | typeof t.trains>(table: T, id: string, version: number, values: Partial<T['$inferInsert']>) => {
       const result = updateVersionedRow(table, layoutId, id, version, values, tx);
       if (!result.ok) throw new StaleRowError(result.reason === 'stale' ? result.current : null);

@@ -1,5 +1,5 @@
 import 'server-only';
-import { getDb } from '@/db';
+import { writeTransaction } from '@/db';
 import * as t from '@/db/schema';
 import type { LayoutValues } from './layouts';
 import type { BlockValues } from './layout-blocks';
@@ -20,7 +20,7 @@ export type LayoutImport = {
 
 /** Creates a layout with everything in it in one transaction, with new ids; answers the layout. */
 export function insertLayoutFromImport(railwayId: string, data: LayoutImport) {
-  return getDb().transaction((tx) => {
+  return writeTransaction((tx) => {
     const layout = tx.insert(t.layouts).values({ ...data.layout, railwayId }).returning().get();
     const layoutId = layout.id;
     const ids = new Map<string, string>();

@@ -1,6 +1,6 @@
 import 'server-only';
 import { and, asc, count, eq, inArray } from 'drizzle-orm';
-import { getDb } from '@/db';
+import { getDb, writeTransaction } from '@/db';
 import { locomotives, runs, trainLocomotives, trains } from '@/db/schema';
 import type { DbOrTx } from './layout-rows';
 
@@ -34,7 +34,7 @@ export function setConsist(trainId: string, locomotiveIds: readonly string[], db
 
 /** Inserts a train with its consist in one transaction. */
 export function insertTrain(layoutId: string, values: TrainValues, locomotiveIds: readonly string[]) {
-  return getDb().transaction((tx) => {
+  return writeTransaction((tx) => {
     const train = tx.insert(trains).values({ ...values, layoutId }).returning().get();
     setConsist(train.id, locomotiveIds, tx);
     return train;

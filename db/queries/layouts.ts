@@ -1,6 +1,6 @@
 import 'server-only';
 import { and, count, eq, inArray, sql } from 'drizzle-orm';
-import { getDb } from '@/db';
+import { getDb, writeTransaction } from '@/db';
 import { blocks, cabs, drivers, layouts, locomotives, sessions, trainLocomotives, trains } from '@/db/schema';
 
 /** The railway's layouts with how much each holds. */
@@ -78,8 +78,7 @@ export function countLayoutSessions(layoutId: string): number {
 
 /** Deletes a layout and everything in it, if `version` is still current. */
 export function deleteLayout(railwayId: string, layoutId: string, version: number): VersionedResult<typeof layouts.$inferSelect> {
-  const db = getDb();
-  return db.transaction((tx) => {
+  return writeTransaction((tx) => {
     const current = tx.select().from(layouts).where(and(eq(layouts.id, layoutId), eq(layouts.railwayId, railwayId))).get();
     if (!current) return { ok: false, reason: 'missing' } as const;
     if (current.version !== version) return { ok: false, reason: 'stale', current } as const;

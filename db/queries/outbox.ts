@@ -1,6 +1,6 @@
 import 'server-only';
 import { and, desc, eq, inArray, lte, sql } from 'drizzle-orm';
-import { getDb } from '@/db';
+import { getDb, writeTransaction } from '@/db';
 import { outbox, type OutboxMessage } from '@/db/schema';
 
 export type NewOutboxMessage = {
@@ -26,8 +26,7 @@ export function enqueueMail(message: NewOutboxMessage): boolean {
  * two workers never take the same one.
  */
 export function claimDueMail(limit: number, now = new Date()): OutboxMessage[] {
-  const db = getDb();
-  return db.transaction((tx) => {
+  return writeTransaction((tx) => {
     const due = tx
       .select({ id: outbox.id })
       .from(outbox)
@@ -43,7 +42,7 @@ export function claimDueMail(limit: number, now = new Date()): OutboxMessage[] {
       .where(inArray(outbox.id, due))
       .returning()
       .all();
-  }, { behavior: 'immediate' });
+  });
 }
 
 export function markMailSent(id: string): void {

@@ -1,6 +1,6 @@
 import 'server-only';
 import { eq } from 'drizzle-orm';
-import { getDb } from '@/db';
+import { getDb, writeTransaction } from '@/db';
 import { auditLog, memberships, railways } from '@/db/schema';
 
 /** Reads one railway. Callers have checked membership with requireMember first. */
@@ -10,15 +10,14 @@ export function getRailway(railwayId: string) {
 
 /** Creates a railway with its creator as host, in one transaction. */
 export function createRailway(input: { name: string; timeZone: string; hostUserId: string }) {
-  const db = getDb();
-  return db.transaction((tx) => {
+  return writeTransaction((tx) => {
     const railway = tx.insert(railways).values({ name: input.name, timeZone: input.timeZone }).returning().get();
     tx.insert(memberships).values({ railwayId: railway.id, userId: input.hostUserId, role: 'host' }).run();
     tx.insert(auditLog)
       .values({ railwayId: railway.id, userId: input.hostUserId, action: 'create', entity: 'railway', entityId: railway.id })
       .run();
     return railway;
-  }, { behavior: 'immediate' });
+  });
 }
 
 /** Writes one audit entry: who changed what. */

@@ -1,6 +1,6 @@
 import 'server-only';
 import { and, asc, eq, inArray } from 'drizzle-orm';
-import { getDb, type Db } from '@/db';
+import { getDb, type Db, writeTransaction } from '@/db';
 import { runs, runSteps } from '@/db/schema';
 
 export type StepValues = { blockId: string; enterS: number; exitS: number };
@@ -57,8 +57,7 @@ export function getRun(sessionId: string, runId: string): StoredRun | undefined 
 
 /** Inserts runs with their steps in one transaction; returns their ids in order. */
 export function insertRuns(sessionId: string, values: readonly RunValues[]): string[] {
-  const db = getDb();
-  return db.transaction((tx) =>
+  return writeTransaction((tx) =>
     values.map((v) => {
       const { steps, ...row } = v;
       const id = tx.insert(runs).values({ ...row, sessionId }).returning({ id: runs.id }).get().id;
@@ -80,8 +79,7 @@ export function updateRun(
   version: number,
   patch: RunPatch,
 ): { run: StoredRun } | { stale: StoredRun } | { missing: true } {
-  const db = getDb();
-  return db.transaction((tx) => {
+  return writeTransaction((tx) => {
     const current = readRun(tx, sessionId, runId);
     if (!current) return { missing: true as const };
     if (current.version !== version) return { stale: current };
@@ -104,8 +102,7 @@ export function deleteRun(
   runId: string,
   version: number,
 ): { deleted: StoredRun } | { stale: StoredRun } | { missing: true } {
-  const db = getDb();
-  return db.transaction((tx) => {
+  return writeTransaction((tx) => {
     const current = readRun(tx, sessionId, runId);
     if (!current) return { missing: true as const };
     if (current.version !== version) return { stale: current };
@@ -122,8 +119,7 @@ export function shiftRuns(
   sessionId: string,
   moves: readonly { runId: string; version: number; delayS: number }[],
 ): { shifted: StoredRun[] } | { stale: StoredRun[] } | { missing: string[] } {
-  const db = getDb();
-  return db.transaction((tx) => {
+  return writeTransaction((tx) => {
     const ids = moves.map((m) => m.runId);
     const rows = tx
       .select()
@@ -160,8 +156,7 @@ export function shiftRuns(
  * already this session's (so a plan read and posted back leaves the session as it was).
  */
 export function replaceSessionRuns(sessionId: string, values: readonly RunValues[]): number {
-  const db = getDb();
-  return db.transaction((tx) => {
+  return writeTransaction((tx) => {
     tx.delete(runs).where(eq(runs.sessionId, sessionId)).run();
     const wanted = values.map((v) => v.id).filter((x): x is string => Boolean(x));
     const taken = new Set(

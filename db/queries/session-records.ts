@@ -1,6 +1,6 @@
 import 'server-only';
 import { and, eq, inArray } from 'drizzle-orm';
-import { getDb } from '@/db';
+import { getDb, writeTransaction } from '@/db';
 import { invitations, layouts, runs, runSteps, sessions, type Session, type SessionStatus } from '@/db/schema';
 
 /** One session by id, whatever railway it belongs to; callers check the railway with requireMember. */
@@ -55,33 +55,16 @@ export function insertSession(railwayId: string, layoutId: string, timeZone: str
 }
 
 /**
- * Saves new settings if the row is still at `version`; raises `sequence` when the start or end
- * moved (RFC 5546 2.1.4: SEQUENCE goes up when DTSTART or DTEND change). Returns the saved row, or
- * undefined when the version is stale.
+ * Applies `change(current)` if the session (of this railway) is still at `version`, bumping the
+ * version; returns the saved row, or undefined when it is missing or stale.
  */
-export function updateSessionSettings(railwayId: string, sessionId: string, version: number, values: SessionValues): Session | undefined {
-  const db = getDb();
-  return db.transaction((tx) => {
-    const current = tx
-      .select()
-      .from(sessions)
-      .where(and(eq(sessions.id, sessionId), eq(sessions.railwayId, railwayId)))
-      .get();
-    if (!current || current.version !== version) return undefined;
-    const moved = current.startsAt.getTime() !== values.startsAt.getTime() || current.endsAt.getTime() !== values.endsAt.getTime();
-    return tx
-      .update(sessions)
-      .set({ ...values, version: current.version + 1, sequence: current.sequence + (moved ? 1 : 0) })
-      .where(eq(sessions.id, sessionId))
-      .returning()
-      .get();
-  });
-}
-
-/** Moves a session to a new status if still at `version`, raising `sequence` (RFC 5546 2.1.4 and 3.2.5). */
-export function updateSessionStatus(railwayId: string, sessionId: string, version: number, status: SessionStatus): Session | undefined {
-  const db = getDb();
-  return db.transaction((tx) => {
+function updateAtVersion(
+  railwayId: string,
+  sessionId: string,
+  version: number,
+  change: (current: Session) => Partial<typeof sessions.$inferInsert>,
+): Session | undefined {
+  return writeTransaction((tx) => {
     const current = tx
       .select()
       .from(sessions)
@@ -90,7 +73,7 @@ export function updateSessionStatus(railwayId: string, sessionId: string, versio
     if (!current || current.version !== version) return undefined;
     return tx
       .update(sessions)
-      .set({ status, version: current.version + 1, sequence: current.sequence + (current.status === status ? 0 : 1) })
+      .set({ ...change(current), version: current.version + 1 })
       .where(eq(sessions.id, sessionId))
       .returning()
       .get();
@@ -98,12 +81,31 @@ export function updateSessionStatus(railwayId: string, sessionId: string, versio
 }
 
 /**
+ * Saves new settings if the row is still at `version`; raises `sequence` when the start or end
+ * moved (RFC 5546 2.1.4: SEQUENCE goes up when DTSTART or DTEND change). Returns the saved row, or
+ * undefined when the version is stale.
+ */
+export function updateSessionSettings(railwayId: string, sessionId: string, version: number, values: SessionValues): Session | undefined {
+  return updateAtVersion(railwayId, sessionId, version, (current) => {
+    const moved = current.startsAt.getTime() !== values.startsAt.getTime() || current.endsAt.getTime() !== values.endsAt.getTime();
+    return { ...values, sequence: current.sequence + (moved ? 1 : 0) };
+  });
+}
+
+/** Moves a session to a new status if still at `version`, raising `sequence` (RFC 5546 2.1.4 and 3.2.5). */
+export function updateSessionStatus(railwayId: string, sessionId: string, version: number, status: SessionStatus): Session | undefined {
+  return updateAtVersion(railwayId, sessionId, version, (current) => ({
+    status,
+    sequence: current.sequence + (current.status === status ? 0 : 1),
+  }));
+}
+
+/**
  * Copies a session's settings, runs and steps into a new draft starting `shiftMs` later (the runs
  * keep their times from the session's start), in one transaction.
  */
 export function copySession(source: Session, shiftMs: number, title: string): Session {
-  const db = getDb();
-  return db.transaction((tx) => {
+  return writeTransaction((tx) => {
     const { id: _id, createdAt: _c, version: _v, sequence: _s, status: _st, ...rest } = source;
     const copy = tx
       .insert(sessions)

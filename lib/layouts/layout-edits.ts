@@ -27,7 +27,7 @@ import {
   type TrainValues,
 } from '@/db/queries/layout-stock';
 import { recordAudit } from '@/db/queries/railways';
-import { getDb } from '@/db';
+import { writeTransaction } from '@/db';
 import * as t from '@/db/schema';
 import type { Layout, Role } from '@/db/schema';
 import { requireMember, requireUser, type Member } from '@/lib/auth';
@@ -262,7 +262,7 @@ export function editTrain({ layout }: LayoutContext, input: TrainValues & { id: 
   assertNameFree(t.trains, layout.id, input.name, 'train', input.id);
   assertConsist(layout.id, input.locomotiveIds);
   const { id, version, locomotiveIds, ...values } = input;
-  const row = getDb().transaction((tx) => {
+  const row = writeTransaction((tx) => {
     const saved = rowOrThrow(updateVersionedRow(t.trains, layout.id, id, version, values, tx), 'That train');
     setConsist(saved.id, locomotiveIds, tx);
     return saved;
