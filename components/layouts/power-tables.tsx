@@ -14,23 +14,13 @@ import {
 } from '@/app/(app)/railways/[railwayId]/layouts/[layoutId]/actions';
 import { DRIVER_PRESETS, findDriverPreset } from '@/lib/planning';
 import { cabEditSchema, cabSchema, driverEditSchema, driverSchema, supplyEditSchema, supplySchema } from '@/lib/validations/layout';
+import type { BudgetInput } from '@/lib/layouts/power-budget';
 import { EntityTable, type EntityColumn } from './entity-table';
 
-export type SupplyRow = { id: string; name: string; volts: number; amps: number; version: number };
-export type DriverRow = {
-  id: string;
-  name: string;
-  supplyId: string;
-  presetId: string | null;
-  partNumber: string | null;
-  channels: number;
-  channelAmps: number;
-  channelPeakAmps: number;
-  totalAmps: number | null;
-  dropVolts: number;
-  version: number;
-};
-export type CabRow = { id: string; name: string; driverId: string; channel: number; version: number };
+type Versioned<T> = T & { version: number };
+export type SupplyRow = Versioned<BudgetInput['supplies'][number]>;
+export type DriverRow = Versioned<BudgetInput['drivers'][number]>;
+export type CabRow = Versioned<BudgetInput['cabs'][number]>;
 
 type Ids = { railwayId: string; layoutId: string; canEdit: boolean };
 const s = (v: number | null) => (v === null ? '' : String(v));

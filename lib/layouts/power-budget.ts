@@ -9,6 +9,7 @@ import {
   VOLTS_TOLERANCE,
   type DriverPreset,
 } from '@/lib/planning';
+import type { CabValues, DriverValues, SupplyValues } from '@/db/queries/layout-power';
 
 // The power budget of a layout before any timetable: what each supply and driver could be asked to
 // carry if every cab ran a train at once. Every figure is an input, a sum or product of inputs, or a
@@ -18,20 +19,9 @@ export interface BudgetInput {
   scale: { name: string; ratio: number };
   /** Share of a supply's rating it may carry continuously (rules derate; 0.8 by default). */
   derate?: number;
-  supplies: { id: string; name: string; volts: number; amps: number }[];
-  drivers: {
-    id: string;
-    name: string;
-    supplyId: string;
-    presetId: string | null;
-    partNumber: string | null;
-    channels: number;
-    channelAmps: number;
-    channelPeakAmps: number;
-    totalAmps: number | null;
-    dropVolts: number;
-  }[];
-  cabs: { id: string; name: string; driverId: string; channel: number }[];
+  supplies: (SupplyValues & { id: string })[];
+  drivers: (DriverValues & { id: string })[];
+  cabs: (CabValues & { id: string })[];
   locomotives: { id: string; name: string; runningAmps: number; stallAmps: number; ratedVolts: number; topSpeedKmh: number }[];
   trains: { id: string; name: string; locomotiveIds: string[]; lightingAmps: number; lengthMm: number }[];
 }
