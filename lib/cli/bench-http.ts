@@ -10,10 +10,11 @@ import Database from 'better-sqlite3';
 const smoke = process.argv.includes('--smoke');
 const DURATION_S = smoke ? 2 : 20;
 const CONNECTIONS = smoke ? 10 : 50;
-const PORT = 3610;
-const BARE_PORT = 3620;
+// BENCH_PORT moves the servers so that two checkouts can benchmark side by side.
+const PORT = Number(process.env.BENCH_PORT ?? 3610);
+const BARE_PORT = PORT + 10;
 const BASE = `http://127.0.0.1:${PORT}`;
-const DB = 'data/bench.db';
+const DB = `data/bench-${PORT}.db`;
 const distDir = process.env.NEXT_DIST_DIR ?? '.next';
 const env = {
   ...process.env,
