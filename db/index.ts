@@ -3,14 +3,18 @@ import path from 'node:path';
 import Database from 'better-sqlite3';
 import { drizzle, type BetterSQLite3Database } from 'drizzle-orm/better-sqlite3';
 import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
+import { z } from 'zod';
 import * as schema from './schema';
 
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
 
-/** Where the SQLite file lives: DATABASE_URL (a path, optionally prefixed with file:). */
-export function databasePath(): string {
-  const url = process.env.DATABASE_URL ?? 'data/fishplate.db';
-  return url.startsWith('file:') ? url.slice('file:'.length) : url;
+/** DATABASE_URL: the SQLite file, a path optionally prefixed with file:. lib/env.ts validates it with the rest. */
+export const databaseUrlSchema = z.string().trim().min(1).default('data/fishplate.db');
+
+/** Where the SQLite file lives, from DATABASE_URL. */
+export function databasePath(url: string | undefined = process.env.DATABASE_URL): string {
+  const value = databaseUrlSchema.parse(url);
+  return value.startsWith('file:') ? value.slice('file:'.length) : value;
 }
 
 /**

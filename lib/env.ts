@@ -1,8 +1,9 @@
 import { z } from 'zod';
+import { databaseUrlSchema } from '@/db';
 
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
-  DATABASE_URL: z.string().min(1).default('data/fishplate.db'),
+  DATABASE_URL: databaseUrlSchema,
   NEXTAUTH_URL: z.url().default('http://localhost:3000'),
   NEXTAUTH_SECRET: z.string().min(16, 'NEXTAUTH_SECRET must be at least 16 characters').optional(),
   /** An SMTP server to send through. When unset, Fishplate starts its own local mail catcher. */
@@ -10,6 +11,12 @@ const envSchema = z.object({
   LOCAL_SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(2525),
   MAIL_FROM: z.string().default('Fishplate <no-reply@fishplate.example>'),
   UPLOADS_DIR: z.string().default('data/uploads'),
+  /** The port the local mail catcher really listens on (set by the server at start; tests set it too). */
+  LOCAL_SMTP_ACTUAL_PORT: z.coerce.number().int().min(1).max(65535).optional(),
+  /** 1: the sign-in page lists the demo accounts. */
+  FISHPLATE_DEMO: z.enum(['0', '1']).default('0'),
+  /** off: no outbox worker in this process (benchmarks, tests that deliver by hand). */
+  FISHPLATE_OUTBOX_WORKER: z.enum(['on', 'off']).default('on'),
 });
 
 export type Env = z.infer<typeof envSchema>;
@@ -28,6 +35,14 @@ export function env(): Env {
   }
   cached = parsed.data;
   return cached;
+}
+
+/**
+ * The port the local mail catcher listens on now. Read fresh on each call, not from the cached env():
+ * the server sets it after the catcher has started, which is after the first env() read.
+ */
+export function localSmtpActualPort(): number | undefined {
+  return envSchema.shape.LOCAL_SMTP_ACTUAL_PORT.parse(process.env.LOCAL_SMTP_ACTUAL_PORT || undefined);
 }
 
 /** For tests that change process.env between cases. */

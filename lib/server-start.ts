@@ -23,5 +23,5 @@ export async function startServerServices(): Promise<void> {
       console.error(`Fishplate: could not start the local mail catcher on port ${config.LOCAL_SMTP_PORT}:`, error);
     }
   }
-  if (process.env.FISHPLATE_OUTBOX_WORKER !== 'off') startOutboxWorker();
+  if (config.FISHPLATE_OUTBOX_WORKER === 'on') startOutboxWorker();
 }

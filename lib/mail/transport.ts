@@ -1,13 +1,13 @@
 import 'server-only';
 import nodemailer, { type Transporter } from 'nodemailer';
 import type SMTPPool from 'nodemailer/lib/smtp-pool';
-import { env } from '@/lib/env';
+import { env, localSmtpActualPort } from '@/lib/env';
 
 const globalForMail = globalThis as unknown as { fishplateTransport?: Transporter; fishplateSmtpUrl?: string };
 
 /** Where mail goes: SMTP_URL, or Fishplate's own local catcher on loopback. */
 export function smtpUrl(): string {
-  return env().SMTP_URL ?? `smtp://127.0.0.1:${process.env.LOCAL_SMTP_ACTUAL_PORT ?? env().LOCAL_SMTP_PORT}`;
+  return env().SMTP_URL ?? `smtp://127.0.0.1:${localSmtpActualPort() ?? env().LOCAL_SMTP_PORT}`;
 }
 
 /** One pooled SMTP transport per process (rebuilt if the URL changes, as in tests). */

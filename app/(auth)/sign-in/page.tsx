@@ -1,6 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { LinkRequestForm, SignInForm } from '@/components/auth/sign-in-form';
+import { env } from '@/lib/env';
 
 export const metadata: Metadata = { title: 'Sign in' };
 
@@ -23,7 +24,7 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
       <p className="text-sm text-muted">
         <Link className="underline" href="/reset-password">Forgot your password?</Link>
       </p>
-      {process.env.FISHPLATE_DEMO === '1' ? (
+      {env().FISHPLATE_DEMO === '1' ? (
         <div className="rounded-plate bg-brass-soft p-3 text-sm text-ink">
           <p className="font-semibold">Demo railway sign-ins (password <code>demo-railway</code>)</p>
           <ul className="mt-1 list-inside list-disc">
