@@ -1,5 +1,5 @@
 import 'server-only';
-import { desc, eq, inArray, or, sql } from 'drizzle-orm';
+import { desc, eq, or, sql } from 'drizzle-orm';
 import { getDb } from '@/db';
 import { caughtMail, memberships, users } from '@/db/schema';
 
@@ -37,8 +37,4 @@ export function listCaughtMailForRailway(railwayId: string, limit = 50) {
     .orderBy(desc(caughtMail.receivedAt))
     .limit(limit)
     .all();
-}
-
-export function getCaughtMail(ids: string[]) {
-  return ids.length ? getDb().select().from(caughtMail).where(inArray(caughtMail.id, ids)).all() : [];
 }

@@ -1,6 +1,5 @@
 import 'server-only';
-import { eq } from 'drizzle-orm';
-import { getDb, writeTransaction } from '@/db';
+import { writeTransaction } from '@/db';
 import * as t from '@/db/schema';
 import type { BlockValues } from './layout-blocks';
 import { updateVersionedRow } from './layout-rows';
@@ -58,15 +57,4 @@ export function applyCsvChanges(layoutId: string, input: CsvChanges): void {
         break;
     }
   });
-}
-
-/** Consist rows of a layout's trains, in order. */
-export function consistsOfLayout(layoutId: string) {
-  return getDb()
-    .select({ trainId: t.trainLocomotives.trainId, locomotiveId: t.trainLocomotives.locomotiveId, position: t.trainLocomotives.position })
-    .from(t.trainLocomotives)
-    .innerJoin(t.trains, eq(t.trains.id, t.trainLocomotives.trainId))
-    .where(eq(t.trains.layoutId, layoutId))
-    .orderBy(t.trainLocomotives.trainId, t.trainLocomotives.position)
-    .all();
 }

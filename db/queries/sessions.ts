@@ -49,13 +49,3 @@ export function listRailwaySessions(railwayId: string, viewer: { userId: string;
   return rows.map((r) => ({ ...r, runCount: runCounts.get(r.id) ?? 0 }));
 }
 
-/** RSVP counts per state for one session. */
-export function countInvitationsByState(sessionId: string) {
-  return getDb()
-    .select({ rsvp: invitations.rsvp, n: count() })
-    .from(invitations)
-    .where(eq(invitations.sessionId, sessionId))
-    .groupBy(invitations.rsvp)
-    .all();
-}
-

@@ -1,9 +1,8 @@
 import 'server-only';
 import { recordAudit } from '@/db/queries/railways';
-import type { StoredRun } from '@/db/queries/runs';
 import type { Session } from '@/db/schema';
 import type { Member } from '@/lib/auth';
-import { AppError, conflict } from '@/lib/errors';
+import { AppError } from '@/lib/errors';
 import { snapshotOf } from '@/lib/sessions/builder';
 import type { BuilderChange, BuilderRun } from '@/lib/sessions/types';
 
@@ -12,11 +11,6 @@ export function assertTimetableEditable(session: Session): void {
   if (session.status === 'cancelled') {
     throw new AppError('bad_request', 'This session is cancelled. Reopen it as a draft to change its timetable.');
   }
-}
-
-/** 409 with the run as it is now. */
-export function staleRun(current: StoredRun): AppError {
-  return conflict(current);
 }
 
 /** The answer to a change: the re-checked session, plus what the change made. */

@@ -146,8 +146,6 @@ export const updateRunSchema = z
   });
 export type UpdateRunInput = z.infer<typeof updateRunSchema>;
 
-export const deleteRunSchema = z.object({ version: z.number().int().min(1) });
-
 export const seriesSchema = z.object({
   everyFastMin: z.number({ error: 'Enter how many fast minutes apart.' }).int('Use whole minutes.').min(1, 'Use at least 1 minute.').max(24 * 60, 'Use at most 1440 minutes.'),
   count: z.number({ error: 'Enter how many copies.' }).int('Use a whole number.').min(1, 'Make at least 1 copy.').max(50, 'Make at most 50 copies at once.'),
