@@ -1,4 +1,4 @@
-import { formatInZone as formatInZoneUncached } from '@/lib/format';
+import { formatInZone as formatInZoneUncached, formatTimeInZone } from '@/lib/format';
 import { formatStand, type RunAssignment } from '@/lib/invitations/assignments';
 import type { CalendarSession, Person } from '@/lib/calendar/ics';
 
@@ -23,7 +23,11 @@ export type InvitationContent = {
 // are slow to build, so keep the strings.
 const formatted = new Map<string, string>();
 function formatInZone(date: Date, timeZone: string, options: Intl.DateTimeFormatOptions = {}): string {
-  const key = `${date.getTime()}|${timeZone}|${JSON.stringify(options)}`;
+  // JSON.stringify drops keys whose value is undefined, so { hour: undefined } (date only) would share
+  // the key of {} (date and time); name every key with its value instead.
+  const key = `${date.getTime()}|${timeZone}|${Object.entries(options)
+    .map(([k, v]) => `${k}=${String(v)}`)
+    .join(',')}`;
   let text = formatted.get(key);
   if (text === undefined) {
     if (formatted.size > 1000) formatted.clear();
@@ -37,8 +41,17 @@ function escapeHtml(text: string): string {
   return text.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 }
 
+/** "Sat 12 Dec 2026, 18:00 to 21:00 (Europe/Berlin)", or both dates when the session runs past midnight. */
+export function sessionSpan(session: CalendarSession): string {
+  const { startsAt, endsAt, timeZone } = session;
+  const dateOnly = { hour: undefined, minute: undefined, hourCycle: undefined } as const;
+  const sameDay = formatInZone(startsAt, timeZone, dateOnly) === formatInZone(endsAt, timeZone, dateOnly);
+  const end = sameDay ? formatTimeInZone(endsAt, timeZone) : formatInZone(endsAt, timeZone);
+  return `${formatInZone(startsAt, timeZone)} to ${end} (${timeZone})`;
+}
+
 export function subjectOf(c: InvitationContent): string {
-  const when = formatInZone(c.session.startsAt, c.session.timeZone, { hour: undefined, minute: undefined });
+  const when = formatInZone(c.session.startsAt, c.session.timeZone, { hour: undefined, minute: undefined, hourCycle: undefined });
   if (c.method === 'CANCEL') return `Cancelled: ${c.session.title} (${when})`;
   if (c.isUpdate) return `Updated: ${c.session.title} (${when})`;
   return `Invitation: ${c.session.title} (${when})`;
@@ -63,7 +76,7 @@ function runDetail(r: RunAssignment, inviteeId?: string): string[] {
 export function assignmentSummary(c: InvitationContent): string {
   const lines = [
     `${c.session.title} — ${c.railwayName}`,
-    `When: ${formatInZone(c.session.startsAt, c.session.timeZone)} to ${formatInZone(c.session.endsAt, c.session.timeZone)} (${c.session.timeZone})`,
+    `When: ${sessionSpan(c.session)}`,
   ];
   if (c.session.place) lines.push(`Where: ${c.session.place}`);
   if (c.session.description) lines.push('', c.session.description);
@@ -130,7 +143,7 @@ export function buildInvitationBody(c: InvitationContent): { subject: string; te
   const html = `<!doctype html><html><body style="font-family:sans-serif;line-height:1.45">
 <p>Hello ${e(c.invitee.name)},</p><p>${e(opening)}</p>
 <h2>${e(c.session.title)}</h2>
-<p>${e(c.railwayName)}<br>When: ${e(formatInZone(c.session.startsAt, c.session.timeZone))} to ${e(formatInZone(c.session.endsAt, c.session.timeZone))} (${e(c.session.timeZone)})${
+<p>${e(c.railwayName)}<br>When: ${e(sessionSpan(c.session))}${
     c.session.place ? `<br>Where: ${e(c.session.place)}` : ''
   }</p>${c.session.description ? `<p>${e(c.session.description)}</p>` : ''}
 ${runsHtml}${dutiesHtml}${replyHtml}

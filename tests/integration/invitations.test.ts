@@ -155,6 +155,26 @@ describe('the e-mail over real SMTP', () => {
     expect(deliveryOf(listSessionInvitations(session.id).find((i) => i.id === invitation.id)!)).toBe('sent');
   });
 
+  it('says when the session starts and ends, in the session’s own time zone, in the text, the HTML and the subject', async () => {
+    // 17:00 UTC on a January Saturday is 18:00 in Berlin (CET = UTC+1 in winter, IANA tz database "Europe/Berlin").
+    const { w, session } = await setup({ startsAt: new Date('2030-01-12T17:00:00Z'), hours: 3, timeZone: 'Europe/Berlin' });
+    await sendNotices(w.railway.id, session.id, null, formData({ kind: 'pending' }));
+    await deliverAll();
+    const parsed = await simpleParser(caughtFor(w.operator.email)[0]!.raw);
+    expect(parsed.subject).toMatch(/^Invitation: Test running evening \(Sat,? 12 Jan 2030\)$/);
+    expect(parsed.text).toMatch(/^When: Sat,? 12 Jan 2030, 18:00 to 21:00 \(Europe\/Berlin\)$/m);
+    expect(parsed.html).toMatch(/When: Sat,? 12 Jan 2030, 18:00 to 21:00 \(Europe\/Berlin\)/);
+  });
+
+  it('names both dates when the session runs past midnight', async () => {
+    // 22:00 UTC + 4 h in Berlin (UTC+1): 23:00 on the 12th to 03:00 on the 13th.
+    const { w, session } = await setup({ startsAt: new Date('2030-01-12T22:00:00Z'), hours: 4, timeZone: 'Europe/Berlin' });
+    await sendNotices(w.railway.id, session.id, null, formData({ kind: 'pending' }));
+    await deliverAll();
+    const parsed = await simpleParser(caughtFor(w.operator.email)[0]!.raw);
+    expect(parsed.text).toMatch(/^When: Sat,? 12 Jan 2030, 23:00 to Sun,? 13 Jan 2030, 03:00 \(Europe\/Berlin\)$/m);
+  });
+
   it('an update goes out with SEQUENCE up to everyone sent before, once; a cancellation follows the RFC', async () => {
     const { w, session, invitation } = await setup();
     await sendNotices(w.railway.id, session.id, null, formData({ kind: 'pending' }));
