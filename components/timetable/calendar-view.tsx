@@ -7,7 +7,7 @@ import timeGridPlugin from '@fullcalendar/timegrid';
 import { useMemo } from 'react';
 import type { Highlight } from '@/lib/sessions/highlight';
 import { fastLabel, type SessionClock } from '@/lib/sessions/time-labels';
-import { floatingIso } from '@/lib/sessions/zoned-time';
+import { floatingIso } from '@/lib/time-zone';
 import type { BuilderRun } from '@/lib/sessions/types';
 
 const pad = (n: number) => String(n).padStart(2, '0');

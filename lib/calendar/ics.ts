@@ -8,6 +8,7 @@ import ical, {
 import type { SessionStatus } from '@/db/enums';
 import type { RunAssignment } from '@/lib/invitations/assignments';
 import { formatStand } from '@/lib/invitations/assignments';
+import { wallClockParts } from '@/lib/time-zone';
 
 /** The fields of a session a calendar needs. */
 export type CalendarSession = {
@@ -35,28 +36,6 @@ export function runUid(runId: string): string {
   return `run-${runId}@fishplate`;
 }
 
-const partFormatters = new Map<string, Intl.DateTimeFormat>();
-
-function localParts(date: Date, timeZone: string) {
-  let formatter = partFormatters.get(timeZone);
-  if (!formatter) {
-    formatter = new Intl.DateTimeFormat('en-GB', {
-      timeZone,
-      year: 'numeric',
-      month: '2-digit',
-      day: '2-digit',
-      hour: '2-digit',
-      minute: '2-digit',
-      second: '2-digit',
-      hourCycle: 'h23',
-    });
-    partFormatters.set(timeZone, formatter);
-  }
-  const parts = formatter.formatToParts(date);
-  const get = (type: string) => Number(parts.find((p) => p.type === type)?.value ?? '0');
-  return { year: get('year'), month: get('month'), day: get('day'), hour: get('hour'), minute: get('minute'), second: get('second') };
-}
-
 /**
  * When a session is in a calendar. A session that starts and ends at midnight in its own zone is
  * an all-day event of DATE values (the local dates, DTEND the day after the last day, exclusive as
@@ -64,8 +43,8 @@ function localParts(date: Date, timeZone: string) {
  * is needed (RFC 5545 3.3.5 form 2) and one that runs past midnight simply ends on the next date.
  */
 export function sessionTimes(session: Pick<CalendarSession, 'startsAt' | 'endsAt' | 'timeZone'>) {
-  const start = localParts(session.startsAt, session.timeZone);
-  const end = localParts(session.endsAt, session.timeZone);
+  const start = wallClockParts(session.startsAt.getTime(), session.timeZone);
+  const end = wallClockParts(session.endsAt.getTime(), session.timeZone);
   const midnight = (p: typeof start) => p.hour === 0 && p.minute === 0 && p.second === 0;
   if (midnight(start) && midnight(end) && session.endsAt > session.startsAt) {
     return {

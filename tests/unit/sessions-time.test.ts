@@ -3,7 +3,7 @@ import { checkPlan, type Plan } from '@/lib/planning';
 import { planNames, withNoun } from '@/lib/planning/names';
 import { clashingRuns, highlightOf } from '@/lib/sessions/highlight';
 import { fastLabelSeconds, fastTextToReal, spanLabel } from '@/lib/sessions/time-labels';
-import { floatingIso, utcToZoned, zonedToUtc } from '@/lib/sessions/zoned-time';
+import { floatingIso, utcToZoned, zonedToUtc } from '@/lib/time-zone';
 
 describe('wall clock in a zone ⇄ UTC', () => {
   it('reads London winter time as UTC and summer time as UTC+1 (IANA tz database, Europe/London)', () => {

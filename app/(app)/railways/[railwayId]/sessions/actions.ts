@@ -15,7 +15,7 @@ import {
 } from '@/db/queries/session-records';
 import { requireMember } from '@/lib/auth';
 import { AppError, conflict, notFound, parseOrThrow, toActionState, type ActionState } from '@/lib/errors';
-import { utcToZoned, zonedToUtc } from '@/lib/sessions/zoned-time';
+import { utcToZoned, zonedToUtc } from '@/lib/time-zone';
 import {
   createSessionSchema,
   duplicateSessionSchema,

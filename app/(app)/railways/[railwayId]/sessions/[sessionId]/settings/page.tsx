@@ -6,7 +6,7 @@ import { SessionForm, StatusForm } from '@/components/sessions/session-form';
 import { Badge, Card } from '@/components/ui/card';
 import { memberForPage } from '@/lib/page-access';
 import { sessionForPage } from '@/lib/sessions/page-session';
-import { utcToZoned } from '@/lib/sessions/zoned-time';
+import { utcToZoned } from '@/lib/time-zone';
 
 export const metadata: Metadata = { title: 'Session settings' };
 

@@ -1,4 +1,5 @@
-// Wall-clock time in an IANA zone ⇄ UTC, with nothing but Intl (no time-zone library is installed).
+// The one time-zone module: wall-clock time in an IANA zone ⇄ UTC, with nothing but Intl (no time-zone
+// library is installed). Hours come back 0–23 (some engines print midnight as 24).
 // Client-safe: the session form and the calendar use it too.
 
 const formatters = new Map<string, Intl.DateTimeFormat>();
