@@ -49,6 +49,13 @@ export default tseslint.config(
     rules: { 'no-restricted-imports': ['error', { patterns: ['@/lib/*', '@/components/*', '@/app/*'] }] },
   },
   {
+    // lib/ holds services, schemas and plumbing; it never reaches up into screens or routes. Server actions
+    // live beside the page that uses them in app/ and call lib/'s services (lib/planning has its own, stricter rule above).
+    files: ['lib/**/*.{ts,tsx}'],
+    ignores: ['lib/planning/**'],
+    rules: { 'no-restricted-imports': ['error', { patterns: ['@/components', '@/components/*', '@/app', '@/app/*'] }] },
+  },
+  {
     // Components never touch the database.
     files: ['components/**/*.{ts,tsx}'],
     rules: { 'no-restricted-imports': ['error', { patterns: ['@/db', '@/db/*', '@/app/**/page', '@/app/**/layout'] }] },
