@@ -1,5 +1,6 @@
 import 'server-only';
-import { toResponse } from '@/lib/errors';
+import { unstable_rethrow } from 'next/navigation';
+import { AppError, toActionState, toResponse, type ActionState } from '@/lib/errors';
 
 type Context<P> = { params: Promise<P> };
 
@@ -15,6 +16,50 @@ export function handler<P = Record<string, never>>(
       return await fn(request, context);
     } catch (error) {
       return toResponse(error);
+    }
+  };
+}
+
+/**
+ * What a server action is called with, in order: `id` a bound id (the railway's, the layout's…),
+ * `state` the previous action state (ignored), `form` the submitted FormData.
+ */
+export type ActionArg = 'id' | 'state' | 'form';
+type ArgOf<K extends ActionArg> = K extends 'id' ? string : K extends 'form' ? FormData : unknown;
+type ArgsOf<K extends readonly ActionArg[]> = { -readonly [I in keyof K]: ArgOf<K[I]> };
+type Failure = Exclude<ActionState, null | { ok: true }>;
+
+const MAX_ID_LENGTH = 200;
+
+function shapeError(message: string): AppError {
+  return new AppError('bad_request', message);
+}
+
+/**
+ * Wraps a server action: anyone can post any arguments to it (the client's bind is not a
+ * boundary), so the arguments' number and kinds are checked before the action runs, a thrown
+ * AppError becomes its failure state (`{ ok: false, status, error, fieldErrors }`), and Next's
+ * redirect and not-found signals pass through. Anything else is a logged 500.
+ */
+export function action<const K extends readonly ActionArg[], R extends ActionState<unknown>>(
+  shape: K,
+  fn: (...args: ArgsOf<K>) => Promise<R>,
+): (...args: ArgsOf<K>) => Promise<R | Failure> {
+  return async (...args) => {
+    try {
+      const received: unknown[] = args;
+      if (received.length !== shape.length) throw shapeError(`This form was sent with ${received.length} values instead of ${shape.length}. Reload the page and try again.`);
+      shape.forEach((kind, i) => {
+        const value = received[i];
+        if (kind === 'id' && (typeof value !== 'string' || value.length === 0 || value.length > MAX_ID_LENGTH)) {
+          throw shapeError('This form names something that does not exist. Reload the page and try again.');
+        }
+        if (kind === 'form' && !(value instanceof FormData)) throw shapeError('This form was sent without its fields. Reload the page and try again.');
+      });
+      return await fn(...args);
+    } catch (error) {
+      unstable_rethrow(error);
+      return toActionState(error);
     }
   };
 }

@@ -30,7 +30,7 @@ function discoverTargets(): string[] {
       }
     }
     if (/^['"]use server['"]/.test(source.trimStart())) {
-      for (const m of source.matchAll(/export\s+async\s+function\s+(\w+)/g)) targets.push(`${rel}#${m[1]}`);
+      for (const m of source.matchAll(/export\s+(?:async\s+function|const)\s+(\w+)/g)) targets.push(`${rel}#${m[1]}`);
     }
   }
   return targets.sort();

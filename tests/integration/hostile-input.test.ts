@@ -4,7 +4,9 @@ import path from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { getDb } from '@/db';
+import type { ActionState } from '@/lib/errors';
 import { resetRateLimits } from '@/lib/rate-limit';
+import { actionStatus } from './authz/shared';
 import { signInAs } from './caller';
 import { HOSTILE_TARGETS } from './hostile';
 import { makeWorld } from './world';
@@ -92,7 +94,7 @@ function discoverMutatingTargets(): string[] {
       }
     }
     if (/^['"]use server['"]/.test(source.trimStart())) {
-      for (const m of source.matchAll(/export\s+async\s+function\s+(\w+)/g)) found.push(`${rel}#${m[1]}`);
+      for (const m of source.matchAll(/export\s+(?:async\s+function|const)\s+(\w+)/g)) found.push(`${rel}#${m[1]}`);
     }
   }
   return found.sort();
@@ -102,6 +104,41 @@ describe('hostile input', () => {
   it('covers every mutating route handler and server action', () => {
     expect(discoverMutatingTargets()).toEqual(HOSTILE_TARGETS.map((t) => t.target).sort());
   });
+
+  // Reliability fault: server actions called with wrong arity, nulls or wrong shapes answered an
+  // action state with status 500 (a TypeError). Anyone can post any arguments to an action, so every
+  // one of them is called here with argument lists that cannot be right: no FormData anywhere (every
+  // action takes one), FormData where an id belongs, objects that merely look like FormData.
+  it('server actions called with wrong shapes (wrong arity, nulls, objects) answer 4xx, never 500', async () => {
+    const world = makeWorld();
+    signInAs(world.host);
+    const actionFiles = [...new Set(discoverMutatingTargets().filter((t) => !t.includes('/route.ts#')).map((t) => t.split('#')[0]!))];
+    const looksLikeForm = { get: () => 'x', getAll: () => ['x'], keys: () => ['name'][Symbol.iterator]() };
+    const element = fc.oneof(
+      fc.constantFrom<unknown>(null, undefined, 0, -1, NaN, true, '', world.railway.id, 'x'.repeat(10_000), {}, [], looksLikeForm, { ok: true }),
+      fc.anything({ maxDepth: 2 }),
+    );
+    const argumentLists = fc.oneof(
+      fc.array(element, { maxLength: 6 }),
+      fc.constantFrom<unknown[]>([new FormData()], Array.from({ length: 5 }, () => new FormData())),
+    );
+    for (const file of actionFiles) {
+      const module = (await import(path.join(ROOT, file))) as Record<string, (...args: unknown[]) => Promise<ActionState>>;
+      for (const [name, run] of Object.entries(module)) {
+        await fc.assert(
+          fc.asyncProperty(argumentLists, async (args) => {
+            resetRateLimits();
+            const before = databaseChecksum();
+            const status = await actionStatus(() => run(...args));
+            expect(status, `${file}#${name}(${args.length} arguments)`).toBeGreaterThanOrEqual(400);
+            expect(status, `${file}#${name}(${args.length} arguments)`).toBeLessThan(500);
+            expect(databaseChecksum()).toBe(before);
+          }),
+          { numRuns: 25 },
+        );
+      }
+    }
+  }, 120_000);
 
   for (const target of HOSTILE_TARGETS) {
     if (target.kind === 'exempt') continue;

@@ -1,7 +1,8 @@
 'use server';
 
 import { headers } from 'next/headers';
-import { parseOrThrow, toActionState, type ActionState } from '@/lib/errors';
+import { parseOrThrow, type ActionState } from '@/lib/errors';
+import { action } from '@/lib/http';
 import { replyByToken as recordReply } from '@/lib/invitations/reply';
 import { claimedInvitationId } from '@/lib/invitations/reply-token';
 import { rateLimit } from '@/lib/rate-limit';
@@ -22,17 +23,13 @@ async function clientAddress(): Promise<string> {
  * Anyone holding a reply link: records accept, maybe or decline without signing in. The link's
  * signature, expiry, railway and once-per-answer nonce are checked in lib/invitations/reply.ts.
  */
-export async function replyByToken(_prev: ActionState<ReplyResult>, formData: FormData): Promise<ActionState<ReplyResult>> {
-  try {
-    const token = String(formData.get('token') ?? '');
-    rateLimit(`rsvp-ip:${await clientAddress()}`, 60, 60_000);
-    rateLimit(`rsvp:${claimedInvitationId(token)}`, 10, 60_000);
-    const input = parseOrThrow(replyByTokenSchema, { token, answer: formData.get('answer') });
-    // No revalidatePath: re-rendering this page would re-read the now spent link and hide the answer;
-    // the host's tracker is rendered fresh on every request and refreshes itself.
-    const result = recordReply(input.token, input.answer);
-    return { ok: true, message: 'Thank you — your answer is recorded.', data: result };
-  } catch (error) {
-    return toActionState(error);
-  }
-}
+export const replyByToken = action(['state', 'form'], async (_prev, formData): Promise<ActionState<ReplyResult>> => {
+  const token = String(formData.get('token') ?? '');
+  rateLimit(`rsvp-ip:${await clientAddress()}`, 60, 60_000);
+  rateLimit(`rsvp:${claimedInvitationId(token)}`, 10, 60_000);
+  const input = parseOrThrow(replyByTokenSchema, { token, answer: formData.get('answer') });
+  // No revalidatePath: re-rendering this page would re-read the now spent link and hide the answer;
+  // the host's tracker is rendered fresh on every request and refreshes itself.
+  const result = recordReply(input.token, input.answer);
+  return { ok: true, message: 'Thank you — your answer is recorded.', data: result };
+});

@@ -14,7 +14,8 @@ import {
   type SessionValues,
 } from '@/db/queries/session-records';
 import { requireMember } from '@/lib/auth';
-import { AppError, conflict, notFound, parseOrThrow, toActionState, type ActionState } from '@/lib/errors';
+import { AppError, conflict, notFound, parseOrThrow, type ActionState } from '@/lib/errors';
+import { action } from '@/lib/http';
 import { utcToZoned, zonedToUtc } from '@/lib/time-zone';
 import {
   createSessionSchema,
@@ -65,85 +66,65 @@ function settingsValues(input: SessionSettingsInput, timeZone: string): SessionV
 }
 
 /** Planners and hosts: a new draft session on one of the railway's layouts; opens its builder. */
-export async function createSession(railwayId: string, _prev: ActionState, formData: FormData): Promise<ActionState> {
-  let target: string;
-  try {
-    const member = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'planner', 'create sessions');
-    const input = parseOrThrow(createSessionSchema, fields(formData, [...SETTINGS_FIELDS, 'layoutId']));
-    const railway = getRailway(member.railwayId);
-    if (!railway) throw notFound('That railway');
-    const layout = getRailwayLayout(member.railwayId, input.layoutId);
-    if (!layout) throw fieldError('layoutId', 'Choose one of this railway’s layouts.');
-    const session = insertSession(member.railwayId, layout.id, railway.timeZone, settingsValues(input, railway.timeZone));
-    recordAudit({ railwayId: member.railwayId, userId: member.user.id, action: 'create', entity: 'session', entityId: session.id });
-    revalidatePath(`/railways/${member.railwayId}`);
-    target = `/railways/${member.railwayId}/sessions/${session.id}`;
-  } catch (error) {
-    return toActionState(error);
-  }
-  redirect(target);
-}
+export const createSession = action(['id', 'state', 'form'], async (railwayId, _prev, formData): Promise<ActionState> => {
+  const member = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'planner', 'create sessions');
+  const input = parseOrThrow(createSessionSchema, fields(formData, [...SETTINGS_FIELDS, 'layoutId']));
+  const railway = getRailway(member.railwayId);
+  if (!railway) throw notFound('That railway');
+  const layout = getRailwayLayout(member.railwayId, input.layoutId);
+  if (!layout) throw fieldError('layoutId', 'Choose one of this railway’s layouts.');
+  const session = insertSession(member.railwayId, layout.id, railway.timeZone, settingsValues(input, railway.timeZone));
+  recordAudit({ railwayId: member.railwayId, userId: member.user.id, action: 'create', entity: 'session', entityId: session.id });
+  revalidatePath(`/railways/${member.railwayId}`);
+  redirect(`/railways/${member.railwayId}/sessions/${session.id}`);
+});
 
 /** Planners and hosts: saves a session's settings at the version they saw (409 when stale). */
-export async function updateSession(railwayId: string, _prev: ActionState, formData: FormData): Promise<ActionState> {
-  try {
-    const member = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'planner', 'change sessions');
-    const input = parseOrThrow(updateSessionSchema, fields(formData, [...SETTINGS_FIELDS, 'sessionId', 'version']));
-    const session = getSessionById(input.sessionId);
-    if (!session || session.railwayId !== member.railwayId) throw notFound('That session');
-    const saved = updateSessionSettings(member.railwayId, session.id, input.version, settingsValues(input, session.timeZone));
-    if (!saved) throw conflict(getSessionById(session.id));
-    recordAudit({ railwayId: member.railwayId, userId: member.user.id, action: 'update', entity: 'session', entityId: session.id, detail: { sequence: saved.sequence } });
-    revalidatePath(`/railways/${member.railwayId}/sessions/${session.id}`);
-    return { ok: true, message: saved.sequence !== session.sequence ? 'Saved. The date or times changed, so invitations can be sent again as an update.' : 'Saved.' };
-  } catch (error) {
-    return toActionState(error);
-  }
-}
+export const updateSession = action(['id', 'state', 'form'], async (railwayId, _prev, formData): Promise<ActionState> => {
+  const member = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'planner', 'change sessions');
+  const input = parseOrThrow(updateSessionSchema, fields(formData, [...SETTINGS_FIELDS, 'sessionId', 'version']));
+  const session = getSessionById(input.sessionId);
+  if (!session || session.railwayId !== member.railwayId) throw notFound('That session');
+  const saved = updateSessionSettings(member.railwayId, session.id, input.version, settingsValues(input, session.timeZone));
+  if (!saved) throw conflict(getSessionById(session.id));
+  recordAudit({ railwayId: member.railwayId, userId: member.user.id, action: 'update', entity: 'session', entityId: session.id, detail: { sequence: saved.sequence } });
+  revalidatePath(`/railways/${member.railwayId}/sessions/${session.id}`);
+  return { ok: true, message: saved.sequence !== session.sequence ? 'Saved. The date or times changed, so invitations can be sent again as an update.' : 'Saved.' };
+});
 
 /** Planners and hosts: draft → published → cancelled (a cancelled session may be reopened as a draft). */
-export async function setSessionStatus(railwayId: string, _prev: ActionState, formData: FormData): Promise<ActionState> {
-  try {
-    const member = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'planner', 'publish or cancel sessions');
-    const input = parseOrThrow(sessionStatusSchema, fields(formData, ['sessionId', 'version', 'status']));
-    const session = getSessionById(input.sessionId);
-    if (!session || session.railwayId !== member.railwayId) throw notFound('That session');
-    if (!STATUS_MOVES[session.status].includes(input.status)) {
-      throw fieldError('status', `A ${session.status} session cannot become ${input.status}.`);
-    }
-    const saved = updateSessionStatus(member.railwayId, session.id, input.version, input.status);
-    if (!saved) throw conflict(getSessionById(session.id));
-    recordAudit({ railwayId: member.railwayId, userId: member.user.id, action: `status-${input.status}`, entity: 'session', entityId: session.id, detail: { sequence: saved.sequence } });
-    revalidatePath(`/railways/${member.railwayId}/sessions/${session.id}`);
-    revalidatePath(`/railways/${member.railwayId}/sessions`);
-    const said = { draft: 'Reopened as a draft.', published: 'Published: invited operators can now see it.', cancelled: 'Cancelled.' } as const;
-    return { ok: true, message: said[input.status] };
-  } catch (error) {
-    return toActionState(error);
+export const setSessionStatus = action(['id', 'state', 'form'], async (railwayId, _prev, formData): Promise<ActionState> => {
+  const member = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'planner', 'publish or cancel sessions');
+  const input = parseOrThrow(sessionStatusSchema, fields(formData, ['sessionId', 'version', 'status']));
+  const session = getSessionById(input.sessionId);
+  if (!session || session.railwayId !== member.railwayId) throw notFound('That session');
+  if (!STATUS_MOVES[session.status].includes(input.status)) {
+    throw fieldError('status', `A ${session.status} session cannot become ${input.status}.`);
   }
-}
+  const saved = updateSessionStatus(member.railwayId, session.id, input.version, input.status);
+  if (!saved) throw conflict(getSessionById(session.id));
+  recordAudit({ railwayId: member.railwayId, userId: member.user.id, action: `status-${input.status}`, entity: 'session', entityId: session.id, detail: { sequence: saved.sequence } });
+  revalidatePath(`/railways/${member.railwayId}/sessions/${session.id}`);
+  revalidatePath(`/railways/${member.railwayId}/sessions`);
+  const said = { draft: 'Reopened as a draft.', published: 'Published: invited operators can now see it.', cancelled: 'Cancelled.' } as const;
+  return { ok: true, message: said[input.status] };
+});
 
 /** Planners and hosts: copies a session (settings, runs and steps) to a new date as a draft, and opens it. */
-export async function duplicateSession(railwayId: string, _prev: ActionState, formData: FormData): Promise<ActionState> {
-  let target: string;
-  try {
-    const member = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'planner', 'duplicate sessions');
-    const input = parseOrThrow(duplicateSessionSchema, {
-      sessionId: formData.get('sessionId') ?? undefined,
-      date: formData.get('date') ?? undefined,
-      title: formData.get('title') || undefined,
-    });
-    const source = getSessionById(input.sessionId);
-    if (!source || source.railwayId !== member.railwayId) throw notFound('That session');
-    const { time } = utcToZoned(source.startsAt, source.timeZone);
-    const newStart = zonedToUtc(input.date, time, source.timeZone);
-    if (!newStart) throw fieldError('date', `${time} does not exist on ${input.date} in ${source.timeZone}.`);
-    const copy = copySession(source, newStart.getTime() - source.startsAt.getTime(), input.title ?? source.title);
-    recordAudit({ railwayId: member.railwayId, userId: member.user.id, action: 'duplicate', entity: 'session', entityId: copy.id, detail: { from: source.id } });
-    revalidatePath(`/railways/${member.railwayId}/sessions`);
-    target = `/railways/${member.railwayId}/sessions/${copy.id}`;
-  } catch (error) {
-    return toActionState(error);
-  }
-  redirect(target);
-}
+export const duplicateSession = action(['id', 'state', 'form'], async (railwayId, _prev, formData): Promise<ActionState> => {
+  const member = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'planner', 'duplicate sessions');
+  const input = parseOrThrow(duplicateSessionSchema, {
+    sessionId: formData.get('sessionId') ?? undefined,
+    date: formData.get('date') ?? undefined,
+    title: formData.get('title') || undefined,
+  });
+  const source = getSessionById(input.sessionId);
+  if (!source || source.railwayId !== member.railwayId) throw notFound('That session');
+  const { time } = utcToZoned(source.startsAt, source.timeZone);
+  const newStart = zonedToUtc(input.date, time, source.timeZone);
+  if (!newStart) throw fieldError('date', `${time} does not exist on ${input.date} in ${source.timeZone}.`);
+  const copy = copySession(source, newStart.getTime() - source.startsAt.getTime(), input.title ?? source.title);
+  recordAudit({ railwayId: member.railwayId, userId: member.user.id, action: 'duplicate', entity: 'session', entityId: copy.id, detail: { from: source.id } });
+  revalidatePath(`/railways/${member.railwayId}/sessions`);
+  redirect(`/railways/${member.railwayId}/sessions/${copy.id}`);
+});

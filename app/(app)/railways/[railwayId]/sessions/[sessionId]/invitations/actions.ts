@@ -2,7 +2,8 @@
 
 import { revalidatePath } from 'next/cache';
 import { requireMember } from '@/lib/auth';
-import { parseOrThrow, toActionState, type ActionState } from '@/lib/errors';
+import { parseOrThrow, type ActionState } from '@/lib/errors';
+import { action } from '@/lib/http';
 import { inviteToSession, resendInvitation as resendOne, sendNotices as sendAll } from '@/lib/invitations/send';
 import { inviteCrewSchema, railwayIdSchema, resendSchema, sendNoticesSchema, sessionIdSchema } from '@/lib/validations/invitation';
 
@@ -13,55 +14,43 @@ function trackerPath(railwayId: string, sessionId: string) {
 const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
 
 /** Host only: invites picked members and typed guest addresses, and queues their e-mails. */
-export async function inviteCrew(railwayId: string, sessionId: string, _prev: ActionState, formData: FormData): Promise<ActionState> {
-  try {
-    const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'send invitations');
-    const id = parseOrThrow(sessionIdSchema, sessionId);
-    const input = parseOrThrow(inviteCrewSchema, {
-      userIds: formData.getAll('userIds').map(String),
-      guestEmails: String(formData.get('guestEmails') ?? ''),
-    });
-    const result = inviteToSession({ railwayId: host.railwayId, sessionId: id, host: host.user, ...input });
-    revalidatePath(trackerPath(host.railwayId, id));
-    const people = (n: number) => (n === 1 ? '1 person' : `${n} people`);
-    const already = result.alreadyInvited ? ` ${people(result.alreadyInvited)} already invited left as they were.` : '';
-    return { ok: true, message: `Invited ${people(result.invited)}; ${plural(result.queued, 'e-mail')} queued.${already}` };
-  } catch (error) {
-    return toActionState(error);
-  }
-}
+export const inviteCrew = action(['id', 'id', 'state', 'form'], async (railwayId, sessionId, _prev, formData): Promise<ActionState> => {
+  const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'send invitations');
+  const id = parseOrThrow(sessionIdSchema, sessionId);
+  const input = parseOrThrow(inviteCrewSchema, {
+    userIds: formData.getAll('userIds').map(String),
+    guestEmails: String(formData.get('guestEmails') ?? ''),
+  });
+  const result = inviteToSession({ railwayId: host.railwayId, sessionId: id, host: host.user, ...input });
+  revalidatePath(trackerPath(host.railwayId, id));
+  const people = (n: number) => (n === 1 ? '1 person' : `${n} people`);
+  const already = result.alreadyInvited ? ` ${people(result.alreadyInvited)} already invited left as they were.` : '';
+  return { ok: true, message: `Invited ${people(result.invited)}; ${plural(result.queued, 'e-mail')} queued.${already}` };
+});
 
 /** Host only: sends invitations not sent yet, an update after a change, or the cancellation. */
-export async function sendNotices(railwayId: string, sessionId: string, _prev: ActionState, formData: FormData): Promise<ActionState> {
-  try {
-    const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'send invitations');
-    const id = parseOrThrow(sessionIdSchema, sessionId);
-    const { kind } = parseOrThrow(sendNoticesSchema, { kind: formData.get('kind') });
-    const result = sendAll({ railwayId: host.railwayId, sessionId: id, host: host.user, kind });
-    revalidatePath(trackerPath(host.railwayId, id));
-    const what = kind === 'cancel' ? 'cancellation' : kind === 'update' ? 'update' : 'invitation';
-    return {
-      ok: true,
-      message:
-        result.queued === 0
-          ? `Nothing to send: every ${what} was already queued.`
-          : `${plural(result.queued, what)} queued${result.skipped ? ` (${result.skipped} already sent before)` : ''}.`,
-    };
-  } catch (error) {
-    return toActionState(error);
-  }
-}
+export const sendNotices = action(['id', 'id', 'state', 'form'], async (railwayId, sessionId, _prev, formData): Promise<ActionState> => {
+  const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'send invitations');
+  const id = parseOrThrow(sessionIdSchema, sessionId);
+  const { kind } = parseOrThrow(sendNoticesSchema, { kind: formData.get('kind') });
+  const result = sendAll({ railwayId: host.railwayId, sessionId: id, host: host.user, kind });
+  revalidatePath(trackerPath(host.railwayId, id));
+  const what = kind === 'cancel' ? 'cancellation' : kind === 'update' ? 'update' : 'invitation';
+  return {
+    ok: true,
+    message:
+      result.queued === 0
+        ? `Nothing to send: every ${what} was already queued.`
+        : `${plural(result.queued, what)} queued${result.skipped ? ` (${result.skipped} already sent before)` : ''}.`,
+  };
+});
 
 /** Host only: sends one invitation again (a failed one is retried as it was). */
-export async function resendInvitation(railwayId: string, sessionId: string, _prev: ActionState, formData: FormData): Promise<ActionState> {
-  try {
-    const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'send invitations');
-    const id = parseOrThrow(sessionIdSchema, sessionId);
-    const { invitationId } = parseOrThrow(resendSchema, { invitationId: formData.get('invitationId') });
-    const result = resendOne({ railwayId: host.railwayId, sessionId: id, host: host.user, invitationId });
-    revalidatePath(trackerPath(host.railwayId, id));
-    return { ok: true, message: result.requeued ? 'Retrying the failed e-mail now.' : result.queued ? 'Sent again.' : 'Already queued.' };
-  } catch (error) {
-    return toActionState(error);
-  }
-}
+export const resendInvitation = action(['id', 'id', 'state', 'form'], async (railwayId, sessionId, _prev, formData): Promise<ActionState> => {
+  const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'send invitations');
+  const id = parseOrThrow(sessionIdSchema, sessionId);
+  const { invitationId } = parseOrThrow(resendSchema, { invitationId: formData.get('invitationId') });
+  const result = resendOne({ railwayId: host.railwayId, sessionId: id, host: host.user, invitationId });
+  revalidatePath(trackerPath(host.railwayId, id));
+  return { ok: true, message: result.requeued ? 'Retrying the failed e-mail now.' : result.queued ? 'Sent again.' : 'Already queued.' };
+});
