@@ -123,8 +123,8 @@ describe('hostile input', () => {
       fc.constantFrom<unknown[]>([new FormData()], Array.from({ length: 5 }, () => new FormData())),
     );
     for (const file of actionFiles) {
-      const module = (await import(path.join(ROOT, file))) as Record<string, (...args: unknown[]) => Promise<ActionState>>;
-      for (const [name, run] of Object.entries(module)) {
+      const actions = (await import(path.join(ROOT, file))) as Record<string, (...args: unknown[]) => Promise<ActionState>>;
+      for (const [name, run] of Object.entries(actions)) {
         await fc.assert(
           fc.asyncProperty(argumentLists, async (args) => {
             resetRateLimits();
