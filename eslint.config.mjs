@@ -34,8 +34,8 @@ export default tseslint.config(
     rules: { 'react-hooks/rules-of-hooks': 'off' },
   },
   {
-    // The planning engine stays pure: no React, no database, no Next.js, no Node built-ins.
-    files: ['lib/planning/**/*.ts'],
+    // The planning engine and the control schedule stay pure: no React, no database, no Next.js, no Node built-ins.
+    files: ['lib/planning/**/*.ts', 'lib/control/**/*.ts'],
     rules: {
       'no-restricted-imports': [
         'error',

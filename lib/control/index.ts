@@ -1,0 +1,32 @@
+export { BOARDS, BOARD_KINDS, findPin, pinTitle } from './boards';
+export type { BoardKind, BoardPin, BoardSpec, AvrPwm } from './boards';
+export {
+  wiringSheetSchema,
+  boardWiringSchema,
+  cabWiringSchema,
+  blockWiringSchema,
+  controlTimingSchema,
+  canonicalPin,
+  DEFAULT_TIMING,
+} from './wiring';
+export type { WiringSheet, BoardWiring, CabWiring, BlockWiring, ControlTiming } from './wiring';
+export {
+  compileSchedule,
+  checkInterlocks,
+  compareEntries,
+  pwmAt,
+  speedFromSteps,
+  travelDirections,
+  SCHEDULE_FORMAT,
+  SCHEDULE_VERSION,
+} from './schedule';
+export type {
+  ControlSchedule,
+  ControlEntry,
+  ControlFinding,
+  ControlFindingKind,
+  ControlInput,
+  Direction,
+  Polarity,
+  ScheduledRun,
+} from './schedule';
