@@ -10,3 +10,13 @@ export const RSVP_STATES = ['needs-action', 'accepted', 'tentative', 'declined']
 export type RsvpState = (typeof RSVP_STATES)[number];
 
 export const OUTBOX_STATUSES = ['queued', 'sending', 'sent', 'failed'] as const;
+
+export const CLOCK_ACTIONS = ['start', 'pause', 'resume', 'set'] as const;
+export type ClockAction = (typeof CLOCK_ACTIONS)[number];
+
+export const REPORT_KINDS = ['departed', 'arrived', 'stopped'] as const;
+export type ReportKind = (typeof REPORT_KINDS)[number];
+
+/** Why a train stopped and needs help. */
+export const STOP_REASONS = ['stalled', 'derailed', 'blocked'] as const;
+export type StopReason = (typeof STOP_REASONS)[number];

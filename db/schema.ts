@@ -8,7 +8,7 @@ import {
   uniqueIndex,
   type AnySQLiteColumn,
 } from 'drizzle-orm/sqlite-core';
-import { OUTBOX_STATUSES, RSVP_STATES, ROLES, SESSION_STATUSES } from './enums';
+import { CLOCK_ACTIONS, OUTBOX_STATUSES, REPORT_KINDS, RSVP_STATES, ROLES, SESSION_STATUSES, STOP_REASONS } from './enums';
 
 /** Times are stored as Unix milliseconds (UTC) unless a column says otherwise. */
 const id = () =>
@@ -277,6 +277,10 @@ export const sessions = sqliteTable(
     status: text('status', { enum: SESSION_STATUSES }).notNull().default('draft'),
     /** iCalendar SEQUENCE: raised when date, start, end or status change (RFC 5546 2.1.4). */
     sequence: integer('sequence').notNull().default(0),
+    /** Least real seconds a train, cab or operator stands between two runs when delays propagate. */
+    standS: real('stand_s').notNull().default(60),
+    /** A run departing within this many fast minutes of its time counts as punctual in the report. */
+    punctualFastMin: real('punctual_fast_min').notNull().default(3),
     version: version(),
     createdAt: createdAt(),
   },
@@ -370,6 +374,86 @@ export const invitations = sqliteTable(
 );
 
 
+// Columns the session day's tables share: the session and run they belong to, who acted.
+const sessionRef = () =>
+  text('session_id')
+    .notNull()
+    .references(() => sessions.id, { onDelete: 'cascade' });
+const runRef = () =>
+  text('run_id')
+    .notNull()
+    .references(() => runs.id, { onDelete: 'cascade' });
+const byUser = () => text('by_user_id').references(() => users.id, { onDelete: 'set null' });
+
+/**
+ * The shared fast clock's record: every start, pause, resume and set, in order. The clock at any
+ * moment is folded from these (readSessionClock), so a reload or a server restart resumes it.
+ */
+export const clockEvents = sqliteTable(
+  'clock_events',
+  {
+    id: id(),
+    sessionId: sessionRef(),
+    action: text('action', { enum: CLOCK_ACTIONS }).notNull(),
+    /** Server wall time of the action. */
+    at: integer('at', { mode: 'timestamp_ms' }).notNull(),
+    /** Session real seconds the clock reads from (start and set); null for pause and resume. */
+    sessionS: real('session_s'),
+    byUserId: byUser(),
+  },
+  (t) => [index('clock_events_session_idx').on(t.sessionId, t.at)],
+);
+
+/** What happened to a run during the session: departed, arrived, stopped. A correction is a new row. */
+export const runReports = sqliteTable(
+  'run_reports',
+  {
+    id: id(),
+    sessionId: sessionRef(),
+    runId: runRef(),
+    kind: text('kind', { enum: REPORT_KINDS }).notNull(),
+    reason: text('reason', { enum: STOP_REASONS }),
+    /** Session real seconds on the shared clock when it happened (fast time = fastStart + this × ratio). */
+    sessionS: real('session_s').notNull(),
+    /** Real wall time the report was made. */
+    reportedAt: integer('reported_at', { mode: 'timestamp_ms' }).notNull(),
+    /** A correction of an earlier report of the same kind (its time typed, or withdrawn). */
+    correction: integer('correction', { mode: 'boolean' }).notNull().default(false),
+    withdrawn: integer('withdrawn', { mode: 'boolean' }).notNull().default(false),
+    byUserId: byUser(),
+  },
+  (t) => [index('run_reports_session_idx').on(t.sessionId, t.reportedAt)],
+);
+
+/** A repair the host applied during the session: extra real seconds on a run's planned times (never overwrites them). */
+export const runRepairs = sqliteTable(
+  'run_repairs',
+  {
+    id: id(),
+    sessionId: sessionRef(),
+    runId: runRef(),
+    delayS: real('delay_s').notNull(),
+    appliedAt: integer('applied_at', { mode: 'timestamp_ms' }).notNull(),
+    byUserId: byUser(),
+  },
+  (t) => [index('run_repairs_session_idx').on(t.sessionId)],
+);
+
+/** The session day's event log: one numbered row per change, so a reconnecting screen catches up (Last-Event-ID). */
+export const liveEvents = sqliteTable(
+  'live_events',
+  {
+    id: id(),
+    sessionId: sessionRef(),
+    /** 1, 2, 3, … per session, without gaps. */
+    seq: integer('seq').notNull(),
+    type: text('type').notNull(),
+    summary: text('summary').notNull(),
+    at: integer('at', { mode: 'timestamp_ms' }).notNull(),
+  },
+  (t) => [uniqueIndex('live_events_session_seq_idx').on(t.sessionId, t.seq)],
+);
+
 /** Every e-mail is written here first; a worker sends it, retrying with backoff. */
 export const outbox = sqliteTable(
   'outbox',
@@ -442,5 +526,9 @@ export type Layout = typeof layouts.$inferSelect;
 export type Block = typeof blocks.$inferSelect;
 export type Session = typeof sessions.$inferSelect;
 export type Run = typeof runs.$inferSelect;
+export type ClockEvent = typeof clockEvents.$inferSelect;
+export type RunReport = typeof runReports.$inferSelect;
+export type RunRepair = typeof runRepairs.$inferSelect;
+export type LiveEvent = typeof liveEvents.$inferSelect;
 export type OutboxMessage = typeof outbox.$inferSelect;
 export type CaughtMail = typeof caughtMail.$inferSelect;

@@ -15,6 +15,11 @@ export interface RetimeOptions {
    * whichever needs less delay in total, so it never needs more than the baseline.
    */
   strategy?: 'baseline' | 'best';
+  /**
+   * Runs that must not move (during a session: those already under way or done). They are placed
+   * first, at delay 0, and every other run is fitted around them.
+   */
+  fixed?: ReadonlySet<string>;
 }
 
 /**
@@ -37,14 +42,17 @@ export interface RetimeOptions {
 export function suggestRetime(plan: Plan, options: RetimeOptions = {}): Retime[] {
   const index = indexPlan(plan);
   const runs = plan.runs;
+  const fixed = new Uint8Array(runs.length);
+  if (options.fixed) runs.forEach((run, r) => (fixed[r] = options.fixed!.has(run.id) ? 1 : 0));
+  const fixedFirst = (order: number[]) => [...order.filter((r) => fixed[r]), ...order.filter((r) => !fixed[r])];
   const byDeparture = runs.map((_, r) => r);
   byDeparture.sort((a, b) => compareRuns(plan, a, b));
-  let delays = placeGreedily(plan, index, byDeparture);
+  let delays = placeGreedily(plan, index, fixedFirst(byDeparture), fixed);
 
   if ((options.strategy ?? 'best') === 'best' && runs.length > 1) {
     const byArrival = runs.map((_, r) => r);
     byArrival.sort((a, b) => runs[a]!.arriveS - runs[b]!.arriveS || compareRuns(plan, a, b));
-    const other = placeGreedily(plan, index, keepTrainOrder(index, byDeparture, byArrival));
+    const other = placeGreedily(plan, index, fixedFirst(keepTrainOrder(index, byDeparture, byArrival)), fixed);
     if (total(other) < total(delays)) delays = other;
   }
 
@@ -112,7 +120,7 @@ function keepTrainOrder(index: PlanIndex, trainOrder: readonly number[], order: 
 }
 
 /** The greedy: runs in the given order, each at its smallest clash-free delay. */
-function placeGreedily(plan: Plan, index: PlanIndex, order: readonly number[]): Float64Array {
+function placeGreedily(plan: Plan, index: PlanIndex, order: readonly number[], fixed: Uint8Array): Float64Array {
   const headway = plan.rules.headwayS;
   const runs = plan.runs;
   const blockTaken = new Map<number, IntervalUnion>();
@@ -142,12 +150,12 @@ function placeGreedily(plan: Plan, index: PlanIndex, order: readonly number[]): 
     // The train cannot leave before its earlier runs have arrived.
     let delay = 0;
     const freeAt = trainFreeAt.get(train);
-    if (freeAt !== undefined && depart < freeAt) delay = shiftReaching(depart, freeAt);
+    if (!fixed[r] && freeAt !== undefined && depart < freeAt) delay = shiftReaching(depart, freeAt);
 
     // Jump past whatever the run meets until a full pass meets nothing. Every jump lands at the
     // end of a placed interval, so there are finitely many, and the comparisons are the ones
     // checkPlan makes on the shifted plan.
-    for (let moved = true; moved && Number.isFinite(delay); ) {
+    for (let moved = !fixed[r]; moved && Number.isFinite(delay); ) {
       moved = false;
       for (const set of [cabSet, operatorSet]) {
         if (set === undefined) continue;
