@@ -12,7 +12,7 @@ import {
   updateDriver,
   updateSupply,
 } from '@/app/(app)/railways/[railwayId]/layouts/[layoutId]/actions';
-import { DRIVER_PRESETS, findDriverPreset } from '@/lib/planning';
+import { DRIVER_PRESETS, findDriverPreset, presetDropVolts } from '@/lib/planning';
 import { cabEditSchema, cabSchema, driverEditSchema, driverSchema, supplyEditSchema, supplySchema } from '@/lib/validations/layout';
 import type { BudgetInput } from '@/lib/layouts/power-budget';
 import { EntityTable, type EntityColumn } from './entity-table';
@@ -96,7 +96,7 @@ export function DriversTable({ railwayId, layoutId, canEdit, drivers, supplies }
         set('channelAmps', String(preset.channelAmps));
         set('channelPeakAmps', String(preset.channelPeakAmps));
         set('totalAmps', preset.totalAmps === null ? '' : String(preset.totalAmps));
-        set('dropVolts', String(preset.dropVolts));
+        set('dropVolts', String(presetDropVolts(preset)));
         if (!form.getValues('name')) set('name', preset.label);
       }}
       create={(fd) => createDriver(railwayId, layoutId, null, fd)}

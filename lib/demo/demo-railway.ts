@@ -2,7 +2,7 @@ import bcrypt from 'bcryptjs';
 import { eq } from 'drizzle-orm';
 import type { Db } from '@/db';
 import * as t from '@/db/schema';
-import { DRIVER_PRESETS, findRoute, timeRun, type DriverPreset } from '@/lib/planning';
+import { DRIVER_PRESETS, findRoute, presetDropVolts, timeRun, type DriverPreset } from '@/lib/planning';
 
 // The demo railway is a scenario of our own invention: the club, its places and its people are
 // made up. Currents are the common-practice figures of the reference notes (an HO can motor runs
@@ -255,7 +255,7 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
           channelAmps: p.channelAmps,
           channelPeakAmps: p.channelPeakAmps,
           totalAmps: p.totalAmps,
-          dropVolts: p.dropVolts,
+          dropVolts: presetDropVolts(p),
         })
         .returning({ id: t.drivers.id })
         .get().id;

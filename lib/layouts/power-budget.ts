@@ -2,6 +2,7 @@ import {
   defaultRules,
   dutyFor,
   findDriverPreset,
+  presetDropVolts,
   gaugeForScale,
   nominalTrackVolts,
   trackVoltsOf,
@@ -188,7 +189,7 @@ export function powerBudget(input: BudgetInput): PowerBudget {
     const edited =
       preset !== undefined &&
       !(preset.channels === d.channels && preset.channelAmps === d.channelAmps && preset.channelPeakAmps === d.channelPeakAmps &&
-        preset.totalAmps === d.totalAmps && preset.dropVolts === d.dropVolts);
+        preset.totalAmps === d.totalAmps && presetDropVolts(preset) === d.dropVolts);
     const channelRunning = heaviest(loads, Math.min(1, cabCount), 'runningAmps');
     const channelSurge = heaviest(loads, Math.min(1, cabCount), 'surgeAmps');
     const worstRunning = heaviest(loads, cabCount, 'runningAmps');

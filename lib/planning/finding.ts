@@ -10,10 +10,12 @@ export type FindingKind =
   | 'channel-overload'
   | 'channel-peak-overload'
   | 'driver-overload'
+  | 'driver-heat'
   | 'supply-overload'
   | 'supply-derate'
   | 'track-voltage-high'
-  | 'track-voltage-low';
+  | 'track-voltage-low'
+  | 'speed-not-reachable';
 
 /** Every finding kind, in the order findings are listed when they start at the same time. */
 export const FINDING_KINDS: readonly FindingKind[] = [
@@ -27,10 +29,12 @@ export const FINDING_KINDS: readonly FindingKind[] = [
   'channel-overload',
   'channel-peak-overload',
   'driver-overload',
+  'driver-heat',
   'supply-overload',
   'supply-derate',
   'track-voltage-high',
   'track-voltage-low',
+  'speed-not-reachable',
 ];
 
 export interface Finding {
@@ -46,6 +50,10 @@ export interface Finding {
   peakAmps?: number;
   /** Power findings: the limit it exceeds, A. */
   limitAmps?: number;
+  /** `driver-heat`: the highest dissipation in the interval (greatest drop), W. */
+  peakWatts?: number;
+  /** `driver-heat`: the package rating, W. */
+  limitWatts?: number;
 }
 
 const kindRank = new Map(FINDING_KINDS.map((kind, i) => [kind, i]));

@@ -13,6 +13,7 @@ export {
   operatorSchema,
   runSchema,
   stepSchema,
+  dropLineSchema,
   formatPlanIssues,
   formatIssuePath,
   HH_MM_PATTERN,
@@ -38,15 +39,17 @@ export type { PlanCheck } from './check';
 export { FINDING_KINDS, compareFindings } from './finding';
 export type { Finding, FindingKind } from './finding';
 export { buildLoadProfile, runCurrents } from './load';
-export type { LoadPoint, LoadSeries, LoadProfile } from './load';
-export { nominalTrackVolts, trackVoltsOf } from './voltage';
+export type { LoadPoint, LoadSeries, LoadProfile, HeatPoint, HeatSeries } from './load';
+export { nominalTrackVolts, trackVoltsOf, plannedSpeedKmh } from './voltage';
+export { dropAt, channelWatts, driverDrop, surgeLimit, startAmps, scaleSpeedKmh } from './electrics';
+export type { DropLine, DriverDrop } from './electrics';
 export { suggestRetime, applyRetime } from './retime';
 export type { Retime, RetimeOptions } from './retime';
 export { timeRun, modelSpeedMmPerS } from './timing';
 export type { TimeRunInput, TimedRun } from './timing';
 export { findRoute } from './route';
 export type { TrackGraph } from './route';
-export { dutyFor } from './duty';
+export { dutyFor, pwm8Of } from './duty';
 export type { DutyInput, DutyResult } from './duty';
 export { realToFast, fastToReal, formatFast, parseFastTime, formatTimeOfDay, formatSessionTime } from './clock';
 export { readSessionClock, clockActionRefusal } from './session-clock';
@@ -55,7 +58,7 @@ export { propagateDelays } from './propagate';
 export type { RunActuals, PropagateInput, PredictedRun, PredictedStatus, Propagation } from './propagate';
 export { SCALES, findScale, gaugeForScale } from './scales';
 export type { ScaleEntry } from './scales';
-export { DRIVER_PRESETS, findDriverPreset, driverFromPreset } from './presets';
+export { DRIVER_PRESETS, findDriverPreset, driverFromPreset, presetDropVolts } from './presets';
 export type { DriverPreset } from './presets';
 export { defaultRules, AMPS_TOLERANCE, VOLTS_TOLERANCE } from './rules';
 export { indexPlan } from './plan-index';

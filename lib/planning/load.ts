@@ -1,4 +1,5 @@
 import { formatSessionTime } from './clock';
+import { channelWatts, driverDrop, startAmps, surgeLimit, type DropLine } from './electrics';
 import type { Finding, FindingKind } from './finding';
 import { sortByKey } from './intervals';
 import { withNoun, type PlanNames } from './names';
@@ -8,10 +9,26 @@ import type { Plan } from './schema';
 
 /**
  * One breakpoint of a load step function: from `tS` until the next breakpoint the load is
- * `runningAmps` (running current throughout each movement) and `peakAmps` (stall current during
- * each movement's first surgeS seconds).
+ * `runningAmps` (running current throughout each movement) and `peakAmps` (start current during
+ * each movement's first surgeS seconds; see startAmps).
  */
 export type LoadPoint = [tS: number, runningAmps: number, peakAmps: number];
+
+/**
+ * One breakpoint of a driver's heat: from `tS` the bridge dissipates between `lowWatts` (its minimum
+ * drop line) and `highWatts` (its maximum drop line), summed over its channels' running currents.
+ */
+export type HeatPoint = [tS: number, lowWatts: number, highWatts: number];
+
+/** A driver's dissipation over the session against its package rating. */
+export interface HeatSeries {
+  /** The package rating, W; null when none is entered (heat shown, not checked). */
+  limitWatts: number | null;
+  /** Breakpoints sorted by tS, no two at the same time; empty when no channel carries current. */
+  points: HeatPoint[];
+  maxLowWatts: number;
+  maxHighWatts: number;
+}
 
 /** The load on one supply, driver or cab over the session, ready for a chart. */
 export interface LoadSeries {
@@ -21,15 +38,23 @@ export interface LoadSeries {
   limitAmps: number | null;
   /** What the running load is compared with: channelAmps for a cab, amps × derate for a supply. */
   runningLimitAmps: number | null;
-  /** What the peak load is compared with: channelPeakAmps, totalAmps, or a supply's amps. */
+  /**
+   * What the peak load is compared with: a cab's channelPeakAmps while the start-up surge fits in
+   * its pulse width, else its channelAmps (see surgeLimit); a driver's totalAmps; a supply's amps.
+   */
   peakLimitAmps: number | null;
+  /** Cabs: the peak rating does not cover the surge, so peakLimitAmps is the continuous rating. */
+  surgeJudgedContinuous: boolean;
   /**
    * Breakpoints sorted by tS, no two at the same time. The load is 0 before the first and from the
    * last on; empty when nothing draws current through it.
    */
   points: LoadPoint[];
+  /** The highest loads over the points (events at one instant count once, as their outcome). */
   maxRunningAmps: number;
   maxPeakAmps: number;
+  /** Drivers only: the heat in the bridge; null for cabs and supplies. */
+  heat: HeatSeries | null;
 }
 
 /** Loads of every supply, driver and cab, in plan order. */
@@ -39,23 +64,24 @@ export interface LoadProfile {
   cabs: LoadSeries[];
 }
 
-/** A run's current: running throughout its movement, stall for the first surgeS seconds. */
+/**
+ * A run's current: running throughout its movement, its start current (startAmps, summed over the
+ * train's locos, plus lighting) for the first surgeS seconds.
+ */
 export function runCurrents(plan: Plan): { runningAmps: Float64Array; stallAmps: Float64Array } {
   const locoOf = new Map<string, Plan['locos'][number]>();
   for (const loco of plan.locos) if (!locoOf.has(loco.id)) locoOf.set(loco.id, loco);
-  const trainOf = new Map<string, Plan['trains'][number]>();
-  for (const train of plan.trains) if (!trainOf.has(train.id)) trainOf.set(train.id, train);
   const totals = new Map<string, [number, number]>();
   for (const train of plan.trains) {
     let running = train.lightingAmps;
-    let stall = train.lightingAmps;
+    let start = train.lightingAmps;
     for (const locoId of train.locoIds) {
       const loco = locoOf.get(locoId);
       if (loco === undefined) continue;
       running += loco.runningAmps;
-      stall += loco.stallAmps;
+      start += startAmps(loco);
     }
-    if (!totals.has(train.id)) totals.set(train.id, [running, stall]);
+    if (!totals.has(train.id)) totals.set(train.id, [running, start]);
   }
   const runningAmps = new Float64Array(plan.runs.length);
   const stallAmps = new Float64Array(plan.runs.length);
@@ -76,35 +102,52 @@ interface Tally {
 
 /**
  * Builds every load step function with one sort of the runs' events (departure, end of surge,
- * arrival): O(runs log runs). Each event is applied to the run's cab, its driver and its supply.
+ * arrival): O(runs log runs). Each event is applied to the run's cab, its driver and its supply; a
+ * driver's heat is recomputed from its channels' running currents at each event on it. Maxima are
+ * taken over the finished points, so events falling on one instant count only as their outcome.
  * checkPlan returns the same profile as its `load`.
  */
 export function buildLoadProfile(plan: Plan, index: PlanIndex = indexPlan(plan)): LoadProfile {
-  const series = (id: string, name: string, limit: number | null, running: number | null, peak: number | null) => ({
+  const series = (id: string, name: string, limit: number | null, running: number | null, peak: number | null): LoadSeries => ({
     id,
     name,
     limitAmps: limit,
     runningLimitAmps: running,
     peakLimitAmps: peak,
+    surgeJudgedContinuous: false,
     points: [] as LoadPoint[],
     maxRunningAmps: 0,
     maxPeakAmps: 0,
+    heat: null,
   });
+  const surgeS = plan.rules.surgeS;
   const profile: LoadProfile = {
     supplies: plan.supplies.map((s) => series(s.id, s.name, s.amps, s.amps * plan.rules.derate, s.amps)),
-    drivers: plan.drivers.map((d) => series(d.id, d.name, d.totalAmps, null, d.totalAmps)),
+    drivers: plan.drivers.map((d) => ({
+      ...series(d.id, d.name, d.totalAmps, null, d.totalAmps),
+      heat: { limitWatts: d.packageWatts ?? null, points: [], maxLowWatts: 0, maxHighWatts: 0 },
+    })),
     cabs: plan.cabs.map((c, i) => {
       const driver = plan.drivers[index.cabDriver[i]!];
-      return series(c.id, c.name, driver?.channelAmps ?? null, driver?.channelAmps ?? null, driver?.channelPeakAmps ?? null);
+      if (driver === undefined) return series(c.id, c.name, null, null, null);
+      const surge = surgeLimit(driver, surgeS);
+      return { ...series(c.id, c.name, driver.channelAmps, driver.channelAmps, surge.amps), surgeJudgedContinuous: surge.continuous };
     }),
   };
   const tally = (s: LoadSeries): Tally => ({ running: 0, peak: 0, moving: 0, series: s });
   const cabTallies = profile.cabs.map(tally);
   const driverTallies = profile.drivers.map(tally);
   const supplyTallies = profile.supplies.map(tally);
+  const driverLines: (readonly [DropLine, DropLine])[] = plan.drivers.map((d) => {
+    const drop = driverDrop(d);
+    return [drop.min, drop.max] as const;
+  });
+  const driverCabs: number[][] = plan.drivers.map(() => []);
+  index.cabDriver.forEach((d, c) => {
+    if (d >= 0) driverCabs[d]!.push(c);
+  });
 
   const { runningAmps, stallAmps } = runCurrents(plan);
-  const surgeS = plan.rules.surgeS;
   const runs = plan.runs;
   // Three events per run: 3r departure, 3r + 1 end of surge, 3r + 2 arrival.
   const time = new Float64Array(runs.length * 3);
@@ -132,16 +175,20 @@ export function buildLoadProfile(plan: Plan, index: PlanIndex = indexPlan(plan))
       t.running += dRunning;
       t.peak += dPeak;
     }
-    const points = t.series.points;
-    const last = points[points.length - 1];
-    if (last !== undefined && last[0] === at) {
-      last[1] = t.running;
-      last[2] = t.peak;
-    } else {
-      points.push([at, t.running, t.peak]);
+    setPoint(t.series.points, at, t.running, t.peak);
+  };
+
+  const heatOf = (driver: number, at: number) => {
+    const heat = profile.drivers[driver]!.heat!;
+    const [low, high] = driverLines[driver]!;
+    let lowWatts = 0;
+    let highWatts = 0;
+    for (const c of driverCabs[driver]!) {
+      const amps = cabTallies[c]!.running;
+      lowWatts += channelWatts(low, amps);
+      highWatts += channelWatts(high, amps);
     }
-    if (t.running > t.series.maxRunningAmps) t.series.maxRunningAmps = t.running;
-    if (t.peak > t.series.maxPeakAmps) t.series.maxPeakAmps = t.peak;
+    setPoint(heat.points, at, lowWatts, highWatts);
   };
 
   for (const event of events) {
@@ -170,59 +217,102 @@ export function buildLoadProfile(plan: Plan, index: PlanIndex = indexPlan(plan))
     const driver = index.runDriver[r]!;
     const supply = index.runSupply[r]!;
     apply(cabTallies[cab], at, dRunning, dPeak, dMoving);
-    if (driver >= 0) apply(driverTallies[driver], at, dRunning, dPeak, dMoving);
+    if (driver >= 0) {
+      apply(driverTallies[driver], at, dRunning, dPeak, dMoving);
+      if (phase !== 1) heatOf(driver, at);
+    }
     if (supply >= 0) apply(supplyTallies[supply], at, dRunning, dPeak, dMoving);
+  }
+
+  for (const s of [...profile.cabs, ...profile.drivers, ...profile.supplies]) {
+    for (const [, running, peak] of s.points) {
+      if (running > s.maxRunningAmps) s.maxRunningAmps = running;
+      if (peak > s.maxPeakAmps) s.maxPeakAmps = peak;
+    }
+    if (s.heat === null) continue;
+    for (const [, low, high] of s.heat.points) {
+      if (low > s.heat.maxLowWatts) s.heat.maxLowWatts = low;
+      if (high > s.heat.maxHighWatts) s.heat.maxHighWatts = high;
+    }
   }
   return profile;
 }
 
+/** Appends a breakpoint, or overwrites the last one when it is at the same instant. */
+function setPoint(points: [number, number, number][], at: number, a: number, b: number): void {
+  const last = points[points.length - 1];
+  if (last !== undefined && last[0] === at) {
+    last[1] = a;
+    last[2] = b;
+  } else {
+    points.push([at, a, b]);
+  }
+}
+
 /**
- * One finding per maximal interval where a series' chosen load exceeds its limit (by more than
- * AMPS_TOLERANCE), with the highest load in the interval.
+ * One finding per maximal interval where a step function's chosen value exceeds its limit (by more
+ * than the tolerance), with the highest value in the interval; `extra` may adjust each finding.
  */
 function overloads(
-  s: LoadSeries,
+  id: string,
+  points: readonly (readonly [number, number, number])[],
   which: 1 | 2,
   limit: number | null,
   kind: FindingKind,
-  severity: Finding['severity'],
-  describe: (peak: number, limit: number, fromS: number, toS: number) => string,
+  severity: Finding['severity'] | ((otherPeak: number, limit: number) => Finding['severity']),
+  describe: (peak: number, limit: number, fromS: number, toS: number, otherPeak: number) => string,
   findings: Finding[],
-): void {
-  if (limit === null) return;
-  const points = s.points;
+  tolerance = AMPS_TOLERANCE,
+): Finding[] {
+  const made: Finding[] = [];
+  if (limit === null) return made;
+  const other = which === 1 ? 2 : 1;
   let i = 0;
   while (i < points.length) {
-    if (!(points[i]![which] > limit + AMPS_TOLERANCE)) {
+    if (!(points[i]![which] > limit + tolerance)) {
       i++;
       continue;
     }
     const fromS = points[i]![0];
     let peak = 0;
-    while (i < points.length && points[i]![which] > limit + AMPS_TOLERANCE) {
+    let otherPeak = 0;
+    while (i < points.length && points[i]![which] > limit + tolerance) {
       if (points[i]![which] > peak) peak = points[i]![which];
+      if (points[i]![other] > otherPeak) otherPeak = points[i]![other];
       i++;
     }
     // The last point always has zero load, so the interval ends at a breakpoint.
     const toS = i < points.length ? points[i]![0] : fromS;
-    findings.push({
+    const finding: Finding = {
       kind,
-      severity,
-      ids: [s.id],
+      severity: typeof severity === 'function' ? severity(otherPeak, limit) : severity,
+      ids: [id],
       fromS,
       toS,
-      message: describe(peak, limit, fromS, toS),
+      message: describe(peak, limit, fromS, toS, otherPeak),
       peakAmps: peak,
       limitAmps: limit,
-    });
+    };
+    findings.push(finding);
+    made.push(finding);
   }
+  return made;
 }
 
 const amps = (value: number) => `${Math.round(value * 1000) / 1000} A`;
+const watts = (value: number) => `${Math.round(value * 100) / 100} W`;
+
+/** Heat within this many watts of a package rating counts as within it. */
+const WATTS_TOLERANCE = 1e-9;
 
 /**
- * The five power findings over a load profile. `names` words the messages (checkPlan passes the
- * plan's); without it, series are named as the profile names them and times as session time.
+ * The power findings over a load profile: the five current findings and `driver-heat`. `names`
+ * words the messages (checkPlan passes the plan's); without it, series are named as the profile
+ * names them and times as session time.
+ *
+ * `driver-heat` `[driverId]`: one per maximal interval where the bridge's dissipation on its maximum
+ * drop line exceeds the package rating; an error when even the minimum line exceeds it somewhere in
+ * the interval, else a warning. It carries watts (not amps): `peakWatts`, `limitWatts`.
  */
 export function findPowerOverloads(profile: LoadProfile, derate: number, findings: Finding[], names?: PlanNames): void {
   const span = names
@@ -230,23 +320,46 @@ export function findPowerOverloads(profile: LoadProfile, derate: number, finding
     : (fromS: number, toS: number) => `from ${formatSessionTime(fromS)} to ${formatSessionTime(toS)}`;
   const called = (s: LoadSeries, noun: string) => withNoun(noun, s.name.trim() || `"${s.id}"`);
   for (const cab of profile.cabs) {
-    overloads(cab, 1, cab.runningLimitAmps, 'channel-overload', 'error', (peak, limit, from, to) =>
+    overloads(cab.id, cab.points, 1, cab.runningLimitAmps, 'channel-overload', 'error', (peak, limit, from, to) =>
       `${called(cab, 'cab')} draws up to ${amps(peak)} running ${span(from, to)}, above its channel's ${amps(limit)} continuous rating`,
       findings);
-    overloads(cab, 2, cab.peakLimitAmps, 'channel-peak-overload', 'error', (peak, limit, from, to) =>
-      `${called(cab, 'cab')} draws up to ${amps(peak)} with start-up surge ${span(from, to)}, above its channel's ${amps(limit)} peak rating`,
+    overloads(cab.id, cab.points, 2, cab.peakLimitAmps, 'channel-peak-overload', 'error', (peak, limit, from, to) =>
+      cab.surgeJudgedContinuous
+        ? `${called(cab, 'cab')} draws up to ${amps(peak)} while trains start ${span(from, to)}; the start-up surge lasts longer than the channel's peak rating holds, so it is judged against the ${amps(limit)} continuous rating`
+        : `${called(cab, 'cab')} draws up to ${amps(peak)} with start-up surge ${span(from, to)}, above its channel's ${amps(limit)} peak rating`,
       findings);
   }
   for (const driver of profile.drivers) {
-    overloads(driver, 2, driver.peakLimitAmps, 'driver-overload', 'error', (peak, limit, from, to) =>
+    overloads(driver.id, driver.points, 2, driver.peakLimitAmps, 'driver-overload', 'error', (peak, limit, from, to) =>
       `${called(driver, 'driver')} carries up to ${amps(peak)} across its channels ${span(from, to)}, above its ${amps(limit)} total rating`,
       findings);
+    const heat = driver.heat;
+    if (heat === null || heat.limitWatts === null) continue;
+    const made = overloads(
+      driver.id,
+      heat.points,
+      2,
+      heat.limitWatts,
+      'driver-heat',
+      (low, limit) => (low > limit + WATTS_TOLERANCE ? 'error' : 'warning'),
+      (peak, limit, from, to, low) =>
+        `${called(driver, 'driver')} dissipates about ${watts(low)} (least drop) to ${watts(peak)} (greatest drop) ${span(from, to)}, ` +
+        `above its ${watts(limit)} package rating: add a heat sink or spread the trains over more drivers`,
+      findings,
+      WATTS_TOLERANCE,
+    );
+    for (const f of made) {
+      f.peakWatts = f.peakAmps;
+      f.limitWatts = f.limitAmps;
+      delete f.peakAmps;
+      delete f.limitAmps;
+    }
   }
   for (const supply of profile.supplies) {
-    overloads(supply, 2, supply.peakLimitAmps, 'supply-overload', 'error', (peak, limit, from, to) =>
+    overloads(supply.id, supply.points, 2, supply.peakLimitAmps, 'supply-overload', 'error', (peak, limit, from, to) =>
       `${called(supply, 'supply')} must deliver up to ${amps(peak)} ${span(from, to)}, above its ${amps(limit)} rating`,
       findings);
-    overloads(supply, 1, supply.runningLimitAmps, 'supply-derate', 'warning', (peak, limit, from, to) =>
+    overloads(supply.id, supply.points, 1, supply.runningLimitAmps, 'supply-derate', 'warning', (peak, limit, from, to) =>
       `${called(supply, 'supply')} runs at up to ${amps(peak)} ${span(from, to)}, above ${Math.round(derate * 100)} % of its rating (${amps(limit)}); continuous loads are best kept to 80 %`,
       findings);
   }

@@ -25,6 +25,9 @@ export const rulesSchema = z.object({
 
 export const supplySchema = z.object({ id, name, volts: positive, amps: positive });
 
+/** A straight-line drop against current: fixedVolts + ohms × amps (see DropLine). */
+export const dropLineSchema = z.object({ fixedVolts: nonNegative, ohms: nonNegative });
+
 export const driverSchema = z.object({
   id,
   name,
@@ -33,7 +36,17 @@ export const driverSchema = z.object({
   channelAmps: positive,
   channelPeakAmps: positive,
   totalAmps: positive.nullable(),
-  dropVolts: nonNegative,
+  /** One fixed drop, V: plans written before the drop depended on current. `drop` replaces it. */
+  dropVolts: nonNegative.optional(),
+  /** The drop against current, as the least and the most the datasheet allows (see driverDrop). */
+  drop: z.object({ min: dropLineSchema, max: dropLineSchema }).optional(),
+  /**
+   * How long the peak rating holds, s. Null: the datasheet gives no pulse width, so a surge is judged
+   * against the continuous rating. Absent (older plans): the peak covers the surge.
+   */
+  peakPulseS: positive.nullable().optional(),
+  /** What the package may dissipate, W, at 25 °C; null or absent: not checked. */
+  packageWatts: positive.nullable().optional(),
 });
 
 export const cabSchema = z.object({
@@ -53,6 +66,10 @@ export const locoSchema = z.object({
   runningAmps: nonNegative,
   stallAmps: nonNegative,
   ratedVolts: positive,
+  /** Calibration: the average voltage below which the loco does not move, V (below ratedVolts). */
+  startVolts: nonNegative.nullable().optional(),
+  /** Calibration: scale top speed at ratedVolts, km/h. */
+  topSpeedKmh: positive.nullable().optional(),
 });
 
 export const trainSchema = z.object({
@@ -148,6 +165,17 @@ function checkPlanReferences(plan: PlanShape, report: (path: IssuePath, message:
 
   plan.drivers.forEach((driver, i) => {
     if (!supplies.has(driver.supplyId)) report(['drivers', i, 'supplyId'], `unknown supply "${driver.supplyId}"`);
+    if (driver.drop === undefined && driver.dropVolts === undefined) report(['drivers', i, 'drop'], 'give the bridge drop (drop or dropVolts)');
+    const drop = driver.drop;
+    if (drop !== undefined && (drop.min.fixedVolts > drop.max.fixedVolts || drop.min.ohms > drop.max.ohms)) {
+      report(['drivers', i, 'drop'], 'the minimum drop line must lie at or below the maximum one');
+    }
+  });
+
+  plan.locos.forEach((loco, i) => {
+    if (loco.startVolts !== undefined && loco.startVolts !== null && !(loco.startVolts < loco.ratedVolts)) {
+      report(['locos', i, 'startVolts'], `start voltage ${loco.startVolts} V must be below the rated ${loco.ratedVolts} V`);
+    }
   });
 
   const channelTaken = new Map<string, string>();

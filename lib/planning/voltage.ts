@@ -1,4 +1,7 @@
+import { dutyFor } from './duty';
+import { dropAt, driverDrop, scaleSpeedKmh } from './electrics';
 import type { Finding } from './finding';
+import { runCurrents } from './load';
 import { planNames, withNoun, type PlanNames } from './names';
 import type { PlanIndex } from './plan-index';
 import { VOLTS_TOLERANCE } from './rules';
@@ -15,70 +18,105 @@ export function nominalTrackVolts(gaugeMm: number): number {
   return 16;
 }
 
-/** Full-throttle voltage at the rails of a driver: its supply less the bridge drop. */
+/** Full-throttle voltage at the rails of a driver: its supply less the bridge drop (at the current drawn). */
 export function trackVoltsOf(supplyVolts: number, dropVolts: number): number {
   return supplyVolts - dropVolts;
 }
 
 const volts = (value: number) => `${Math.round(value * 100) / 100} V`;
+const ampsText = (value: number) => `${Math.round(value * 1000) / 1000} A`;
 
 /**
- * The two voltage findings, both warnings and both judged at full throttle, where the rails get
- * `supply.volts − driver.dropVolts`:
+ * The scale speed a run is planned at, at least: the distance its head covers (every block between
+ * the first and the last, plus the train's length to clear the one before the last; see timeRun)
+ * over the time it moves. Exact at constant speed; with ramps or stops on the way the cruise is
+ * faster, so this never overstates the need. Null for a run whose blocks are unknown.
+ */
+export function plannedSpeedKmh(plan: Plan, run: Plan['runs'][number], blockLength: ReadonlyMap<string, number>, trainLengthMm: number): number | null {
+  let distance = trainLengthMm;
+  for (let k = 1; k < run.steps.length - 1; k++) {
+    const length = blockLength.get(run.steps[k]!.blockId);
+    if (length === undefined) return null;
+    distance += length;
+  }
+  return scaleSpeedKmh(distance, run.arriveS - run.departS, plan.scale.ratio);
+}
+
+/**
+ * The voltage findings, all warnings and all judged at full throttle, where the rails get the
+ * supply less the bridge's drop at the train's running current (see driverDrop):
  *
  * - `track-voltage-high`, ids `[cabId, locoId]`: a loco runs on a cab whose full-throttle track
- *   voltage is above the loco's ratedVolts, so full throttle over-drives it. One finding per cab and
- *   loco over all its runs, from the first departure to the last arrival. PWM is judged by its
- *   average voltage (NEM 630 Table 2), so the message gives the largest safe duty.
- * - `track-voltage-low`, ids `[cabId]`: a cab with runs whose full-throttle track voltage is below
- *   the NEM 630 Table 1 nominal for the plan's gauge (12 V for 6.5–32 mm gauge, which NMRA S-9 I.A
- *   also sets as the least full-throttle voltage at the rails). Skipped when the plan's scale is not
- *   in the scale table, since there is no standard gauge to judge by.
+ *   voltage, with the bridge's *least* drop at the train's running current, is above the loco's
+ *   ratedVolts, so full throttle over-drives it. One finding per cab and loco over all its runs, from
+ *   the first departure to the last arrival. PWM is judged by its average voltage (NEM 630 Table 2),
+ *   so the message gives the largest safe duty.
+ * - `track-voltage-low`, ids `[cabId]`: a cab with runs whose full-throttle track voltage, with the
+ *   bridge's *greatest* drop at the heaviest train it drives ("at maximum anticipated load", NMRA
+ *   S-9 I.A), is below the NEM 630 Table 1 nominal for the plan's gauge (12 V for 6.5–32 mm gauge,
+ *   which NMRA S-9 I.A also sets as the least full-throttle voltage at the rails). Skipped when the
+ *   plan's scale is not in the scale table, since there is no standard gauge to judge by.
+ * - `speed-not-reachable`, ids `[runId, locoId]`: a run's planned speed (plannedSpeedKmh) needs more
+ *   than the loco can give (above its top speed) or more duty than its cab can give (dutyFor with the
+ *   greatest drop at the train's running current). Only for locos with a top speed recorded.
  */
 export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Finding[], names: PlanNames = planNames(plan)): void {
   const gauge = gaugeForScale(plan.scale);
   const nominal = gauge === null ? null : nominalTrackVolts(gauge);
   const locoOf = new Map<string, Plan['locos'][number]>();
   for (const loco of plan.locos) if (!locoOf.has(loco.id)) locoOf.set(loco.id, loco);
+  const blockLength = new Map<string, number>();
+  for (const block of plan.blocks) if (!blockLength.has(block.id)) blockLength.set(block.id, block.lengthMm);
+  const { runningAmps } = runCurrents(plan);
 
-  // Per cab: span of its runs; per cab and loco: span and run count.
-  const cabSpan = new Map<number, [number, number]>();
-  const overDriven = new Map<string, { cab: number; loco: string; fromS: number; toS: number; runs: number }>();
+  // Per cab: span of its runs and its heaviest train; per cab and loco: span, run count, highest volts.
+  const cabLoad = new Map<number, { fromS: number; toS: number; amps: number }>();
+  const overDriven = new Map<string, { cab: number; loco: string; fromS: number; toS: number; runs: number; track: number; amps: number }>();
   plan.runs.forEach((run, r) => {
     const cab = index.runCab[r]!;
     const driver = plan.drivers[index.runDriver[r]!];
     const supply = plan.supplies[index.runSupply[r]!];
     if (cab < 0 || driver === undefined || supply === undefined) return;
-    const span = cabSpan.get(cab);
-    if (span === undefined) cabSpan.set(cab, [run.departS, run.arriveS]);
+    const amps = runningAmps[r]!;
+    const load = cabLoad.get(cab);
+    if (load === undefined) cabLoad.set(cab, { fromS: run.departS, toS: run.arriveS, amps });
     else {
-      span[0] = Math.min(span[0], run.departS);
-      span[1] = Math.max(span[1], run.arriveS);
+      load.fromS = Math.min(load.fromS, run.departS);
+      load.toS = Math.max(load.toS, run.arriveS);
+      load.amps = Math.max(load.amps, amps);
     }
     const train = plan.trains[index.runTrain[r]!];
     if (train === undefined) return;
-    const track = trackVoltsOf(supply.volts, driver.dropVolts);
+    const drop = driverDrop(driver);
+    const highest = trackVoltsOf(supply.volts, dropAt(drop.min, amps));
+    let speed: number | null | undefined;
     for (const locoId of train.locoIds) {
       const loco = locoOf.get(locoId);
-      if (loco === undefined || !(track > loco.ratedVolts + VOLTS_TOLERANCE)) continue;
+      if (loco === undefined) continue;
+      if (loco.topSpeedKmh !== undefined && loco.topSpeedKmh !== null) {
+        speed ??= plannedSpeedKmh(plan, run, blockLength, train.lengthMm);
+        if (speed !== null) reachFinding(run, loco, loco.topSpeedKmh, speed, supply.volts, dropAt(drop.max, amps), names, findings);
+      }
+      if (!(highest > loco.ratedVolts + VOLTS_TOLERANCE)) continue;
       const key = `${cab}\u0000${locoId}`;
       const entry = overDriven.get(key);
-      if (entry === undefined) overDriven.set(key, { cab, loco: locoId, fromS: run.departS, toS: run.arriveS, runs: 1 });
+      if (entry === undefined) overDriven.set(key, { cab, loco: locoId, fromS: run.departS, toS: run.arriveS, runs: 1, track: highest, amps });
       else {
         entry.fromS = Math.min(entry.fromS, run.departS);
         entry.toS = Math.max(entry.toS, run.arriveS);
         entry.runs++;
+        if (highest > entry.track) {
+          entry.track = highest;
+          entry.amps = amps;
+        }
       }
     }
   });
 
   for (const entry of overDriven.values()) {
     const cab = plan.cabs[entry.cab]!;
-    const driver = plan.drivers[index.cabDriver[entry.cab]!]!;
-    const supply = plan.supplies[index.driverSupply[index.cabDriver[entry.cab]!]!]!;
-    const track = trackVoltsOf(supply.volts, driver.dropVolts);
     const loco = locoOf.get(entry.loco)!;
-    const safeDuty = Math.floor((loco.ratedVolts / track) * 100);
+    const safeDuty = Math.floor((loco.ratedVolts / entry.track) * 100);
     findings.push({
       kind: 'track-voltage-high',
       severity: 'warning',
@@ -86,28 +124,59 @@ export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Findin
       fromS: entry.fromS,
       toS: entry.toS,
       message:
-        `${withNoun('cab', names.cab(cab.id))} puts ${volts(track)} on the rails at full throttle, above the ${volts(loco.ratedVolts)} rating of ${names.loco(loco.id)} ` +
+        `${withNoun('cab', names.cab(cab.id))} puts up to ${volts(entry.track)} on the rails at full throttle (the bridge's least drop at ${ampsText(entry.amps)}), above the ${volts(loco.ratedVolts)} rating of ${names.loco(loco.id)} ` +
         `(${entry.runs} run${entry.runs === 1 ? '' : 's'}); keep its duty at or below ${safeDuty} % (NEM 630 Table 2 judges PWM by its average voltage)`,
     });
   }
 
   if (nominal === null || gauge === null) return;
-  for (const [cabIndex, [fromS, toS]] of cabSpan) {
+  for (const [cabIndex, load] of cabLoad) {
     const cab = plan.cabs[cabIndex]!;
     const driver = plan.drivers[index.cabDriver[cabIndex]!]!;
     const supply = plan.supplies[index.driverSupply[index.cabDriver[cabIndex]!]!]!;
-    const track = trackVoltsOf(supply.volts, driver.dropVolts);
+    const drop = dropAt(driverDrop(driver).max, load.amps);
+    const track = trackVoltsOf(supply.volts, drop);
     if (!(track < nominal - VOLTS_TOLERANCE)) continue;
-    const nmra = nominal === 12 ? '; NMRA S-9 I.A asks for at least 12 V at full throttle' : '';
+    const nmra = nominal === 12 ? '; NMRA S-9 I.A asks for at least 12 V at full throttle at maximum anticipated load' : '';
     findings.push({
       kind: 'track-voltage-low',
       severity: 'warning',
       ids: [cab.id],
-      fromS,
-      toS,
+      fromS: load.fromS,
+      toS: load.toS,
       message:
-        `${withNoun('cab', names.cab(cab.id))} gives at most ${volts(track)} at the rails (supply ${volts(supply.volts)} less ${volts(driver.dropVolts)} bridge drop), ` +
+        `${withNoun('cab', names.cab(cab.id))} gives at most ${volts(track)} at the rails with its heaviest train (${ampsText(load.amps)}: supply ${volts(supply.volts)} less up to ${volts(drop)} bridge drop), ` +
         `below the ${nominal} V nominal of NEM 630 Table 1 for ${gauge} mm gauge${nmra}; trains may not reach their top speed`,
     });
   }
+}
+
+function reachFinding(
+  run: Plan['runs'][number],
+  loco: Plan['locos'][number],
+  topSpeedKmh: number,
+  speedKmh: number,
+  supplyVolts: number,
+  dropVolts: number,
+  names: PlanNames,
+  findings: Finding[],
+): void {
+  const result = dutyFor({
+    supplyVolts,
+    dropVolts,
+    ratedVolts: loco.ratedVolts,
+    topSpeedKmh,
+    startVolts: loco.startVolts ?? 0,
+    // A speed that rounds to the top speed is the top speed (times are stored to the millisecond).
+    targetSpeedKmh: Math.abs(speedKmh - topSpeedKmh) < 1e-6 * topSpeedKmh ? topSpeedKmh : speedKmh,
+  });
+  if (result.ok || result.code === 'bad-input') return;
+  findings.push({
+    kind: 'speed-not-reachable',
+    severity: 'warning',
+    ids: [run.id, loco.id],
+    fromS: run.departS,
+    toS: run.arriveS,
+    message: `${names.run(run.id)} is planned at ${Math.round(speedKmh * 10) / 10} km/h, more than ${names.loco(loco.id)} can give on its cab: ${result.reason}`,
+  });
 }

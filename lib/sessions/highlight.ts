@@ -53,7 +53,11 @@ export function highlightOf(finding: Finding, runs: readonly RunLike[], layout: 
       if (a) moving([a]);
       break;
     case 'driver-overload':
+    case 'driver-heat':
       moving(cabsOf((cab) => cab.driverId === a));
+      break;
+    case 'speed-not-reachable':
+      if (a) h.runIds.add(a);
       break;
     case 'supply-overload':
     case 'supply-derate': {
@@ -94,8 +98,10 @@ export const FINDING_LABELS: Record<Finding['kind'], string> = {
   'channel-overload': 'Channel overload',
   'channel-peak-overload': 'Start-up surge overload',
   'driver-overload': 'Driver overload',
+  'driver-heat': 'Driver too hot',
   'supply-overload': 'Supply overload',
   'supply-derate': 'Supply above its load limit',
   'track-voltage-high': 'Track voltage high',
   'track-voltage-low': 'Track voltage low',
+  'speed-not-reachable': 'Speed out of reach',
 };

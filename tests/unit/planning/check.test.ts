@@ -17,7 +17,9 @@ import {
   loadAt,
   oracleClashes,
   oracleContinuityAndRoutes,
+  oracleHeat,
   oraclePower,
+  oracleSpeed,
   oracleVoltage,
   type OracleFinding,
 } from './oracle';
@@ -84,6 +86,44 @@ describe('checkPlan against brute force', () => {
             expect(found).toEqual(oracleVoltage(plan, gaugeForScale(plan.scale)).map(full).sort());
           }),
           RUNS,
+        );
+      });
+
+      it('finds exactly the driver heat intervals, with their severity (drop × current summed over channels)', () => {
+        const full = (f: OracleFinding | Finding) => `${key(f)}|${f.fromS}|${f.toS}`;
+        fc.assert(
+          fc.property(plans, (plan) => {
+            const found = checkPlan(plan).findings.filter((f) => f.kind === 'driver-heat').map(full).sort();
+            expect(found).toEqual(oracleHeat(plan).map(full).sort());
+          }),
+          RUNS,
+        );
+      });
+
+      it('finds exactly the runs planned faster than a loco or its cab can go', () => {
+        fc.assert(
+          fc.property(plans, (plan) => {
+            const found = checkPlan(plan).findings.filter((f) => f.kind === 'speed-not-reachable').map(key).sort();
+            expect(found).toEqual(oracleSpeed(plan).map(key).sort());
+          }),
+          RUNS,
+        );
+      });
+
+      it('gives each series its maxima as the highest breakpoint values, events at one instant counted as their outcome', () => {
+        fc.assert(
+          fc.property(plans, (plan) => {
+            const { load } = checkPlan(plan);
+            for (const series of [...load.cabs, ...load.drivers, ...load.supplies]) {
+              const times = [...breakpoints(plan), -1];
+              const owner = cabOwner(plan);
+              const counts = load.cabs.includes(series) ? owner.cab(series.id) : load.drivers.includes(series) ? owner.driver(series.id) : owner.supply(series.id);
+              const direct = times.map((t) => loadAt(plan, t, counts));
+              expect(series.maxRunningAmps).toBeCloseTo(Math.max(0, ...direct.map((d) => d.running)), 9);
+              expect(series.maxPeakAmps).toBeCloseTo(Math.max(0, ...direct.map((d) => d.peak)), 9);
+            }
+          }),
+          { numRuns: 150 },
         );
       });
 

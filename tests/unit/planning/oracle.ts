@@ -76,6 +76,11 @@ export function oracleContinuityAndRoutes(plan: Plan): OracleFinding[] {
   return out;
 }
 
+/**
+ * A run's running current, and its start current: each loco's stall current scaled by its start
+ * voltage over its rated voltage (a stalled motor is a resistance), at least its running current;
+ * the full stall current when no start voltage is recorded.
+ */
 export function runAmps(plan: Plan, run: Plan['runs'][number]): { running: number; stall: number } {
   const train = plan.trains.find((t) => t.id === run.trainId)!;
   let running = train.lightingAmps;
@@ -83,9 +88,15 @@ export function runAmps(plan: Plan, run: Plan['runs'][number]): { running: numbe
   for (const id of train.locoIds) {
     const loco = plan.locos.find((l) => l.id === id)!;
     running += loco.runningAmps;
-    stall += loco.stallAmps;
+    const sv = loco.startVolts;
+    stall += sv === undefined || sv === null ? loco.stallAmps : Math.max(loco.runningAmps, (loco.stallAmps * Math.min(sv, loco.ratedVolts)) / loco.ratedVolts);
   }
   return { running, stall };
+}
+
+/** A driver's drop lines; a plan with one fixed dropVolts has the same flat line for both. */
+export function dropLines(driver: Plan['drivers'][number]) {
+  return driver.drop ?? { min: { fixedVolts: driver.dropVolts!, ohms: 0 }, max: { fixedVolts: driver.dropVolts!, ohms: 0 } };
 }
 
 /** Every time at which some load can change, sorted, without repeats. */
@@ -146,12 +157,61 @@ export function oraclePower(plan: Plan): OracleFinding[] {
   for (const cab of plan.cabs) {
     const driver = plan.drivers.find((d) => d.id === cab.driverId)!;
     scan('channel-overload', 'error', cab.id, owner.cab(cab.id), 'running', driver.channelAmps);
-    scan('channel-peak-overload', 'error', cab.id, owner.cab(cab.id), 'peak', driver.channelPeakAmps);
+    // Datasheets: a peak rating holds for its pulse width only; a longer surge (or any, when no width
+    // is given) is judged against the continuous rating. No width recorded at all: the peak holds.
+    const pulse = driver.peakPulseS;
+    const peakHolds = pulse === undefined || (pulse !== null && plan.rules.surgeS <= pulse);
+    scan('channel-peak-overload', 'error', cab.id, owner.cab(cab.id), 'peak', peakHolds ? driver.channelPeakAmps : driver.channelAmps);
   }
   for (const driver of plan.drivers) scan('driver-overload', 'error', driver.id, owner.driver(driver.id), 'peak', driver.totalAmps);
   for (const supply of plan.supplies) {
     scan('supply-overload', 'error', supply.id, owner.supply(supply.id), 'peak', supply.amps);
     scan('supply-derate', 'warning', supply.id, owner.supply(supply.id), 'running', supply.amps * plan.rules.derate);
+  }
+  return out;
+}
+
+/**
+ * Driver heat at time t: over the driver's cabs, (fixed + ohms × I) × I for the cab's running
+ * current I, on the minimum and on the maximum drop line.
+ */
+export function heatAt(plan: Plan, driver: Plan['drivers'][number], t: number): { low: number; high: number } {
+  const owner = cabOwner(plan);
+  const { min, max } = dropLines(driver);
+  let low = 0;
+  let high = 0;
+  for (const cab of plan.cabs.filter((c) => c.driverId === driver.id)) {
+    const amps = loadAt(plan, t, owner.cab(cab.id)).running;
+    if (amps <= 0) continue;
+    low += (min.fixedVolts + min.ohms * amps) * amps;
+    high += (max.fixedVolts + max.ohms * amps) * amps;
+  }
+  return { low, high };
+}
+
+/** `driver-heat`: maximal intervals where the maximum-line heat exceeds the package rating. */
+export function oracleHeat(plan: Plan): OracleFinding[] {
+  const times = breakpoints(plan);
+  const out: OracleFinding[] = [];
+  for (const driver of plan.drivers) {
+    const limit = driver.packageWatts;
+    if (limit === undefined || limit === null) continue;
+    let open: (OracleFinding & { lowOver: boolean }) | null = null;
+    const close = () => {
+      if (open === null) return;
+      const { lowOver, ...finding } = open;
+      out.push({ ...finding, severity: lowOver ? 'error' : 'warning' });
+      open = null;
+    };
+    for (let i = 0; i + 1 < times.length; i++) {
+      const heat = heatAt(plan, driver, times[i]!);
+      if (heat.high > limit + TOL) {
+        if (open === null) open = { kind: 'driver-heat', severity: 'warning', ids: [driver.id], fromS: times[i]!, toS: times[i + 1]!, lowOver: false };
+        open.toS = times[i + 1]!;
+        open.lowOver ||= heat.low > limit + TOL;
+      } else close();
+    }
+    close();
   }
   return out;
 }
@@ -166,12 +226,17 @@ export function oracleVoltage(plan: Plan, gaugeMm: number | null): OracleFinding
   for (const cab of plan.cabs) {
     const driver = plan.drivers.find((d) => d.id === cab.driverId)!;
     const supply = plan.supplies.find((s) => s.id === driver.supplyId)!;
-    const track = supply.volts - driver.dropVolts;
+    const { min, max } = dropLines(driver);
     const runs = plan.runs.filter((run) => run.cabId === cab.id);
     if (runs.length === 0) continue;
+    // Over-voltage with the least drop at each train's own running current.
+    const highest = (run: Plan['runs'][number]) => {
+      const amps = runAmps(plan, run).running;
+      return supply.volts - (min.fixedVolts + min.ohms * amps);
+    };
     for (const loco of plan.locos) {
-      const on = runs.filter((run) => plan.trains.find((t) => t.id === run.trainId)!.locoIds.includes(loco.id));
-      if (on.length > 0 && track > loco.ratedVolts + TOL) {
+      const on = runs.filter((run) => plan.trains.find((t) => t.id === run.trainId)!.locoIds.includes(loco.id) && highest(run) > loco.ratedVolts + TOL);
+      if (on.length > 0) {
         out.push({
           kind: 'track-voltage-high',
           severity: 'warning',
@@ -181,7 +246,10 @@ export function oracleVoltage(plan: Plan, gaugeMm: number | null): OracleFinding
         });
       }
     }
-    if (nominal !== null && track < nominal - TOL) {
+    // Under-voltage with the greatest drop at the heaviest train (NMRA S-9 I.A: maximum anticipated load).
+    const heaviest = Math.max(...runs.map((run) => runAmps(plan, run).running));
+    const lowest = supply.volts - (max.fixedVolts + max.ohms * heaviest);
+    if (nominal !== null && lowest < nominal - TOL) {
       out.push({
         kind: 'track-voltage-low',
         severity: 'warning',
@@ -189,6 +257,34 @@ export function oracleVoltage(plan: Plan, gaugeMm: number | null): OracleFinding
         fromS: Math.min(...runs.map((r) => r.departS)),
         toS: Math.max(...runs.map((r) => r.arriveS)),
       });
+    }
+  }
+  return out;
+}
+
+/**
+ * Speed: a run's average scale speed (head distance = interior blocks + train length, over the
+ * movement time; km/h = mm/s × ratio × 3.6 / 1000) against each loco's top speed and against the
+ * track voltage with the greatest drop at the train's current.
+ */
+export function oracleSpeed(plan: Plan): OracleFinding[] {
+  const out: OracleFinding[] = [];
+  for (const run of plan.runs) {
+    const train = plan.trains.find((t) => t.id === run.trainId)!;
+    const cab = plan.cabs.find((c) => c.id === run.cabId)!;
+    const driver = plan.drivers.find((d) => d.id === cab.driverId)!;
+    const supply = plan.supplies.find((s) => s.id === driver.supplyId)!;
+    const interior = run.steps.slice(1, -1).reduce((sum, step) => sum + plan.blocks.find((b) => b.id === step.blockId)!.lengthMm, 0);
+    const kmh = (((interior + train.lengthMm) / (run.arriveS - run.departS)) * plan.scale.ratio * 3.6) / 1000;
+    const amps = runAmps(plan, run).running;
+    const { max } = dropLines(driver);
+    const track = supply.volts - (max.fixedVolts + max.ohms * amps);
+    for (const id of train.locoIds) {
+      const loco = plan.locos.find((l) => l.id === id)!;
+      if (loco.topSpeedKmh === undefined || loco.topSpeedKmh === null) continue;
+      const sv = loco.startVolts ?? 0;
+      const needed = sv + ((loco.ratedVolts - sv) * Math.min(kmh, loco.topSpeedKmh)) / loco.topSpeedKmh;
+      if (kmh > loco.topSpeedKmh * (1 + 1e-6) || needed > track) out.push({ kind: 'speed-not-reachable', severity: 'warning', ids: [run.id, id], fromS: run.departS, toS: run.arriveS });
     }
   }
   return out;

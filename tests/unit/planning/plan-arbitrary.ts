@@ -41,6 +41,19 @@ export function planArbitrary(options: PlanArbitraryOptions = {}): fc.Arbitrary<
           channelPeakAmps: fc.integer({ min: 2, max: 12 }),
           totalAmps: fc.option(fc.integer({ min: 2, max: 12 }), { nil: null }),
           dropVolts: fc.constantFrom(0, 0.6, 2.6, 4.9),
+          // Drop lines with binary-exact figures, so heat and voltage land exactly on limits.
+          drop: fc.option(
+            fc.record({
+              fixed: fc.constantFrom(0, 0.5, 1.5),
+              ohms: fc.constantFrom(0, 0.25, 0.5, 1),
+              extraFixed: fc.constantFrom(0, 1),
+              extraOhms: fc.constantFrom(0, 0.5),
+            }),
+            { nil: undefined },
+          ),
+          // Absent (older plans: the peak covers any surge), null (no pulse width), or seconds.
+          peakPulseS: fc.constantFrom(undefined, null, 0.005, 3),
+          packageWatts: fc.option(fc.integer({ min: 1, max: 16 }), { nil: undefined }),
         }),
         { minLength: 1, maxLength: 3 },
       ),
@@ -51,6 +64,8 @@ export function planArbitrary(options: PlanArbitraryOptions = {}): fc.Arbitrary<
           runningAmps: fc.integer({ min: 0, max: 4 }),
           stallAmps: fc.integer({ min: 0, max: 8 }),
           ratedVolts: fc.constantFrom(8, 12, 16),
+          startVolts: fc.constantFrom(undefined, null, 0, 2, 4),
+          topSpeedKmh: fc.constantFrom(undefined, null, 60, 120),
         }),
         { minLength: 1, maxLength: 3 },
       ),
@@ -90,7 +105,16 @@ export function planArbitrary(options: PlanArbitraryOptions = {}): fc.Arbitrary<
         channelAmps: quarter(d.channelAmps),
         channelPeakAmps: quarter(d.channelPeakAmps),
         totalAmps: d.totalAmps === null ? null : quarter(d.totalAmps),
-        dropVolts: d.dropVolts,
+        ...(d.drop === undefined
+          ? { dropVolts: d.dropVolts }
+          : {
+              drop: {
+                min: { fixedVolts: d.drop.fixed, ohms: d.drop.ohms },
+                max: { fixedVolts: d.drop.fixed + d.drop.extraFixed, ohms: d.drop.ohms + d.drop.extraOhms },
+              },
+            }),
+        ...(d.peakPulseS === undefined ? {} : { peakPulseS: d.peakPulseS }),
+        ...(d.packageWatts === undefined ? {} : { packageWatts: quarter(d.packageWatts) }),
       }));
       const cabs = drivers.flatMap((driver) =>
         Array.from({ length: driver.channels }, (_, k) => ({
@@ -108,6 +132,8 @@ export function planArbitrary(options: PlanArbitraryOptions = {}): fc.Arbitrary<
         runningAmps: quarter(l.runningAmps),
         stallAmps: quarter(l.stallAmps),
         ratedVolts: l.ratedVolts,
+        ...(l.startVolts === undefined ? {} : { startVolts: l.startVolts }),
+        ...(l.topSpeedKmh === undefined ? {} : { topSpeedKmh: l.topSpeedKmh }),
       }));
       const trains = raw.trains.map((tr, i) => ({
         id: `t${i}`,

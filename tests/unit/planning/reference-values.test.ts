@@ -2,6 +2,8 @@ import { describe, expect, it } from 'vitest';
 import {
   defaultRules,
   DRIVER_PRESETS,
+  channelWatts,
+  dropAt,
   dutyFor,
   fastToReal,
   findScale,
@@ -157,30 +159,48 @@ describe('driver presets', () => {
   it('bipolar quad half-H matches its datasheet (TI SLRS007B)', () => {
     const p = preset('bipolar-quad-half-h-1a');
     expect([p.channels, p.channelAmps, p.channelPeakAmps]).toEqual([2, 1, 2]); // SLRS007B: 1 A per channel, 2 A non-repetitive
-    expect(p.dropVolts).toBeCloseTo(1.4 + 1.2, 12); // SLRS007B: VOH drop 1.4 V typ + VOL 1.2 V typ at 1 A (derived)
+    expect(p.peakPulseS).toBe(0.005); // SLRS007B: the 2 A peak for at most 5 ms
+    // SLRS007B typical drop (VOH + VOL): about 2.1 V at 0.5 A and 1.4 + 1.2 = 2.6 V at 1 A.
+    expect(dropAt(p.drop.min, 0.5)).toBeCloseTo(2.1, 12);
+    expect(dropAt(p.drop.min, 1)).toBeCloseTo(1.4 + 1.2, 12);
+    // SLRS007B worst case at 1 A: 1.8 + 1.8 = 3.6 V.
+    expect(dropAt(p.drop.max, 1)).toBeCloseTo(1.8 + 1.8, 12);
+    expect(p.packageWatts).toBe(2.075); // SLRS007B: 2075 mW at 25 °C
     expect([p.minSupplyVolts, p.maxSupplyVolts]).toEqual([4.5, 36]); // SLRS007B
   });
 
   it('bipolar dual full-bridge matches its datasheet (ST, Multiwatt15, Jan 2000)', () => {
     const p = preset('bipolar-dual-full-bridge-2a');
     expect([p.channels, p.channelAmps, p.channelPeakAmps]).toEqual([2, 2, 2.5]); // 2 A DC, 2.5 A repetitive
-    expect(p.dropVolts).toBe(4.9); // up to 4.9 V at 2 A
+    expect(p.peakPulseS).toBe(0.01); // the 2.5 A repetitive peak: 10 ms on
+    expect(dropAt(p.drop.min, 1)).toBeCloseTo(1.8, 12); // total drop at least 1.8 V at 1 A
+    expect(dropAt(p.drop.max, 1)).toBeCloseTo(3.2, 12); // at most 3.2 V at 1 A
+    expect(dropAt(p.drop.max, 2)).toBeCloseTo(4.9, 12); // up to 4.9 V at 2 A
     expect(p.maxSupplyVolts).toBe(46);
-    expect(2 * 2 * 4.9).toBeLessThan(25); // 25 W total dissipation at Tcase 75 °C covers both channels at 2 A
+    expect(p.packageWatts).toBe(25); // 25 W total dissipation at Tcase 75 °C
+    // Both channels at 2 A on the greatest drop: 2 × 2 A × 4.9 V = 19.6 W, inside the 25 W.
+    expect(2 * channelWatts(p.drop.max, 2)).toBeLessThan(p.packageWatts!);
   });
 
   it('MOSFET classes match their datasheets (TB6612FNG 2014, DRV8871 SLVSCY9B, DRV8833)', () => {
     const low = preset('mosfet-dual-low-voltage-1-2a');
     expect([low.channels, low.channelAmps, low.channelPeakAmps, low.minSupplyVolts, low.maxSupplyVolts]).toEqual([2, 1.2, 3.2, 2.5, 13.5]);
-    expect(low.dropVolts).toBeCloseTo(1.2 * 0.5, 12); // 0.5 Ω high + low side at 1.2 A
+    expect(dropAt(low.drop.max, 1.2)).toBeCloseTo(1.2 * 0.5, 12); // TB6612FNG: 0.5 Ω upper + lower, I × R
+    expect(dropAt(low.drop.min, 0.4)).toBeCloseTo(0.4 * 0.5, 12);
     const single = preset('mosfet-single-high-current-3-6a');
     expect([single.channels, single.channelPeakAmps, single.minSupplyVolts, single.maxSupplyVolts]).toEqual([1, 3.6, 6.5, 45]);
-    expect(single.dropVolts).toBeCloseTo(3.6 * 0.565, 12); // 0.565 Ω at 3.6 A
+    expect(dropAt(single.drop.max, 3.6)).toBeCloseTo(3.6 * 0.565, 12); // DRV8871: 0.565 Ω high + low side
+    // DRV8871 gives no continuous rating: derived from heat, (150 − 25) °C / 40 °C/W over the hot
+    // on-resistance 1.5 × 0.565 Ω (derived, see the preset's source line), not its 3.6 A peak.
+    expect(single.channelAmps).toBeCloseTo(Math.sqrt((150 - 25) / 40 / (1.5 * 0.565)), 1);
+    expect(single.channelAmps).toBeLessThan(single.channelPeakAmps);
+    expect(single.source).toMatch(/derived/i);
+    expect(single.peakPulseS).toBeNull(); // no pulse width given: surges judged against the continuous figure
     const veryLow = preset('mosfet-dual-very-low-voltage-1-5a');
     expect([veryLow.channels, veryLow.channelAmps, veryLow.channelPeakAmps, veryLow.minSupplyVolts, veryLow.maxSupplyVolts]).toEqual([
       2, 1.5, 2, 2.7, 10.8,
     ]);
-    expect(veryLow.dropVolts).toBeCloseTo(1.5 * 0.36, 12); // 0.36 Ω at 1.5 A
+    expect(dropAt(veryLow.drop.max, 1.5)).toBeCloseTo(1.5 * 0.36, 12); // DRV8833: 0.36 Ω high + low side
   });
 
   it('common practice: the 1 A class and the 2 A class each drive two motors; large scale wants the 2 A class', () => {
