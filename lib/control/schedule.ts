@@ -1,4 +1,4 @@
-import { dutyFor, formatFast, type Plan, type Run } from '@/lib/planning';
+import { dropAt, driverDrop, dutyFor, formatFast, type Plan, type Run } from '@/lib/planning';
 import type { BlockWiring, ControlTiming, WiringSheet } from './wiring';
 
 /** Format name and version of the control schedule (documented in the README). */
@@ -223,6 +223,8 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
       input.runSpeedKmh[run.id] ?? speedFromSteps(run, (b) => blockById.get(b)?.lengthMm ?? 0, train.lengthMm, plan.scale.ratio);
     let pwm = 0;
     let pwmProblem: string | null = null;
+    // The bridge's greatest drop at the train's running current, so the duty is enough (see dutyFor).
+    const trainAmps = train.locoIds.reduce((sum, id) => sum + (locoById.get(id)?.runningAmps ?? 0), train.lightingAmps);
     for (const locoId of train.locoIds) {
       const loco = locoById.get(locoId);
       const top = input.locoTopSpeedKmh[locoId];
@@ -232,9 +234,10 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
       }
       const duty = dutyFor({
         supplyVolts: supply.volts,
-        dropVolts: driver.dropVolts,
+        dropVolts: dropAt(driverDrop(driver).max, trainAmps),
         ratedVolts: loco.ratedVolts,
         topSpeedKmh: top,
+        startVolts: loco.startVolts ?? 0,
         targetSpeedKmh: Math.round(speedKmh * 10) / 10,
       });
       if (!duty.ok) {
