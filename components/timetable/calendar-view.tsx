@@ -6,7 +6,7 @@ import FullCalendar from '@fullcalendar/react';
 import timeGridPlugin from '@fullcalendar/timegrid';
 import { useMemo } from 'react';
 import type { Highlight } from '@/lib/sessions/highlight';
-import { fastLabel, type SessionClock } from '@/lib/sessions/time-labels';
+import { fastLabel, MAX_VIEW_S, type SessionClock } from '@/lib/sessions/time-labels';
 import { floatingIso } from '@/lib/time-zone';
 import type { BuilderRun } from '@/lib/sessions/types';
 
@@ -46,14 +46,16 @@ export function CalendarView({
   const day = startIso.slice(0, 10);
   const midnight = Date.parse(`${day}T00:00:00Z`);
   const wallS = (ms: number) => (Date.parse(`${floatingIso(ms, clock.timeZone)}Z`) - midnight) / 1000;
-  const firstS = Math.min(wallS(clock.startsAtMs), ...runs.map((r) => wallS(clock.startsAtMs + r.departS * 1000)));
-  const lastS = Math.max(wallS(endsAtMs), ...runs.map((r) => wallS(clock.startsAtMs + r.arriveS * 1000)));
+  // Runs stored far outside the session (older data) are left out: the day column spans at most two days.
+  const shown = useMemo(() => runs.filter((r) => Math.abs(r.departS) <= MAX_VIEW_S && Math.abs(r.arriveS) <= MAX_VIEW_S), [runs]);
+  const firstS = shown.reduce((first, r) => Math.min(first, wallS(clock.startsAtMs + r.departS * 1000)), wallS(clock.startsAtMs));
+  const lastS = shown.reduce((last, r) => Math.max(last, wallS(clock.startsAtMs + r.arriveS * 1000)), wallS(endsAtMs));
   const minS = Math.max(0, Math.floor(firstS / 1800) * 1800);
-  const maxS = Math.ceil(lastS / 1800) * 1800 + 1800;
+  const maxS = Math.min(Math.ceil(lastS / 1800) * 1800 + 1800, minS + 48 * 3600);
 
   const events = useMemo<EventInput[]>(
     () =>
-      runs.map((run) => {
+      shown.map((run) => {
         const clash = clashing.has(run.id);
         const selected = highlight?.runIds.has(run.id) ?? false;
         const color = colorOf(run);
@@ -69,7 +71,7 @@ export function CalendarView({
           extendedProps: { clash },
         };
       }),
-    [runs, clashing, highlight, colorOf, label, clock],
+    [shown, clashing, highlight, colorOf, label, clock],
   );
 
   return (

@@ -5,7 +5,7 @@ import dynamic from 'next/dynamic';
 import { useCallback, useMemo, useState } from 'react';
 import type { Finding } from '@/lib/planning';
 import { clashingRuns, highlightOf, type Highlight } from '@/lib/sessions/highlight';
-import { fastLabel, type SessionClock } from '@/lib/sessions/time-labels';
+import { fastLabel, viewLengthS, type SessionClock } from '@/lib/sessions/time-labels';
 import type { BuilderLayout, BuilderRun, BuilderSnapshot } from '@/lib/sessions/types';
 import { Button } from '@/components/ui/button';
 import { Card, Notice } from '@/components/ui/card';
@@ -53,7 +53,7 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel }: Props) {
     () => ({ ratio: session.clockRatio, fastStart: session.fastStart, startsAtMs: session.startsAtMs, timeZone: session.timeZone }),
     [session.clockRatio, session.fastStart, session.startsAtMs, session.timeZone],
   );
-  const lengthS = Math.max((session.endsAtMs - session.startsAtMs) / 1000, ...runs.map((r) => r.arriveS));
+  const lengthS = viewLengthS((session.endsAtMs - session.startsAtMs) / 1000, runs);
   const editable = canEdit && session.status !== 'cancelled';
 
   const [view, setView] = useState<View>('graph');

@@ -42,9 +42,13 @@ function rowsOf(blocks: BuilderLayout['blocks']) {
 /** The time step between ticks, in fast minutes, for about `wanted` ticks across the window. */
 function tickStep(windowS: number, ratio: number, wanted: number): number {
   const fastMin = (windowS * ratio) / 60;
-  for (const step of [1, 2, 5, 10, 15, 30, 60, 120, 240]) if (fastMin / step <= wanted) return step;
-  return 480;
+  for (const step of [1, 2, 5, 10, 15, 30, 60, 120, 240, 480]) if (fastMin / step <= wanted) return step;
+  // Wider than a few fast days: whole fast days, as many as it takes to stay near `wanted` ticks.
+  return Math.ceil(fastMin / wanted / 1440) * 1440;
 }
+
+/** Ticks and grid lines drawn at most (a guard on top of tickStep, whatever the window). */
+const MAX_TICKS = 60;
 
 type GraphRunProps = {
   runId: string;
@@ -201,7 +205,7 @@ export function TrainGraph(props: Props) {
     const fastStartMin = Number(clock.fastStart.slice(0, 2)) * 60 + Number(clock.fastStart.slice(3, 5));
     // Align ticks to whole fast steps (e.g. 06:30, 06:45), not to the window's edge.
     const offsetS = (((-fastStartMin % step) + step) % step) * (60 / clock.ratio);
-    for (let s = Math.ceil((t0 - offsetS) / stepS) * stepS + offsetS; s <= t1; s += stepS) ticks.push(s);
+    for (let s = Math.ceil((t0 - offsetS) / stepS) * stepS + offsetS; s <= t1 && ticks.length < MAX_TICKS; s += stepS) ticks.push(s);
   }
 
   const overlaps = findings.filter((f) => f.kind === 'block-overlap');

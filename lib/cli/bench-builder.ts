@@ -87,7 +87,7 @@ async function main() {
     const started = performance.now();
     // What the PATCH handler does before writing: load the plan and validate the edited run in it.
     const loaded = loadSessionPlan(big.id);
-    assertRunsValid(loaded.plan, new Set([target]));
+    assertRunsValid(loaded.plan, new Set([target]), loaded.rows.session);
     updateRun(big.id, target, run.version, {
       departS: run.departS + delta,
       arriveS: run.arriveS + delta,

@@ -5,7 +5,7 @@ import type { loadLayoutRows } from '@/db/queries/plan-data';
 import { AppError, type Issue } from '@/lib/errors';
 import { defaultRules, formatIssuePath, planSchema, type Plan } from '@/lib/planning';
 import { layoutToPlan } from '@/lib/sessions/to-plan';
-import { blockSchema, cabSchema, driverSchema, locomotiveSchema, supplySchema, trainSchema } from '@/lib/validations/layout';
+import { blockSchema, cabSchema, driverSchema, inScaleRange, locomotiveSchema, SCALE_RATIO_MESSAGE, supplySchema, trainSchema } from '@/lib/validations/layout';
 
 type LayoutRows = ReturnType<typeof loadLayoutRows>;
 
@@ -80,6 +80,8 @@ export function planToImport(input: unknown, name: string | undefined): { data: 
     });
   };
   for (const scope of ['blocks', 'supplies', 'drivers', 'cabs', 'locos', 'trains'] as const) unique(plan[scope], scope);
+  // The same range as the layout form: a ratio of 1e308 once timed every run to hours beyond any session.
+  if (!inScaleRange(plan.scale.ratio)) issues.push({ path: 'scale.ratio', message: SCALE_RATIO_MESSAGE });
 
   const blocks = plan.blocks.map((b, i) => {
     const v = check(blockSchema, { name: b.name, length: b.lengthMm, unit: 'mm', position: ext.blocks[i]?.positionMm ?? 0 }, `blocks[${i}]`);

@@ -174,12 +174,34 @@ function fieldError(path: string, message: string): AppError {
   return new AppError('bad_request', message, { issues: [{ path, message }] });
 }
 
+/** How long the session lasts in real seconds: every time of its runs lies in [0, this]. */
+export function sessionLengthS(session: Pick<Session, 'startsAt' | 'endsAt'>): number {
+  return Math.max(0, (session.endsAt.getTime() - session.startsAt.getTime()) / 1000);
+}
+
+/** Times of one run outside the session's window (a stored run far outside it once took the server down). */
+function outsideWindow(run: Plan['runs'][number], lengthS: number): Issue[] {
+  const within = (t: unknown) => typeof t === 'number' && t >= 0 && t <= lengthS;
+  const message = `must lie within the session, 0 to ${lengthS} s after its start`;
+  const issues: Issue[] = [];
+  if (!within(run.departS)) issues.push({ path: 'departS', message });
+  if (!within(run.arriveS)) issues.push({ path: 'arriveS', message });
+  const step = run.steps.findIndex((s) => !within(s.enterS) || !within(s.exitS));
+  if (step >= 0) issues.push({ path: `steps[${step}]`, message });
+  return issues;
+}
+
 /**
  * Refuses (400) a plan whose named runs the plan interchange would not accept: unknown trains,
- * cabs, operators or blocks, steps out of order, a departure outside the first step. Issues
- * elsewhere in the plan are not the caller's doing and do not block their edit.
+ * cabs, operators or blocks, steps out of order, a departure outside the first step, any time
+ * outside the session's window. Issues elsewhere in the plan are not the caller's doing and do not
+ * block their edit.
  */
-export function assertRunsValid(plan: Plan, runIds: ReadonlySet<string>): void {
+export function assertRunsValid(plan: Plan, runIds: ReadonlySet<string>, session: Pick<Session, 'startsAt' | 'endsAt'>): void {
+  const lengthS = sessionLengthS(session);
+  const named = plan.runs.filter((r) => runIds.has(r.id));
+  const outside = named.flatMap((r) => outsideWindow(r, lengthS));
+  if (outside.length) throw new AppError('bad_request', `${outside[0]!.path}: ${outside[0]!.message}`, { issues: outside });
   const result = planSchema.safeParse(plan);
   if (result.success) return;
   const issues: Issue[] = [];

@@ -4,7 +4,7 @@ import type { Session } from '@/db/schema';
 import type { Member } from '@/lib/auth';
 import { AppError, conflict, notFound } from '@/lib/errors';
 import { suggestRetime } from '@/lib/planning';
-import { loadSessionPlan } from '@/lib/sessions/builder';
+import { loadSessionPlan, sessionLengthS } from '@/lib/sessions/builder';
 import { auditRunChange, changeAnswer } from '@/lib/sessions/changes';
 import type { BuilderChange, RetimeSuggestion } from '@/lib/sessions/types';
 import type { RetimeMoves } from '@/lib/validations/session';
@@ -22,6 +22,22 @@ export function retimeSuggestions(sessionId: string): RetimeSuggestion[] {
     .sort((a, b) => a.oldDepartS - b.oldDepartS || a.runId.localeCompare(b.runId));
 }
 
+/** Refuses (400) a move that would take any time of a run outside the session's window. */
+function assertMovesInWindow(session: Session, moves: RetimeMoves): void {
+  const { plan } = loadSessionPlan(session.id);
+  const lengthS = sessionLengthS(session);
+  const runOf = new Map(plan.runs.map((r) => [r.id, r]));
+  moves.forEach((m, i) => {
+    const run = runOf.get(m.runId);
+    if (!run) return;
+    const times = [run.departS, run.arriveS, ...run.steps.flatMap((s) => [s.enterS, s.exitS])].map((t) => t + m.delayS);
+    if (times.some((t) => t < 0 || t > lengthS)) {
+      const message = `this move takes the run outside the session, 0 to ${lengthS} s after its start`;
+      throw new AppError('bad_request', `moves[${i}].delayS: ${message}`, { issues: [{ path: `moves[${i}].delayS`, message }] });
+    }
+  });
+}
+
 /**
  * Shifts runs by the given delays in one transaction (all or nothing: a stale version answers 409
  * with the runs as they are now). The answer carries the moves that take it back.
@@ -30,6 +46,7 @@ export function applyMoves(session: Session, member: Member, moves: RetimeMoves,
   if (new Set(moves.map((m) => m.runId)).size !== moves.length) {
     throw new AppError('bad_request', 'Each run may be moved once per request.');
   }
+  assertMovesInWindow(session, moves);
   const result = shiftRuns(session.id, moves);
   if ('missing' in result) throw notFound(`Run ${result.missing[0]}`);
   if ('stale' in result) throw conflict(result.stale);

@@ -17,7 +17,20 @@ export function fastLabelSeconds(realS: number, clock: FastClock): string {
 }
 
 export function realLabel(realS: number, clock: SessionClock): string {
-  return formatTimeInZone(new Date(clock.startsAtMs + realS * 1000), clock.timeZone);
+  const date = new Date(clock.startsAtMs + realS * 1000);
+  // A time beyond what a Date holds (a stored run far outside the session) reads as unknown, not a crash.
+  return Number.isNaN(date.getTime()) ? '--:--' : formatTimeInZone(date, clock.timeZone);
+}
+
+/**
+ * How much time the builder's views span, in real seconds: the session, stretched to the last
+ * arrival, but never past a week (a run stored far outside the session must not make every view
+ * draw ticks and slots for years).
+ */
+export const MAX_VIEW_S = 7 * 86_400;
+export function viewLengthS(sessionLengthS: number, runs: readonly { arriveS: number }[]): number {
+  const lastArrival = runs.reduce((last, r) => (Number.isFinite(r.arriveS) ? Math.max(last, r.arriveS) : last), 0);
+  return Math.min(MAX_VIEW_S, Math.max(sessionLengthS, lastArrival));
 }
 
 /** `06:57–06:58 fast · 18:44–18:45 real` (one time when both ends read the same). */
@@ -47,8 +60,10 @@ export function fastTextToReal(text: string, clock: FastClock, nearS?: number): 
   let unwrapped = fastS < start ? fastS + day : fastS;
   if (nearS !== undefined) {
     const near = realToFast(nearS, clock);
-    while (unwrapped - near > day / 2) unwrapped -= day;
-    while (near - unwrapped > day / 2) unwrapped += day;
+    // The fast day nearest to `near`, by arithmetic rather than a day-by-day loop (`near` may be any number).
+    const ahead = unwrapped - near;
+    if (ahead > day / 2) unwrapped -= Math.ceil(ahead / day - 0.5) * day;
+    else if (-ahead > day / 2) unwrapped += Math.ceil(-ahead / day - 0.5) * day;
   }
   return (unwrapped - start) / clock.ratio;
 }

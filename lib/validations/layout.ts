@@ -91,13 +91,16 @@ export const layoutFields = z.object({
 });
 type LayoutFields = z.infer<typeof layoutFields>;
 
+/** Scale ratios a layout may have: 1:1 to 1:1000, around the scale table (Z, 1:220, is its smallest). */
+export const SCALE_RATIO_RANGE = { min: 1, max: 1000 } as const;
+export const SCALE_RATIO_MESSAGE = 'Use a ratio from 1 to 1000 (1:1 to 1:1000).';
+export const inScaleRange = (ratio: number) => ratio >= SCALE_RATIO_RANGE.min && ratio <= SCALE_RATIO_RANGE.max;
+
 function checkCustomScale(v: LayoutFields, ctx: z.RefinementCtx) {
   if (v.scaleId !== CUSTOM_SCALE) return;
   if (!v.customScaleName) ctx.addIssue({ code: 'custom', path: ['customScaleName'], message: 'Name your scale.' });
   if (v.customRatio === null) ctx.addIssue({ code: 'custom', path: ['customRatio'], message: 'Enter the ratio, e.g. 87 for 1:87.' });
-  else if (!(v.customRatio >= 1 && v.customRatio <= 1000)) {
-    ctx.addIssue({ code: 'custom', path: ['customRatio'], message: 'Use a ratio from 1 to 1000 (1:1 to 1:1000).' });
-  }
+  else if (!inScaleRange(v.customRatio)) ctx.addIssue({ code: 'custom', path: ['customRatio'], message: SCALE_RATIO_MESSAGE });
 }
 
 /** A layout's fields as stored: the scale's label and ratio from the scale table, or the planner's own. */

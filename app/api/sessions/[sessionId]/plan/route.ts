@@ -31,7 +31,7 @@ const postPlan = handler<Params>(async (request, { params }) => {
   assertTimetableEditable(session);
   const posted = parseOrThrow(postPlanSchema, await readJson(request, PLAN_MAX_BYTES));
   const { rows, plan } = loadSessionPlan(session.id);
-  assertRunsValid({ ...plan, runs: posted.runs }, new Set(posted.runs.map((r) => r.id)));
+  assertRunsValid({ ...plan, runs: posted.runs }, new Set(posted.runs.map((r) => r.id)), session);
   const speedOf = new Map(rows.runs.map((r) => [r.id, { speedKmh: r.speedKmh, note: r.note }]));
   replaceSessionRuns(
     session.id,

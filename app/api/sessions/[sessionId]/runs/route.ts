@@ -46,7 +46,7 @@ const createRun = handler<Params>(async (request, { params }) => {
     };
   }
   const draftId = '\u0000new-run';
-  assertRunsValid({ ...plan, runs: [...plan.runs, planRun({ ...values, id: draftId })] }, new Set([draftId]));
+  assertRunsValid({ ...plan, runs: [...plan.runs, planRun({ ...values, id: draftId })] }, new Set([draftId]), session);
   const [id] = insertRuns(session.id, [values]);
   if (!id) throw new AppError('bad_request', 'The run could not be added.');
   auditRunChange(member, 'create', id, { sessionId: session.id });

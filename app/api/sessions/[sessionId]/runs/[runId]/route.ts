@@ -58,7 +58,7 @@ const patchRun = handler<Params>(async (request, { params }) => {
     ...(patch.operatorId !== undefined ? { operatorId: patch.operatorId } : {}),
     ...(patch.departS !== undefined ? { departS: patch.departS, arriveS: patch.arriveS!, steps: patch.steps! } : {}),
   };
-  assertRunsValid({ ...plan, runs: plan.runs.map((r) => (r.id === runId ? edited : r)) }, new Set([runId]));
+  assertRunsValid({ ...plan, runs: plan.runs.map((r) => (r.id === runId ? edited : r)) }, new Set([runId]), session);
   const result = updateRun(session.id, runId, body.version, patch);
   if ('missing' in result) throw notFound('That run');
   if ('stale' in result) throw conflict(result.stale);

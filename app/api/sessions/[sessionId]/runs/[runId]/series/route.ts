@@ -34,7 +34,7 @@ const createSeries = handler<{ sessionId: string; runId: string }>(async (reques
     };
   });
   const draftIds = copies.map((_, i) => `\u0000copy-${i}`);
-  assertRunsValid({ ...plan, runs: [...plan.runs, ...copies.map((c, i) => planRun({ ...c, id: draftIds[i]! }))] }, new Set(draftIds));
+  assertRunsValid({ ...plan, runs: [...plan.runs, ...copies.map((c, i) => planRun({ ...c, id: draftIds[i]! }))] }, new Set(draftIds), session);
   const createdIds = insertRuns(session.id, copies);
   auditRunChange(member, 'create-series', runId, { sessionId: session.id, copies: createdIds.length, everyFastMin: body.everyFastMin });
   return Response.json(changeAnswer(session.id, { createdIds }), { status: 201 });
