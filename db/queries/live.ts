@@ -83,9 +83,19 @@ export type ReportValues = {
   byUserId: string;
 };
 
-/** Stores a report and its numbered live event in one write transaction. */
-export function addReport(sessionId: string, at: Date, values: ReportValues, summary: string): { report: RunReport; live: LiveEvent } {
+/**
+ * Stores a report and its numbered live event in one write transaction. `check` sees the session's
+ * reports so far (read inside the transaction, so two presses at once queue) and throws to store nothing.
+ */
+export function addReport(
+  sessionId: string,
+  at: Date,
+  values: ReportValues,
+  summary: string,
+  check: (stored: RunReport[]) => void,
+): { report: RunReport; live: LiveEvent } {
   return writeTransaction((tx) => {
+    check(listReports(sessionId, tx));
     const report = tx.insert(runReports).values({ ...values, sessionId, reportedAt: at }).returning().get();
     return { report, live: appendLiveEvent(tx, sessionId, 'report', summary, at) };
   });

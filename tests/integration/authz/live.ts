@@ -1,5 +1,5 @@
 import { makeSessionWorld } from './sessions';
-import { anyMember, plannerUp, type AuthzCase, type AuthzExemption, type World } from './shared';
+import { anyMember, plannerUp, type AuthzCase, type AuthzExemption, type Expect, type World } from './shared';
 
 const ctx = <P>(params: P) => ({ params: Promise.resolve(params) });
 const url = (path: string) => `http://127.0.0.1:3999${path}`;
@@ -25,6 +25,20 @@ export const LIVE_CASES: AuthzCase[] = [
     expect: plannerUp,
   },
 ];
+
+const reported: Expect = { anon: 401, outsider: 404, operator: 201, planner: 201, host: 201 };
+
+LIVE_CASES.push({
+  // runIds[0] is the world's operator's run, so the operator may report it.
+  target: 'app/api/sessions/[sessionId]/runs/[runId]/reports/route.ts#POST',
+  call: async (w) => {
+    const { session, runIds } = await startedSessionWorld(w);
+    const { POST } = await import('@/app/api/sessions/[sessionId]/runs/[runId]/reports/route');
+    const path = `/api/sessions/${session.id}/runs/${runIds[0]}/reports`;
+    return (await POST(json(path, { kind: 'departed' }), ctx({ sessionId: session.id, runId: runIds[0] }))).status;
+  },
+  expect: reported,
+});
 
 export const LIVE_EXEMPTIONS: AuthzExemption[] = [];
 

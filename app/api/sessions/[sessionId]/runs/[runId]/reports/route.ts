@@ -1,0 +1,26 @@
+import { parseOrThrow, readJson } from '@/lib/errors';
+import { handler } from '@/lib/http';
+import { publishLive } from '@/lib/live/hub';
+import { makeReport } from '@/lib/live/reports';
+import { buildLiveState } from '@/lib/live/state';
+import { requireSession } from '@/lib/sessions/access';
+import { assertTimetableEditable } from '@/lib/sessions/changes';
+import { reportSchema, runParamsSchema } from './schema';
+
+export const dynamic = 'force-dynamic';
+
+/** A run departed, arrived or stopped (the run's operator, a planner or the host); answers with the live state. */
+const report = handler<{ sessionId: string; runId: string }>(async (request, { params }) => {
+  const { sessionId, runId } = parseOrThrow(runParamsSchema, await params);
+  const { session, member } = await requireSession(sessionId, 'view');
+  assertTimetableEditable(session);
+  const input = parseOrThrow(reportSchema, await readJson(request, 10_000));
+  const { report: stored, live } = makeReport(session, member, runId, input);
+  publishLive(session.id);
+  return Response.json(
+    { report: { id: stored.id, kind: stored.kind, reason: stored.reason, sessionS: stored.sessionS, reportedAt: stored.reportedAt.getTime() }, seq: live.seq, state: buildLiveState(session.id) },
+    { status: 201 },
+  );
+});
+
+export { report as POST };

@@ -1,0 +1,2 @@
+export { reportSchema } from '@/lib/validations/live';
+export { runParamsSchema } from '@/lib/validations/session';
