@@ -83,6 +83,28 @@ export const memberships = sqliteTable(
   ],
 );
 
+/**
+ * A host's offer of membership to an e-mail address. Nothing attaches until the owner of that
+ * address, signed in with it verified, accepts; declining or a host withdrawing deletes the row.
+ */
+export const memberInvitations = sqliteTable(
+  'member_invitations',
+  {
+    id: id(),
+    railwayId: text('railway_id')
+      .notNull()
+      .references(() => railways.id, { onDelete: 'cascade' }),
+    email: text('email').notNull(),
+    role: text('role', { enum: ROLES }).notNull(),
+    invitedById: text('invited_by_id').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex('member_invitations_railway_email_idx').on(t.railwayId, t.email),
+    index('member_invitations_email_idx').on(t.email),
+  ],
+);
+
 export const layouts = sqliteTable(
   'layouts',
   {

@@ -3,6 +3,7 @@ import { redirect } from 'next/navigation';
 import { Wordmark } from '@/components/brand/logo';
 import { SignOutButton } from '@/components/railway/sign-out-button';
 import { currentUser } from '@/lib/current-user';
+import { env } from '@/lib/env';
 
 export default async function AppLayout({ children }: { children: React.ReactNode }) {
   const user = await currentUser();
@@ -18,6 +19,11 @@ export default async function AppLayout({ children }: { children: React.ReactNod
             <Link href="/my-runs" className="font-semibold text-verdigris hover:underline">
               My runs
             </Link>
+            {env().SMTP_URL ? null : (
+              <Link href="/my-mail" className="font-semibold text-verdigris hover:underline">
+                My mail
+              </Link>
+            )}
             <span className="hidden text-muted sm:inline" data-testid="signed-in-as">
               {user.name}
             </span>

@@ -1,7 +1,7 @@
 'use client';
 
 import { useActionState } from 'react';
-import { changeMemberRole, inviteMember, removeMember } from '@/app/(app)/railways/[railwayId]/members/actions';
+import { changeMemberRole, inviteMember, removeMember, withdrawMemberOffer } from '@/app/(app)/railways/[railwayId]/members/actions';
 import { Button } from '@/components/ui/button';
 import { Badge, Notice } from '@/components/ui/card';
 import { Field, Select, TextInput, inputClass } from '@/components/ui/field';
@@ -26,8 +26,11 @@ export function InviteMemberForm({ railwayId }: { railwayId: string }) {
           ))}
         </Select>
       </Field>
+      <p className="text-sm text-muted">
+        They join when they accept, signed in with this address. The e-mail carries no sign-in link.
+      </p>
       <Button type="submit" disabled={pending}>
-        {pending ? 'Adding…' : 'Add and e-mail a sign-in link'}
+        {pending ? 'Inviting…' : 'Invite by e-mail'}
       </Button>
     </form>
   );
@@ -79,6 +82,25 @@ export function MemberRow({
           <Badge tone={member.role === 'host' ? 'info' : member.role === 'planner' ? 'good' : 'neutral'}>{ROLE_LABELS[member.role]}</Badge>
         )}
       </div>
+    </li>
+  );
+}
+
+export function PendingOfferRow({ railwayId, offer }: { railwayId: string; offer: { email: string; role: Role } }) {
+  const [state, action, pending] = useActionState(withdrawMemberOffer.bind(null, railwayId), null);
+  return (
+    <li className="flex flex-col gap-2 py-3 sm:flex-row sm:items-center sm:justify-between" data-testid="offer-row">
+      <div>
+        <p className="font-semibold break-all">{offer.email}</p>
+        <p className="text-sm text-muted">Invited as {ROLE_LABELS[offer.role].toLowerCase()}, not accepted yet</p>
+        {state && !state.ok ? <p className="text-sm text-signal" role="alert">{state.error}</p> : null}
+      </div>
+      <form action={action}>
+        <input type="hidden" name="email" value={offer.email} />
+        <Button type="submit" variant="secondary" disabled={pending} aria-label={`Withdraw the invitation to ${offer.email}`}>
+          Withdraw
+        </Button>
+      </form>
     </li>
   );
 }

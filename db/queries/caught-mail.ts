@@ -1,7 +1,7 @@
 import 'server-only';
-import { desc, eq, or, sql } from 'drizzle-orm';
+import { desc, eq, sql } from 'drizzle-orm';
 import { getDb } from '@/db';
-import { caughtMail, memberships, users } from '@/db/schema';
+import { caughtMail, outbox } from '@/db/schema';
 
 /** Keeps a message the local mail server received; a repeated Message-ID is ignored. */
 export function storeCaughtMail(message: {
@@ -17,23 +17,40 @@ export function storeCaughtMail(message: {
 }
 
 /**
- * Messages the local server caught that were addressed to members of this railway, newest first.
- * Only used while Fishplate runs its own mail catcher (no SMTP_URL).
+ * Messages the local server caught that this railway sent, newest first: matched by the stable
+ * Message-ID of this railway's own outbox rows, never by recipient — so another railway's mail to a
+ * shared member, and personal mail (sign-in links, password resets), never show here. Only used
+ * while Fishplate runs its own mail catcher (no SMTP_URL).
  */
 export function listCaughtMailForRailway(railwayId: string, limit = 50) {
-  const db = getDb();
-  const addresses = db
-    .select({ email: users.email })
-    .from(memberships)
-    .innerJoin(users, eq(users.id, memberships.userId))
-    .where(eq(memberships.railwayId, railwayId))
-    .all()
-    .map((r) => r.email);
-  if (addresses.length === 0) return [];
-  return db
-    .select()
+  return getDb()
+    .select({
+      id: caughtMail.id,
+      toAddresses: caughtMail.toAddresses,
+      subject: caughtMail.subject,
+      text: caughtMail.text,
+      receivedAt: caughtMail.receivedAt,
+    })
     .from(caughtMail)
-    .where(or(...addresses.map((a) => sql`instr(${caughtMail.toAddresses}, ${`,${a},`}) > 0`)))
+    .innerJoin(outbox, eq(caughtMail.messageId, sql`'<' || ${outbox.id} || '@fishplate.local>'`))
+    .where(eq(outbox.railwayId, railwayId))
+    .orderBy(desc(caughtMail.receivedAt))
+    .limit(limit)
+    .all();
+}
+
+/** Messages the local server caught for one address, newest first (the owner's own view). */
+export function listCaughtMailTo(email: string, limit = 50) {
+  return getDb()
+    .select({
+      id: caughtMail.id,
+      toAddresses: caughtMail.toAddresses,
+      subject: caughtMail.subject,
+      text: caughtMail.text,
+      receivedAt: caughtMail.receivedAt,
+    })
+    .from(caughtMail)
+    .where(sql`instr(${caughtMail.toAddresses}, ${`,${email.toLowerCase()},`}) > 0`)
     .orderBy(desc(caughtMail.receivedAt))
     .limit(limit)
     .all();

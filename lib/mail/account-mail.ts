@@ -55,27 +55,31 @@ export function queueResetMail(to: string, token: string): void {
   });
 }
 
-/** Queues the message telling someone they were added to a railway, with a sign-in link. */
-export function queueMemberWelcomeMail(input: {
+/**
+ * Queues the message offering someone membership of a railway. It carries no sign-in link and no
+ * token: the person joins by accepting on their Railways page while signed in with this address,
+ * so reading this message (in the railway's outbox, say) gives no one access to their account.
+ */
+export function queueMembershipOfferMail(input: {
   railwayId: string;
   railwayName: string;
   to: string;
   role: string;
   invitedBy: string;
-  token: string;
+  hasAccount: boolean;
 }): void {
-  const url = absoluteUrl(`/sign-in/link?token=${encodeURIComponent(input.token)}`);
+  const url = absoluteUrl(input.hasAccount ? '/railways' : '/sign-up');
   enqueueMail({
     railwayId: input.railwayId,
-    dedupeKey: `member:${input.railwayId}:${input.to}:${crypto.randomUUID()}`,
-    kind: 'member-welcome',
+    dedupeKey: `member-offer:${input.railwayId}:${input.to}:${crypto.randomUUID()}`,
+    kind: 'member-offer',
     toAddress: input.to,
-    subject: `${input.invitedBy} added you to ${input.railwayName} on Fishplate`,
+    subject: `${input.invitedBy} invited you to join ${input.railwayName} on Fishplate`,
     ...linkMail({
-      intro: `${input.invitedBy} added you to ${input.railwayName} as ${input.role}. Fishplate plans the railway's operating sessions and sends the crew their invitations.`,
-      action: 'Sign in to Fishplate',
+      intro: `${input.invitedBy} invited you to join ${input.railwayName} as ${input.role}. Fishplate plans the railway's operating sessions and sends the crew their invitations.`,
+      action: input.hasAccount ? 'Sign in and accept on your Railways page' : 'Create an account with this address, then accept',
       url,
-      after: 'The link works once and expires in 15 minutes; afterwards, ask for a new one on the sign-in page.',
+      after: 'Nothing changes until you accept while signed in with this address. If you do not want to join, decline there or ignore this message.',
     }),
   });
 }

@@ -1,4 +1,4 @@
-import { DEMO, DEMO_PASSWORD, DEMO_RAILWAY, expect, screenshotBoth, test } from './fixtures';
+import { DEMO, DEMO_PASSWORD, DEMO_RAILWAY, expect, readOwnMail, screenshotBoth, test } from './fixtures';
 
 test('a newcomer signs up, starts a railway and lands on its overview', async ({ page }) => {
   await page.goto('/');
@@ -27,34 +27,36 @@ test('a wrong password is refused with a message', async ({ page, signInPage }) 
   await expect(page).toHaveURL(/\/sign-in/);
 });
 
-test('a sign-in link arrives in the mail outbox and signs the operator in once', async ({ page, browser, signInPage, signInAs, railwayPage }) => {
+test('a sign-in link reaches only its owner (never a railway outbox) and signs the operator in once', async ({ page, browser, signInPage, signInAs, railwayPage }) => {
   await signInPage.goto();
   await screenshotBoth(page, 'sign-in');
   await signInPage.requestLink(DEMO.operator);
 
+  // The owner reads it in their own mail (on the demo server: npm run mail:read -- ADDRESS).
+  let link = '';
+  await expect(() => {
+    link = /https?:\/\/\S+\/sign-in\/link\?token=\S+/.exec(readOwnMail(DEMO.operator))?.[0] ?? '';
+    expect(link).not.toBe('');
+  }).toPass({ timeout: 20_000 });
+
+  // Issue 10, finding 1: the host's Mail outbox never shows it.
   await signInAs('host');
   await railwayPage.openFromList(DEMO_RAILWAY);
   await railwayPage.openTab('Mail outbox');
-  const message = page.getByTestId('caught-mail').locator('li').filter({ hasText: 'Your Fishplate sign-in link' }).filter({ hasText: DEMO.operator });
-  await expect(async () => {
-    await page.reload();
-    await expect(message.first()).toBeVisible({ timeout: 1000 });
-  }).toPass({ timeout: 20_000 });
-  await message.first().locator('summary').click();
+  await expect(page.getByRole('heading', { name: 'Delivery status' })).toBeVisible();
+  await expect(page.getByText('Your Fishplate sign-in link')).toHaveCount(0);
   await screenshotBoth(page, 'mail-outbox');
-  const link = await message.first().getByRole('link', { name: /sign-in\/link\?token=/ }).getAttribute('href');
-  expect(link).toBeTruthy();
 
   const fresh = await browser.newContext();
   const operatorPage = await fresh.newPage();
-  await operatorPage.goto(link!);
+  await operatorPage.goto(link);
   await operatorPage.getByRole('button', { name: 'Sign in to Fishplate' }).click();
   await expect(operatorPage).toHaveURL(/\/railways$/);
   await expect(operatorPage.getByTestId('signed-in-as')).toHaveText('Juno Carraway');
 
   // The link works once.
   const again = await (await browser.newContext()).newPage();
-  await again.goto(link!);
+  await again.goto(link);
   await again.getByRole('button', { name: 'Sign in to Fishplate' }).click();
   await expect(again.getByText('expired or was already used')).toBeVisible();
   await fresh.close();

@@ -1,3 +1,4 @@
+import { execFileSync } from 'node:child_process';
 import fs from 'node:fs';
 import { test as base, expect, type Page } from '@playwright/test';
 import { RailwayPage } from './pages/railway-page';
@@ -41,5 +42,16 @@ export const test = base.extend<{
     });
   },
 });
+
+/**
+ * What the local mail catcher kept for one address, read the way a developer does on the server
+ * (`npm run mail:read -- ADDRESS`): sign-in and reset mail is shown to no one in the app.
+ */
+export function readOwnMail(address: string): string {
+  return execFileSync('npx', ['tsx', '--conditions', 'react-server', 'lib/cli/mail-read.ts', address, '10'], {
+    env: { ...process.env, DATABASE_URL: `data/e2e-${process.env.E2E_PORT ?? 3210}.db` },
+    encoding: 'utf8',
+  });
+}
 
 export { expect };

@@ -1,7 +1,8 @@
-import { DEMO, DEMO_RAILWAY, expect, screenshotBoth, test } from './fixtures';
+import { DEMO, DEMO_PASSWORD, DEMO_RAILWAY, expect, screenshotBoth, test } from './fixtures';
+import { SignInPage } from './pages/sign-in-page';
 import { demoSessionIds, InvitationReplyPage, InvitationTrackerPage } from './pages/invitation-tracker-page';
 
-test('the host invites the crew, a reply link from the mail outbox is accepted, and the tracker shows it', async ({ page, signInAs, railwayPage }) => {
+test('the host invites the crew, the operator accepts from their own mail, and the tracker shows it', async ({ page, browser, signInAs, railwayPage }) => {
   const { railwayId, sessionId } = demoSessionIds();
   const tracker = new InvitationTrackerPage(page);
   await signInAs('host');
@@ -26,16 +27,32 @@ test('the host invites the crew, a reply link from the mail outbox is accepted, 
   await expect(tracker.row(DEMO.operator).getByText('sent', { exact: true })).toBeVisible({ timeout: 20_000 });
   await expect(tracker.count('not-sent-yet')).toHaveText('0');
 
-  // The invitation as caught by the local mail server, with its reply links.
+  // The invitation as caught by the local mail server. The host sees what was sent, with the
+  // reply links masked (issue 10, finding 1); the operator answers from their own mail.
   await railwayPage.openTab('Mail outbox');
   const mail = page.getByTestId('caught-mail').locator('li', { hasText: `to ${DEMO.operator}` }).filter({ hasText: 'Invitation: December running evening' });
   await expect(mail).toHaveCount(1, { timeout: 20_000 });
   await mail.locator('summary').click();
   await expect(mail).toContainText('Your runs (5):');
+  await expect(mail.getByRole('link', { name: /answer=accepted/ })).toHaveCount(0);
+  await expect(mail).toContainText('personal link');
   await screenshotBoth(page, 'invitations-mail');
-  await mail.getByRole('link', { name: /answer=accepted/ }).click();
-  await new InvitationReplyPage(page).confirm('Accept');
-  await screenshotBoth(page, 'invitations-reply');
+
+  const operatorContext = await browser.newContext();
+  const operatorPage = await operatorContext.newPage();
+  const operatorSignIn = new SignInPage(operatorPage);
+  await operatorSignIn.goto();
+  await operatorSignIn.signIn(DEMO.operator, DEMO_PASSWORD);
+  await expect(operatorPage).toHaveURL(/\/railways$/);
+  await operatorPage.getByRole('link', { name: 'My mail' }).click();
+  const own = operatorPage.getByTestId('my-mail').locator('li').filter({ hasText: 'Invitation: December running evening' });
+  await expect(own).toHaveCount(1);
+  await own.locator('summary').click();
+  await screenshotBoth(operatorPage, 'my-mail');
+  await own.getByRole('link', { name: /answer=accepted/ }).click();
+  await new InvitationReplyPage(operatorPage).confirm('Accept');
+  await screenshotBoth(operatorPage, 'invitations-reply');
+  await operatorContext.close();
 
   await tracker.goto(railwayId, sessionId);
   await expect(tracker.row(DEMO.operator).getByTestId('rsvp')).toHaveText('accepted');

@@ -1,24 +1,27 @@
 import { describe, expect, it } from 'vitest';
 import { changeMemberRole, inviteMember, removeMember } from '@/app/(app)/railways/[railwayId]/members/actions';
 import { getDb } from '@/db';
+import { listMemberInvitations } from '@/db/queries/member-invitations';
 import { getMembership, listMembers } from '@/db/queries/memberships';
 import { auditLog, outbox } from '@/db/schema';
 import { signInAs } from './caller';
 import { formData, makeWorld } from './world';
 
 describe('members', () => {
-  it('a host adds a member by e-mail: account, membership, audit entry and a sign-in link', async () => {
+  it('a host invites a member by e-mail: an offer, an audit entry and a message with no sign-in link (issue 10, finding 1)', async () => {
     const w = makeWorld();
     signInAs(w.host);
     const state = await inviteMember(w.railway.id, null, formData({ email: 'Newcomer@Test.Example', role: 'planner' }));
     expect(state).toMatchObject({ ok: true });
-    const added = listMembers(w.railway.id).find((m) => m.email === 'newcomer@test.example');
-    expect(added).toMatchObject({ role: 'planner', hasPassword: false });
+    // Nothing attaches until they accept (tests/integration/account-hardening.test.ts).
+    expect(listMembers(w.railway.id).find((m) => m.email === 'newcomer@test.example')).toBeUndefined();
+    expect(listMemberInvitations(w.railway.id)).toMatchObject([{ email: 'newcomer@test.example', role: 'planner' }]);
     const mail = getDb().select().from(outbox).all().filter((m) => m.toAddress === 'newcomer@test.example');
     expect(mail).toHaveLength(1);
     expect(mail[0]!.railwayId).toBe(w.railway.id);
-    expect(mail[0]!.text).toContain('/sign-in/link?token=');
-    expect(getDb().select().from(auditLog).all().some((a) => a.action === 'add' && a.entityId === added!.userId)).toBe(true);
+    expect(mail[0]!.text).toContain('/sign-up');
+    expect(mail[0]!.text).not.toContain('token=');
+    expect(getDb().select().from(auditLog).all().some((a) => a.action === 'offer' && a.railwayId === w.railway.id)).toBe(true);
   });
 
   it('bad input gets a field message and changes nothing', async () => {

@@ -1,9 +1,14 @@
 'use server';
 
+import { revalidatePath } from 'next/cache';
 import { redirect } from 'next/navigation';
-import { createRailway as insertRailway } from '@/db/queries/railways';
+import { z } from 'zod';
+import { listMemberInvitationsFor, takeMemberInvitation } from '@/db/queries/member-invitations';
+import { addMember } from '@/db/queries/memberships';
+import { createRailway as insertRailway, recordAudit } from '@/db/queries/railways';
+import { getUserById } from '@/db/queries/users';
 import { requireUser } from '@/lib/auth';
-import { type ActionState, parseOrThrow } from '@/lib/errors';
+import { AppError, notFound, type ActionState, parseOrThrow } from '@/lib/errors';
 import { action } from '@/lib/http';
 import { railwaySchema } from '@/lib/validations/account';
 
@@ -13,4 +18,27 @@ export const createRailway = action(['state', 'form'], async (_prev, formData): 
   const input = parseOrThrow(railwaySchema, { name: formData.get('name'), timeZone: formData.get('timeZone') });
   const railwayId = insertRailway({ ...input, hostUserId: user.id }).id;
   redirect(`/railways/${railwayId}`);
+});
+
+const offerSchema = z.object({ invitationId: z.string().min(1).max(100), answer: z.enum(['accept', 'decline']) });
+
+/**
+ * The signed-in owner of an address answers a railway's offer of membership made to it. Only an
+ * address the account has proved (a link sent to it was followed) may accept, so an account
+ * registered in someone else's name before they arrive never collects their memberships.
+ */
+export const answerMemberOffer = action(['state', 'form'], async (_prev, formData): Promise<ActionState> => {
+  const caller = await requireUser();
+  const input = parseOrThrow(offerSchema, { invitationId: formData.get('invitationId'), answer: formData.get('answer') });
+  const user = getUserById(caller.id);
+  if (!user || !listMemberInvitationsFor(user.email).some((o) => o.id === input.invitationId)) throw notFound('That invitation');
+  if (input.answer === 'accept' && !user.emailVerifiedAt) {
+    throw new AppError('forbidden', 'Confirm your e-mail address first: follow the link in the message we sent to it, then accept.');
+  }
+  const offer = takeMemberInvitation(input.invitationId, user.email);
+  if (!offer) throw notFound('That invitation');
+  if (input.answer === 'accept') addMember(offer.railwayId, user.id, offer.role);
+  recordAudit({ railwayId: offer.railwayId, userId: user.id, action: `${input.answer}-offer`, entity: 'member', entityId: user.id, detail: { role: offer.role } });
+  revalidatePath('/railways');
+  return { ok: true, message: input.answer === 'accept' ? 'You joined the railway.' : 'Invitation declined.' };
 });

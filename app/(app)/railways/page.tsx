@@ -1,7 +1,9 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
+import { listMemberInvitationsFor } from '@/db/queries/member-invitations';
 import { listRailwaysOfUser } from '@/db/queries/memberships';
 import { CreateRailwayForm } from '@/components/railway/create-railway-form';
+import { MemberOfferRow } from '@/components/railway/member-offer-forms';
 import { Badge, Card } from '@/components/ui/card';
 import { requireUser } from '@/lib/auth';
 import { ROLE_LABELS } from '@/lib/roles';
@@ -11,10 +13,20 @@ export const metadata: Metadata = { title: 'My railways' };
 export default async function RailwaysPage() {
   const user = await requireUser();
   const railways = listRailwaysOfUser(user.id);
+  const offers = listMemberInvitationsFor(user.email);
   return (
     <div className="grid gap-6 lg:grid-cols-[1fr_22rem]">
       <div className="space-y-4">
         <h1 className="font-display text-3xl font-bold">My railways</h1>
+        {offers.length > 0 ? (
+          <Card title="Invitations to join">
+            <ul className="divide-y divide-line">
+              {offers.map((o) => (
+                <MemberOfferRow key={o.id} offer={o} />
+              ))}
+            </ul>
+          </Card>
+        ) : null}
         {railways.length === 0 ? (
           <Card>
             <p className="text-muted">

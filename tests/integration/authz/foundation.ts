@@ -42,6 +42,30 @@ export const FOUNDATION_CASES: AuthzCase[] = [
     },
     expect: hostOnly,
   },
+  {
+    target: `${MEMBERS}#withdrawMemberOffer`,
+    call: async (w) => {
+      const { withdrawMemberOffer } = await import('@/app/(app)/railways/[railwayId]/members/actions');
+      const { upsertMemberInvitation } = await import('@/db/queries/member-invitations');
+      upsertMemberInvitation({ railwayId: w.railway.id, email: 'offered@test.example', role: 'operator', invitedById: w.host.id });
+      return actionStatus(() => withdrawMemberOffer(w.railway.id, null, formData({ email: 'offered@test.example' })));
+    },
+    expect: hostOnly,
+  },
+  {
+    // An offer of membership made to the operator's address by the other railway: only the owner
+    // of that address may answer it; anyone else finds nothing.
+    target: 'app/(app)/railways/actions.ts#answerMemberOffer',
+    call: async (w) => {
+      const { answerMemberOffer } = await import('@/app/(app)/railways/actions');
+      const { upsertMemberInvitation } = await import('@/db/queries/member-invitations');
+      const { markEmailVerified } = await import('@/db/queries/users');
+      for (const u of [w.operator, w.planner, w.host, w.outsider]) markEmailVerified(u.id);
+      const offer = upsertMemberInvitation({ railwayId: w.otherRailway.id, email: w.operator.email, role: 'operator', invitedById: w.outsider.id });
+      return actionStatus(() => answerMemberOffer(null, formData({ invitationId: offer.id, answer: 'accept' })));
+    },
+    expect: { anon: 401, outsider: 404, operator: 200, planner: 404, host: 404 },
+  },
   // Account actions are for people who are not signed in yet: every caller gets the same answer.
   {
     target: 'app/(auth)/sign-in/actions.ts#requestSignInLink',

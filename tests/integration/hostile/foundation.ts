@@ -43,6 +43,24 @@ export const FOUNDATION_HOSTILE: HostileTarget[] = [
     },
   },
   {
+    target: `${MEMBERS}#withdrawMemberOffer`,
+    kind: 'action',
+    fields: ['email'],
+    send: async (w, f) => {
+      const { withdrawMemberOffer } = await import('@/app/(app)/railways/[railwayId]/members/actions');
+      return actionStatus(() => withdrawMemberOffer(w.railway.id, null, formData(f)));
+    },
+  },
+  {
+    target: 'app/(app)/railways/actions.ts#answerMemberOffer',
+    kind: 'action',
+    fields: ['invitationId', 'answer'],
+    send: async (_w, f) => {
+      const { answerMemberOffer } = await import('@/app/(app)/railways/actions');
+      return actionStatus(() => answerMemberOffer(null, formData(f)));
+    },
+  },
+  {
     target: 'app/(auth)/sign-in/actions.ts#requestSignInLink',
     kind: 'action',
     fields: ['email'],

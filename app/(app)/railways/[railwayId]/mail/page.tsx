@@ -1,10 +1,12 @@
 import type { Metadata } from 'next';
 import { listCaughtMailForRailway } from '@/db/queries/caught-mail';
 import { listOutbox } from '@/db/queries/outbox';
+import { MailText } from '@/components/mail/mail-text';
 import { NotAllowed } from '@/components/railway/not-allowed';
 import { Badge, Card, Notice } from '@/components/ui/card';
 import { env } from '@/lib/env';
 import { formatInZone } from '@/lib/format';
+import { maskPersonalLinks } from '@/lib/mail/personal-links';
 import { memberForPage } from '@/lib/page-access';
 import { getRailway } from '@/db/queries/railways';
 
@@ -26,8 +28,9 @@ export default async function MailPage({ params }: { params: Promise<{ railwayId
       {localCatcher ? (
         <Notice tone="info">
           Fishplate is not connected to a mail server (no <code>SMTP_URL</code>), so it catches its own e-mail on this
-          machine and shows here what was sent to this railway&apos;s members — sign-in links included. Set{' '}
-          <code>SMTP_URL</code> to send real e-mail; this view then shows delivery status only.
+          machine and shows here what this railway sent. Links that act for the recipient (reply buttons) are masked:
+          each person reads their own mail under <strong>My mail</strong>, and sign-in and password-reset mail is never
+          shown here. Set <code>SMTP_URL</code> to send real e-mail; this view then shows delivery status only.
         </Notice>
       ) : null}
       <Card title="Delivery status">
@@ -80,7 +83,7 @@ export default async function MailPage({ params }: { params: Promise<{ railwayId
                       </span>
                     </summary>
                     <div className="border-t border-line p-3">
-                      <pre className="whitespace-pre-wrap break-words font-sans text-sm">{linkify(m.text)}</pre>
+                      <pre className="whitespace-pre-wrap break-words font-sans text-sm"><MailText text={maskPersonalLinks(m.text)} /></pre>
                     </div>
                   </details>
                 </li>
@@ -90,18 +93,5 @@ export default async function MailPage({ params }: { params: Promise<{ railwayId
         </Card>
       ) : null}
     </div>
-  );
-}
-
-/** Turns the URLs in a plain-text message into links (only our own absolute http(s) URLs appear). */
-function linkify(text: string) {
-  return text.split(/(https?:\/\/\S+)/g).map((part, i) =>
-    /^https?:\/\//.test(part) ? (
-      <a key={i} href={part} className="break-all text-verdigris underline">
-        {part}
-      </a>
-    ) : (
-      part
-    ),
   );
 }

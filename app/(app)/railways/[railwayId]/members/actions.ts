@@ -2,42 +2,60 @@
 
 import { revalidatePath } from 'next/cache';
 import { z } from 'zod';
-import { addMember, countHosts, getMembership, removeMember as deleteMembership, setMemberRole } from '@/db/queries/memberships';
+import { countHosts, getMembership, removeMember as deleteMembership, setMemberRole } from '@/db/queries/memberships';
 import { getRailway, recordAudit } from '@/db/queries/railways';
-import { createUser, getUserByEmail } from '@/db/queries/users';
+import { upsertMemberInvitation, withdrawMemberInvitation } from '@/db/queries/member-invitations';
+import { getUserByEmail } from '@/db/queries/users';
 import { requireMember } from '@/lib/auth';
 import { AppError, notFound, type ActionState, parseOrThrow } from '@/lib/errors';
 import { action } from '@/lib/http';
-import { queueMemberWelcomeMail } from '@/lib/mail/account-mail';
+import { queueMembershipOfferMail } from '@/lib/mail/account-mail';
 import { ROLE_LABELS } from '@/lib/roles';
-import { issueAuthToken } from '@/lib/tokens';
-import { changeRoleSchema, inviteMemberSchema, removeMemberSchema } from '@/lib/validations/account';
+import { changeRoleSchema, inviteMemberSchema, removeMemberSchema, requestLinkSchema } from '@/lib/validations/account';
 
 const railwayIdSchema = z.string().min(1).max(100);
 
-/** Host only: adds someone by e-mail (creating their account if needed) and e-mails them a sign-in link. */
+/**
+ * Host only: offers membership to an e-mail address. Nothing attaches until the owner of the
+ * address accepts while signed in with it (an existing account is never added, and no sign-in link
+ * is sent, on someone else's word). The e-mail says how to accept and carries no token.
+ */
 export const inviteMember = action(['id', 'state', 'form'], async (railwayId, _prev, formData): Promise<ActionState> => {
   const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'add members');
   const input = parseOrThrow(inviteMemberSchema, { email: formData.get('email'), role: formData.get('role') });
   const railway = getRailway(host.railwayId);
   if (!railway) throw notFound('That railway');
-  const user = getUserByEmail(input.email) ?? createUser({ email: input.email, name: input.email.split('@')[0] ?? input.email, passwordHash: null });
-  if (!addMember(host.railwayId, user.id, input.role)) {
+  const existing = getUserByEmail(input.email);
+  if (existing && getMembership(host.railwayId, existing.id)) {
     throw new AppError('conflict', `${input.email} is already a member.`, {
       issues: [{ path: 'email', message: `${input.email} is already a member.` }],
     });
   }
-  queueMemberWelcomeMail({
+  const offer = upsertMemberInvitation({ railwayId: host.railwayId, email: input.email, role: input.role, invitedById: host.user.id });
+  queueMembershipOfferMail({
     railwayId: host.railwayId,
     railwayName: railway.name,
-    to: user.email,
+    to: input.email,
     role: ROLE_LABELS[input.role].toLowerCase(),
     invitedBy: host.user.name,
-    token: issueAuthToken(user.id, 'sign-in'),
+    hasAccount: Boolean(existing),
   });
-  recordAudit({ railwayId: host.railwayId, userId: host.user.id, action: 'add', entity: 'member', entityId: user.id, detail: { role: input.role } });
+  recordAudit({ railwayId: host.railwayId, userId: host.user.id, action: 'offer', entity: 'member', entityId: offer.id, detail: { role: input.role } });
   revalidatePath(`/railways/${host.railwayId}/members`);
-  return { ok: true, message: `Added ${input.email} as ${ROLE_LABELS[input.role].toLowerCase()} and e-mailed a sign-in link.` };
+  return {
+    ok: true,
+    message: `Invited ${input.email} as ${ROLE_LABELS[input.role].toLowerCase()}. They join when they accept, signed in with that address.`,
+  };
+});
+
+/** Host only: withdraws an offer of membership that has not been accepted yet. */
+export const withdrawMemberOffer = action(['id', 'state', 'form'], async (railwayId, _prev, formData): Promise<ActionState> => {
+  const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'withdraw invitations');
+  const { email } = parseOrThrow(requestLinkSchema, { email: formData.get('email') });
+  if (!withdrawMemberInvitation(host.railwayId, email)) throw notFound('That invitation');
+  recordAudit({ railwayId: host.railwayId, userId: host.user.id, action: 'withdraw-offer', entity: 'member', entityId: email });
+  revalidatePath(`/railways/${host.railwayId}/members`);
+  return { ok: true, message: `Withdrew the invitation to ${email}.` };
 });
 
 function assertNotLastHost(railwayId: string, userId: string) {

@@ -1,7 +1,8 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
+import { listMemberInvitations } from '@/db/queries/member-invitations';
 import { listMembers } from '@/db/queries/memberships';
-import { InviteMemberForm, MemberRow } from '@/components/members/member-forms';
+import { InviteMemberForm, MemberRow, PendingOfferRow } from '@/components/members/member-forms';
 import { Card } from '@/components/ui/card';
 import { memberForPage } from '@/lib/page-access';
 import { ROLE_LABELS, ROLE_SUMMARIES, ROLES } from '@/lib/roles';
@@ -14,8 +15,10 @@ export default async function MembersPage({ params }: { params: Promise<{ railwa
   if (!member) notFound();
   const isHost = member.role === 'host';
   const members = listMembers(railwayId);
+  const offers = isHost ? listMemberInvitations(railwayId) : [];
   return (
     <div className="grid gap-6 lg:grid-cols-[1fr_22rem]">
+      <div className="space-y-6">
       <Card title={`Members (${members.length})`}>
         <ul className="divide-y divide-line" data-testid="member-list">
           {members.map((m) => (
@@ -29,6 +32,16 @@ export default async function MembersPage({ params }: { params: Promise<{ railwa
           ))}
         </ul>
       </Card>
+      {offers.length > 0 ? (
+        <Card title={`Invited, not joined yet (${offers.length})`}>
+          <ul className="divide-y divide-line" data-testid="offer-list">
+            {offers.map((o) => (
+              <PendingOfferRow key={o.id} railwayId={railwayId} offer={o} />
+            ))}
+          </ul>
+        </Card>
+      ) : null}
+      </div>
       <div className="space-y-6">
         {isHost ? (
           <Card title="Add a member">

@@ -1,0 +1,102 @@
+// Issue 10's account findings, one test (or more) named after each. Each was seen failing on the
+// code before its fix.
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { inviteMember, withdrawMemberOffer } from '@/app/(app)/railways/[railwayId]/members/actions';
+import { answerMemberOffer } from '@/app/(app)/railways/actions';
+import { requestPasswordReset } from '@/app/(auth)/reset-password/actions';
+import { requestSignInLink } from '@/app/(auth)/sign-in/actions';
+import { getDb } from '@/db';
+import { listCaughtMailForRailway } from '@/db/queries/caught-mail';
+import { listMemberInvitationsFor } from '@/db/queries/member-invitations';
+import { getMembership } from '@/db/queries/memberships';
+import { markEmailVerified } from '@/db/queries/users';
+import { outbox } from '@/db/schema';
+import { startLocalMailServer } from '@/lib/mail/local-server';
+import { deliverDueMail, enqueueMail } from '@/lib/mail/outbox';
+import { maskPersonalLinks, PERSONAL_LINK_MASK } from '@/lib/mail/personal-links';
+import { closeTransport } from '@/lib/mail/transport';
+import { signInAs } from './caller';
+import { formData, makeWorld } from './world';
+
+let server: Awaited<ReturnType<typeof startLocalMailServer>>;
+
+beforeAll(async () => {
+  server = await startLocalMailServer(0);
+  process.env.LOCAL_SMTP_ACTUAL_PORT = String(server.port);
+});
+
+afterAll(async () => {
+  closeTransport();
+  await new Promise<void>((resolve) => server.close(() => resolve()));
+});
+
+beforeEach(() => signInAs(null));
+
+/** Every message's full text, for "no link in it" checks. */
+function allMailTo(address: string) {
+  return getDb().select().from(outbox).all().filter((m) => m.toAddress === address);
+}
+
+describe('finding 1: account takeover through the Mail outbox', () => {
+  it("finding 1: a railway's outbox never shows another railway's or personal mail", async () => {
+    const w = makeWorld();
+    // Our operator is also a member elsewhere, and gets mail from there and personal mail.
+    enqueueMail({ railwayId: w.railway.id, dedupeKey: `ours-${w.railway.id}`, kind: 'test', toAddress: w.operator.email, subject: 'From our railway', text: 'ours' });
+    enqueueMail({ railwayId: w.otherRailway.id, dedupeKey: `theirs-${w.railway.id}`, kind: 'test', toAddress: w.operator.email, subject: 'From the other railway', text: 'theirs http://x/reply?token=abc' });
+    expect(await requestSignInLink(null, formData({ email: w.operator.email }))).toMatchObject({ ok: true });
+    expect(await requestPasswordReset(null, formData({ email: w.operator.email }))).toMatchObject({ ok: true });
+    expect((await deliverDueMail()).failed).toBe(0);
+
+    const subjects = listCaughtMailForRailway(w.railway.id).map((m) => m.subject);
+    expect(subjects).toEqual(['From our railway']);
+    expect(listCaughtMailForRailway(w.otherRailway.id).map((m) => m.subject)).toEqual(['From the other railway']);
+  });
+
+  it('finding 1: adding an existing account offers membership; it attaches nothing and mails no sign-in link', async () => {
+    const w = makeWorld();
+    // The "attacker" hosts their own railway and adds our host's address to it.
+    signInAs(w.outsider);
+    expect(await inviteMember(w.otherRailway.id, null, formData({ email: w.host.email, role: 'operator' }))).toMatchObject({ ok: true });
+    expect(getMembership(w.otherRailway.id, w.host.id)).toBeUndefined();
+    const mail = allMailTo(w.host.email);
+    expect(mail).toHaveLength(1);
+    expect(mail[0]!.text).not.toMatch(/token=/);
+    expect(mail[0]!.html ?? '').not.toMatch(/token=/);
+  });
+
+  it('finding 1: the invited person joins only by accepting, signed in with a proved address; a withdrawn offer cannot be taken', async () => {
+    const w = makeWorld();
+    const newcomer = w.makeUser('newcomer');
+    signInAs(w.host);
+    await inviteMember(w.railway.id, null, formData({ email: newcomer.email, role: 'planner' }));
+    const [offer] = listMemberInvitationsFor(newcomer.email);
+    expect(offer).toMatchObject({ railwayId: w.railway.id, role: 'planner' });
+    // Someone else cannot take it, even knowing its id.
+    signInAs(w.outsider);
+    expect(await answerMemberOffer(null, formData({ invitationId: offer!.id, answer: 'accept' }))).toMatchObject({ ok: false, status: 404 });
+    // The owner, before proving the address: refused.
+    signInAs(newcomer);
+    expect(await answerMemberOffer(null, formData({ invitationId: offer!.id, answer: 'accept' }))).toMatchObject({ ok: false, status: 403 });
+    markEmailVerified(newcomer.id);
+    expect(await answerMemberOffer(null, formData({ invitationId: offer!.id, answer: 'accept' }))).toMatchObject({ ok: true });
+    expect(getMembership(w.railway.id, newcomer.id)?.role).toBe('planner');
+    expect(listMemberInvitationsFor(newcomer.email)).toHaveLength(0);
+
+    const other = w.makeUser('other');
+    markEmailVerified(other.id);
+    signInAs(w.host);
+    await inviteMember(w.railway.id, null, formData({ email: other.email, role: 'operator' }));
+    expect(await withdrawMemberOffer(w.railway.id, null, formData({ email: other.email }))).toMatchObject({ ok: true });
+    signInAs(other);
+    expect(listMemberInvitationsFor(other.email)).toHaveLength(0);
+    expect(getMembership(w.railway.id, other.id)).toBeUndefined();
+  });
+
+  it("finding 1: links that act for the recipient are masked in a railway's outbox view", () => {
+    const text = 'Accept: http://127.0.0.1:3999/reply?token=abc.def&answer=accepted\nTimetable: http://127.0.0.1:3999/railways/r1/sessions/s1';
+    const masked = maskPersonalLinks(text);
+    expect(masked).not.toContain('token=');
+    expect(masked).toContain(PERSONAL_LINK_MASK);
+    expect(masked).toContain('http://127.0.0.1:3999/railways/r1/sessions/s1');
+  });
+});
