@@ -10,8 +10,10 @@ export default defineConfig({
   fullyParallel: false,
   workers: 1,
   retries: process.env.CI ? 1 : 0,
-  timeout: 60_000,
-  expect: { timeout: 10_000 },
+  // Generous ceilings, not speed targets: the machine is shared and its speed varies threefold, so a
+  // test waits for events and these only stop a test that is truly stuck. Speed is measured by the benchmarks.
+  timeout: 240_000,
+  expect: { timeout: 30_000 },
   reporter: [['list'], ['json', { outputFile: process.env.E2E_JSON ?? 'test-results/e2e-results.json' }]],
   use: {
     baseURL: BASE_URL,
@@ -31,13 +33,13 @@ export default defineConfig({
     },
   },
   projects: [
-    { name: 'laptop', use: { ...devices['Desktop Chrome'], viewport: { width: 1280, height: 800 } } },
+    { name: 'laptop', use: { ...devices['Desktop Chrome'], viewport: { width: 1366, height: 800 } } },
   ],
   webServer: {
     // A fresh database with the demo railway, then the production build (`next build` runs first).
     command: `rm -f ${DB} ${DB}-wal ${DB}-shm && npx tsx lib/cli/seed.ts && npx next start -p ${PORT}`,
     url: `${BASE_URL}/api/health`,
-    timeout: 120_000,
+    timeout: 300_000,
     reuseExistingServer: false,
     stdout: 'pipe',
     env: {

@@ -20,6 +20,13 @@ test('a newcomer signs up, starts a railway and lands on its overview', async ({
   await expect(page.getByText('Host ·')).toBeVisible();
 });
 
+test('signing in through the form lands on Railways', async ({ page, signInPage }) => {
+  await signInPage.goto();
+  await signInPage.signIn(DEMO.planner, DEMO_PASSWORD);
+  await expect(page).toHaveURL(/\/railways$/);
+  await expect(page.getByText(DEMO_RAILWAY)).toBeVisible();
+});
+
 test('a wrong password is refused with a message', async ({ page, signInPage }) => {
   await signInPage.goto();
   await signInPage.signIn(DEMO.host, 'not-the-password');

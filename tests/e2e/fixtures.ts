@@ -1,6 +1,6 @@
 import { execFileSync } from 'node:child_process';
 import fs from 'node:fs';
-import { test as base, expect, type Page } from '@playwright/test';
+import { test as base, expect, type BrowserContext, type Page } from '@playwright/test';
 import { RailwayPage } from './pages/railway-page';
 import { SignInPage } from './pages/sign-in-page';
 
@@ -12,7 +12,7 @@ export const DEMO = {
 } as const;
 export const DEMO_RAILWAY = 'Kestrel Vale Railway Circle';
 
-export const VIEWPORTS = { laptop: { width: 1280, height: 800 }, phone: { width: 390, height: 844 } } as const;
+export const VIEWPORTS = { laptop: { width: 1366, height: 800 }, phone: { width: 390, height: 844 } } as const;
 
 /** Saves a screenshot of the page at laptop and phone sizes into tests/e2e/screenshots/. */
 export async function screenshotBoth(page: Page, name: string) {
@@ -26,19 +26,43 @@ export async function screenshotBoth(page: Page, name: string) {
   if (original) await page.setViewportSize(original);
 }
 
-export const test = base.extend<{
-  signInPage: SignInPage;
-  railwayPage: RailwayPage;
-  signInAs: (role: keyof typeof DEMO) => Promise<void>;
-}>({
+type Role = keyof typeof DEMO;
+type StorageState = Awaited<ReturnType<BrowserContext['storageState']>>;
+
+/** Signs in through the form and waits for Railways. */
+async function signInThroughForm(page: Page, role: Role) {
+  const signIn = new SignInPage(page);
+  await signIn.goto();
+  await signIn.signIn(DEMO[role], DEMO_PASSWORD);
+  await expect(page).toHaveURL(/\/railways$/);
+}
+
+export const test = base.extend<
+  {
+    signInPage: SignInPage;
+    railwayPage: RailwayPage;
+    /** Signs the page in as a demo role: once per worker through the form, then from the stored session. */
+    signInAs: (role: Role) => Promise<void>;
+  },
+  { roleSessions: Map<Role, StorageState> }
+>({
+  // One stored session (Playwright's storage state: the session cookie) per role per worker.
+  // eslint-disable-next-line no-empty-pattern -- Playwright reads a fixture's dependencies from this pattern
+  roleSessions: [async ({}, use) => use(new Map()), { scope: 'worker' }],
   signInPage: async ({ page }, use) => use(new SignInPage(page)),
   railwayPage: async ({ page }, use) => use(new RailwayPage(page)),
-  signInAs: async ({ page }, use) => {
+  signInAs: async ({ page, roleSessions }, use) => {
     await use(async (role) => {
-      const signIn = new SignInPage(page);
-      await signIn.goto();
-      await signIn.signIn(DEMO[role], DEMO_PASSWORD);
-      await expect(page).toHaveURL(/\/railways$/);
+      const stored = roleSessions.get(role);
+      if (stored) {
+        await page.context().addCookies(stored.cookies);
+        await page.goto('/railways');
+        // A test may have ended that session (sign out everywhere, a reset): then sign in afresh.
+        if (new URL(page.url()).pathname === '/railways') return;
+        await page.context().clearCookies();
+      }
+      await signInThroughForm(page, role);
+      roleSessions.set(role, await page.context().storageState());
     });
   },
 });

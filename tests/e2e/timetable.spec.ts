@@ -1,5 +1,5 @@
 import fs from 'node:fs';
-import { DEMO_RAILWAY, expect, screenshotBoth, test } from './fixtures';
+import { DEMO_RAILWAY, expect, screenshotBoth, test, VIEWPORTS } from './fixtures';
 import { TimetablePage } from './pages/timetable-page';
 
 const SESSION = 'December running evening';
@@ -7,12 +7,20 @@ const TIMING_KINDS = ['block-overlap', 'cab-double-booked', 'operator-double-boo
 
 test.describe.configure({ mode: 'serial' });
 
-/** The view panel alone at laptop size, to look at the drawing itself. */
+/**
+ * The view panel alone at both sizes, to look at the drawing itself. A clip of a page screenshot rather
+ * than an element screenshot: the element form waits for two identical animation frames, which a busy
+ * machine may not deliver within the test's time.
+ */
 async function screenshotView(page: import('@playwright/test').Page, name: string) {
-  for (const [label, size] of [['phone', { width: 390, height: 844 }], ['laptop', { width: 1280, height: 800 }]] as const) {
+  for (const [label, size] of [['phone', VIEWPORTS.phone], ['laptop', VIEWPORTS.laptop]] as const) {
     await page.setViewportSize(size);
-    await page.waitForTimeout(150);
-    await page.locator('section[aria-label="View"]').screenshot({ path: `tests/e2e/screenshots/${name}-view-${label}.png` });
+    const view = page.locator('section[aria-label="View"]');
+    const box = await view.evaluate((el) => {
+      const r = el.getBoundingClientRect();
+      return { x: r.left + window.scrollX, y: r.top + window.scrollY, width: r.width, height: r.height };
+    });
+    if (box.width > 0 && box.height > 0) await page.screenshot({ path: `tests/e2e/screenshots/${name}-view-${label}.png`, clip: box, fullPage: true, animations: 'disabled' });
   }
 }
 
