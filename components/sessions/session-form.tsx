@@ -3,6 +3,7 @@
 import { useActionState } from 'react';
 import { createSession, duplicateSession, setSessionStatus, updateSession } from '@/app/(app)/railways/[railwayId]/sessions/actions';
 import { Button } from '@/components/ui/button';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Notice } from '@/components/ui/card';
 import { Field, Select, TextInput, inputClass } from '@/components/ui/field';
 import type { SessionStatus } from '@/lib/sessions/types';
@@ -114,27 +115,108 @@ export function SessionForm({
   );
 }
 
-const STATUS_VERBS: Record<SessionStatus, string> = { draft: 'Reopen as draft', published: 'Publish', cancelled: 'Cancel session' };
+export type SessionCheckCounts = { errors: number; warnings: number };
 
-/** Draft → published → cancelled; each move raises the session's SEQUENCE for calendar updates. */
-export function StatusForm({ railwayId, session }: { railwayId: string; session: { id: string; version: number; status: SessionStatus } }) {
-  const [state, formAction, pending] = useActionState(setSessionStatus.bind(null, railwayId), null);
+const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
+
+/** What the checker finds, said where the status is changed. */
+export function CheckSummary({ check, timetableHref }: { check: SessionCheckCounts; timetableHref?: string }) {
+  const tone = check.errors ? 'bad' : check.warnings ? 'warn' : 'good';
+  const text = check.errors || check.warnings ? `The checker finds ${plural(check.errors, 'error')} and ${plural(check.warnings, 'warning')}.` : 'The checker finds no errors or warnings.';
   return (
-    <div className="space-y-3" data-testid="status-form">
+    <p className={`text-sm font-semibold ${tone === 'bad' ? 'text-signal' : tone === 'warn' ? 'text-amber' : 'text-verdigris-strong'}`} data-testid="check-summary">
+      {text}
+      {timetableHref && (check.errors || check.warnings) ? (
+        <>
+          {' '}
+          <a href={timetableHref} className="font-normal text-verdigris underline">See them in the timetable</a>
+        </>
+      ) : null}
+    </p>
+  );
+}
+
+/**
+ * Draft → published → cancelled; each move raises the session's SEQUENCE for calendar updates. Publishing
+ * with errors and cancelling both ask first; Cancel sits apart from Publish.
+ */
+export function StatusForm({
+  railwayId,
+  session,
+  check,
+  compact = false,
+}: {
+  railwayId: string;
+  session: { id: string; version: number; status: SessionStatus; title: string };
+  check: SessionCheckCounts;
+  /** The builder's header shows only Publish (or Reopen); the settings page shows Cancel too. */
+  compact?: boolean;
+}) {
+  const [state, formAction, pending] = useActionState(setSessionStatus.bind(null, railwayId), null);
+  const moves = STATUS_MOVES[session.status];
+  const formId = (status: SessionStatus) => `status-${status}-${session.id}${compact ? '-compact' : ''}`;
+  const hidden = (status: SessionStatus) => (
+    <form id={formId(status)} action={formAction} className="contents">
+      <input type="hidden" name="sessionId" value={session.id} />
+      <input type="hidden" name="version" value={session.version} />
+      <input type="hidden" name="status" value={status} />
+      {status === 'published' ? <input type="hidden" name="acknowledgedErrors" value={check.errors} /> : null}
+    </form>
+  );
+  return (
+    <div className="space-y-3" data-testid={compact ? 'status-form-compact' : 'status-form'}>
       {state?.ok ? <Notice tone="good">{state.message}</Notice> : null}
       {state && !state.ok ? <Notice tone="bad">{state.error}</Notice> : null}
-      <div className="flex flex-wrap gap-2">
-        {STATUS_MOVES[session.status].map((status) => (
-          <form key={status} action={formAction}>
-            <input type="hidden" name="sessionId" value={session.id} />
-            <input type="hidden" name="version" value={session.version} />
-            <input type="hidden" name="status" value={status} />
-            <Button type="submit" variant={status === 'cancelled' ? 'danger' : 'primary'} disabled={pending}>
-              {STATUS_VERBS[status]}
-            </Button>
-          </form>
-        ))}
+      <div className="flex flex-wrap items-center gap-2">
+        {moves.includes('published') ? (
+          <>
+            {hidden('published')}
+            {check.errors ? (
+              <ConfirmDialog
+                trigger="Publish…"
+                triggerVariant="primary"
+                title={`Publish with ${plural(check.errors, 'error')}?`}
+                confirm={`Publish with ${plural(check.errors, 'error')}`}
+                keep="Not yet"
+                form={formId('published')}
+                disabled={pending}
+              >
+                <p>
+                  The checker still finds {plural(check.errors, 'error')} in this timetable (clashing blocks, double-booked cabs or overloaded
+                  power). Invited operators will see the timetable as it is.
+                </p>
+                <p>You can fix them first in the timetable and publish afterwards.</p>
+              </ConfirmDialog>
+            ) : (
+              <Button type="submit" form={formId('published')} disabled={pending}>Publish</Button>
+            )}
+          </>
+        ) : null}
+        {moves.includes('draft') ? (
+          <>
+            {hidden('draft')}
+            <Button type="submit" form={formId('draft')} variant="secondary" disabled={pending}>Reopen as draft</Button>
+          </>
+        ) : null}
       </div>
+      {!compact && moves.includes('cancelled') ? (
+        <div className="border-t border-line pt-3">
+          {hidden('cancelled')}
+          <ConfirmDialog
+            trigger="Cancel session…"
+            triggerVariant="danger"
+            title={`Cancel ${session.title}?`}
+            confirm="Cancel the session"
+            keep="Keep the session"
+            form={formId('cancelled')}
+            danger
+            disabled={pending}
+          >
+            <p>Operators will see it as cancelled, and each invitee can be sent a cancellation that removes it from their calendar.</p>
+            <p>A cancelled session can be reopened as a draft later.</p>
+          </ConfirmDialog>
+        </div>
+      ) : null}
     </div>
   );
 }

@@ -6,7 +6,8 @@ import { useCallback, useMemo, useState } from 'react';
 import type { Finding } from '@/lib/planning';
 import { clashingRuns, highlightOf, type Highlight } from '@/lib/sessions/highlight';
 import { fastLabel, viewLengthS, type SessionClock } from '@/lib/sessions/time-labels';
-import type { BuilderLayout, BuilderRun, BuilderSnapshot } from '@/lib/sessions/types';
+import type { BuilderLayout, BuilderRun, BuilderSnapshot, SessionStatus } from '@/lib/sessions/types';
+import { CheckSummary, StatusForm } from '@/components/sessions/session-form';
 import { Button } from '@/components/ui/button';
 import { Card, Notice } from '@/components/ui/card';
 import { CrewLoad } from './crew-load';
@@ -34,7 +35,15 @@ const VIEWS: { id: View; label: string }[] = [
   { id: 'print', label: 'Print' },
 ];
 
-type Props = { sessionId: string; initial: BuilderSnapshot; layout: BuilderLayout; canEdit: boolean; dateLabel: string };
+type Props = {
+  sessionId: string;
+  initial: BuilderSnapshot;
+  layout: BuilderLayout;
+  canEdit: boolean;
+  dateLabel: string;
+  /** The session's status as the page last rendered it (a status change re-renders the page). */
+  status?: { railwayId: string; version: number; status: SessionStatus; title: string };
+};
 
 export function TimetableBuilder(props: Props) {
   const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { refetchOnWindowFocus: false, retry: 1 } } }));
@@ -45,7 +54,7 @@ export function TimetableBuilder(props: Props) {
   );
 }
 
-function Builder({ sessionId, initial, layout, canEdit, dateLabel }: Props) {
+function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Props) {
   const t = useTimetable(sessionId, initial);
   const { snapshot } = t;
   const { session, runs, findings, load } = snapshot;
@@ -86,6 +95,10 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel }: Props) {
     [colorBy, layout.cabs, layout.operators, trainName],
   );
 
+  const counts = useMemo(
+    () => ({ errors: findings.filter((f) => f.severity === 'error').length, warnings: findings.filter((f) => f.severity === 'warning').length }),
+    [findings],
+  );
   const clashing = useMemo(() => clashingRuns(findings, runs, layout), [findings, runs, layout]);
   const highlight: Highlight | undefined = useMemo(() => {
     if (selected.finding) return highlightOf(selected.finding, runs, layout);
@@ -227,7 +240,16 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel }: Props) {
           </div>
         </div>
 
-        <aside className="no-print order-first space-y-4 self-start lg:sticky lg:top-4 lg:order-none">
+        <aside className={`no-print space-y-4 self-start lg:sticky lg:top-4 lg:order-none ${canEdit ? 'order-first' : ''}`}>
+          {canEdit && status?.status === 'draft' ? (
+            <section className="rounded-plate border border-brass/40 bg-brass-soft p-4 text-sm" aria-label="Publishing" data-testid="publish-panel">
+              <p className="mb-2">This timetable is a <strong>draft</strong>: invited operators cannot see it yet.</p>
+              <div className="mb-3">
+                <CheckSummary check={counts} />
+              </div>
+              <StatusForm key={status.version} railwayId={status.railwayId} session={{ id: sessionId, version: status.version, status: status.status, title: status.title }} check={counts} compact />
+            </section>
+          ) : null}
           <FindingsPanel
             findings={findings}
             clock={clock}

@@ -68,6 +68,8 @@ export const sessionStatusSchema = z.object({
   sessionId: id,
   version: numberField('the version', 1, Number.MAX_SAFE_INTEGER),
   status: z.enum(SESSION_STATUSES, { error: 'Choose draft, published or cancelled.' }),
+  /** Publishing a timetable with errors names how many errors the host agreed to publish with. */
+  acknowledgedErrors: numberField('the number of errors', 0, 1_000_000).optional(),
 });
 
 export const duplicateSessionSchema = z.object({

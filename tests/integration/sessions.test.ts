@@ -10,6 +10,7 @@ import { createRailway } from '@/db/queries/railways';
 import { getSessionById } from '@/db/queries/session-records';
 import { runs, sessions } from '@/db/schema';
 import { resetRateLimits } from '@/lib/rate-limit';
+import { checkCounts } from '@/lib/sessions/error-counts';
 import { eq } from 'drizzle-orm';
 import { makeLayout, makeSessionWorld } from './authz/sessions';
 import { signInAs } from './caller';
@@ -97,7 +98,21 @@ describe('sessions', () => {
     expect(await updateSession(w.railway.id, null, settings({ ...base, version: '2', title: 'Late edit' }))).toMatchObject({ ok: false, status: 409 });
     expect(getSessionById(session.id)!.title).toBe('Spring running day');
 
-    expect(await setSessionStatus(w.railway.id, null, formData({ sessionId: session.id, version: '3', status: 'published' }))).toMatchObject({ ok: true });
+    // The two runs meet head-on in blocks B and C, so publishing asks for the errors to be acknowledged.
+    const { errors } = checkCounts(session.id);
+    expect(errors).toBeGreaterThan(0);
+    expect(await setSessionStatus(w.railway.id, null, formData({ sessionId: session.id, version: '3', status: 'published' }))).toMatchObject({
+      ok: false,
+      status: 400,
+      fieldErrors: { acknowledgedErrors: expect.stringContaining(`${errors} error`) },
+    });
+    expect(
+      await setSessionStatus(w.railway.id, null, formData({ sessionId: session.id, version: '3', status: 'published', acknowledgedErrors: String(errors - 1) })),
+    ).toMatchObject({ ok: false, status: 400 });
+    expect(getSessionById(session.id)).toMatchObject({ status: 'draft', version: 3 });
+    expect(
+      await setSessionStatus(w.railway.id, null, formData({ sessionId: session.id, version: '3', status: 'published', acknowledgedErrors: String(errors) })),
+    ).toMatchObject({ ok: true });
     expect(getSessionById(session.id)).toMatchObject({ status: 'published', sequence: 2 });
     // RFC 5546 3.2.5: a cancel raises SEQUENCE too.
     expect(await setSessionStatus(w.railway.id, null, formData({ sessionId: session.id, version: '4', status: 'cancelled' }))).toMatchObject({ ok: true });

@@ -14,6 +14,7 @@ import {
   type SessionValues,
 } from '@/db/queries/session-records';
 import { requireMember } from '@/lib/auth';
+import { checkCounts } from '@/lib/sessions/error-counts';
 import { AppError, conflict, notFound, parseOrThrow, type ActionState } from '@/lib/errors';
 import { action } from '@/lib/http';
 import { utcToZoned, zonedToUtc } from '@/lib/time-zone';
@@ -95,11 +96,20 @@ export const updateSession = action(['id', 'state', 'form'], async (railwayId, _
 /** Planners and hosts: draft → published → cancelled (a cancelled session may be reopened as a draft). */
 export const setSessionStatus = action(['id', 'state', 'form'], async (railwayId, _prev, formData): Promise<ActionState> => {
   const member = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'planner', 'publish or cancel sessions');
-  const input = parseOrThrow(sessionStatusSchema, fields(formData, ['sessionId', 'version', 'status']));
+  const input = parseOrThrow(sessionStatusSchema, fields(formData, ['sessionId', 'version', 'status', 'acknowledgedErrors']));
   const session = getSessionById(input.sessionId);
   if (!session || session.railwayId !== member.railwayId) throw notFound('That session');
   if (!STATUS_MOVES[session.status].includes(input.status)) {
     throw fieldError('status', `A ${session.status} session cannot become ${input.status}.`);
+  }
+  if (input.status === 'published') {
+    const { errors } = checkCounts(session.id);
+    if (errors > (input.acknowledgedErrors ?? 0)) {
+      throw fieldError(
+        'acknowledgedErrors',
+        `The timetable has ${errors} error${errors === 1 ? '' : 's'}. Fix ${errors === 1 ? 'it' : 'them'} first, or confirm publishing with ${errors === 1 ? 'it' : 'them'}.`,
+      );
+    }
   }
   const saved = updateSessionStatus(member.railwayId, session.id, input.version, input.status);
   if (!saved) throw conflict(getSessionById(session.id));

@@ -40,12 +40,23 @@ export default async function SessionBuilderPage({ params }: { params: Promise<{
           </p>
         </div>
         <nav aria-label="Session" className="flex flex-wrap gap-3 text-sm font-semibold">
-          {canEdit ? <Link href={`${base}/settings`} className="text-verdigris hover:underline">Settings and status</Link> : null}
-          {canEdit ? <Link href={`${base}/invitations`} className="text-verdigris hover:underline">Invitations</Link> : null}
-          <a href={`/api/sessions/${session.id}/plan`} className="text-verdigris hover:underline" download>Plan (JSON)</a>
+          {canEdit ? (
+            <>
+              <Link href={`${base}/settings`} className="text-verdigris hover:underline">Settings and status</Link>
+              <Link href={`${base}/invitations`} className="text-verdigris hover:underline">Invitations</Link>
+              <a href={`/api/sessions/${session.id}/plan`} className="text-verdigris hover:underline" download>Plan (JSON)</a>
+            </>
+          ) : null}
         </nav>
       </div>
-      <TimetableBuilder sessionId={session.id} initial={initial} layout={layout} canEdit={canEdit} dateLabel={dateLabel} />
+      <TimetableBuilder
+        sessionId={session.id}
+        initial={initial}
+        layout={layout}
+        canEdit={canEdit}
+        dateLabel={dateLabel}
+        status={{ railwayId, version: session.version, status: session.status, title: session.title }}
+      />
     </div>
   );
 }

@@ -2,9 +2,10 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { NotAllowed } from '@/components/railway/not-allowed';
-import { SessionForm, StatusForm } from '@/components/sessions/session-form';
+import { CheckSummary, SessionForm, StatusForm } from '@/components/sessions/session-form';
 import { Badge, Card } from '@/components/ui/card';
 import { memberForPage } from '@/lib/page-access';
+import { checkCounts } from '@/lib/sessions/error-counts';
 import { sessionForPage } from '@/lib/sessions/page-session';
 import { utcToZoned } from '@/lib/time-zone';
 
@@ -18,6 +19,7 @@ export default async function SessionSettingsPage({ params }: { params: Promise<
   const session = sessionForPage(access.member, sessionId);
   const start = utcToZoned(session.startsAt, session.timeZone);
   const end = utcToZoned(session.endsAt, session.timeZone);
+  const check = checkCounts(session.id);
   return (
     <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
       <Card title="Settings">
@@ -52,7 +54,10 @@ export default async function SessionSettingsPage({ params }: { params: Promise<
           Only published sessions are visible to the operators invited to them. Publishing, cancelling or moving the date or times raises the calendar
           sequence (now {session.sequence}), so invitees can be sent an update.
         </p>
-        <StatusForm key={session.version} railwayId={railwayId} session={{ id: session.id, version: session.version, status: session.status }} />
+        <div className="mb-3">
+          <CheckSummary check={check} timetableHref={`/railways/${railwayId}/sessions/${session.id}`} />
+        </div>
+        <StatusForm key={session.version} railwayId={railwayId} session={{ id: session.id, version: session.version, status: session.status, title: session.title }} check={check} />
       </Card>
     </div>
   );

@@ -1,0 +1,56 @@
+import { DEMO_RAILWAY, expect, screenshotBoth, test } from './fixtures';
+
+const SESSION = 'December running evening';
+
+test('publishing a timetable with errors asks first, and cancelling asks and sits apart from Publish', async ({ page, signInAs, railwayPage }) => {
+  await signInAs('planner');
+  await railwayPage.openFromList(DEMO_RAILWAY);
+  const railwayUrl = page.url();
+  // A draft copy of the demo session carries its clashes (8 errors).
+  await page.goto(`${railwayUrl}/sessions`);
+  const row = page.getByTestId('session-row').filter({ hasText: SESSION }).first();
+  await row.getByText('Duplicate as a starting point…').click();
+  await row.getByLabel(`New date for a copy of ${SESSION}`).fill('2031-02-14');
+  await row.getByRole('button', { name: 'Duplicate' }).click();
+  await expect(page.getByTestId('session-title')).toContainText('draft');
+
+  // The builder shows the draft's status and Publish where the findings are.
+  const panel = page.getByTestId('publish-panel');
+  await expect(panel).toBeVisible();
+  await expect(panel.getByTestId('check-summary')).toHaveText(/The checker finds 8 errors and \d+ warnings?\./);
+  await screenshotBoth(page, 'publish-panel');
+  const publish = panel.getByRole('button', { name: 'Publish…' });
+  await publish.click();
+  const dialog = page.getByRole('alertdialog');
+  await expect(dialog).toContainText('Publish with 8 errors?');
+  // The safe choice has the focus; Escape closes the dialog and gives the focus back (WAI-ARIA APG, alert dialog pattern).
+  await expect(dialog.getByRole('button', { name: 'Not yet' })).toBeFocused();
+  await screenshotBoth(page, 'publish-confirm');
+  await page.keyboard.press('Escape');
+  await expect(dialog).toBeHidden();
+  await expect(publish).toBeFocused();
+  await expect(page.getByTestId('session-title')).toContainText('draft');
+
+  await publish.click();
+  await page.getByRole('alertdialog').getByRole('button', { name: 'Publish with 8 errors' }).click();
+  await expect(page.getByTestId('session-title')).toContainText('published');
+  await expect(page.getByTestId('publish-panel')).toBeHidden();
+
+  // Settings: the status panel counts the findings; Cancel session asks and is not next to Publish.
+  await page.getByRole('link', { name: 'Settings and status' }).click();
+  const status = page.getByTestId('status-form');
+  await expect(page.getByTestId('check-summary')).toHaveText(/8 errors/);
+  const cancel = status.getByRole('button', { name: 'Cancel session…' });
+  await cancel.click();
+  const confirm = page.getByRole('alertdialog');
+  await expect(confirm).toContainText(`Cancel ${SESSION}?`);
+  await expect(confirm.getByRole('button', { name: 'Keep the session' })).toBeFocused();
+  await screenshotBoth(page, 'cancel-confirm');
+  await confirm.getByRole('button', { name: 'Keep the session' }).click();
+  await expect(confirm).toBeHidden();
+  await expect(cancel).toBeFocused();
+  await cancel.click();
+  await page.getByRole('alertdialog').getByRole('button', { name: 'Cancel the session' }).click();
+  await expect(status.getByRole('button', { name: 'Reopen as draft' })).toBeVisible();
+  await screenshotBoth(page, 'session-status');
+});
