@@ -102,19 +102,19 @@ export function addReport(
 }
 
 /**
- * Stores repair delays and one numbered live event in one write transaction. `check` runs first
- * inside it (with the repairs stored so far) and throws to store nothing.
+ * Stores repair delays and one numbered live event in one write transaction, only if the session's
+ * last event is still `expectSeq` (the state the repair was worked out from); else undefined.
  */
 export function addRepairs(
   sessionId: string,
+  expectSeq: number,
   at: Date,
   byUserId: string,
   moves: readonly { runId: string; delayS: number }[],
   summary: string,
-  check: (stored: RunRepair[]) => void,
-): LiveEvent {
+): LiveEvent | undefined {
   return writeTransaction((tx) => {
-    check(listRepairs(sessionId, tx));
+    if (lastLiveSeq(sessionId, tx) !== expectSeq) return undefined;
     for (const move of moves) tx.insert(runRepairs).values({ sessionId, runId: move.runId, delayS: move.delayS, appliedAt: at, byUserId }).run();
     return appendLiveEvent(tx, sessionId, 'repair', summary, at);
   });

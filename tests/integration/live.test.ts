@@ -6,7 +6,12 @@ import type { LiveState } from '@/lib/live/types';
 import { closeDb } from '@/db';
 import { readClockNow } from '@/lib/live/clock';
 import { getSessionById } from '@/db/queries/session-records';
-import { makeSessionWorld } from './authz/sessions';
+import { GET as liveRoute } from '@/app/api/sessions/[sessionId]/live/route';
+import { GET as proposeRepair, POST as repairAction } from '@/app/api/sessions/[sessionId]/repair/route';
+import { getDb } from '@/db';
+import { insertRuns } from '@/db/queries/runs';
+import * as t from '@/db/schema';
+import { makeSessionWorld, timedSteps } from './authz/sessions';
 import { signInAs } from './caller';
 import { makeWorld } from './world';
 
@@ -116,5 +121,116 @@ describe('reports from the session', () => {
     signInAs(w.host);
     const withdrawn: { state: LiveState } = await (await report(sid, mine, { kind: 'arrived', withdraw: true })).json();
     expect(withdrawn.state.runs.find((r) => r.id === mine)!.actual.arriveS).toBeNull();
+  });
+});
+
+/** A second session on the same test layout: train 1 runs A→C at 60 s, train 2 follows the same way 60 s after it arrives. */
+function followingSession(w: ReturnType<typeof makeWorld>) {
+  const s = makeSessionWorld(w);
+  const db = getDb();
+  const { id: _id, createdAt: _c, ...rest } = s.session;
+  const session = db.insert(t.sessions).values({ ...rest, title: 'Following trains' }).returning().get();
+  db.insert(t.invitations).values({ sessionId: session.id, userId: w.operator.id, email: w.operator.email }).run();
+  const first = timedSteps(s.layout, ['A', 'B', 'C'], 60);
+  const second = timedSteps(s.layout, ['A', 'B', 'C'], first.arriveS + 60);
+  const [leader, follower] = insertRuns(session.id, [
+    { trainId: s.layout.trains.t1, cabId: s.layout.cabs.c1, operatorId: w.operator.id, speedKmh: 60, note: '', ...first },
+    { trainId: s.layout.trains.t2, cabId: s.layout.cabs.c2, operatorId: w.planner.id, speedKmh: 60, note: '', ...second },
+  ]) as [string, string];
+  return { sid: session.id, leader, follower, first, second };
+}
+
+async function readUntil(reader: ReadableStreamDefaultReader<Uint8Array>, pattern: RegExp): Promise<string> {
+  const decoder = new TextDecoder();
+  let text = '';
+  while (!pattern.test(text)) {
+    const { value, done } = await reader.read();
+    if (done) break;
+    text += decoder.decode(value);
+  }
+  return text;
+}
+
+describe('live updates and the host’s repair', () => {
+  it('a late departure creates a block clash; the host repairs the runs not yet departed; planned times stay', async () => {
+    const { w } = setup();
+    const f = followingSession(w);
+    signInAs(w.host);
+    // Clock at 06:10 (150 real s at 4:1), paused: the leader leaves 90 s late.
+    await clock(f.sid, { action: 'set', fast: '06:10' });
+    signInAs(w.operator);
+    const late: { state: LiveState } = await (await report(f.sid, f.leader, { kind: 'departed' })).json();
+    expect(late.state.newFindings.map((x) => x.kind)).toContain('block-overlap');
+    const follower = late.state.runs.find((r) => r.id === f.follower)!;
+    expect(late.state.repair.map((m) => m.runId)).toEqual([f.follower]);
+
+    // Operators may not repair; the planner may not either (the host does).
+    const body = { moves: late.state.repair.map((m) => ({ runId: m.runId, delayS: m.delayS })) };
+    const post = (b: unknown) => repairAction(json(`/api/sessions/${f.sid}/repair`, b), ctx({ sessionId: f.sid }));
+    signInAs(w.planner);
+    expect((await post(body)).status).toBe(403);
+    signInAs(w.host);
+    expect((await post({ moves: [{ runId: f.follower, delayS: 99_999 }] })).status).toBe(400);
+    expect((await post({ moves: [{ runId: f.leader, delayS: 10 }] })).status).toBe(409);
+    const proposed = await (await proposeRepair(new Request(url(`/api/sessions/${f.sid}/repair`)), ctx({ sessionId: f.sid }))).json();
+    expect(proposed.moves).toEqual(late.state.repair);
+
+    const repaired: { state: LiveState } = await (await post(body)).json();
+    expect(repaired.state.newFindings).toEqual([]);
+    expect(repaired.state.repair).toEqual([]);
+    const moved = repaired.state.runs.find((r) => r.id === f.follower)!;
+    expect(moved.repairS).toBeGreaterThan(0);
+    expect(moved.plannedDepartS).toBe(follower.plannedDepartS);
+    expect(moved.departS).toBeCloseTo(follower.plannedDepartS + moved.repairS, 3);
+    // The leader, under way, did not move.
+    expect(repaired.state.runs.find((r) => r.id === f.leader)!.repairS).toBe(0);
+    // The stored timetable is untouched.
+    expect(getDb().select().from(t.runs).all().find((r) => r.id === f.follower)!.departS).toBe(f.second.departS);
+  });
+
+  it('streams events to an open stream, catches up from Last-Event-ID, and answers polls; operators only where invited', async () => {
+    const { w, s, sid } = setup();
+    signInAs(w.host);
+    await clock(sid, { action: 'set', fast: '06:10' });
+
+    signInAs(w.operator);
+    const abort = new AbortController();
+    const res = await liveRoute(new Request(url(`/api/sessions/${sid}/live`), { headers: { accept: 'text/event-stream' }, signal: abort.signal }), ctx({ sessionId: sid }));
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-type')).toMatch(/text\/event-stream/);
+    const reader = res.body!.getReader();
+    const hello = await readUntil(reader, /"type":"hello"[\s\S]*\n\n/);
+    expect(hello).toMatch(/^retry: 2000/);
+    expect(hello).toMatch(/id: 1\nevent: live\ndata: /);
+
+    await report(sid, s.runIds[0], { kind: 'departed' });
+    const next = await readUntil(reader, /id: 2\n[\s\S]*\n\n/);
+    const data = JSON.parse(next.split('\n').find((l) => l.startsWith('data: '))!.slice(6));
+    expect(data).toMatchObject({ seq: 2, type: 'report' });
+    expect(data.summary).toMatch(/departed at 06:10, 6 fast min late/);
+    expect(data.state.runs.find((r: { id: string }) => r.id === s.runIds[0]).status).toBe('running');
+    abort.abort();
+
+    // Reconnecting after event 1: gets event 2 (missed), then the state.
+    const again = await liveRoute(
+      new Request(url(`/api/sessions/${sid}/live`), { headers: { accept: 'text/event-stream', 'last-event-id': '1' }, signal: new AbortController().signal }),
+      ctx({ sessionId: sid }),
+    );
+    const caught = await readUntil(again.body!.getReader(), /id: 2\n[\s\S]*\n\n/);
+    expect(caught).not.toMatch(/"type":"hello"/);
+    expect(caught).toMatch(/"seq":2,"type":"report"/);
+
+    const poll = await (await liveRoute(new Request(url(`/api/sessions/${sid}/live?after=1`)), ctx({ sessionId: sid }))).json();
+    expect(poll.seq).toBe(2);
+    expect(poll.events.map((e: { seq: number }) => e.seq)).toEqual([2]);
+    expect(poll.state.clock.fast).toBe('06:10');
+    expect((await liveRoute(new Request(url(`/api/sessions/${sid}/live?after=-3`)), ctx({ sessionId: sid }))).status).toBe(400);
+
+    // Someone not invited to a published session of their railway sees nothing of it.
+    const stranger = w.makeUser('stranger');
+    const { addMember } = await import('@/db/queries/memberships');
+    addMember(w.railway.id, stranger.id, 'operator');
+    signInAs(stranger);
+    expect((await liveRoute(new Request(url(`/api/sessions/${sid}/live`)), ctx({ sessionId: sid }))).status).toBe(404);
   });
 });

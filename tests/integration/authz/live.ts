@@ -1,5 +1,5 @@
 import { makeSessionWorld } from './sessions';
-import { anyMember, plannerUp, type AuthzCase, type AuthzExemption, type Expect, type World } from './shared';
+import { anyMember, hostOnly, plannerUp, type AuthzCase, type AuthzExemption, type Expect, type World } from './shared';
 
 const ctx = <P>(params: P) => ({ params: Promise.resolve(params) });
 const url = (path: string) => `http://127.0.0.1:3999${path}`;
@@ -40,6 +40,40 @@ LIVE_CASES.push({
   expect: reported,
 });
 
-export const LIVE_EXEMPTIONS: AuthzExemption[] = [];
+LIVE_CASES.push(
+  {
+    // The polling form; the stream form goes through the same gate (tests/integration/live.test.ts).
+    target: 'app/api/sessions/[sessionId]/live/route.ts#GET',
+    call: async (w) => {
+      const { session } = makeSessionWorld(w);
+      const { GET } = await import('@/app/api/sessions/[sessionId]/live/route');
+      return (await GET(new Request(url(`/api/sessions/${session.id}/live?after=0`)), ctx({ sessionId: session.id }))).status;
+    },
+    expect: anyMember,
+  },
+  {
+    target: 'app/api/sessions/[sessionId]/repair/route.ts#GET',
+    call: async (w) => {
+      const { session } = makeSessionWorld(w);
+      const { GET } = await import('@/app/api/sessions/[sessionId]/repair/route');
+      return (await GET(new Request(url(`/api/sessions/${session.id}/repair`)), ctx({ sessionId: session.id }))).status;
+    },
+    expect: hostOnly,
+  },
+  {
+    // The world's two runs clash as planned, so there is always a repair to apply: the caller
+    // posts the one proposed to the host.
+    target: 'app/api/sessions/[sessionId]/repair/route.ts#POST',
+    call: async (w) => {
+      const { session, runIds } = makeSessionWorld(w);
+      const { buildLiveState } = await import('@/lib/live/state');
+      const moves = buildLiveState(session.id).repair.map((m) => ({ runId: m.runId, delayS: m.delayS }));
+      const { POST } = await import('@/app/api/sessions/[sessionId]/repair/route');
+      const body = { moves: moves.length ? moves : [{ runId: runIds[1], delayS: 60 }] };
+      return (await POST(json(`/api/sessions/${session.id}/repair`, body), ctx({ sessionId: session.id }))).status;
+    },
+    expect: hostOnly,
+  },
+);
 
-export { anyMember };
+export const LIVE_EXEMPTIONS: AuthzExemption[] = [];

@@ -36,4 +36,14 @@ export const LIVE_HOSTILE: HostileTarget[] = [
       return (await POST(post(`/api/sessions/${session.id}/runs/${runIds[0]}/reports`, body), ctx({ sessionId: session.id, runId: runIds[0] }))).status;
     },
   },
+  {
+    target: 'app/api/sessions/[sessionId]/repair/route.ts#POST',
+    kind: 'json',
+    setup: world,
+    send: async (w, body) => {
+      const { POST } = await import('@/app/api/sessions/[sessionId]/repair/route');
+      const { session } = world(w);
+      return (await POST(post(`/api/sessions/${session.id}/repair`, body), ctx({ sessionId: session.id }))).status;
+    },
+  },
 ];
