@@ -227,6 +227,18 @@ export const cabs = sqliteTable(
   ],
 );
 
+/** A layout's wiring sheet (lib/control's wiringSheetSchema, version 1) as JSON: boards, cab and relay pins. */
+export const wiringSheets = sqliteTable('wiring_sheets', {
+  layoutId: text('layout_id')
+    .primaryKey()
+    .references(() => layouts.id, { onDelete: 'cascade' }),
+  sheet: text('sheet').notNull(),
+  version: version(),
+  updatedAt: integer('updated_at', { mode: 'timestamp_ms' })
+    .notNull()
+    .$defaultFn(() => new Date()),
+});
+
 export const locomotives = sqliteTable(
   'locomotives',
   {

@@ -30,3 +30,8 @@ export type {
   Polarity,
   ScheduledRun,
 } from './schedule';
+export { boardProgram, plainName, MAX_PROGRAM_ENTRIES } from './board-program';
+export type { BoardProgram, ProgramEntry, ProgramCab, ProgramBlock } from './board-program';
+export { generateAvrFirmware, estimateFirmwareSize } from './firmware-avr';
+export type { FirmwareFile, SizeEstimate } from './firmware-avr';
+export { generatePythonController } from './controller-py';

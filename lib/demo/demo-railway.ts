@@ -2,6 +2,7 @@ import bcrypt from 'bcryptjs';
 import { eq } from 'drizzle-orm';
 import type { Db } from '@/db';
 import * as t from '@/db/schema';
+import { demoWiringSheet } from './demo-wiring';
 import { DRIVER_PRESETS, findRoute, presetDropVolts, timeRun, type DriverPreset } from '@/lib/planning';
 
 // The demo railway is a scenario of our own invention: the club, its places and its people are
@@ -274,6 +275,12 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
       cab3: cab(indoor.layoutId, terminusDriver, 'Cab 3', 1),
       cab4: cab(indoor.layoutId, terminusDriver, 'Cab 4', 2),
     };
+    tx.insert(t.wiringSheets)
+      .values({
+        layoutId: indoor.layoutId,
+        sheet: JSON.stringify(demoWiringSheet((key) => indoor.blockIds[key]!, (key) => cabIds[key])),
+      })
+      .run();
     cab(garden.layoutId, gardenDriver, 'Garden cab A', 1);
     cab(garden.layoutId, gardenDriver, 'Garden cab B', 2);
 

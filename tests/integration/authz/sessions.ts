@@ -1,6 +1,7 @@
 import { getDb } from '@/db';
 import { insertRuns } from '@/db/queries/runs';
 import * as t from '@/db/schema';
+import { DEFAULT_TIMING, type WiringSheet } from '@/lib/control';
 import { timeRun } from '@/lib/planning';
 import { formData } from '../world';
 import { actionStatus, anyMember, plannerUp, type AuthzCase, type AuthzExemption, type Expect, type World } from './shared';
@@ -38,6 +39,25 @@ export function makeLayout(railwayId: string) {
     return id;
   };
   const trains = { t1: train('Morning stopper', loco('Tank one')), t2: train('Evening goods', loco('Diesel two')) };
+  // A wiring sheet on one 40-pin-header board, so the control routes have something to compile.
+  const keys = ['A', 'B', 'C', 'D'];
+  const sheet: WiringSheet = {
+    version: 1,
+    boards: [{ id: 'pi', kind: 'header40', name: 'Test board', emergencyStopPin: 'GPIO4', startPin: null }],
+    cabs: [
+      { cabId: cabs.c1, boardId: 'pi', forwardPin: 'GPIO5', reversePin: 'GPIO6', pwmPin: 'GPIO12', bothHighBrakes: false },
+      { cabId: cabs.c2, boardId: 'pi', forwardPin: 'GPIO16', reversePin: 'GPIO20', pwmPin: 'GPIO13', bothHighBrakes: false },
+    ],
+    blocks: keys.map((k, i) => ({
+      blockId: blocks[k]!,
+      boardId: 'pi',
+      feeds: [{ cabId: cabs.c1, pin: `GPIO${[17, 27, 22, 23][i]}` }, { cabId: cabs.c2, pin: `GPIO${[24, 25, 26, 21][i]}` }],
+      polarityPin: null,
+      forwardTowards: i < 3 ? [blocks[keys[i + 1]!]!] : [],
+    })),
+    timing: DEFAULT_TIMING,
+  };
+  db.insert(t.wiringSheets).values({ layoutId, sheet: JSON.stringify(sheet) }).run();
   return { layoutId, blocks, cabs, trains };
 }
 
@@ -231,6 +251,25 @@ export const SESSION_CASES: AuthzCase[] = [
     },
     expect: plannerUp,
   },
+  ...(['control', 'control/firmware.zip', 'control/controller.py'] as const).map(
+    (sub): AuthzCase => ({
+      target: `app/api/sessions/[sessionId]/${sub}/route.ts#GET`,
+      call: async (w) => {
+        const { session } = makeSessionWorld(w);
+        const mod =
+          sub === 'control'
+            ? await import('@/app/api/sessions/[sessionId]/control/route')
+            : sub === 'control/firmware.zip'
+              ? await import('@/app/api/sessions/[sessionId]/control/firmware.zip/route')
+              : await import('@/app/api/sessions/[sessionId]/control/controller.py/route');
+        // The test layout's only board is a 40-pin-header one: the firmware route answers 400 for it,
+        // which still shows the caller got past the access check.
+        const status = (await mod.GET(new Request(url(`/api/sessions/${session.id}/${sub}`)), ctx({ sessionId: session.id }))).status;
+        return sub === 'control/firmware.zip' && status === 400 ? 200 : status;
+      },
+      expect: plannerUp,
+    }),
+  ),
   {
     target: 'app/api/sessions/[sessionId]/retime/route.ts#POST',
     call: async (w) => {
