@@ -7,6 +7,7 @@ export type ErrorCode =
   | 'not_found'
   | 'conflict'
   | 'too_large'
+  | 'unsupported_media_type'
   | 'rate_limited';
 
 const STATUS: Record<ErrorCode, number> = {
@@ -16,6 +17,7 @@ const STATUS: Record<ErrorCode, number> = {
   not_found: 404,
   conflict: 409,
   too_large: 413,
+  unsupported_media_type: 415,
   rate_limited: 429,
 };
 
@@ -89,18 +91,84 @@ export function toResponse(error: unknown): Response {
   return Response.json({ error: 'Something went wrong on our side. Please try again.' }, { status: 500 });
 }
 
-/** Reads a JSON body, refusing non-JSON and bodies over `maxBytes` with a clear message. */
-export async function readJson(request: Request, maxBytes = 1_000_000): Promise<unknown> {
-  const length = Number(request.headers.get('content-length') ?? '0');
-  if (length > maxBytes) throw new AppError('too_large', `The request body is over ${maxBytes} bytes.`);
-  const text = await request.text();
-  if (Buffer.byteLength(text) > maxBytes) {
-    throw new AppError('too_large', `The request body is over ${maxBytes} bytes.`);
+/** The media type of a request (`application/json` for `application/json; charset=utf-8`), lower case. */
+function mediaTypeOf(request: Request): string {
+  return (request.headers.get('content-type') ?? '').split(';')[0]!.trim().toLowerCase();
+}
+
+/** Refuses (415) a body whose Content-Type is not one of `accepted` (a `+json` suffix counts as JSON). */
+export function requireMediaType(request: Request, accepted: readonly string[], message: string): void {
+  const type = mediaTypeOf(request);
+  const ok = accepted.some((a) => type === a || (a === 'application/json' && type.startsWith('application/') && type.endsWith('+json')));
+  if (!ok) throw new AppError('unsupported_media_type', message);
+}
+
+/**
+ * Reads a request body, counting bytes as they arrive and stopping at `maxBytes`: a declared
+ * Content-Length over the limit is refused before a byte is read, and a chunked body is cancelled
+ * the moment it passes the limit (413), so memory stays at the limit whatever the caller sends.
+ */
+export async function readBytes(request: Request, maxBytes: number, tooLarge: () => AppError): Promise<Uint8Array<ArrayBuffer>> {
+  const declared = Number(request.headers.get('content-length') ?? '0');
+  if (declared > maxBytes) throw tooLarge();
+  if (!request.body) return new Uint8Array(0);
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    let chunk: ReadableStreamReadResult<Uint8Array>;
+    try {
+      chunk = await reader.read();
+    } catch {
+      throw new AppError('bad_request', 'The request body could not be read to its end.');
+    }
+    if (chunk.done) break;
+    total += chunk.value.byteLength;
+    if (total > maxBytes) {
+      await reader.cancel().catch(() => undefined);
+      throw tooLarge();
+    }
+    chunks.push(chunk.value);
   }
+  const bytes = new Uint8Array(total);
+  let at = 0;
+  for (const c of chunks) {
+    bytes.set(c, at);
+    at += c.byteLength;
+  }
+  return bytes;
+}
+
+const bodyTooLarge = (maxBytes: number) => () => new AppError('too_large', `The request body is over ${maxBytes} bytes.`);
+
+/**
+ * Reads a JSON body: refuses any other Content-Type (415; a cross-site form can send text/plain
+ * without asking first, never JSON) and bodies over `maxBytes` (413) as they stream in.
+ */
+export async function readJson(request: Request, maxBytes = 1_000_000): Promise<unknown> {
+  requireMediaType(request, ['application/json'], 'Send the body as JSON (Content-Type: application/json).');
+  const text = new TextDecoder().decode(await readBytes(request, maxBytes, bodyTooLarge(maxBytes)));
   try {
     return JSON.parse(text);
   } catch {
     throw new AppError('bad_request', 'The request body is not valid JSON.');
+  }
+}
+
+/** Reads a text body of one of the `accepted` media types, up to `maxBytes` (413 as it streams in). */
+export async function readText(request: Request, options: { maxBytes: number; accepted: readonly string[]; wrongType: string; tooLarge: () => AppError }): Promise<string> {
+  requireMediaType(request, options.accepted, options.wrongType);
+  return new TextDecoder().decode(await readBytes(request, options.maxBytes, options.tooLarge));
+}
+
+/** Reads a multipart/form-data upload of at most `maxBytes` (413 as it streams in), then parses it. */
+export async function readMultipart(request: Request, options: { maxBytes: number; wrongType: string; tooLarge: () => AppError }): Promise<FormData> {
+  requireMediaType(request, ['multipart/form-data'], options.wrongType);
+  const bytes = await readBytes(request, options.maxBytes, options.tooLarge);
+  try {
+    return await new Response(bytes, { headers: { 'content-type': request.headers.get('content-type')! } }).formData();
+  } catch {
+    throw new AppError('bad_request', options.wrongType);
   }
 }
 

@@ -1,18 +1,51 @@
 import 'server-only';
 import { unstable_rethrow } from 'next/navigation';
+import { env } from '@/lib/env';
 import { AppError, toActionState, toResponse, type ActionState } from '@/lib/errors';
 
 type Context<P> = { params: Promise<P> };
 
+const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
+
+/** Whether `origin` (an Origin header) is this site: the configured NEXTAUTH_URL, or the host the request was sent to. */
+function isOwnOrigin(origin: string, request: Request): boolean {
+  let url: URL;
+  try {
+    url = new URL(origin);
+  } catch {
+    return false; // "null" (sandboxed frames, file:) and anything unparseable
+  }
+  if (url.origin === new URL(env().NEXTAUTH_URL).origin) return true;
+  const host = request.headers.get('host') ?? new URL(request.url).host;
+  return url.host === host;
+}
+
+/**
+ * Refuses (403) a write that a browser says comes from another site. Browsers send `Origin` with
+ * every POST, PATCH and DELETE (Fetch standard, "append a request `Origin` header") and
+ * `Sec-Fetch-Site` (Fetch Metadata); SameSite=Lax cookies do not separate other ports or sibling
+ * subdomains, so these headers do. A request with neither is not from a browser (curl, an outside
+ * tool with its own cookie) and cannot be forged by a web page.
+ */
+export function assertSameOrigin(request: Request): void {
+  if (SAFE_METHODS.has(request.method.toUpperCase())) return;
+  const site = request.headers.get('sec-fetch-site');
+  const origin = request.headers.get('origin');
+  const crossSite = (site !== null && site !== 'same-origin' && site !== 'none') || (origin !== null && !isOwnOrigin(origin, request));
+  if (crossSite) throw new AppError('forbidden', 'This change was sent from another site. Make it from Fishplate itself.');
+}
+
 /**
  * Wraps a route handler so that every thrown AppError becomes its JSON answer
- * (`{ error, code, issues? }` with the right status) and anything else a logged 500.
+ * (`{ error, code, issues? }` with the right status) and anything else a logged 500. Writes from
+ * another site are refused (403) before the handler runs.
  */
 export function handler<P = Record<string, never>>(
   fn: (request: Request, context: Context<P>) => Promise<Response> | Response,
 ): (request: Request, context: Context<P>) => Promise<Response> {
   return async (request, context) => {
     try {
+      assertSameOrigin(request);
       return await fn(request, context);
     } catch (error) {
       return toResponse(error);

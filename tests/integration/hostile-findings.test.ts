@@ -1,3 +1,5 @@
+import fs from 'node:fs';
+import path from 'node:path';
 import { createElement } from 'react';
 import { renderToString } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
@@ -8,6 +10,7 @@ import { makeWorld } from './world';
 
 // The security review's findings (issue 10), each as the request that showed it, refused now.
 
+const ROOT = path.resolve(__dirname, '../..');
 const ctx = <P>(params: P) => ({ params: Promise.resolve(params) });
 const url = (path: string) => `http://127.0.0.1:3999${path}`;
 const json = (method: string, path: string, body: unknown) =>
@@ -100,5 +103,137 @@ describe('finding 2: one stored run or layout far outside physical ranges', () =
     expect(html).toContain('data-testid="train-graph"');
     // Grid lines stay a handful, however far the run reaches (before: one per fast step up to 1e12 s).
     expect(html.match(/class="stroke-line"/g)?.length ?? 0).toBeLessThanOrEqual(60);
+  });
+});
+
+/**
+ * A chunked body of `totalBytes` (no Content-Length), made only as the server pulls it: `pulled`
+ * says how much the server read, so "stopped at the limit" and "read nothing" can be checked
+ * without the test itself holding the body in memory.
+ */
+function lazyBody(totalBytes: number, chunkBytes = 64 * 1024) {
+  const chunk = new Uint8Array(chunkBytes).fill(0x20); // spaces: valid anywhere in JSON, CSV or a form
+  const seen = { pulled: 0 };
+  const stream = new ReadableStream<Uint8Array>({
+    pull(controller) {
+      if (seen.pulled >= totalBytes) return controller.close();
+      seen.pulled += chunk.byteLength;
+      controller.enqueue(chunk);
+    },
+  });
+  return { stream, seen };
+}
+
+const chunked = (path: string, contentType: string, totalBytes: number) => {
+  const body = lazyBody(totalBytes);
+  const request = new Request(url(path), { method: 'POST', body: body.stream, headers: { 'content-type': contentType }, duplex: 'half' } as RequestInit);
+  return { request, seen: body.seen };
+};
+
+describe('finding 5: bodies are read after the caller is known, counted as they stream, and cut off at the limit', () => {
+  const MB = 1024 * 1024;
+
+  it('layout import: a signed-out 200 MB chunked body answers 401 having read (almost) none of it', async () => {
+    signInAs(null);
+    const { POST } = await import('@/app/api/layouts/import/route');
+    const { request, seen } = chunked('/api/layouts/import', 'application/json', 200 * MB);
+    const response = await POST(request, ctx({}));
+    expect(response.status).toBe(401);
+    // At most what the stream queues on its own before anyone reads (one chunk).
+    expect(seen.pulled).toBeLessThanOrEqual(64 * 1024);
+  });
+
+  it('every body-reading route answers a 50 MB chunked body with 413, never 500, having read no more than its limit and one chunk', async () => {
+    const world = makeWorld();
+    signInAs(world.host);
+    const s = makeSessionWorld(world);
+    const { layoutId } = s.layout;
+    const cases: { name: string; limit: number; send: () => Promise<{ status: number; pulled: number }> }[] = [];
+    const add = (name: string, limit: number, path: string, type: string, call: (request: Request) => Promise<Response>) =>
+      cases.push({
+        name,
+        limit,
+        send: async () => {
+          const { request, seen } = chunked(path, type, 50 * MB);
+          const response = await call(request);
+          return { status: response.status, pulled: seen.pulled };
+        },
+      });
+    const importRoute = await import('@/app/api/layouts/import/route');
+    add('layout import', 2_000_000, '/api/layouts/import', 'application/json', (r) => importRoute.POST(r, ctx({})));
+    const csvRoute = await import('@/app/api/layouts/[layoutId]/csv/[table]/route');
+    add('CSV import', 1_000_000, `/api/layouts/${layoutId}/csv/blocks?mode=preview`, 'text/csv', (r) => csvRoute.POST(r, ctx({ layoutId, table: 'blocks' })));
+    const imageRoute = await import('@/app/api/layouts/[layoutId]/track-plan/route');
+    add('track-plan upload', 5 * MB + 64_000, `/api/layouts/${layoutId}/track-plan`, 'multipart/form-data; boundary=x', (r) => imageRoute.POST(r, ctx({ layoutId })));
+    const runsRoute = await import('@/app/api/sessions/[sessionId]/runs/route');
+    add('runs (JSON)', 1_000_000, `/api/sessions/${s.session.id}/runs`, 'application/json', (r) => runsRoute.POST(r, ctx({ sessionId: s.session.id })));
+    const planRoute = await import('@/app/api/sessions/[sessionId]/plan/route');
+    add('session plan (JSON)', 5_000_000, `/api/sessions/${s.session.id}/plan`, 'application/json', (r) => planRoute.POST(r, ctx({ sessionId: s.session.id })));
+    const checkRoute = await import('@/app/api/plans/check/route');
+    add('plan check (JSON)', 5_000_000, '/api/plans/check', 'application/json', (r) => checkRoute.POST(r, ctx({})));
+    for (const c of cases) {
+      const { status, pulled } = await c.send();
+      expect(status, c.name).toBe(413);
+      expect(pulled, c.name).toBeLessThanOrEqual(c.limit + 2 * 64 * 1024);
+    }
+  });
+});
+
+describe('finding 13: writes from another site are refused', () => {
+  const ROUTES = (() => {
+    const found: string[] = [];
+    const walk = (dir: string): string[] =>
+      fs.readdirSync(dir, { withFileTypes: true }).flatMap((e) => (e.isDirectory() ? walk(path.join(dir, e.name)) : [path.join(dir, e.name)]));
+    for (const file of walk(path.join(ROOT, 'app/api'))) {
+      if (!file.endsWith('route.ts') || file.includes('[...nextauth]')) continue; // next-auth checks its own CSRF token
+      for (const m of fs.readFileSync(file, 'utf8').matchAll(/\b(\w+) as (POST|PUT|PATCH|DELETE)\b|export\s+(?:async\s+)?function\s+(POST|PUT|PATCH|DELETE)\b/g)) {
+        found.push(`${path.relative(ROOT, file)}#${m[2] ?? m[3]}`);
+      }
+    }
+    return found;
+  })();
+
+  it('every mutating route handler answers 403 to a browser write from another origin or site, before anything else', async () => {
+    const world = makeWorld();
+    signInAs(world.host);
+    expect(ROUTES.length).toBeGreaterThan(8);
+    const foreign: Record<string, string>[] = [
+      { origin: 'http://127.0.0.1:4000' }, // another port of the same host: SameSite=Lax does not separate it
+      { origin: 'http://evil.example' },
+      { origin: 'null' },
+      { 'sec-fetch-site': 'same-site' },
+      { 'sec-fetch-site': 'cross-site' },
+    ];
+    for (const route of ROUTES) {
+      const [file, method] = route.split('#') as [string, string];
+      const handlers = (await import(path.join(ROOT, file))) as Record<string, (r: Request, c: unknown) => Promise<Response>>;
+      for (const headers of foreign) {
+        const request = new Request(url('/api/x'), { method, body: method === 'DELETE' ? undefined : '{}', headers: { 'content-type': 'application/json', ...headers } });
+        const response = await handlers[method]!(request, ctx({ sessionId: 'x', runId: 'x', layoutId: 'x', table: 'blocks' }));
+        expect(response.status, `${route} with ${JSON.stringify(headers)}`).toBe(403);
+      }
+    }
+  });
+
+  it('a text/plain body (what a cross-site form sends without asking) answers 415 and stores nothing; the same from this site as JSON works', async () => {
+    const world = makeWorld();
+    signInAs(world.planner);
+    const s = makeSessionWorld(world);
+    const body = JSON.stringify({ trainId: s.layout.trains.t1, cabId: s.layout.cabs.c1, operatorId: null, depart: '06:30', waypoints: [s.layout.blocks.A, s.layout.blocks.D], speedKmh: 60 });
+    const { POST } = await import('@/app/api/sessions/[sessionId]/runs/route');
+    const send = (headers: Record<string, string>) => POST(new Request(url(`/api/sessions/${s.session.id}/runs`), { method: 'POST', body, headers }), ctx({ sessionId: s.session.id }));
+    expect((await send({ 'content-type': 'text/plain' })).status).toBe(415);
+    expect((await send({})).status).toBe(415); // a string body is text/plain;charset=UTF-8 by default
+    expect((await send({ 'content-type': 'application/x-www-form-urlencoded' })).status).toBe(415);
+    const csv = await import('@/app/api/layouts/[layoutId]/csv/[table]/route');
+    const csvPlain = new Request(url(`/api/layouts/${s.layout.layoutId}/csv/blocks?mode=preview`), { method: 'POST', body: 'name,length\nX,10', headers: { 'content-type': 'text/plain' } });
+    expect((await csv.POST(csvPlain, ctx({ layoutId: s.layout.layoutId, table: 'blocks' }))).status).toBe(415);
+    const { GET } = await import('@/app/api/sessions/[sessionId]/runs/route');
+    const runs = async () => (await (await GET(new Request(url(`/api/sessions/${s.session.id}/runs`)), ctx({ sessionId: s.session.id }))).json()).runs.length;
+    expect(await runs()).toBe(2);
+    // From this site (same origin, or no browser headers at all, as curl sends): accepted.
+    expect((await send({ 'content-type': 'application/json', origin: 'http://127.0.0.1:3999', 'sec-fetch-site': 'same-origin' })).status).toBe(201);
+    expect((await send({ 'content-type': 'application/json; charset=utf-8' })).status).toBe(201);
+    expect(await runs()).toBe(4);
   });
 });

@@ -24,8 +24,10 @@ beforeAll(() => {
 });
 afterAll(() => fs.rmSync(uploads, { recursive: true, force: true }));
 
+const JSON_TYPE = { 'content-type': 'application/json' };
+
 async function csv(layoutId: string, table: string, body: string, query = 'mode=preview') {
-  const res = await postCsv(new Request(`http://t/api?${query}`, { method: 'POST', body }), ctx({ layoutId, table }));
+  const res = await postCsv(new Request(`http://t/api?${query}`, { method: 'POST', body, headers: { 'content-type': 'text/csv' } }), ctx({ layoutId, table }));
   return { status: res.status, body: await res.json() };
 }
 
@@ -191,7 +193,7 @@ describe('plan files', () => {
     expect(planSchema.safeParse(plan).success).toBe(true);
     expect(plan.runs).toEqual([]);
     const post = await importPlan(
-      new Request('http://t/api', { method: 'POST', body: JSON.stringify({ railwayId: w.railway.id, name: 'Copy', plan }) }),
+      new Request('http://t/api', { method: 'POST', body: JSON.stringify({ railwayId: w.railway.id, name: 'Copy', plan }), headers: JSON_TYPE }),
       ctx({}),
     );
     expect(post.status).toBe(201);
@@ -211,18 +213,18 @@ describe('plan files', () => {
     const plan = await (await getPlan(new Request('http://t/api'), ctx({ layoutId: seed.layout.id }))).json();
     plan.cabs[0].driverId = 'nope';
     delete plan.locos[1].topSpeedKmh;
-    const res = await importPlan(new Request('http://t/api', { method: 'POST', body: JSON.stringify({ railwayId: w.railway.id, plan }) }), ctx({}));
+    const res = await importPlan(new Request('http://t/api', { method: 'POST', body: JSON.stringify({ railwayId: w.railway.id, plan }), headers: JSON_TYPE }), ctx({}));
     expect(res.status).toBe(400);
     const body = await res.json();
     expect(body.issues).toContainEqual({ path: 'cabs[0].driverId', message: 'unknown driver "nope"' });
     plan.cabs[0].driverId = plan.drivers[0].id;
-    const res2 = await importPlan(new Request('http://t/api', { method: 'POST', body: JSON.stringify({ railwayId: w.railway.id, plan }) }), ctx({}));
+    const res2 = await importPlan(new Request('http://t/api', { method: 'POST', body: JSON.stringify({ railwayId: w.railway.id, plan }), headers: JSON_TYPE }), ctx({}));
     expect(res2.status).toBe(400);
     expect((await res2.json()).issues[0].path).toBe('locos[1].topSpeedKmh');
     const { listLayoutsWithCounts } = await import('@/db/queries/layouts');
     expect(listLayoutsWithCounts(w.railway.id)).toHaveLength(1);
     // Not JSON at all.
-    expect((await importPlan(new Request('http://t/api', { method: 'POST', body: '{oops' }), ctx({}))).status).toBe(400);
+    expect((await importPlan(new Request('http://t/api', { method: 'POST', body: '{oops', headers: JSON_TYPE }), ctx({}))).status).toBe(400);
   });
 });
 

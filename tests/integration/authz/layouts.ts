@@ -139,7 +139,7 @@ export const LAYOUT_CASES: AuthzCase[] = [
       const { POST } = await import('@/app/api/layouts/[layoutId]/csv/[table]/route');
       const { layout } = seedLayout(w.railway.id);
       const body = 'name,running_amps,stall_amps,rated_volts,top_speed_kmh\r\nCSV loco,0.3,0.8,12,70\r\n';
-      return (await POST(new Request('http://t/api?mode=preview', { method: 'POST', body }), ctx({ layoutId: layout.id, table: 'locomotives' }))).status;
+      return (await POST(new Request('http://t/api?mode=preview', { method: 'POST', body, headers: { 'content-type': 'text/csv' } }), ctx({ layoutId: layout.id, table: 'locomotives' }))).status;
     },
     expect: plannerUp,
   },

@@ -144,7 +144,7 @@ export const LAYOUT_HOSTILE: HostileTarget[] = [
       const rows = loadLayoutRows(layout.id);
       const commit = async (table: (typeof CSV_TABLES)[number], text: string) => {
         const basis = planCsvImport(table, '', rows).preview.basis;
-        const request = new Request(url(`/api/layouts/${layout.id}/csv/${table}?mode=commit&basis=${basis}`), { method: 'POST', body: text });
+        const request = new Request(url(`/api/layouts/${layout.id}/csv/${table}?mode=commit&basis=${basis}`), { method: 'POST', body: text, headers: { 'content-type': 'text/csv' } });
         return (await POST(request, ctx({ layoutId: layout.id, table }))).status;
       };
       const statuses = [await commit('blocks', body)];

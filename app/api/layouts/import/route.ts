@@ -1,6 +1,6 @@
 import { insertLayoutFromImport } from '@/db/queries/layout-import';
 import { recordAudit } from '@/db/queries/railways';
-import { requireMember } from '@/lib/auth';
+import { requireMember, requireUser } from '@/lib/auth';
 import { parseOrThrow, readJson } from '@/lib/errors';
 import { handler } from '@/lib/http';
 import { revalidateLayout } from '@/lib/layouts/layout-edits';
@@ -12,6 +12,8 @@ import { PLAN_MAX_BYTES, planImportSchema } from './schema';
  * transaction or nothing. Runs in the file are left out (a layout holds no timetable).
  */
 const importLayoutPlan = handler(async (request) => {
+  // Signed in before a byte of the body is read (up to 2 MB, counted as it streams in).
+  await requireUser();
   const body = await readJson(request, PLAN_MAX_BYTES);
   const railwayId = typeof body === 'object' && body !== null && 'railwayId' in body ? String(body.railwayId) : '';
   // Who is asking comes before what they sent, so an operator learns nothing from a 400.

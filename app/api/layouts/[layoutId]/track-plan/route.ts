@@ -1,6 +1,6 @@
 import { updateLayout } from '@/db/queries/layouts';
 import { recordAudit } from '@/db/queries/railways';
-import { AppError, notFound, parseOrThrow } from '@/lib/errors';
+import { AppError, notFound, parseOrThrow, readMultipart } from '@/lib/errors';
 import { handler } from '@/lib/http';
 import { sniffImageType } from '@/lib/layouts/image-type';
 import { requireLayoutById, revalidateLayout, rowOrThrow } from '@/lib/layouts/layout-edits';
@@ -35,13 +35,12 @@ const serveTrackPlan = handler<Params>(async (_request, { params }) => {
 const uploadTrackPlan = handler<Params>(async (request, { params }) => {
   const { layoutId } = parseOrThrow(trackPlanParamsSchema, await params);
   const { member, layout } = await requireLayoutById(layoutId, 'planner', 'change track plans');
-  if (Number(request.headers.get('content-length') ?? '0') > IMAGE_MAX_BYTES + 64_000) throw tooLarge();
-  let form: FormData;
-  try {
-    form = await request.formData();
-  } catch {
-    throw new AppError('bad_request', 'Send the image as a form upload (multipart/form-data) with the field “file”.');
-  }
+  // The image plus room for the form's boundaries and the version field, counted as it streams in.
+  const form = await readMultipart(request, {
+    maxBytes: IMAGE_MAX_BYTES + 64_000,
+    wrongType: 'Send the image as a form upload (multipart/form-data) with the field “file”.',
+    tooLarge,
+  });
   const { version } = parseOrThrow(trackPlanVersionSchema, { version: form.get('version') });
   const file = form.get('file');
   if (!(file instanceof Blob) || file.size === 0) {

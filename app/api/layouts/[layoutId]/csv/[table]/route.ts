@@ -1,6 +1,6 @@
 import { loadLayoutRows } from '@/db/queries/plan-data';
 import { recordAudit } from '@/db/queries/railways';
-import { AppError, parseOrThrow } from '@/lib/errors';
+import { AppError, parseOrThrow, readText } from '@/lib/errors';
 import { handler } from '@/lib/http';
 import { commitCsvImport, exportCsv, planCsvImport } from '@/lib/layouts/csv-import';
 import { requireLayoutById, revalidateLayout } from '@/lib/layouts/layout-edits';
@@ -33,9 +33,12 @@ const importTable = handler<Params>(async (request, { params }) => {
   const { layoutId, table } = parseOrThrow(csvParamsSchema, await params);
   const { member, layout } = await requireLayoutById(layoutId, 'planner', 'import into layouts');
   const query = parseOrThrow(csvImportQuerySchema, Object.fromEntries(new URL(request.url).searchParams));
-  const length = Number(request.headers.get('content-length') ?? '0');
-  if (length > CSV_MAX_BYTES) throw new AppError('too_large', 'The file is over 1 MB; the limit is 1 MB. Split it into smaller files.');
-  const text = await request.text();
+  const text = await readText(request, {
+    maxBytes: CSV_MAX_BYTES,
+    accepted: ['text/csv'],
+    wrongType: 'Send the table as CSV (Content-Type: text/csv).',
+    tooLarge: () => new AppError('too_large', 'The file is over 1 MB; the limit is 1 MB. Split it into smaller files.'),
+  });
   const rows = loadLayoutRows(layout.id);
   if (query.mode === 'preview') return Response.json(planCsvImport(table, text, rows).preview);
   const done = commitCsvImport(layout.id, table, text, query.basis, rows);
