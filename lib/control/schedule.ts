@@ -314,8 +314,14 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
     legs.push({ fromS: legStart, toS: run.arriveS, direction: legDir });
 
     // Accepted: book the windows and write the settings.
-    cabWindows.set(run.cabId, [...(cabWindows.get(run.cabId) ?? []), cabWindow]);
-    for (const [blockId, w] of feedWindows) blockWindows.set(blockId, [...(blockWindows.get(blockId) ?? []), w]);
+    const cabList = cabWindows.get(run.cabId) ?? [];
+    cabList.push(cabWindow);
+    cabWindows.set(run.cabId, cabList);
+    for (const [blockId, w] of feedWindows) {
+      const list = blockWindows.get(blockId) ?? [];
+      list.push(w);
+      blockWindows.set(blockId, list);
+    }
     runs.push({ runId: run.id, trainId: run.trainId, cabId: run.cabId, departS: run.departS, arriveS: run.arriveS, pwm, speedKmh, directions });
 
     for (const [blockId, w] of feedWindows) {
@@ -430,8 +436,8 @@ export function checkInterlocks(schedule: ControlSchedule, plan: Plan): ControlF
     } else if (e.kind === 'feed' || e.kind === 'polarity') {
       const current = feed.get(e.blockId) ?? null;
       const involved = e.kind === 'feed' ? [current, e.cabId] : [current];
-      const inBlock = (occupancy.get(e.blockId) ?? []).filter((o) => o.fromMs <= e.atMs && e.atMs <= o.toMs);
-      if (inBlock.length > 0 && involved.some((c) => c !== null && pwmNow(c, e.atMs) > 0)) {
+      const currentFlows = involved.some((c) => c !== null && pwmNow(c, e.atMs) > 0);
+      if (currentFlows && (occupancy.get(e.blockId) ?? []).some((o) => o.fromMs <= e.atMs && e.atMs <= o.toMs)) {
         report('interlock-break-before-make', [e.blockId], e.atMs, `block ${e.blockId} switches while current flows through it`);
       }
       if (e.kind === 'feed') {
