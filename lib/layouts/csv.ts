@@ -38,10 +38,22 @@ export type CsvRecord = { row: number; cells: Record<string, string> };
 /** The separator of locomotives in a train's `locomotives` cell. */
 export const CONSIST_SEPARATOR = ';';
 
-/** Writes rows as CSV with the table's columns, CRLF line ends (RFC 4180 §2). */
+/**
+ * Text cells a spreadsheet would run as a formula (`=`, `+`, `-`, `@`, tab, carriage return:
+ * OWASP, "CSV Injection"), also behind quotes already added, so that unescaping one quote on import
+ * gives back exactly what was exported.
+ */
+const FORMULA_CELL = /^'*[=+\-@\t\r]/;
+
+/** Writes rows as CSV with the table's columns, CRLF line ends (RFC 4180 §2); formula-like text gets a leading `'`. */
 export function toCsv(table: CsvTable, rows: Record<string, string | number>[]): string {
   const fields = CSV_COLUMNS[table].map((c) => c.name);
-  return Papa.unparse({ fields, data: rows.map((r) => fields.map((f) => r[f] ?? '')) }, { newline: '\r\n' });
+  return Papa.unparse({ fields, data: rows.map((r) => fields.map((f) => r[f] ?? '')) }, { newline: '\r\n', escapeFormulae: FORMULA_CELL });
+}
+
+/** A cell as it was before toCsv escaped it (one leading `'` off a formula-like cell). */
+function unescapeFormula(cell: string): string {
+  return FORMULA_CELL.test(cell) && cell.startsWith("'") ? cell.slice(1) : cell;
 }
 
 /**
@@ -96,7 +108,7 @@ export function readCsv(table: CsvTable, text: string): { records: CsvRecord[]; 
     }
     const cells: Record<string, string> = {};
     header.forEach((h, j) => {
-      cells[h] = (line[j] ?? '').trim();
+      cells[h] = unescapeFormula((line[j] ?? '').trim());
     });
     records.push({ row, cells });
   });

@@ -237,3 +237,33 @@ describe('finding 13: writes from another site are refused', () => {
     expect(await runs()).toBe(4);
   });
 });
+
+describe('finding 12: CSV exports escape formulae', () => {
+  it('a name a spreadsheet would run as a formula is exported behind a quote, and imports back as it was', async () => {
+    const world = makeWorld();
+    signInAs(world.planner);
+    const { insertLayout } = await import('@/db/queries/layouts');
+    const { insertBlock } = await import('@/db/queries/layout-blocks');
+    const layout = insertLayout(world.railway.id, { name: 'Formulae', scaleName: 'H0 (NEM)', scaleRatio: 87, setting: 'indoor', notes: '' });
+    // OWASP, "CSV Injection": cells starting with =, +, -, @ (tab and carriage return too) run as formulae.
+    const hostile = ['=HYPERLINK("http://evil.example","Yard")', '+1+1', '-2+3', '@SUM(1)', "'=already quoted"];
+    const ordinary = ['Yard road 1', "Brook's halt", 'Platform 2 (east)'];
+    [...hostile, ...ordinary].forEach((name, i) => insertBlock(layout.id, { name, lengthMm: 1000, positionMm: i * 1000 }));
+    const csvRoute = await import('@/app/api/layouts/[layoutId]/csv/[table]/route');
+    const text = await (await csvRoute.GET(new Request(url('/api/x')), ctx({ layoutId: layout.id, table: 'blocks' }))).text();
+    const Papa = (await import('papaparse')).default;
+    const cells = Papa.parse<string[]>(text.trim()).data.slice(1).map((row) => row[0]!);
+    for (const name of hostile) expect(cells).toContain(`'${name}`);
+    for (const name of ordinary) expect(cells).toContain(name);
+    for (const cell of cells) expect(cell).not.toMatch(/^[=+\-@\t\r]/);
+    // Round trip: the export into an empty layout gives the same names.
+    const empty = insertLayout(world.railway.id, { name: 'Empty', scaleName: 'H0 (NEM)', scaleRatio: 87, setting: 'indoor', notes: '' });
+    const send = (query: string) =>
+      csvRoute.POST(new Request(url(`/api/x?${query}`), { method: 'POST', body: text, headers: { 'content-type': 'text/csv' } }), ctx({ layoutId: empty.id, table: 'blocks' }));
+    const preview = await (await send('mode=preview')).json();
+    expect(preview.issues).toEqual([]);
+    expect((await send(`mode=commit&basis=${preview.basis}`)).status).toBe(200);
+    const { loadLayoutRows } = await import('@/db/queries/plan-data');
+    expect(loadLayoutRows(empty.id).blocks.map((b) => b.name).sort()).toEqual([...hostile, ...ordinary].sort());
+  });
+});
