@@ -17,6 +17,8 @@ export const findingKey = (f: Finding) => `${f.kind}:${f.ids.join(',')}:${f.from
  */
 export function FindingsPanel({
   findings,
+  totals,
+  truncated = false,
   clock,
   selectedKey,
   onSelect,
@@ -28,6 +30,9 @@ export function FindingsPanel({
   revision,
 }: {
   findings: Finding[];
+  /** Errors and warnings counted, listed or not (the engine lists a capped number). */
+  totals?: { errors: number; warnings: number };
+  truncated?: boolean;
   clock: SessionClock;
   selectedKey?: string;
   onSelect: (finding: Finding | undefined) => void;
@@ -40,6 +45,8 @@ export function FindingsPanel({
 }) {
   const errors = findings.filter((f) => f.severity === 'error');
   const warnings = findings.filter((f) => f.severity === 'warning');
+  // The badges count every finding, also those past the engine's caps that are not listed.
+  const total = totals ?? { errors: errors.length, warnings: warnings.length };
   const timing = errors.filter((f) => TIMING_KINDS.has(f.kind)).length;
   const [showAll, setShowAll] = useState(false);
   const ordered = [...errors, ...warnings];
@@ -53,16 +60,21 @@ export function FindingsPanel({
         <h2 id="findings-title" className="font-display text-lg font-bold">Findings</h2>
         <div className="flex items-center gap-2 text-xs" aria-live="polite">
           <Badge tone={errors.length ? 'bad' : 'good'}>
-            <span data-testid="error-count">{errors.length}</span>&nbsp;error{errors.length === 1 ? '' : 's'}
+            <span data-testid="error-count">{total.errors}</span>&nbsp;error{total.errors === 1 ? '' : 's'}
           </Badge>
-          <Badge tone={warnings.length ? 'warn' : 'neutral'}>
-            {warnings.length} warning{warnings.length === 1 ? '' : 's'}
+          <Badge tone={total.warnings ? 'warn' : 'neutral'}>
+            {total.warnings} warning{total.warnings === 1 ? '' : 's'}
           </Badge>
         </div>
       </header>
       <p className="mb-3 text-xs text-muted" data-testid="check-status" data-revision={revision} data-checking={checking ? 'true' : 'false'}>
         {checking ? 'Checking…' : `Checked on the server in ${checkMs} ms${roundTripMs !== undefined ? `; last change answered in ${roundTripMs} ms` : ''}.`}
       </p>
+      {truncated ? (
+        <p className="mb-3 rounded-plate bg-signal-soft p-3 text-sm text-signal" data-testid="findings-truncated">
+          Only the first {findings.length} of {total.errors + total.warnings} findings are listed: fix these, and the rest follow.
+        </p>
+      ) : null}
       {canEdit && timing > 0 ? (
         <div className="mb-3 rounded-plate bg-signal-soft p-3 text-sm">
           <p className="mb-2 text-signal">

@@ -252,6 +252,8 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
           ) : null}
           <FindingsPanel
             findings={findings}
+            totals={snapshot.totals}
+            truncated={snapshot.truncated}
             clock={clock}
             selectedKey={selected.finding ? findingKey(selected.finding) : undefined}
             onSelect={(f) => setSelected(f ? { finding: f } : {})}

@@ -19,7 +19,16 @@ export type TimetableAction =
 export type Undoable = { label: string; action: TimetableAction };
 
 function snapshotPart(change: BuilderChange): BuilderSnapshot {
-  return { session: change.session, runs: change.runs, findings: change.findings, load: change.load, checkMs: change.checkMs };
+  return {
+    session: change.session,
+    runs: change.runs,
+    findings: change.findings,
+    counts: change.counts,
+    totals: change.totals,
+    truncated: change.truncated,
+    load: change.load,
+    checkMs: change.checkMs,
+  };
 }
 
 function restoreBody(run: BuilderRun): NewRunBody {

@@ -152,22 +152,17 @@ export function shiftRuns(
 }
 
 /**
- * Replaces every run of a session in one transaction. A run keeps its id when the id is free or
- * already this session's (so a plan read and posted back leaves the session as it was).
+ * Replaces every run of a session in one transaction. A run keeps its id when it is already this
+ * session's (so a plan read and posted back leaves the session as it was); the server mints the rest.
  */
 export function replaceSessionRuns(sessionId: string, values: readonly RunValues[]): number {
   return writeTransaction((tx) => {
+    const own = new Set(tx.select({ id: runs.id }).from(runs).where(eq(runs.sessionId, sessionId)).all().map((r) => r.id));
     tx.delete(runs).where(eq(runs.sessionId, sessionId)).run();
-    const wanted = values.map((v) => v.id).filter((x): x is string => Boolean(x));
-    const taken = new Set(
-      wanted.length
-        ? tx.select({ id: runs.id }).from(runs).where(inArray(runs.id, wanted)).all().map((r) => r.id)
-        : [],
-    );
     const used = new Set<string>();
     for (const v of values) {
       const { steps, id, ...row } = v;
-      const keep = id && !taken.has(id) && !used.has(id) ? id : undefined;
+      const keep = id && own.has(id) && !used.has(id) ? id : undefined;
       if (keep) used.add(keep);
       const runId = tx
         .insert(runs)

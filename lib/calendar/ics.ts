@@ -27,13 +27,31 @@ export type Person = { name: string; email: string };
 
 const PRODID = { company: 'Fishplate', product: 'Fishplate sessions', language: 'EN' };
 
+/**
+ * A TEXT value as RFC 5545 3.3.11 writes it: backslash, semicolon and comma escaped with a
+ * backslash, every line break as `\n`, and the other control characters (which TEXT may not hold)
+ * dropped. ical-generator escapes SUMMARY, DESCRIPTION and LOCATION itself but writes UID and
+ * X-WR-CALNAME as given, so those go through here; nothing a user typed can end a content line.
+ */
+export function escapeText(value: string): string {
+  return plainText(value)
+    .replace(/[\\;,]/g, (c) => `\\${c}`)
+    .replace(/\r\n|\r|\n/g, '\\n');
+}
+
+/** Text without the control characters RFC 5545 3.3.11 excludes from TEXT (tab and line breaks stay). */
+export function plainText(value: string): string {
+  // eslint-disable-next-line no-control-regex
+  return value.replace(/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/g, '');
+}
+
 /** The session's UID: the same in every invitation, update, cancellation, download and feed. */
 export function sessionUid(sessionId: string): string {
-  return `session-${sessionId}@fishplate`;
+  return escapeText(`session-${sessionId}@fishplate`);
 }
 
 export function runUid(runId: string): string {
-  return `run-${runId}@fishplate`;
+  return escapeText(`run-${runId}@fishplate`);
 }
 
 /**
@@ -97,15 +115,15 @@ export function buildInvitationCalendar(input: {
     start: times.start,
     end: times.end,
     allDay: times.allDay,
-    summary: input.session.title,
-    location: input.session.place || null,
-    description: input.description,
+    summary: plainText(input.session.title),
+    location: plainText(input.session.place) || null,
+    description: plainText(input.description),
     url: input.url ?? null,
     status: input.method === 'CANCEL' ? ICalEventStatus.CANCELLED : STATUS[input.session.status],
-    organizer: { name: input.organizer.name, email: input.organizer.email },
+    organizer: { name: plainText(input.organizer.name), email: input.organizer.email },
     attendees: [
       {
-        name: input.attendee.name,
+        name: plainText(input.attendee.name),
         email: input.attendee.email,
         role: ICalAttendeeRole.REQ,
         ...(input.method === 'REQUEST' ? { status: ICalAttendeeStatus.NEEDSACTION, rsvp: true } : {}),
@@ -141,7 +159,7 @@ export function buildCalendarFile(input: {
   entries: { session: CalendarSession; runs: RunAssignment[]; url?: string }[];
   now?: Date;
 }): string {
-  const calendar = ical({ prodId: PRODID, name: input.name });
+  const calendar = ical({ prodId: PRODID, name: escapeText(input.name) });
   const stamp = input.now ?? new Date();
   for (const { session, runs, url } of input.entries) {
     const times = sessionTimes(session);
@@ -152,9 +170,9 @@ export function buildCalendarFile(input: {
       start: times.start,
       end: times.end,
       allDay: times.allDay,
-      summary: session.title,
-      location: session.place || null,
-      description: session.description || null,
+      summary: plainText(session.title),
+      location: plainText(session.place) || null,
+      description: plainText(session.description) || null,
       url: url ?? null,
       status: STATUS[session.status],
     });
@@ -165,9 +183,9 @@ export function buildCalendarFile(input: {
         stamp,
         start: run.departAt,
         end: run.arriveAt > run.departAt ? run.arriveAt : new Date(run.departAt.getTime() + 60_000),
-        summary: `${run.trainName} on ${run.cabName} — ${session.title}`,
-        location: session.place || null,
-        description: describeRunForCalendar(run),
+        summary: plainText(`${run.trainName} on ${run.cabName} — ${session.title}`),
+        location: plainText(session.place) || null,
+        description: plainText(describeRunForCalendar(run)),
         url: url ?? null,
         status: STATUS[session.status],
       });

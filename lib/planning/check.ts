@@ -1,5 +1,5 @@
-import { compareFindings, orderedPair, type Finding } from './finding';
-import { forEachOverlap, groupBy, sortByKey } from './intervals';
+import { compareFindings, FINDING_KINDS, orderedPair, type Finding, type FindingKind } from './finding';
+import { countOverlapsInGroups, forEachOverlapInGroups, groupBy, sortByKey } from './intervals';
 import { buildLoadProfile, findPowerOverloads, type LoadProfile } from './load';
 import { planNames, withNoun, type PlanNames } from './names';
 import { indexPlan, type PlanIndex } from './plan-index';
@@ -7,9 +7,73 @@ import type { Plan } from './schema';
 import { findVoltageIssues } from './voltage';
 
 export interface PlanCheck {
-  /** Sorted by fromS, then kind, then ids. */
+  /**
+   * Sorted by fromS, then kind, then ids. At most FINDING_LIMITS.perKind of one kind and
+   * FINDING_LIMITS.total in all (the options can lower them); `counts` has how many there are.
+   */
   findings: Finding[];
+  /** How many findings of each kind the plan has, listed or not: exact, whatever the caps. */
+  counts: Record<FindingKind, number>;
+  /** Errors and warnings among all the findings, listed or not. */
+  totals: { errors: number; warnings: number };
+  /** True when some findings are not listed (a count above what `findings` holds of that kind). */
+  truncated: boolean;
   load: LoadProfile;
+}
+
+/** Default caps on listed findings: a plan with more says so (`truncated`) and counts them all. */
+export const FINDING_LIMITS = { perKind: 1000, total: 2000 } as const;
+
+export interface CheckOptions {
+  /** List at most this many findings of one kind (default FINDING_LIMITS.perKind). */
+  maxPerKind?: number;
+  /** List at most this many findings in all, the earliest first (default FINDING_LIMITS.total). */
+  maxFindings?: number;
+  /**
+   * Give up with CheckBudgetError when the check has run longer than `ms` by `now()` (checked
+   * between its phases), so that a server answering one request is not held up for long.
+   */
+  budget?: { ms: number; now: () => number };
+}
+
+/** checkPlan ran past its time budget; nothing was listed. */
+export class CheckBudgetError extends Error {
+  constructor(readonly budgetMs: number) {
+    super(`the plan is too large to check within ${budgetMs} ms`);
+    this.name = 'CheckBudgetError';
+  }
+}
+
+/**
+ * Findings as they are found: every one is counted, but only the first `maxPerKind` of a kind are
+ * built (message included), so a plan with a quadratic number of clashes costs no more than the caps.
+ */
+class FindingList {
+  readonly counts = Object.fromEntries(FINDING_KINDS.map((kind) => [kind, 0])) as Record<FindingKind, number>;
+  readonly listed: Finding[] = [];
+  readonly totals = { errors: 0, warnings: 0 };
+  private readonly kept = Object.fromEntries(FINDING_KINDS.map((kind) => [kind, 0])) as Record<FindingKind, number>;
+
+  constructor(private readonly maxPerKind: number) {}
+
+  /** How many more findings of this kind will be listed. */
+  room(kind: FindingKind): number {
+    return this.maxPerKind - this.kept[kind];
+  }
+
+  add(finding: Finding): void {
+    this.counts[finding.kind]++;
+    this.totals[finding.severity === 'error' ? 'errors' : 'warnings']++;
+    if (this.kept[finding.kind] >= this.maxPerKind) return;
+    this.kept[finding.kind]++;
+    this.listed.push(finding);
+  }
+
+  /** Records `total` findings of a kind (all of one severity) of which those already `add`ed are a part. */
+  countAll(kind: FindingKind, total: number, severity: Finding['severity']): void {
+    this.totals[severity === 'error' ? 'errors' : 'warnings'] += total - this.counts[kind];
+    this.counts[kind] = total;
+  }
 }
 
 /**
@@ -18,7 +82,9 @@ export interface PlanCheck {
  * Finding kinds and their ids (run pairs in ascending string order; intervals half-open):
  * - `block-overlap` (error) `[blockId, runA, runB]`: steps of two runs in one block within the
  *   headway (`a.enterS < b.exitS + headwayS && b.enterS < a.exitS + headwayS`); one per block and
- *   pair. fromS..toS is the shared occupancy, or the too-short gap between them.
+ *   pair of stays, where a run's stay merges its steps in the block that overlap, touch or come
+ *   within the headway of each other (so a run that passes a block twice, far apart, can clash
+ *   twice with another). fromS..toS is the shared occupancy, or the too-short gap between them.
  * - `cab-double-booked`, `operator-double-booked`, `train-double-booked` (errors)
  *   `[cabId | operatorId | trainId, runA, runB]`: movements `[departS, arriveS)` overlap; fromS..toS
  *   is the overlap.
@@ -33,82 +99,115 @@ export interface PlanCheck {
  *   limit, with peakAmps and limitAmps (see LoadProfile for the loads).
  * - `track-voltage-high`, `track-voltage-low` (warnings): see findVoltageIssues.
  *
- * Work grows as n log n in the number of steps: every check is a sort and a sweep.
+ * Work grows as n log n in the number of steps: every check is a sort and a sweep. Pairs (clashes)
+ * are counted without listing them, and only as many as the caps allow are built, so a plan where
+ * every run clashes with every other costs no more than one where none do.
  */
-export function checkPlan(plan: Plan): PlanCheck {
+export function checkPlan(plan: Plan, options: CheckOptions = {}): PlanCheck {
+  const budget = options.budget;
+  const started = budget?.now() ?? 0;
+  const inBudget = () => {
+    if (budget !== undefined && budget.now() - started > budget.ms) throw new CheckBudgetError(budget.ms);
+  };
+  const list = new FindingList(options.maxPerKind ?? FINDING_LIMITS.perKind);
   const index = indexPlan(plan);
   const names = planNames(plan);
-  const findings: Finding[] = [];
-  findBlockOverlaps(plan, index, names, findings);
-  findDoubleBookings(plan, index.runCab, plan.cabs, 'cab-double-booked', (id) => withNoun('cab', names.cab(id)), names, findings);
-  findDoubleBookings(plan, index.runOperator, plan.operators, 'operator-double-booked', names.operator, names, findings);
-  findDoubleBookings(plan, index.runTrain, plan.trains, 'train-double-booked', (id) => withNoun('train', names.train(id)), names, findings);
-  findContinuityBreaks(plan, index, names, findings);
-  findRouteGaps(plan, index, names, findings);
-  findTooLong(plan, index, names, findings);
+  findBlockOverlaps(plan, index, names, list);
+  inBudget();
+  findDoubleBookings(plan, index.runCab, plan.cabs, 'cab-double-booked', (id) => withNoun('cab', names.cab(id)), names, list);
+  findDoubleBookings(plan, index.runOperator, plan.operators, 'operator-double-booked', names.operator, names, list);
+  findDoubleBookings(plan, index.runTrain, plan.trains, 'train-double-booked', (id) => withNoun('train', names.train(id)), names, list);
+  inBudget();
+  const shapes: Finding[] = [];
+  findContinuityBreaks(plan, index, names, shapes);
+  findRouteGaps(plan, index, names, shapes);
+  findTooLong(plan, index, names, shapes);
+  inBudget();
   const load = buildLoadProfile(plan, index);
-  findPowerOverloads(load, plan.rules.derate, findings, names);
-  findVoltageIssues(plan, index, findings, names);
-  findings.sort(compareFindings);
-  return { findings, load };
+  findPowerOverloads(load, plan.rules.derate, shapes, names);
+  findVoltageIssues(plan, index, shapes, names);
+  inBudget();
+  for (const finding of shapes) list.add(finding);
+  const findings = list.listed.sort(compareFindings);
+  const maxFindings = options.maxFindings ?? FINDING_LIMITS.total;
+  if (findings.length > maxFindings) findings.length = maxFindings;
+  const truncated = findings.length < FINDING_KINDS.reduce((sum, kind) => sum + list.counts[kind], 0);
+  return { findings, counts: list.counts, totals: list.totals, truncated, load };
 }
 
-function findBlockOverlaps(plan: Plan, index: PlanIndex, names: PlanNames, findings: Finding[]): void {
+/**
+ * A run's stays in the blocks: its steps in one block merged where they overlap, touch or come
+ * within the headway of each other, so that two stays of one run in a block are always more than
+ * the headway apart. `reach` is the stay's end plus the headway: two stays clash exactly when their
+ * `[enter, reach)` intervals overlap (a.enter < b.exit + h && b.enter < a.exit + h).
+ */
+function stays(plan: Plan, index: PlanIndex) {
   const headway = plan.rules.headwayS;
-  const { stepEnter, stepExit, stepRun, stepBlock } = index;
-  const reach = new Float64Array(stepExit.length);
-  for (let k = 0; k < reach.length; k++) reach[k] = stepExit[k]! + headway;
-  const { items, offsets } = groupBy(stepBlock, plan.blocks.length);
-  const runCount = plan.runs.length;
+  const { stepEnter, stepExit, stepBlock, stepRun } = index;
+  // By block, then run, then entry: each run's steps in one block are then side by side.
+  const order = Array.from({ length: stepEnter.length }, (_, k) => k).sort(
+    (x, y) => stepBlock[x]! - stepBlock[y]! || stepRun[x]! - stepRun[y]! || stepEnter[x]! - stepEnter[y]! || x - y,
+  );
+  const block: number[] = [];
+  const run: number[] = [];
+  const enter: number[] = [];
+  const exit: number[] = [];
+  const reach: number[] = [];
+  for (const k of order) {
+    const b = stepBlock[k]!;
+    if (b < 0) continue;
+    const last = block.length - 1;
+    if (last >= 0 && block[last] === b && run[last] === stepRun[k] && stepEnter[k]! <= reach[last]!) {
+      if (stepExit[k]! > exit[last]!) {
+        exit[last] = stepExit[k]!;
+        reach[last] = stepExit[k]! + headway;
+      }
+      continue;
+    }
+    block.push(b);
+    run.push(stepRun[k]!);
+    enter.push(stepEnter[k]!);
+    exit.push(stepExit[k]!);
+    reach.push(stepExit[k]! + headway);
+  }
+  return { block, run, enter, exit, reach };
+}
 
-  for (let b = 0; b < plan.blocks.length; b++) {
-    const from = offsets[b]!;
-    const to = offsets[b + 1]!;
-    if (to - from < 2) continue;
-    const order = sortByKey(Array.from(items.subarray(from, to)), stepEnter);
-    // A run may pass through a block more than once; one finding per pair covers every meeting.
-    let pairs: Map<number, { fromS: number; toS: number; shared: boolean; a: number; b: number }> | undefined;
-    forEachOverlap(order, stepEnter, reach, (p, q) => {
-      const runP = stepRun[p]!;
-      const runQ = stepRun[q]!;
-      if (runP === runQ) return;
-      const lastIn = Math.max(stepEnter[p]!, stepEnter[q]!);
-      const firstOut = Math.min(stepExit[p]!, stepExit[q]!);
+/**
+ * Block overlaps, one finding per block and pair of stays (see stays). All are counted in
+ * O(n log n); only as many as the list has room for are found, in order of the later stay's entry.
+ */
+function findBlockOverlaps(plan: Plan, index: PlanIndex, names: PlanNames, list: FindingList): void {
+  const headway = plan.rules.headwayS;
+  const stay = stays(plan, index);
+  const blockCount = plan.blocks.length;
+  const total = countOverlapsInGroups(stay.block, blockCount, stay.enter, stay.reach).reduce((a, b) => a + b, 0);
+  let room = list.room('block-overlap');
+  if (room > 0 && total > 0) {
+    const order = sortByKey(Array.from({ length: stay.block.length }, (_, i) => i), stay.enter);
+    forEachOverlapInGroups(order, stay.block, blockCount, stay.enter, stay.reach, (p, q) => {
+      const lastIn = Math.max(stay.enter[p]!, stay.enter[q]!);
+      const firstOut = Math.min(stay.exit[p]!, stay.exit[q]!);
       const shared = lastIn < firstOut;
       const fromS = Math.min(lastIn, firstOut);
       const toS = Math.max(lastIn, firstOut);
-      const key = Math.min(runP, runQ) * runCount + Math.max(runP, runQ);
-      pairs ??= new Map();
-      const seen = pairs.get(key);
-      if (seen === undefined) pairs.set(key, { fromS, toS, shared, a: runP, b: runQ });
-      else {
-        seen.fromS = Math.min(seen.fromS, fromS);
-        seen.toS = Math.max(seen.toS, toS);
-        seen.shared ||= shared;
-      }
-    });
-    if (pairs === undefined) continue;
-    const blockId = plan.blocks[b]!.id;
-    for (const pair of pairs.values()) {
-      const [runA, runB] = orderedPair(plan.runs[pair.a]!.id, plan.runs[pair.b]!.id);
+      const runP = stay.run[p]!;
+      const runQ = stay.run[q]!;
+      const blockId = plan.blocks[stay.block[p]!]!.id;
+      const [runA, runB] = orderedPair(plan.runs[runP]!.id, plan.runs[runQ]!.id);
       // Ids stay in string order; the message names the earlier departure first, as people read it.
-      const [early, late] = earlierFirst(plan, pair.a, pair.b);
+      const [early, late] = earlierFirst(plan, runP, runQ);
       const both = `${names.run(early)} and ${names.run(late)}`;
       const block = withNoun('block', names.block(blockId));
-      const message = pair.shared
-        ? `${both} are both in ${block} ${names.span(pair.fromS, pair.toS)}`
-        : `${both} pass through ${block} only ${round1(pair.toS - pair.fromS)} s apart ` +
-          `(${names.span(pair.fromS, pair.toS)}); the headway is ${headway} s`;
-      findings.push({
-        kind: 'block-overlap',
-        severity: 'error',
-        ids: [blockId, runA, runB],
-        fromS: pair.fromS,
-        toS: pair.toS,
-        message,
-      });
-    }
+      const message = shared
+        ? `${both} are both in ${block} ${names.span(fromS, toS)}`
+        : `${both} pass through ${block} only ${round1(toS - fromS)} s apart ` +
+          `(${names.span(fromS, toS)}); the headway is ${headway} s`;
+      list.add({ kind: 'block-overlap', severity: 'error', ids: [blockId, runA, runB], fromS, toS, message });
+      return --room > 0;
+    });
   }
+  list.countAll('block-overlap', total, 'error');
 }
 
 function findDoubleBookings(
@@ -118,23 +217,21 @@ function findDoubleBookings(
   kind: 'cab-double-booked' | 'operator-double-booked' | 'train-double-booked',
   ownerName: (id: string) => string,
   names: PlanNames,
-  findings: Finding[],
+  list: FindingList,
 ): void {
   const runs = plan.runs;
   const depart = Float64Array.from(runs, (run) => run.departS);
   const arrive = Float64Array.from(runs, (run) => run.arriveS);
-  const { items, offsets } = groupBy(runOwner, owners.length);
-  for (let o = 0; o < owners.length; o++) {
-    const from = offsets[o]!;
-    const to = offsets[o + 1]!;
-    if (to - from < 2) continue;
-    const order = sortByKey(Array.from(items.subarray(from, to)), depart);
-    const ownerId = owners[o]!.id;
-    forEachOverlap(order, depart, arrive, (p, q) => {
+  const total = countOverlapsInGroups(runOwner, owners.length, depart, arrive).reduce((a, b) => a + b, 0);
+  let room = list.room(kind);
+  if (room > 0 && total > 0) {
+    const order = sortByKey(Array.from({ length: runs.length }, (_, r) => r), depart);
+    forEachOverlapInGroups(order, runOwner, owners.length, depart, arrive, (p, q) => {
+      const ownerId = owners[runOwner[p]!]!.id;
       const [runA, runB] = orderedPair(runs[p]!.id, runs[q]!.id);
       const fromS = Math.max(depart[p]!, depart[q]!);
       const toS = Math.min(arrive[p]!, arrive[q]!);
-      findings.push({
+      list.add({
         kind,
         severity: 'error',
         ids: [ownerId, runA, runB],
@@ -142,8 +239,10 @@ function findDoubleBookings(
         toS,
         message: `${ownerName(ownerId)} is booked for ${earlierFirst(plan, p, q).map(names.run).join(' and ')} at once, ${names.span(fromS, toS)}`,
       });
+      return --room > 0;
     });
   }
+  list.countAll(kind, total, 'error');
 }
 
 function findContinuityBreaks(plan: Plan, index: PlanIndex, names: PlanNames, findings: Finding[]): void {

@@ -17,6 +17,8 @@ export {
   formatPlanIssues,
   formatIssuePath,
   HH_MM_PATTERN,
+  PLAN_ID_PATTERN,
+  PLAN_LIMITS,
 } from './schema';
 export type {
   Plan,
@@ -34,8 +36,8 @@ export type {
   Run,
   Step,
 } from './schema';
-export { checkPlan } from './check';
-export type { PlanCheck } from './check';
+export { checkPlan, CheckBudgetError, FINDING_LIMITS } from './check';
+export type { PlanCheck, CheckOptions } from './check';
 export { FINDING_KINDS, compareFindings } from './finding';
 export type { Finding, FindingKind } from './finding';
 export { buildLoadProfile, runCurrents } from './load';

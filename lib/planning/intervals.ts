@@ -27,6 +27,71 @@ export function forEachOverlap(
 }
 
 /**
+ * Like forEachOverlap, but over intervals of many groups at once (only intervals of the same group
+ * pair up), in one sweep in the order given (by start across all groups), and stopping as soon as
+ * `visit` returns false. Pairs come out in the order of the later interval's start, so stopping
+ * early keeps the earliest meetings. Work is O(n + pairs visited) after the sort.
+ */
+export function forEachOverlapInGroups(
+  order: ArrayLike<number>,
+  group: ArrayLike<number>,
+  groups: number,
+  start: ArrayLike<number>,
+  end: ArrayLike<number>,
+  visit: (earlier: number, later: number) => boolean,
+): void {
+  const active: (number[] | undefined)[] = new Array(groups);
+  for (let k = 0; k < order.length; k++) {
+    const current = order[k]!;
+    const g = group[current]!;
+    if (g < 0) continue;
+    const from = start[current]!;
+    const list = (active[g] ??= []);
+    let kept = 0;
+    for (let i = 0; i < list.length; i++) {
+      const other = list[i]!;
+      if (end[other]! > from) list[kept++] = other;
+    }
+    list.length = kept;
+    for (let i = 0; i < kept; i++) if (!visit(list[i]!, current)) return;
+    list.push(current);
+  }
+}
+
+/**
+ * How many pairs of the same group overlap (half-open intervals, each with start < end), without
+ * listing them: O(n log n) however many pairs there are. In start order, interval i overlaps every
+ * earlier one except those that ended by its start, and an interval that ended by i's start began
+ * before it; so i adds `i − #{ends <= start_i}`.
+ */
+export function countOverlapsInGroups(group: ArrayLike<number>, groups: number, start: ArrayLike<number>, end: ArrayLike<number>): number[] {
+  const { items, offsets } = groupBy(group, groups);
+  const counts = new Array<number>(groups).fill(0);
+  for (let g = 0; g < groups; g++) {
+    const from = offsets[g]!;
+    const to = offsets[g + 1]!;
+    if (to - from < 2) continue;
+    const starts = new Float64Array(to - from);
+    const ends = new Float64Array(to - from);
+    for (let i = from; i < to; i++) {
+      starts[i - from] = start[items[i]!]!;
+      ends[i - from] = end[items[i]!]!;
+    }
+    starts.sort();
+    ends.sort();
+    let count = 0;
+    let ended = 0;
+    for (let i = 0; i < starts.length; i++) {
+      const s = starts[i]!;
+      while (ended < ends.length && ends[ended]! <= s) ended++;
+      count += i - ended;
+    }
+    counts[g] = count;
+  }
+  return counts;
+}
+
+/**
  * Sorts `items` (indices) in place by `key[i]`, ties by index; returns it. Sorting plain number
  * arrays with a comparator is the fastest general sort V8 offers for keyed indices.
  */

@@ -3,81 +3,117 @@ import { z } from 'zod';
 /** Fast-clock time of day, two-digit hours and minutes. */
 export const HH_MM_PATTERN = /^([01]\d|2[0-3]):([0-5]\d)$/;
 
-const id = z.string().min(1, 'must not be empty');
-const name = z.string();
+/**
+ * What an id in a plan may look like: a letter or digit, then up to 63 letters, digits, `.`, `_`,
+ * `:` or `-`. Database ids (UUIDs) fit; control characters, spaces, `;`, `,`, quotes and
+ * backslashes never reach a calendar, a file name or a log line through an id.
+ */
+export const PLAN_ID_PATTERN = /^[A-Za-z0-9][A-Za-z0-9._:-]{0,63}$/;
+
+/**
+ * Bounds on what one plan may hold, so that every loop the check runs is bounded too: a plan is
+ * refused (not truncated) when it is larger.
+ */
+export const PLAN_LIMITS = {
+  runs: 10_000,
+  stepsPerRun: 500,
+  steps: 100_000,
+  /** Blocks, links, trains, locomotives, cabs, drivers, supplies, operators: each list. */
+  things: 20_000,
+  /** Times are real seconds from the session's start: a day before it to a week after. */
+  earliestS: -86_400,
+  latestS: 7 * 86_400,
+} as const;
+
+const id = z
+  .string()
+  .min(1, 'must not be empty')
+  .regex(PLAN_ID_PATTERN, 'must be 1–64 letters, digits, ".", "_", ":" or "-", starting with a letter or digit');
+const name = z.string().max(200, 'must be 200 characters or fewer');
 const positive = z.number().positive('must be greater than 0');
 const nonNegative = z.number().min(0, 'must be 0 or more');
-// zod 4 numbers are finite by default, so times can never be Infinity or NaN.
-const seconds = z.number();
+/** A number in (0, max]: the physical ranges below are generous, but bounded. */
+const upTo = (max: number) => positive.max(max, `must be ${max} or less`);
+const zeroTo = (max: number) => nonNegative.max(max, `must be ${max} or less`);
+// zod 4 numbers are finite by default, so times can never be Infinity or NaN; the range keeps
+// every time-driven loop (ticks, grid lines) of the screens bounded.
+const seconds = z
+  .number()
+  .min(PLAN_LIMITS.earliestS, `must be ${PLAN_LIMITS.earliestS} s or later (a day before the session)`)
+  .max(PLAN_LIMITS.latestS, `must be ${PLAN_LIMITS.latestS} s or earlier (a week after the session's start)`);
+const listOf = <T extends z.ZodType>(item: T, max: number = PLAN_LIMITS.things) => z.array(item).max(max, `must hold ${max} or fewer`);
 
-export const scaleSchema = z.object({ name, ratio: positive });
+// Scale ratios from 1:1 to 1:1000 (NEM 010's smallest listed scale, Z, is 1:220).
+export const scaleSchema = z.object({ name, ratio: z.number().min(1, 'must be 1 or more').max(1000, 'must be 1000 or less') });
 
 export const clockSchema = z.object({
-  ratio: z.number().min(1, 'must be 1 or more'),
+  // 3:1 to 12:1 is what sessions use (common practice); 60:1 leaves room.
+  ratio: z.number().min(1, 'must be 1 or more').max(60, 'must be 60 or less'),
   fastStart: z.string().regex(HH_MM_PATTERN, 'must be a time of day written HH:MM'),
 });
 
 export const rulesSchema = z.object({
-  headwayS: nonNegative,
-  surgeS: nonNegative,
+  headwayS: zeroTo(3600),
+  surgeS: zeroTo(600),
   derate: z.number().gt(0, 'must be greater than 0').max(1, 'must be 1 or less'),
 });
 
-export const supplySchema = z.object({ id, name, volts: positive, amps: positive });
+export const supplySchema = z.object({ id, name, volts: upTo(100), amps: upTo(100) });
 
 /** A straight-line drop against current: fixedVolts + ohms × amps (see DropLine). */
-export const dropLineSchema = z.object({ fixedVolts: nonNegative, ohms: nonNegative });
+export const dropLineSchema = z.object({ fixedVolts: zeroTo(100), ohms: zeroTo(1000) });
 
 export const driverSchema = z.object({
   id,
   name,
   supplyId: id,
-  channels: z.number().int('must be a whole number').min(1, 'must be 1 or more'),
-  channelAmps: positive,
-  channelPeakAmps: positive,
-  totalAmps: positive.nullable(),
+  channels: z.number().int('must be a whole number').min(1, 'must be 1 or more').max(64, 'must be 64 or fewer'),
+  channelAmps: upTo(100),
+  channelPeakAmps: upTo(100),
+  totalAmps: upTo(100).nullable(),
   /** One fixed drop, V: plans written before the drop depended on current. `drop` replaces it. */
-  dropVolts: nonNegative.optional(),
+  dropVolts: zeroTo(100).optional(),
   /** The drop against current, as the least and the most the datasheet allows (see driverDrop). */
   drop: z.object({ min: dropLineSchema, max: dropLineSchema }).optional(),
   /**
    * How long the peak rating holds, s. Null: the datasheet gives no pulse width, so a surge is judged
    * against the continuous rating. Absent (older plans): the peak covers the surge.
    */
-  peakPulseS: positive.nullable().optional(),
+  peakPulseS: upTo(3600).nullable().optional(),
   /** What the package may dissipate, W, at 25 °C; null or absent: not checked. */
-  packageWatts: positive.nullable().optional(),
+  packageWatts: upTo(1000).nullable().optional(),
 });
 
 export const cabSchema = z.object({
   id,
   name,
   driverId: id,
-  channel: z.number().int('must be a whole number').min(1, 'must be 1 or more'),
+  channel: z.number().int('must be a whole number').min(1, 'must be 1 or more').max(64, 'must be 64 or fewer'),
 });
 
-export const blockSchema = z.object({ id, name, lengthMm: positive });
+// Lengths up to a kilometre of model track in one block, and trains up to 100 m.
+export const blockSchema = z.object({ id, name, lengthMm: upTo(1_000_000) });
 
 export const linkSchema = z.object({ a: id, b: id });
 
 export const locoSchema = z.object({
   id,
   name,
-  runningAmps: nonNegative,
-  stallAmps: nonNegative,
-  ratedVolts: positive,
+  runningAmps: zeroTo(100),
+  stallAmps: zeroTo(100),
+  ratedVolts: upTo(100),
   /** Calibration: the average voltage below which the loco does not move, V (below ratedVolts). */
-  startVolts: nonNegative.nullable().optional(),
+  startVolts: zeroTo(100).nullable().optional(),
   /** Calibration: scale top speed at ratedVolts, km/h. */
-  topSpeedKmh: positive.nullable().optional(),
+  topSpeedKmh: upTo(1000).nullable().optional(),
 });
 
 export const trainSchema = z.object({
   id,
   name,
-  locoIds: z.array(id).min(1, 'a train needs at least one loco'),
-  lightingAmps: nonNegative,
-  lengthMm: positive,
+  locoIds: z.array(id).min(1, 'a train needs at least one loco').max(16, 'a train has at most 16 locos'),
+  lightingAmps: zeroTo(100),
+  lengthMm: upTo(100_000),
 });
 
 export const operatorSchema = z.object({ id, name });
@@ -91,7 +127,10 @@ export const runSchema = z.object({
   operatorId: id.nullable(),
   departS: seconds,
   arriveS: seconds,
-  steps: z.array(stepSchema).min(1, 'a run needs at least one step'),
+  steps: z
+    .array(stepSchema)
+    .min(1, 'a run needs at least one step')
+    .max(PLAN_LIMITS.stepsPerRun, `a run has at most ${PLAN_LIMITS.stepsPerRun} steps`),
 });
 
 const planShape = z.object({
@@ -99,15 +138,15 @@ const planShape = z.object({
   scale: scaleSchema,
   clock: clockSchema,
   rules: rulesSchema,
-  supplies: z.array(supplySchema),
-  drivers: z.array(driverSchema),
-  cabs: z.array(cabSchema),
-  blocks: z.array(blockSchema),
-  links: z.array(linkSchema),
-  locos: z.array(locoSchema),
-  trains: z.array(trainSchema),
-  operators: z.array(operatorSchema),
-  runs: z.array(runSchema),
+  supplies: listOf(supplySchema),
+  drivers: listOf(driverSchema),
+  cabs: listOf(cabSchema),
+  blocks: listOf(blockSchema),
+  links: listOf(linkSchema, 2 * PLAN_LIMITS.things),
+  locos: listOf(locoSchema),
+  trains: listOf(trainSchema),
+  operators: listOf(operatorSchema),
+  runs: listOf(runSchema, PLAN_LIMITS.runs),
 });
 
 type PlanShape = z.infer<typeof planShape>;
@@ -120,6 +159,11 @@ type IssuePath = (string | number)[];
  */
 export const planSchema = planShape.superRefine((plan, ctx) => {
   const report = (path: IssuePath, message: string) => ctx.addIssue({ code: 'custom', path, message });
+  const steps = plan.runs.reduce((sum, run) => sum + run.steps.length, 0);
+  if (steps > PLAN_LIMITS.steps) {
+    report(['runs'], `the runs have ${steps} steps in all; a plan holds at most ${PLAN_LIMITS.steps}`);
+    return;
+  }
   checkPlanReferences(plan, report);
 });
 

@@ -1,15 +1,14 @@
 import 'server-only';
-import { checkPlan } from '@/lib/planning';
-import { loadSessionPlan } from '@/lib/sessions/builder';
+import { checkInBudget, loadSessionPlan } from '@/lib/sessions/builder';
 
 /** How many errors the engine finds in each stored session (for lists and the dashboard). */
 export function errorCounts(sessionIds: readonly string[]): Map<string, number> {
   const counts = new Map<string, number>();
   for (const id of sessionIds) {
     try {
-      counts.set(id, checkPlan(loadSessionPlan(id).plan).findings.filter((f) => f.severity === 'error').length);
+      counts.set(id, checkInBudget(loadSessionPlan(id).plan).totals.errors);
     } catch {
-      // A session that cannot be read is left out of the count rather than breaking a list.
+      // A session that cannot be read (or checked in time) is left out of the count rather than breaking a list.
     }
   }
   return counts;

@@ -1,6 +1,6 @@
 // Shapes the builder's route handlers answer with and its client components read. Plain types
 // only, so client code can import them without pulling in anything from the server.
-import type { Finding, LoadProfile } from '@/lib/planning';
+import type { Finding, FindingKind, LoadProfile } from '@/lib/planning';
 import type { SessionStatus } from '@/db/enums';
 
 export type { SessionStatus };
@@ -42,7 +42,14 @@ export type BuilderSession = {
 export type BuilderSnapshot = {
   session: BuilderSession;
   runs: BuilderRun[];
+  /** The findings listed (capped: see `counts`). */
   findings: Finding[];
+  /** How many findings of each kind there are, listed or not. */
+  counts: Record<FindingKind, number>;
+  /** Errors and warnings among all of them. */
+  totals: { errors: number; warnings: number };
+  /** Some findings are not listed (more than the engine's caps). */
+  truncated: boolean;
   load: LoadProfile;
   /** How long the server took to load and check the plan, ms. */
   checkMs: number;

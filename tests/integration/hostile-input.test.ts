@@ -9,7 +9,10 @@ import { resetRateLimits } from '@/lib/rate-limit';
 import { actionStatus } from './authz/shared';
 import { signInAs } from './caller';
 import { HOSTILE_TARGETS } from './hostile';
+import { makeSessionWorld } from './authz/sessions';
 import { makeWorld } from './world';
+import { identicalRunsPlan } from '@/lib/cli/identical-runs-plan';
+import { FINDING_LIMITS, type Plan } from '@/lib/planning';
 
 const ROOT = path.resolve(__dirname, '../..');
 
@@ -166,4 +169,57 @@ describe('hostile input', () => {
       );
     }, 120_000);
   }
+});
+
+const jsonPost = (url: string, body: unknown) =>
+  new Request(`http://127.0.0.1:3999${url}`, { method: 'POST', body: JSON.stringify(body), headers: { 'content-type': 'application/json' } });
+
+describe('hostile plans (issue 10)', () => {
+  it('finding 3, quadratic stall: 1,000 identical runs to POST /api/plans/check answer with capped findings and exact counts', async () => {
+    const world = makeWorld();
+    signInAs(world.planner);
+    resetRateLimits();
+    const { POST } = await import('@/app/api/plans/check/route');
+    const plan = identicalRunsPlan(1000);
+    const body = JSON.stringify(plan);
+    // The report's plan was 148 KiB; this one is of the same kind and size.
+    expect(body.length).toBeGreaterThan(100_000);
+    const response = await POST(jsonPost('/api/plans/check', plan), { params: Promise.resolve({}) });
+    expect(response.status).toBe(200);
+    const answer = (await response.json()) as { errors: number; counts: Record<string, number>; truncated: boolean; findings: unknown[] };
+    const pairs = (1000 * 999) / 2;
+    expect(answer.truncated).toBe(true);
+    expect(answer.findings.length).toBe(FINDING_LIMITS.total);
+    expect(answer.counts['block-overlap']).toBe(3 * pairs);
+    expect(answer.counts['cab-double-booked']).toBe(pairs);
+    expect(answer.counts['operator-double-booked']).toBe(pairs);
+    expect(answer.counts['train-double-booked']).toBe(pairs);
+    expect(answer.errors).toBeGreaterThanOrEqual(6 * pairs);
+  }, 120_000);
+
+  it('finding 6, calendar injection through ids: a posted plan with a CRLF run id is refused, and new run ids are minted by the server', async () => {
+    const world = makeWorld();
+    signInAs(world.planner);
+    const { session } = makeSessionWorld(world, { status: 'draft' });
+    const route = await import('@/app/api/sessions/[sessionId]/plan/route');
+    const ctx = { params: Promise.resolve({ sessionId: session.id }) };
+    const plan = (await (await route.GET(new Request(`http://127.0.0.1:3999/api/sessions/${session.id}/plan`), ctx)).json()) as Plan;
+    const keptId = plan.runs[0]!.id;
+
+    const before = databaseChecksum();
+    const injected = structuredClone(plan);
+    injected.runs[1]!.id = 'x\r\nBEGIN:VALARM\r\nTRIGGER:-PT5M\r\nEND:VALARM';
+    const refused = await route.POST(jsonPost(`/api/sessions/${session.id}/plan`, injected), ctx);
+    expect(refused.status).toBe(400);
+    expect(databaseChecksum()).toBe(before);
+
+    const foreign = structuredClone(plan);
+    foreign.runs[1]!.id = 'chosen-by-the-caller';
+    const accepted = await route.POST(jsonPost(`/api/sessions/${session.id}/plan`, foreign), ctx);
+    expect(accepted.status).toBe(200);
+    const ids = ((await accepted.json()) as { runs: { id: string }[] }).runs.map((r) => r.id);
+    expect(ids).toContain(keptId);
+    expect(ids).not.toContain('chosen-by-the-caller');
+    expect(ids).toHaveLength(2);
+  });
 });

@@ -1,6 +1,6 @@
 import ICAL from 'ical.js';
 import { describe, expect, it } from 'vitest';
-import { buildCalendarFile, buildInvitationCalendar, sessionTimes, sessionUid, type CalendarSession } from '@/lib/calendar/ics';
+import { buildCalendarFile, buildInvitationCalendar, escapeText, sessionTimes, sessionUid, type CalendarSession } from '@/lib/calendar/ics';
 import type { RunAssignment } from '@/lib/invitations/assignments';
 
 const host = { name: 'Hazel Brightwater', email: 'host@fishplate.example' };
@@ -141,8 +141,8 @@ describe('invitation calendars (iTIP over iCalendar), parsed with ical.js', () =
   });
 });
 
-describe('calendar files to download or subscribe to', () => {
-  const run = (id: string, departMin: number): RunAssignment => ({
+function run(id: string, departMin: number): RunAssignment {
+  return {
     runId: id,
     operatorId: 'u1',
     operatorName: 'Zoë',
@@ -162,8 +162,10 @@ describe('calendar files to download or subscribe to', () => {
     before: null,
     after: { runId: 'x', operatorId: 'u2', operatorName: 'Priya', trainName: 'Express', fastDepart: '06:52', realDepart: '18:43' },
     note: '',
-  });
+  };
+}
 
+describe('calendar files to download or subscribe to', () => {
   it('has no METHOD (not an iTIP message, RFC 5545 3.7.2), the session UID and one event per run', () => {
     const text = buildCalendarFile({ name: 'Zoë — Fishplate', entries: [{ session: session({ sequence: 3 }), runs: [run('r1', 5), run('r2', 22)] }], now: NOW });
     const { root, events } = expectWellFormed(text);
@@ -178,5 +180,57 @@ describe('calendar files to download or subscribe to', () => {
   it('a cancelled session stays in the feed as STATUS:CANCELLED (RFC 5545 3.8.1.11) so calendars drop it', () => {
     const { events } = expectWellFormed(buildCalendarFile({ name: 'Feed', entries: [{ session: session({ status: 'cancelled', sequence: 1 }), runs: [] }], now: NOW }));
     expect(events[0]!.getFirstPropertyValue('status')).toBe('CANCELLED');
+  });
+});
+
+describe('issue 10 finding 6: calendar injection through ids', () => {
+  const INJECTION = '\r\nBEGIN:VALARM\r\nACTION:DISPLAY\r\nDESCRIPTION:pay here\r\nTRIGGER:-PT5M\r\nEND:VALARM\r\nX-INJECTED:1';
+
+  /** Every property name in the parsed calendar, at any depth, and every component name. */
+  function namesIn(component: ICAL.Component): string[] {
+    return [
+      component.name,
+      ...component.getAllProperties().map((p) => p.name),
+      ...component.getAllSubcomponents().flatMap((c) => namesIn(c)),
+    ];
+  }
+
+  it('a run id with CRLF and properties stays one UID value (RFC 5545 3.3.11 escaping, read back by ical.js)', () => {
+    const hostileRun = { ...run('r1', 5), runId: `r1${INJECTION};x,y\\z` };
+    const text = buildCalendarFile({ name: 'Feed', entries: [{ session: session(), runs: [hostileRun] }], now: NOW });
+    const { root, events } = expectWellFormed(text);
+    const names = namesIn(root);
+    expect(names).not.toContain('valarm');
+    expect(names).not.toContain('x-injected');
+    // UID is TEXT (RFC 5545 3.8.4.7): ical.js reads the escaped line back as the id, a line break as \n.
+    expect(events[1]!.getFirstPropertyValue('uid')).toBe(`run-${hostileRun.runId}@fishplate`.replaceAll('\r\n', '\n'));
+  });
+
+  it('a session title, place and member name with CRLF and properties stay text (X-WR-CALNAME included)', () => {
+    const text = buildCalendarFile({
+      name: `Evening${INJECTION}`,
+      entries: [{ session: session({ title: `Evening${INJECTION}`, place: `Hall${INJECTION}`, description: `Bring tea\u0000${INJECTION}` }), runs: [run('r1', 5)] }],
+      now: NOW,
+    });
+    const { root, events } = expectWellFormed(text);
+    const names = namesIn(root);
+    expect(names).not.toContain('valarm');
+    expect(names).not.toContain('x-injected');
+    // ical.js keeps an X- property's value as written: the escaped text, on one line.
+    expect(root.getFirstPropertyValue('x-wr-calname')).toBe(escapeText(`Evening${INJECTION}`));
+    expect(events[0]!.getFirstPropertyValue('summary')).toBe(`Evening${INJECTION.replaceAll('\r\n', '\n')}`);
+    const invitation = buildInvitationCalendar({
+      method: 'REQUEST',
+      session: session({ title: `Evening${INJECTION}` }),
+      sequence: 0,
+      organizer: { name: `Host${INJECTION}`, email: host.email },
+      attendee: { name: `Guest"${INJECTION}`, email: guest.email },
+      description: `Runs${INJECTION}`,
+      now: NOW,
+    });
+    const parsed = expectWellFormed(invitation);
+    expect(namesIn(parsed.root)).not.toContain('valarm');
+    expect(namesIn(parsed.root)).not.toContain('x-injected');
+    expect(parsed.event.getAllProperties('attendee')).toHaveLength(1);
   });
 });

@@ -18,19 +18,46 @@ const TOL = 1e-9;
 const pair = (a: string, b: string) => (a < b ? [a, b] : [b, a]);
 const movementsOverlap = (a: Plan['runs'][number], b: Plan['runs'][number]) => a.departS < b.arriveS && b.departS < a.arriveS;
 
+/**
+ * A run's stays in one block: its steps there, merged again and again while any two overlap, touch
+ * or come within the headway (`x.enterS <= y.exitS + h` and the other way round).
+ */
+export function oracleStays(run: Plan['runs'][number], blockId: string, h: number): { enterS: number; exitS: number }[] {
+  let stays = run.steps.filter((s) => s.blockId === blockId).map((s) => ({ enterS: s.enterS, exitS: s.exitS }));
+  for (let merged = true; merged; ) {
+    merged = false;
+    outer: for (let i = 0; i < stays.length; i++) {
+      for (let j = 0; j < stays.length; j++) {
+        const x = stays[i]!;
+        const y = stays[j]!;
+        if (i !== j && x.enterS <= y.exitS + h && y.enterS <= x.exitS + h) {
+          const joined = { enterS: Math.min(x.enterS, y.enterS), exitS: Math.max(x.exitS, y.exitS) };
+          stays = [...stays.filter((_, k) => k !== i && k !== j), joined];
+          merged = true;
+          break outer;
+        }
+      }
+    }
+  }
+  return stays;
+}
+
 export function oracleClashes(plan: Plan): OracleFinding[] {
   const out: OracleFinding[] = [];
   const h = plan.rules.headwayS;
   const runs = plan.runs;
-  const blockPairs = new Set<string>();
   for (let i = 0; i < runs.length; i++) {
     for (let j = i + 1; j < runs.length; j++) {
       const a = runs[i]!;
       const b = runs[j]!;
-      for (const sa of a.steps) {
-        for (const sb of b.steps) {
-          if (sa.blockId !== sb.blockId) continue;
-          if (sa.enterS < sb.exitS + h && sb.enterS < sa.exitS + h) blockPairs.add([sa.blockId, ...pair(a.id, b.id)].join('|'));
+      // One block overlap per block and pair of stays within the headway.
+      for (const block of plan.blocks) {
+        for (const sa of oracleStays(a, block.id, h)) {
+          for (const sb of oracleStays(b, block.id, h)) {
+            if (sa.enterS < sb.exitS + h && sb.enterS < sa.exitS + h) {
+              out.push({ kind: 'block-overlap', severity: 'error', ids: [block.id, ...pair(a.id, b.id)] });
+            }
+          }
         }
       }
       if (!movementsOverlap(a, b)) continue;
@@ -41,7 +68,6 @@ export function oracleClashes(plan: Plan): OracleFinding[] {
       if (a.trainId === b.trainId) out.push({ kind: 'train-double-booked', severity: 'error', ids: [a.trainId, ...pair(a.id, b.id)] });
     }
   }
-  for (const key of blockPairs) out.push({ kind: 'block-overlap', severity: 'error', ids: key.split('|') });
   return out;
 }
 

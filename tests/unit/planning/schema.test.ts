@@ -98,7 +98,7 @@ describe('planSchema', () => {
     ['a slow fast clock', (p) => void (p.clock.ratio = 0.5), 'clock.ratio: must be 1 or more'],
     ['a bad fast start', (p) => void (p.clock.fastStart = '24:00'), 'clock.fastStart: must be a time of day written HH:MM'],
     ['a negative headway', (p) => void (p.rules.headwayS = -1), 'rules.headwayS: must be 0 or more'],
-    ['a zero scale ratio', (p) => void (p.scale.ratio = 0), 'scale.ratio: must be greater than 0'],
+    ['a zero scale ratio', (p) => void (p.scale.ratio = 0), 'scale.ratio: must be 1 or more'],
     ['a zero-volt supply', (p) => void (p.supplies[0]!.volts = 0), 'supplies[0].volts: must be greater than 0'],
   ];
 

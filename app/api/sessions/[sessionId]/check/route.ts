@@ -10,13 +10,15 @@ export const dynamic = 'force-dynamic';
 const getCheck = handler<{ sessionId: string }>(async (_request, { params }) => {
   const { sessionId } = parseOrThrow(sessionParamsSchema, await params);
   const { session } = await requireSession(sessionId, 'view');
-  const { findings, load, checkMs, runs } = snapshotOf(session.id);
-  const errors = findings.filter((f) => f.severity === 'error').length;
+  const { findings, counts, totals, truncated, load, checkMs, runs } = snapshotOf(session.id);
+  const { errors, warnings } = totals;
   return Response.json({
     sessionId: session.id,
     runCount: runs.length,
     errors,
-    warnings: findings.length - errors,
+    warnings,
+    counts,
+    truncated,
     findings,
     load,
     checkMs,

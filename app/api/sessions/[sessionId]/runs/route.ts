@@ -45,7 +45,8 @@ const createRun = handler<Params>(async (request, { params }) => {
       steps: timed.steps,
     };
   }
-  const draftId = '\u0000new-run';
+  // Database ids are UUIDs, which never hold a dot: a draft id cannot name a stored run.
+  const draftId = 'draft.new-run';
   assertRunsValid({ ...plan, runs: [...plan.runs, planRun({ ...values, id: draftId })] }, new Set([draftId]), session);
   const [id] = insertRuns(session.id, [values]);
   if (!id) throw new AppError('bad_request', 'The run could not be added.');

@@ -33,7 +33,7 @@ const createSeries = handler<{ sessionId: string; runId: string }>(async (reques
       steps: sourcePlan.steps.map((s) => ({ blockId: s.blockId, enterS: s.enterS + shift, exitS: s.exitS + shift })),
     };
   });
-  const draftIds = copies.map((_, i) => `\u0000copy-${i}`);
+  const draftIds = copies.map((_, i) => `draft.copy-${i}`);
   assertRunsValid({ ...plan, runs: [...plan.runs, ...copies.map((c, i) => planRun({ ...c, id: draftIds[i]! }))] }, new Set(draftIds), session);
   const createdIds = insertRuns(session.id, copies);
   auditRunChange(member, 'create-series', runId, { sessionId: session.id, copies: createdIds.length, everyFastMin: body.everyFastMin });
