@@ -16,6 +16,5 @@ export function errorCounts(sessionIds: readonly string[]): Map<string, number> 
 
 /** Errors and warnings the engine finds in one stored session (for the status panel and publishing). */
 export function checkCounts(sessionId: string): { errors: number; warnings: number } {
-  const { findings } = checkPlan(loadSessionPlan(sessionId).plan);
-  return { errors: findings.filter((f) => f.severity === 'error').length, warnings: findings.filter((f) => f.severity === 'warning').length };
+  return checkInBudget(loadSessionPlan(sessionId).plan).totals;
 }
