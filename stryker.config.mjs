@@ -1,0 +1,31 @@
+// Mutation testing (npm run test:mutation, lib/cli/mutation.mjs runs it one folder of lib/ at a time).
+// Not part of npm test or CI: it takes long on a 2-core machine. Scores per folder are in the README.
+/** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
+export default {
+  testRunner: 'vitest',
+  plugins: ['@stryker-mutator/vitest-runner'],
+  vitest: { configFile: 'vitest.mutation.config.mts', related: true },
+  // Each mutant runs only the tests that reached it in the first (coverage) run.
+  coverageAnalysis: 'perTest',
+  mutate: [
+    'lib/**/*.ts',
+    // Command-line entry points and benchmarks: they wire other modules together and print.
+    '!lib/cli/**',
+    // The invented demo railway: data, checked for consistency by tests/integration/demo-seed.test.ts.
+    '!lib/demo/**',
+    '!lib/**/*.d.ts',
+  ],
+  ignorePatterns: ['.next', '.next-*', 'data', 'uploads', 'test-results', 'playwright-report', 'reports', 'tests/e2e'],
+  // Two shared cores: one worker each; override with --concurrency.
+  concurrency: 2,
+  timeoutMS: 20_000,
+  timeoutFactor: 2,
+  incremental: true,
+  reporters: ['clear-text', 'progress', 'json', 'html'],
+  thresholds: { high: 85, low: 75, break: null },
+  // Only the mutated files get `// @ts-nocheck` (the default touches app/ too, and the hostile-input
+  // test finds server actions by their first line, 'use server').
+  disableTypeChecks: 'lib/**/*.ts',
+  tempDirName: '.stryker-tmp',
+  cleanTempDir: 'always',
+};
