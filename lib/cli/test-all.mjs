@@ -1,4 +1,4 @@
-// npm test — every suite: Vitest (unit + integration), the production build, then Playwright in
+// npm test — every suite: Vitest (unit + integration, then unit again under TZ=Pacific/Auckland), the production build, then Playwright in
 // Chromium. Ends with one line "N passed, N failed" over all of them.
 import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
@@ -6,9 +6,10 @@ import fs from 'node:fs';
 const env = { ...process.env, NEXT_TELEMETRY_DISABLED: '1' };
 fs.mkdirSync('test-results', { recursive: true });
 
-function run(command, args) {
-  console.log(`\n$ ${command} ${args.join(' ')}`);
-  return spawnSync(command, args, { stdio: 'inherit', env }).status ?? 1;
+function run(command, args, extraEnv = {}) {
+  const shown = Object.entries(extraEnv).map(([k, v]) => `${k}=${v} `).join('');
+  console.log(`\n$ ${shown}${command} ${args.join(' ')}`);
+  return spawnSync(command, args, { stdio: 'inherit', env: { ...env, ...extraEnv } }).status ?? 1;
 }
 
 function readJson(file) {
@@ -53,15 +54,24 @@ for (const [command, args] of [
   else failed += 1;
 }
 
-fs.rmSync('test-results/vitest.json', { force: true });
-const vitestStatus = run('npx', ['vitest', 'run', '--reporter=default', '--reporter=json', '--outputFile.json=test-results/vitest.json']);
-const vitest = readJson('test-results/vitest.json');
-if (vitest) {
-  passed += vitest.numPassedTests;
-  failed += vitest.numFailedTests;
-  skipped += (vitest.numPendingTests ?? 0) + (vitest.numTodoTests ?? 0);
+/** One Vitest run with its JSON report, added to the counts. */
+function vitestRun(report, args, extraEnv) {
+  const file = `test-results/${report}`;
+  fs.rmSync(file, { force: true });
+  const status = run('npx', ['vitest', 'run', ...args, '--reporter=default', '--reporter=json', `--outputFile.json=${file}`], extraEnv);
+  const result = readJson(file);
+  if (result) {
+    passed += result.numPassedTests;
+    failed += result.numFailedTests;
+    skipped += (result.numPendingTests ?? 0) + (result.numTodoTests ?? 0);
+  }
+  if (status !== 0 && (!result || result.numFailedTests === 0)) failed += 1; // crashed before reporting
 }
-if (vitestStatus !== 0 && (!vitest || vitest.numFailedTests === 0)) failed += 1; // crashed before reporting
+
+vitestRun('vitest.json', []);
+// The unit tests again in a zone far from UTC that has summer time in the other half of the year
+// (UTC+13 in December, +12 in July): code that reads local time where it means UTC fails here.
+vitestRun('vitest-auckland.json', ['--project', 'unit'], { TZ: 'Pacific/Auckland' });
 
 const buildStatus = run('npx', ['next', 'build']);
 if (buildStatus !== 0) {

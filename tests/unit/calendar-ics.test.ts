@@ -136,6 +136,22 @@ describe('invitation calendars (iTIP over iCalendar), parsed with ical.js', () =
     expect(end.toString()).toBe('2026-12-07'); // two days, 5 and 6 December; DTEND is the day after (exclusive)
   });
 
+  it('hands ical-generator the local dates at UTC midnight, whatever zone the server runs in', () => {
+    // ical-generator writes an all-day DATE from the Date's UTC fields; a Date built from local
+    // time would shift the day on a server east of UTC (npm test runs this suite in Pacific/Auckland too).
+    const s = { startsAt: new Date('2026-12-04T23:00:00Z'), endsAt: new Date('2026-12-06T23:00:00Z'), timeZone: 'Europe/Berlin' };
+    const times = sessionTimes(s);
+    expect(times.start.toISOString()).toBe('2026-12-05T00:00:00.000Z');
+    expect(times.end.toISOString()).toBe('2026-12-07T00:00:00.000Z');
+    expect(request(0, s)).toContain('DTSTART;VALUE=DATE:20261205'); // RFC 5545 3.3.4 / 3.8.2.4
+  });
+
+  it('writes the SEQUENCE it is given, not the session\'s (a cancellation outranks what the invitee last got, RFC 5546 2.1.4, 3.2.5)', () => {
+    // The sender raises SEQUENCE above the one last sent to this attendee even when the session's is lower.
+    const text = buildInvitationCalendar({ method: 'CANCEL', session: session({ status: 'cancelled', sequence: 2 }), sequence: 5, organizer: host, attendee: guest, description: 'Cancelled.', now: NOW });
+    expect(expectWellFormed(text).event.getFirstPropertyValue('sequence')).toBe(5);
+  });
+
   it('an evening session is not mistaken for an all-day one', () => {
     expect(sessionTimes(session()).allDay).toBe(false);
   });
