@@ -5,7 +5,7 @@ import globals from 'globals';
 import tseslint from 'typescript-eslint';
 
 export default tseslint.config(
-  { ignores: ['node_modules/', '.next/', '.next-*/', 'data/', 'drizzle/', 'test-results/', 'playwright-report/', 'next-env.d.ts'] },
+  { ignores: ['node_modules/', '.next/', '.next-*/', 'data/', 'drizzle/', 'test-results/', 'playwright-report/', 'next-env.d.ts', '.stryker-tmp/', 'reports/', 'stryker-setup-*.js'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {

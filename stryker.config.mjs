@@ -4,7 +4,7 @@
 export default {
   testRunner: 'vitest',
   plugins: ['@stryker-mutator/vitest-runner'],
-  vitest: { configFile: 'vitest.mutation.config.mts', related: true },
+  vitest: { configFile: 'vitest.config.mts', related: true },
   // Each mutant runs only the tests that reached it in the first (coverage) run.
   coverageAnalysis: 'perTest',
   mutate: [
@@ -18,8 +18,11 @@ export default {
   ignorePatterns: ['.next', '.next-*', 'data', 'uploads', 'test-results', 'playwright-report', 'reports', 'tests/e2e'],
   // Two shared cores: one worker each; override with --concurrency.
   concurrency: 2,
-  timeoutMS: 20_000,
-  timeoutFactor: 2,
+  timeoutMS: 10_000,
+  // A static mutant (a module-level value, computed once at import) needs every test re-run in a
+  // fresh module graph; on the first run of lib/ they were 17 % of the mutants and 53 % of the time.
+  // They are left out of the score; `--ignoreStatic false` tests them too.
+  ignoreStatic: true,
   incremental: true,
   reporters: ['clear-text', 'progress', 'json', 'html'],
   thresholds: { high: 85, low: 75, break: null },

@@ -5,6 +5,7 @@ import { getLayout } from '@/db/queries/layouts';
 import { loadLayoutRows } from '@/db/queries/plan-data';
 import { signInAs } from './caller';
 import { seedLayout } from './authz/layouts';
+import { makeSessionWorld } from './authz/sessions';
 import { formData, makeWorld } from './world';
 
 function form(fields: Record<string, string | string[]>): FormData {
@@ -57,6 +58,14 @@ describe('layouts', () => {
   });
 
   it('a layout used by a session cannot be deleted; an unused one goes with everything in it', async () => {
+    const w = makeWorld();
+    const { session } = makeSessionWorld(w);
+    signInAs(w.planner);
+    const used = await deleteLayout(w.railway.id, session.layoutId, null, formData({ version: '1' }));
+    expect(used).toMatchObject({ ok: false, status: 409, error: '1 session uses this layout; delete it first.' });
+    expect(loadLayoutRows(session.layoutId).layout).toBeDefined();
+    expect(loadLayoutRows(session.layoutId).blocks).toHaveLength(4);
+
     const { r, l } = setup();
     expect(await deleteLayout(r, l, null, formData({ version: '1' }))).toMatchObject({ ok: true });
     expect(loadLayoutRows(l).blocks).toHaveLength(0);

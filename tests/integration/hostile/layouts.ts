@@ -2,6 +2,7 @@ import type { ActionState } from '@/lib/errors';
 import { CSV_TABLES, blockEditSchema, blockSchema, layoutEditSchema, layoutSchema, locomotiveEditSchema, locomotiveSchema, rowDeleteSchema, supplyEditSchema, supplySchema } from '@/lib/validations/layout';
 import { seedLayout, TINY_PNG } from '../authz/layouts';
 import { actionStatus, type World } from '../authz/shared';
+import { DRIVER_BOUNDS, LOCOMOTIVE_BOUNDS, SUPPLY_BOUNDS, withinBounds } from '../../shared/expected-bounds';
 import { perWorld, refused, worst, type HostileTarget } from './shared';
 
 // Hostile id fields (`id` of a delete, `supplyId`, `driverId`, `locomotiveIds`, `blockAId`…) are
@@ -16,8 +17,10 @@ type Seed = ReturnType<typeof seedLayout>;
 
 const seed = perWorld((w) => seedLayout(w.railway.id));
 const accepts = (schema: { safeParse: (v: unknown) => { success: boolean } }, extra: Record<string, unknown> = {}) =>
-  (f: Record<string, string>) => schema.safeParse({ ...f, ...extra }).success;
+  (f: Record<string, string>) => schema.safeParse({ ...f, ...extra }).success && withinBounds(f, LAYOUT_BOUNDS);
 const blankName = { name: ' ' };
+// Limits from the tests' own table: a schema loosened by mistake no longer decides what counts as valid here.
+const LAYOUT_BOUNDS = [...SUPPLY_BOUNDS, ...DRIVER_BOUNDS, ...LOCOMOTIVE_BOUNDS];
 
 function formOf(fields: Record<string, string>): FormData {
   const data = new FormData();

@@ -2,6 +2,7 @@ import { createSessionSchema, duplicateSessionSchema, sessionStatusSchema, updat
 import { actionStatus, type World } from '../authz/shared';
 import { makeSessionWorld } from '../authz/sessions';
 import { formData } from '../world';
+import { SESSION_SETTINGS_BOUNDS, withinBounds } from '../../shared/expected-bounds';
 import { perWorld, refused, worst, type HostileTarget } from './shared';
 
 // The session, its layout and runs are real (authz/sessions.ts's published session with two
@@ -16,7 +17,9 @@ const post = (path: string, body: string, method = 'POST') =>
   new Request(url(path), { method, body, headers: { 'content-type': 'application/json' } });
 
 const SETTINGS = ['title', 'place', 'description', 'date', 'startTime', 'endTime', 'clockRatio', 'fastStart', 'headwayS', 'surgeS', 'deratePercent'];
-const accepts = (schema: { safeParse: (v: unknown) => { success: boolean } }) => (f: Record<string, string>) => schema.safeParse(f).success;
+// Limits from the tests' own table: a schema loosened by mistake no longer decides what counts as valid here.
+const accepts = (schema: { safeParse: (v: unknown) => { success: boolean } }) => (f: Record<string, string>) =>
+  schema.safeParse(f).success && withinBounds(f, SESSION_SETTINGS_BOUNDS);
 
 /** A JSON route handler of the session (and run), fed the raw hostile body. */
 function sessionJson(target: string, call: (s: ReturnType<typeof world>, body: string) => Promise<Response>): HostileTarget {
