@@ -82,7 +82,7 @@ describe('compileSchedule on random plans (the engine generators)', () => {
       }),
       { numRuns: 300 },
     );
-  });
+  }, 120_000);
 
   it('moves every scheduled train through exactly its planned steps, and leaves out only what it must say', () => {
     fc.assert(
@@ -121,7 +121,7 @@ describe('compileSchedule on random plans (the engine generators)', () => {
       }),
       { numRuns: 300 },
     );
-  });
+  }, 120_000);
 
   it('schedules a plan with no block, cab or train clash in full', () => {
     fc.assert(
@@ -135,5 +135,5 @@ describe('compileSchedule on random plans (the engine generators)', () => {
       }),
       { numRuns: 200 },
     );
-  });
+  }, 120_000);
 });
