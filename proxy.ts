@@ -14,4 +14,4 @@ export function proxy(request: NextRequest) {
   return NextResponse.next();
 }
 
-export const config = { matcher: ['/railways/:path*', '/me/:path*'] };
+export const config = { matcher: ['/railways/:path*', '/my-runs/:path*', '/my-mail', '/me/:path*'] };

@@ -31,3 +31,25 @@ test('the session cookie is HttpOnly and SameSite=Lax, and expires', async ({ pa
   expect(days).toBeGreaterThan(6.9);
   expect(days).toBeLessThanOrEqual(7.01);
 });
+
+test('finding 7: sign-in never sends the browser to another site', async ({ page, baseURL }) => {
+  // Both spellings were confirmed live: a backslash, and a tab that the URL parser strips.
+  for (const hostile of ['/%5Cevil.example/phish', '/%09/evil.example/phish']) {
+    await page.context().clearCookies();
+    await page.goto(`/sign-in?callbackUrl=${hostile}`);
+    await page.getByLabel('E-mail address', { exact: true }).fill(DEMO.planner);
+    await page.getByLabel('Password').fill(DEMO_PASSWORD);
+    await page.getByRole('button', { name: 'Sign in', exact: true }).click();
+    await expect(page).toHaveURL(/\/railways$/);
+    expect(new URL(page.url()).origin, hostile).toBe(new URL(baseURL!).origin);
+  }
+});
+
+test('issue 13 point 10: signed out, /my-runs lands back on /my-runs after sign-in', async ({ page }) => {
+  await page.goto('/my-runs');
+  await expect(page).toHaveURL(/\/sign-in\?callbackUrl=%2Fmy-runs$/);
+  await page.getByLabel('E-mail address', { exact: true }).fill(DEMO.operator);
+  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in', exact: true }).click();
+  await expect(page).toHaveURL(/\/my-runs$/);
+});

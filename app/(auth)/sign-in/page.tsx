@@ -2,12 +2,13 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { LinkRequestForm, SignInForm } from '@/components/auth/sign-in-form';
 import { env } from '@/lib/env';
+import { sameOriginPath } from '@/lib/safe-callback';
 
 export const metadata: Metadata = { title: 'Sign in' };
 
 export default async function SignInPage({ searchParams }: { searchParams: Promise<{ callbackUrl?: string; error?: string }> }) {
   const { callbackUrl, error } = await searchParams;
-  const safeCallback = callbackUrl?.startsWith('/') && !callbackUrl.startsWith('//') ? callbackUrl : '/railways';
+  const safeCallback = sameOriginPath(callbackUrl, env().NEXTAUTH_URL);
   return (
     <div className="space-y-6">
       <div>

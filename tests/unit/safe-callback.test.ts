@@ -1,0 +1,36 @@
+import { describe, expect, it } from 'vitest';
+import { sameOriginPath } from '@/lib/safe-callback';
+
+const ORIGIN = 'https://fishplate.example';
+
+describe('finding 7: open redirect after sign-in', () => {
+  it('finding 7: a callback that resolves to another site falls back to /railways', () => {
+    // WHATWG URL Standard, "special authority ignore slashes state": a backslash after the scheme
+    // counts as a slash, and tab and newline are stripped before parsing (basic URL parser, step 3).
+    for (const hostile of [
+      '/\\evil.example/phish',
+      '/\t/evil.example/phish',
+      '/\n/evil.example',
+      '//evil.example/phish',
+      '\\\\evil.example',
+      'https://evil.example/',
+      'http://fishplate.example/', // same host, other scheme: another origin (RFC 6454 §4)
+      'https://fishplate.example.evil.example/',
+      'javascript:alert(1)',
+      'data:text/html,hi',
+      '/.//evil.example',
+    ]) {
+      const path = sameOriginPath(hostile, ORIGIN);
+      expect(new URL(path, ORIGIN).origin, hostile).toBe(ORIGIN);
+      expect(path.startsWith('//'), hostile).toBe(false);
+    }
+    expect(sameOriginPath('/\\evil.example/phish', ORIGIN)).toBe('/railways');
+    expect(sameOriginPath(undefined, ORIGIN)).toBe('/railways');
+  });
+
+  it('keeps a same-origin path with its query and fragment', () => {
+    expect(sameOriginPath('/my-runs', ORIGIN)).toBe('/my-runs');
+    expect(sameOriginPath('/railways/r1/sessions/s1?tab=runs#findings', ORIGIN)).toBe('/railways/r1/sessions/s1?tab=runs#findings');
+    expect(sameOriginPath('https://fishplate.example/my-runs', ORIGIN)).toBe('/my-runs');
+  });
+});
