@@ -2,14 +2,15 @@
 
 import { revalidatePath } from 'next/cache';
 import { z } from 'zod';
-import { countHosts, getMembership, removeMember as deleteMembership, setMemberRole } from '@/db/queries/memberships';
+import { countHosts, detachMember, getMembership, listRunsStillOperatedBy, setMemberRole } from '@/db/queries/memberships';
 import { getRailway, recordAudit } from '@/db/queries/railways';
 import { upsertMemberInvitation, withdrawMemberInvitation } from '@/db/queries/member-invitations';
-import { getUserByEmail } from '@/db/queries/users';
+import { getUserByEmail, getUserById } from '@/db/queries/users';
 import { requireMember } from '@/lib/auth';
 import { AppError, notFound, type ActionState, parseOrThrow } from '@/lib/errors';
 import { action } from '@/lib/http';
 import { queueMembershipOfferMail } from '@/lib/mail/account-mail';
+import { formatFast } from '@/lib/planning';
 import { ROLE_LABELS } from '@/lib/roles';
 import { changeRoleSchema, inviteMemberSchema, removeMemberSchema, requestLinkSchema } from '@/lib/validations/account';
 
@@ -77,13 +78,38 @@ export const changeMemberRole = action(['id', 'state', 'form'], async (railwayId
   return { ok: true, message: `Role changed to ${ROLE_LABELS[input.role].toLowerCase()}.` };
 });
 
-/** Host only: removes a member from this railway (their account stays). */
+/** Names runs for a person: "Evening: Local 06:20, Freight 07:05 (fast)", the first ten of them. */
+function describeRuns(list: ReturnType<typeof listRunsStillOperatedBy>): string {
+  const bySession = new Map<string, string[]>();
+  for (const r of list.slice(0, 10)) {
+    const label = `${r.trainName} ${formatFast(r.departS, { ratio: r.clockRatio, fastStart: r.fastStart })}`;
+    bySession.set(r.sessionTitle, [...(bySession.get(r.sessionTitle) ?? []), label]);
+  }
+  const text = [...bySession].map(([title, labels]) => `${title}: ${labels.join(', ')}`).join('; ');
+  return list.length > 10 ? `${text} and ${list.length - 10} more` : text;
+}
+
+/**
+ * Host only: removes a member from this railway (their account stays). Refused, with the runs
+ * named, while they operate runs in sessions still to come — the host gives those runs another
+ * operator first, so no published timetable silently loses its driver. Their invitations, reply
+ * links and duties go with the membership; runs in sessions already over keep no operator.
+ */
 export const removeMember = action(['id', 'state', 'form'], async (railwayId, _prev, formData): Promise<ActionState> => {
   const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'remove members');
   const input = parseOrThrow(removeMemberSchema, { userId: formData.get('userId') });
   assertNotLastHost(host.railwayId, input.userId);
-  if (!deleteMembership(host.railwayId, input.userId)) throw notFound('That member');
-  recordAudit({ railwayId: host.railwayId, userId: host.user.id, action: 'remove', entity: 'member', entityId: input.userId });
+  const still = listRunsStillOperatedBy(host.railwayId, input.userId);
+  if (still.length > 0) {
+    const name = getUserById(input.userId)?.name ?? 'This member';
+    throw new AppError(
+      'conflict',
+      `${name} operates ${still.length} run${still.length === 1 ? '' : 's'} in sessions still to come (${describeRuns(still)}, fast clock). Give ${still.length === 1 ? 'it' : 'them'} another operator, or none, in the timetable first.`,
+    );
+  }
+  const result = detachMember(host.railwayId, input.userId);
+  if (!result.removed) throw notFound('That member');
+  recordAudit({ railwayId: host.railwayId, userId: host.user.id, action: 'remove', entity: 'member', entityId: input.userId, detail: { unassignedRuns: result.unassignedRuns } });
   revalidatePath(`/railways/${host.railwayId}/members`);
-  return { ok: true, message: 'Member removed.' };
+  return { ok: true, message: 'Member removed. Their invitations and reply links no longer work.' };
 });
