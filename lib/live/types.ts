@@ -40,3 +40,5 @@ export type LiveState = {
 };
 
 export type LiveMessage = { seq: number; type: string; summary: string; at: number; state?: LiveState };
+
+export type { Session } from '@/db/schema';

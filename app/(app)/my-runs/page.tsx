@@ -3,6 +3,7 @@ import Link from 'next/link';
 import { redirect } from 'next/navigation';
 import { getCalendarToken } from '@/db/queries/calendar-feed';
 import { FeedLinks } from '@/components/crew/feed-links';
+import { MyLiveRunsSlot } from '@/components/live/my-live-runs-slot';
 import { RsvpButtons } from '@/components/crew/rsvp-buttons';
 import { RunCard } from '@/components/crew/run-card';
 import { Card } from '@/components/ui/card';
@@ -19,6 +20,7 @@ function SessionBlock({ entry, first, viewerId }: { entry: MyRunsSession; first:
   const otherDuties = entry.duties.filter((d) => d.duty !== 'driver');
   return (
     <section className="space-y-3" data-testid="my-session" aria-labelledby={`session-${s.id}`}>
+      <MyLiveRunsSlot session={s} userId={viewerId} />
       <Card>
         <p className="text-xs font-semibold uppercase tracking-widest text-brass">
           {first ? 'Next session' : 'Later'} · {entry.railwayName}

@@ -40,6 +40,7 @@ export default async function SessionBuilderPage({ params }: { params: Promise<{
           </p>
         </div>
         <nav aria-label="Session" className="flex flex-wrap gap-3 text-sm font-semibold">
+          <Link href={`${base}/live`} className="text-verdigris hover:underline">Live board</Link>
           {canEdit ? (
             <>
               <Link href={`${base}/settings`} className="text-verdigris hover:underline">Settings and status</Link>

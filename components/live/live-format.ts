@@ -1,0 +1,31 @@
+import { formatFast, type FastClock } from '@/lib/planning';
+import type { LiveRun, LiveState } from '@/lib/live/types';
+
+/** Real seconds as whole fast minutes (rounded). */
+export function fastMinutes(realS: number, clock: FastClock): number {
+  return Math.round((realS * clock.ratio) / 60);
+}
+
+export function fastAt(sessionS: number, clock: FastClock): string {
+  return formatFast(sessionS, clock);
+}
+
+export function namesOf(state: LiveState) {
+  const map = (list: { id: string; name: string }[]) => new Map(list.map((x) => [x.id, x.name]));
+  return { block: map(state.names.blocks), cab: map(state.names.cabs), train: map(state.names.trains), operator: map(state.names.operators) };
+}
+
+/** The block a run is expected in at `nowS` (the one entered last), or null. */
+export function blockAt(run: LiveRun, nowS: number): string | null {
+  let found: string | null = null;
+  for (const step of run.steps) if (step.enterS <= nowS && nowS < step.exitS) found = step.blockId;
+  return found;
+}
+
+export const isUnderWay = (run: LiveRun) => run.status === 'running' || run.status === 'stopped';
+export const notDeparted = (run: LiveRun) => run.status === 'waiting' || run.status === 'due';
+
+export function delayLabel(delayS: number, clock: FastClock): string | null {
+  const min = fastMinutes(delayS, clock);
+  return min >= 1 ? `+${min} min` : null;
+}
