@@ -1,4 +1,5 @@
 import { formatFast, type FastClock } from '@/lib/planning';
+import { blockAtTime } from '@/lib/live/blocks';
 import type { LiveRun, LiveState } from '@/lib/live/types';
 
 /** Real seconds as whole fast minutes (rounded). */
@@ -17,9 +18,7 @@ export function namesOf(state: LiveState) {
 
 /** The block a run is expected in at `nowS` (the one entered last), or null. */
 export function blockAt(run: LiveRun, nowS: number): string | null {
-  let found: string | null = null;
-  for (const step of run.steps) if (step.enterS <= nowS && nowS < step.exitS) found = step.blockId;
-  return found;
+  return blockAtTime(run.steps, nowS);
 }
 
 export const isUnderWay = (run: LiveRun) => run.status === 'running' || run.status === 'stopped';

@@ -43,17 +43,18 @@ export function foldReports(reports: readonly ReportRecord[]): Map<string, Known
   return known;
 }
 
-/** Why a report does not fit what is known of the run, or null. */
-export function reportRefusal(run: KnownRun | undefined, kind: ReportKind, correcting: boolean): string | null {
+/**
+ * Why a report does not fit what is known of the run, or null. A withdrawal needs something to
+ * withdraw; a typed time corrects the report of its kind, or, when there is none yet, is a report
+ * made afterwards at that time (checked like one made now).
+ */
+export function reportRefusal(run: KnownRun | undefined, kind: ReportKind, how: 'now' | 'typed' | 'withdraw'): string | null {
   const departed = run?.departS !== undefined;
   const arrived = run?.arriveS !== undefined;
   const standing = run?.stops.at(-1)?.toS === null;
-  if (correcting) {
-    if (kind === 'departed' && !departed) return 'There is no departure to correct yet.';
-    if (kind === 'arrived' && !arrived) return 'There is no arrival to correct yet.';
-    if (kind === 'stopped' && !run?.stops.length) return 'There is no stop to correct yet.';
-    return null;
-  }
+  const exists = kind === 'departed' ? departed : kind === 'arrived' ? arrived : Boolean(run?.stops.length);
+  if (how === 'withdraw') return exists ? null : `There is no “${kind}” report to withdraw.`;
+  if (how === 'typed' && exists) return null;
   if (kind === 'departed' && departed && !standing) return arrived ? 'This run has already arrived.' : 'This run has already departed.';
   if (kind === 'arrived' && !departed) return 'Report the departure first.';
   if (kind === 'arrived' && arrived) return 'This run has already arrived.';

@@ -56,7 +56,7 @@ export function makeReport(session: Session, member: Member, runId: string, inpu
     summary,
     (stored) => {
       if (stored.length >= MAX_REPORTS) throw new AppError('bad_request', `This session already has ${MAX_REPORTS} reports.`);
-      const refusal = reportRefusal(foldReports(stored.filter((r) => r.runId === runId)).get(runId), input.kind, correcting);
+      const refusal = reportRefusal(foldReports(stored.filter((r) => r.runId === runId)).get(runId), input.kind, input.withdraw ? 'withdraw' : input.fast !== undefined ? 'typed' : 'now');
       if (refusal) throw new AppError('bad_request', refusal, { issues: [{ path: 'kind', message: refusal }] });
     },
   );

@@ -7,6 +7,8 @@ import { closeDb } from '@/db';
 import { readClockNow } from '@/lib/live/clock';
 import { getSessionById } from '@/db/queries/session-records';
 import { GET as liveRoute } from '@/app/api/sessions/[sessionId]/live/route';
+import { GET as reportRoute } from '@/app/api/sessions/[sessionId]/report/route';
+import Papa from 'papaparse';
 import { GET as proposeRepair, POST as repairAction } from '@/app/api/sessions/[sessionId]/repair/route';
 import { getDb } from '@/db';
 import { insertRuns } from '@/db/queries/runs';
@@ -232,5 +234,38 @@ describe('live updates and the host’s repair', () => {
     addMember(w.railway.id, stranger.id, 'operator');
     signInAs(stranger);
     expect((await liveRoute(new Request(url(`/api/sessions/${sid}/live`)), ctx({ sessionId: sid }))).status).toBe(404);
+  });
+});
+
+describe('the report after the session', () => {
+  it('puts planned against actual, counts punctuality, and says where the delay began', async () => {
+    const { w } = setup();
+    const f = followingSession(w);
+    signInAs(w.host);
+    await clock(f.sid, { action: 'set', fast: '06:10' });
+    // The leader leaves 90 s (6 fast min at 4:1) late and arrives; the follower, held by it, leaves
+    // when it can (its own lateness handed on), and arrives.
+    await report(f.sid, f.leader, { kind: 'departed' });
+    await report(f.sid, f.leader, { kind: 'arrived', fast: '06:20' });
+    await report(f.sid, f.follower, { kind: 'departed', fast: '06:22' });
+
+    const res = await reportRoute(new Request(url(`/api/sessions/${f.sid}/report?punctualMin=3`)), ctx({ sessionId: f.sid }));
+    expect(res.status).toBe(200);
+    const body = await res.json();
+    const leader = body.runs.find((r: { runId: string }) => r.runId === f.leader);
+    expect(leader).toMatchObject({ actualDepart: '06:10', departDelayFastMin: 6, actualArrive: '06:20', punctual: false, delayBeganFastMin: 6 });
+    expect(body.punctuality).toMatchObject({ departed: 2 });
+    // The delay began in block A, where the leader started (a stop-free late start).
+    expect(body.delaysBeganIn[0]).toMatchObject({ name: 'Block A' });
+    expect(body.delayByTrain.map((t: { name: string }) => t.name)).toContain('Morning stopper');
+    const graphLeader = body.graph.find((g: { runId: string }) => g.runId === f.leader);
+    expect(graphLeader.actual[0].enterS - graphLeader.planned[0].enterS).toBeCloseTo(90, 3);
+
+    const csv = await reportRoute(new Request(url(`/api/sessions/${f.sid}/report?format=csv`)), ctx({ sessionId: f.sid }));
+    expect(csv.headers.get('content-type')).toMatch(/text\/csv/);
+    const parsed = Papa.parse<Record<string, string>>(await csv.text(), { header: true, skipEmptyLines: true });
+    expect(parsed.data).toHaveLength(2);
+    expect(parsed.data.find((r) => r.runId === f.leader)).toMatchObject({ actualDepart: '06:10', departDelayFastMin: '6', punctual: 'false' });
+    expect((await reportRoute(new Request(url(`/api/sessions/${f.sid}/report?format=xml`)), ctx({ sessionId: f.sid }))).status).toBe(400);
   });
 });

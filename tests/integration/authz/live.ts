@@ -76,4 +76,14 @@ LIVE_CASES.push(
   },
 );
 
+LIVE_CASES.push({
+  target: 'app/api/sessions/[sessionId]/report/route.ts#GET',
+  call: async (w) => {
+    const { session } = makeSessionWorld(w);
+    const { GET } = await import('@/app/api/sessions/[sessionId]/report/route');
+    return (await GET(new Request(url(`/api/sessions/${session.id}/report?format=csv`)), ctx({ sessionId: session.id }))).status;
+  },
+  expect: anyMember,
+});
+
 export const LIVE_EXEMPTIONS: AuthzExemption[] = [];

@@ -1,0 +1,2 @@
+export { reportQuerySchema } from '@/lib/validations/live';
+export { sessionParamsSchema } from '@/lib/validations/session';
