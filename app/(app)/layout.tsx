@@ -31,7 +31,9 @@ export default async function AppLayout({ children }: { children: React.ReactNod
           </div>
         </div>
       </header>
-      <div className="mx-auto max-w-6xl px-4 py-6">{children}</div>
+      <main id="main" className="mx-auto max-w-6xl px-4 py-6">
+        {children}
+      </main>
     </div>
   );
 }

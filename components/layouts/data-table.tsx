@@ -15,6 +15,12 @@ import { useState, type ReactNode } from 'react';
 import { inputClass } from '@/components/ui/field';
 
 /**
+ * The actions column (Add, Save, Delete) stays in view at the table's right edge when a wide table
+ * scrolls sideways in its card.
+ */
+export const STICKY_END = 'sticky right-0 z-10 shadow-[-10px_0_8px_-8px_rgb(0_0_0/0.25)]';
+
+/**
  * A table with sorting (click a heading), a filter over every column and paging. `renderRow` may
  * draw a row itself (an editable row); the columns still decide sorting and filtering.
  */
@@ -93,7 +99,7 @@ export function DataTable<T>({
                     <th
                       key={header.id}
                       scope="col"
-                      className="px-2 py-2 font-semibold"
+                      className={`px-2 py-2 font-semibold ${header.column.id === 'actions' ? `${STICKY_END} bg-surface` : ''}`}
                       aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
                     >
                       {canSort ? (

@@ -11,7 +11,7 @@ import { inputClass as fieldClass } from '@/components/ui/field';
 // Table cells size their inputs themselves, so the form-wide full width is dropped.
 const inputClass = fieldClass.replace('w-full ', '');
 import type { ActionState } from '@/lib/errors';
-import { DataTable } from './data-table';
+import { DataTable, STICKY_END } from './data-table';
 
 export type FormValues = Record<string, string | string[]>;
 
@@ -44,6 +44,8 @@ type Props<T extends { id: string; version?: number }> = {
   editSchema: z.ZodType;
   hidden?: Record<string, string>;
   newDefaults: FormValues;
+  /** The add row takes changed newDefaults while it is untouched (they depend on other rows). */
+  followDefaults?: boolean;
   /** The add row's values after an add, e.g. the next block's position. */
   nextDefaults?: (added: FormValues) => FormValues;
   create: Submit;
@@ -124,6 +126,7 @@ function RowForm<T extends { id: string; version?: number }>({
   editSchema,
   hidden = {},
   newDefaults,
+  followDefaults,
   nextDefaults,
   create,
   update,
@@ -154,6 +157,13 @@ function RowForm<T extends { id: string; version?: number }>({
     // Reset when the stored row (its version) or the display unit changes, not on every render.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [resetKey]);
+
+  // With followDefaults the add row takes new defaults (a driver just added, say) until someone types in it.
+  const newKey = JSON.stringify(newDefaults);
+  useEffect(() => {
+    if (mode === 'create' && followDefaults && !form.formState.isDirty) form.reset({ ...newDefaults, ...hidden });
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [newKey]);
 
   const readOnly = !canEdit || (mode === 'edit' && !update);
   const dirty = form.formState.isDirty;
@@ -284,7 +294,7 @@ function RowForm<T extends { id: string; version?: number }>({
       >
         {cells}
         {canEdit ? (
-          <td className="whitespace-nowrap px-2 py-1.5 text-right align-top">
+          <td className={`whitespace-nowrap px-2 py-1.5 text-right align-top ${STICKY_END} ${mode === 'create' ? 'bg-sunken' : dirty ? 'bg-brass-soft' : 'bg-surface'}`}>
             {mode === 'create' ? (
               <button type="button" onClick={() => void save()} disabled={pending} className="rounded-plate bg-verdigris px-3 py-2 text-sm font-semibold text-surface hover:bg-verdigris-strong disabled:opacity-60">
                 {pending ? 'Adding…' : `Add ${noun}`}

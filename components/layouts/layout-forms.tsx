@@ -59,7 +59,8 @@ export function LayoutForm({
       <Field label="Name" name={id('name')} error={errors.name?.message}>
         <input id={id('name')} {...form.register('name')} className={inputClass} aria-invalid={errors.name ? true : undefined} placeholder="e.g. Attic branch line" />
       </Field>
-      <div className="grid gap-4 sm:grid-cols-2">
+      {/* One field a line: the scale's label (name, ratio and gauge) needs the card's whole width. */}
+      <div className="space-y-4">
         <Field label="Scale" name={id('scale')} error={errors.scaleId?.message} hint="Ratios and gauges from NEM 010 and NMRA S-1.2.">
           <select id={id('scale')} {...form.register('scaleId')} className={inputClass}>
             {SCALES.map((s) => (

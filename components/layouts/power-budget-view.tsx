@@ -52,7 +52,7 @@ export function PowerBudgetView({ budget }: { budget: PowerBudget }) {
               <dd>{A(s.ratedAmps)} × {budget.derate} = <strong>{A(s.deratedAmps)}</strong></dd>
               <dt className="text-muted">Worst case running</dt>
               <dd>
-                <Sum worst={s.worstRunning} empty="no cab on this supply" /> <span className="text-muted">({s.cabCount} cab{s.cabCount === 1 ? '' : 's'})</span>
+                <Sum worst={s.worstRunning} empty={s.cabCount ? 'no trains yet' : 'no cab on this supply'} /> <span className="text-muted">({s.cabCount} cab{s.cabCount === 1 ? '' : 's'})</span>
               </dd>
               <dt className="text-muted">Worst case surge</dt>
               <dd><Sum worst={s.worstSurge} empty="—" /></dd>
@@ -94,7 +94,7 @@ export function PowerBudgetView({ budget }: { budget: PowerBudget }) {
             <dl className="grid gap-x-4 gap-y-1 text-sm sm:grid-cols-[12rem_1fr]">
               <dt className="text-muted">One channel, running</dt>
               <dd>
-                <Sum worst={d.channelRunning} empty="no cab yet" /> against {A(d.channelAmps)} continuous
+                <Sum worst={d.channelRunning} empty={d.cabCount ? 'no trains yet' : 'no cab yet'} /> against {A(d.channelAmps)} continuous
               </dd>
               <dt className="text-muted">One channel, surge</dt>
               <dd>

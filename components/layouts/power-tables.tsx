@@ -85,6 +85,7 @@ export function DriversTable({ railwayId, layoutId, canEdit, drivers, supplies }
       columns={columns}
       createSchema={driverSchema}
       editSchema={driverEditSchema}
+      followDefaults
       newDefaults={{ name: '', supplyId: supplies.length === 1 ? supplies[0]!.id : '', presetId: '', partNumber: '', channels: '', channelAmps: '', channelPeakAmps: '', totalAmps: '', dropVolts: '' }}
       onFieldChange={(name, value, form) => {
         // Choosing a class fills in its datasheet ratings; they can still be changed by hand.
@@ -108,7 +109,34 @@ export function DriversTable({ railwayId, layoutId, canEdit, drivers, supplies }
   );
 }
 
-export function CabsTable({ railwayId, layoutId, canEdit, cabs, drivers }: Ids & { cabs: CabRow[]; drivers: { id: string; name: string; channels: number }[] }) {
+type DriverChannels = { id: string; name: string; channels: number };
+
+/**
+ * The first free channel for a new cab: on the preferred driver if it has one left, else on the first
+ * driver that does; `taken` adds a cab just saved that the rows do not show yet.
+ */
+export function nextFreeChannel(
+  drivers: readonly DriverChannels[],
+  cabs: readonly { driverId: string; channel: number }[],
+  preferDriverId: string,
+  taken?: { driverId: string; channel: number },
+): { driverId: string; channel: string } {
+  const used = (driverId: string) => new Set([...cabs, ...(taken ? [taken] : [])].filter((c) => c.driverId === driverId).map((c) => c.channel));
+  const free = (d: DriverChannels) => {
+    const u = used(d.id);
+    for (let ch = 1; ch <= Math.min(d.channels, 64); ch++) if (!u.has(ch)) return ch;
+    return null;
+  };
+  const preferred = drivers.find((d) => d.id === preferDriverId);
+  for (const d of preferred ? [preferred, ...drivers.filter((x) => x !== preferred)] : drivers) {
+    const ch = free(d);
+    if (ch !== null) return { driverId: d.id, channel: String(ch) };
+  }
+  // Every channel is taken: leave the channel empty rather than suggest one the driver does not have.
+  return { driverId: preferDriverId, channel: '' };
+}
+
+export function CabsTable({ railwayId, layoutId, canEdit, cabs, drivers }: Ids & { cabs: CabRow[]; drivers: DriverChannels[] }) {
   const driverOptions = useMemo(() => [{ value: '', label: 'Choose…' }, ...drivers.map((d) => ({ value: d.id, label: `${d.name} (${d.channels} ch.)` }))], [drivers]);
   const columns = useMemo<EntityColumn<CabRow>[]>(
     () => [
@@ -127,8 +155,12 @@ export function CabsTable({ railwayId, layoutId, canEdit, cabs, drivers }: Ids &
       columns={columns}
       createSchema={cabSchema}
       editSchema={cabEditSchema}
-      newDefaults={{ name: '', driverId: drivers.length === 1 ? drivers[0]!.id : '', channel: '' }}
-      nextDefaults={(added) => ({ name: '', driverId: String(added.driverId), channel: String(Number(added.channel) + 1) })}
+      newDefaults={{ name: '', ...(drivers.length ? nextFreeChannel(drivers, cabs, cabs.at(-1)?.driverId ?? drivers[0]!.id) : { driverId: '', channel: '' }) }}
+      followDefaults
+      nextDefaults={(added) => ({
+        name: '',
+        ...nextFreeChannel(drivers, cabs, String(added.driverId), { driverId: String(added.driverId), channel: Number(added.channel) }),
+      })}
       create={(fd) => createCab(railwayId, layoutId, null, fd)}
       update={(fd) => updateCab(railwayId, layoutId, null, fd)}
       remove={(fd) => deleteCab(railwayId, layoutId, null, fd)}

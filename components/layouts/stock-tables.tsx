@@ -30,13 +30,25 @@ export type TrainRow = {
 type Ids = { railwayId: string; layoutId: string; canEdit: boolean };
 const amps = (v: number) => `${Math.round(v * 1000) / 1000} A`;
 
-export function LocomotivesTable({ railwayId, layoutId, canEdit, locomotives }: Ids & { locomotives: LocomotiveRow[] }) {
+/**
+ * What a new locomotive row starts with, said as such above the table: HO can-motor planning figures
+ * (common practice, 0.5 A running, 0.9 A stalled) and the layout gauge's nominal track voltage (NEM 630 Table 1).
+ */
+export type LocomotiveDefaults = { runningAmps: number; stallAmps: number; ratedVolts: number };
+
+export function LocomotivesTable({
+  railwayId,
+  layoutId,
+  canEdit,
+  locomotives,
+  defaults,
+}: Ids & { locomotives: LocomotiveRow[]; defaults: LocomotiveDefaults }) {
   const columns = useMemo<EntityColumn<LocomotiveRow>[]>(
     () => [
       { id: 'name', header: 'Name', sortValue: (r) => r.name.toLowerCase(), field: { name: 'name', placeholder: 'e.g. Tank No. 5', toInput: (r) => r.name } },
-      { id: 'runningAmps', header: 'Running', sortValue: (r) => r.runningAmps, field: { name: 'runningAmps', kind: 'number', suffix: 'A', width: 'w-20', placeholder: '0.3', toInput: (r) => String(r.runningAmps) } },
-      { id: 'stallAmps', header: 'Stall', sortValue: (r) => r.stallAmps, field: { name: 'stallAmps', kind: 'number', suffix: 'A', width: 'w-20', placeholder: '0.9', toInput: (r) => String(r.stallAmps) } },
-      { id: 'ratedVolts', header: 'Rated', sortValue: (r) => r.ratedVolts, field: { name: 'ratedVolts', kind: 'number', suffix: 'V', width: 'w-20', placeholder: '12', toInput: (r) => String(r.ratedVolts) } },
+      { id: 'runningAmps', header: 'Running', sortValue: (r) => r.runningAmps, field: { name: 'runningAmps', kind: 'number', suffix: 'A', width: 'w-20', toInput: (r) => String(r.runningAmps) } },
+      { id: 'stallAmps', header: 'Stall', sortValue: (r) => r.stallAmps, field: { name: 'stallAmps', kind: 'number', suffix: 'A', width: 'w-20', toInput: (r) => String(r.stallAmps) } },
+      { id: 'ratedVolts', header: 'Rated', sortValue: (r) => r.ratedVolts, field: { name: 'ratedVolts', kind: 'number', suffix: 'V', width: 'w-20', toInput: (r) => String(r.ratedVolts) } },
       { id: 'topSpeedKmh', header: 'Top speed', sortValue: (r) => r.topSpeedKmh, field: { name: 'topSpeedKmh', kind: 'number', suffix: 'km/h', width: 'w-20', toInput: (r) => String(r.topSpeedKmh) } },
     ],
     [],
@@ -50,7 +62,13 @@ export function LocomotivesTable({ railwayId, layoutId, canEdit, locomotives }: 
       columns={columns}
       createSchema={locomotiveSchema}
       editSchema={locomotiveEditSchema}
-      newDefaults={{ name: '', runningAmps: '', stallAmps: '', ratedVolts: '', topSpeedKmh: '' }}
+      newDefaults={{
+        name: '',
+        runningAmps: String(defaults.runningAmps),
+        stallAmps: String(defaults.stallAmps),
+        ratedVolts: String(defaults.ratedVolts),
+        topSpeedKmh: '',
+      }}
       nextDefaults={(added) => ({ ...added, name: '' })}
       create={(fd) => createLocomotive(railwayId, layoutId, null, fd)}
       update={(fd) => updateLocomotive(railwayId, layoutId, null, fd)}

@@ -1,4 +1,4 @@
-import type { InputHTMLAttributes, ReactNode, SelectHTMLAttributes } from 'react';
+import type { InputHTMLAttributes, ReactNode, Ref, SelectHTMLAttributes } from 'react';
 
 export const inputClass =
   'w-full rounded-plate border border-line bg-surface px-3 py-2 text-base text-ink placeholder:text-muted focus:border-verdigris focus:outline-none aria-[invalid=true]:border-signal sm:text-sm';
@@ -54,7 +54,7 @@ export function Select({
   error,
   children,
   ...props
-}: SelectHTMLAttributes<HTMLSelectElement> & { name: string; error?: string }) {
+}: SelectHTMLAttributes<HTMLSelectElement> & { name: string; error?: string; ref?: Ref<HTMLSelectElement> }) {
   return (
     <select
       id={name}

@@ -22,9 +22,10 @@ export default async function RailwayLayout({
           <p className="text-xs font-semibold uppercase tracking-widest text-brass">
             {ROLE_LABELS[member.role]} · {railway.timeZone}
           </p>
-          <h1 className="font-display text-2xl font-bold sm:text-3xl" data-testid="railway-name">
+          {/* The railway's name heads every railway page visually; each page has its own h1. */}
+          <p className="font-display text-2xl font-bold sm:text-3xl" data-testid="railway-name">
             {railway.name}
-          </h1>
+          </p>
         </div>
       </div>
       <RailwayNav railwayId={railwayId} role={member.role} />

@@ -4,8 +4,9 @@ import { listMembers } from '@/db/queries/memberships';
 import { listOutbox } from '@/db/queries/outbox';
 import { listRailwaySessions } from '@/db/queries/sessions';
 import { Badge, Card } from '@/components/ui/card';
-import { formatInZone } from '@/lib/format';
+import { formatDateInZone, formatInZone } from '@/lib/format';
 import { memberForPage } from '@/lib/page-access';
+import { roleAtLeast } from '@/lib/roles';
 import { errorCounts } from '@/lib/sessions/error-counts';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
@@ -18,26 +19,29 @@ export default async function RailwayDashboard({ params }: { params: Promise<{ r
   const { railwayId } = await params;
   const { member } = await memberForPage(railwayId, 'operator', `/railways/${railwayId}`);
   if (!member) notFound();
-  const sessions = listRailwaySessions(railwayId, { userId: member.user.id, role: member.role }, { upcomingOnly: true });
+  // Cancelled sessions are neither upcoming nor in need of anything.
+  const sessions = listRailwaySessions(railwayId, { userId: member.user.id, role: member.role }, { upcomingOnly: true }).filter((s) => s.status !== 'cancelled');
   const layouts = listLayoutsWithCounts(railwayId);
   const members = listMembers(railwayId);
+  const base = `/railways/${railwayId}`;
   const failedMail = member.role === 'host' ? listOutbox(railwayId).filter((m) => m.status === 'failed' || m.lastError) : [];
-  const attention: string[] = [];
-  if (failedMail.length) attention.push(`${failedMail.length} e-mail${failedMail.length > 1 ? 's' : ''} could not be delivered yet.`);
-  const drafts = sessions.filter((s) => s.status === 'draft');
-  if (member.role !== 'operator' && drafts.length) {
-    attention.push(`${drafts.length} upcoming session${drafts.length > 1 ? 's are' : ' is'} still a draft and invisible to operators.`);
-  }
+  // Each item says which session it is about (title and date, since two sessions may share a title) and links to where it is fixed.
+  const attention: { key: string; text: string; href: string }[] = [];
+  const sessionName = (s: (typeof sessions)[number]) => `${s.title} (${formatDateInZone(s.startsAt, s.timeZone)})`;
+  if (failedMail.length) attention.push({ key: 'mail', text: `${failedMail.length} e-mail${failedMail.length > 1 ? 's' : ''} could not be delivered yet.`, href: `${base}/mail` });
   if (member.role !== 'operator') {
+    for (const s of sessions.filter((x) => x.status === 'draft')) {
+      attention.push({ key: `draft-${s.id}`, text: `${sessionName(s)} is still a draft and invisible to operators.`, href: `${base}/sessions/${s.id}` });
+    }
     const errors = errorCounts(sessions.map((s) => s.id));
     for (const s of sessions) {
       const n = errors.get(s.id) ?? 0;
-      if (n) attention.push(`${s.title}: the timetable has ${n} error${n > 1 ? 's' : ''} (clashes or overloads).`);
+      if (n) attention.push({ key: `errors-${s.id}`, text: `${sessionName(s)}: the timetable has ${n} error${n > 1 ? 's' : ''} (clashes or overloads).`, href: `${base}/sessions/${s.id}` });
     }
   }
   const noPassword = members.filter((m) => !m.hasPassword).length;
   if (member.role === 'host' && noPassword) {
-    attention.push(`${noPassword} member${noPassword > 1 ? 's have' : ' has'} not signed in yet.`);
+    attention.push({ key: 'members', text: `${noPassword} member${noPassword > 1 ? 's have' : ' has'} not signed in yet.`, href: `${base}/members` });
   }
 
   const totals = layouts.reduce(
@@ -45,8 +49,45 @@ export default async function RailwayDashboard({ params }: { params: Promise<{ r
     { blocks: 0, cabs: 0, locos: 0, trains: 0 },
   );
 
+  // A new railway's next steps, in the order the work goes; shown until each is done.
+  const first = layouts[0];
+  const layoutBase = first ? `${base}/layouts/${first.id}` : `${base}/layouts`;
+  const steps = [
+    { done: layouts.length > 0, text: 'Add a layout: its name and scale', href: `${base}/layouts`, who: 'planner' },
+    { done: totals.blocks > 1, text: 'Draw the track: blocks and the links between them', href: `${layoutBase}/track`, who: 'planner' },
+    { done: totals.cabs > 0, text: 'Add power: supplies, drivers and cabs', href: `${layoutBase}/power`, who: 'planner' },
+    { done: totals.trains > 0, text: 'Add locomotives and make them into trains', href: `${layoutBase}/stock`, who: 'planner' },
+    { done: members.length > 1, text: 'Add your crew as members', href: `${base}/members`, who: 'host' },
+    { done: sessions.length > 0, text: 'Plan a session and build its timetable', href: `${base}/sessions`, who: 'planner' },
+  ] as const;
+  const mySteps = steps.filter((step) => roleAtLeast(member.role, step.who));
+  const next = mySteps.find((step) => !step.done);
+
   return (
     <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
+      <h1 className="sr-only">Overview</h1>
+      {next ? (
+        <Card title="Getting started" className="lg:col-span-2">
+          <ol className="space-y-2 text-sm" data-testid="getting-started">
+            {mySteps.map((step) => (
+              <li key={step.text} className="flex items-center gap-2">
+                <span aria-hidden className={`inline-flex h-5 w-5 items-center justify-center rounded-full text-xs font-bold ${step.done ? 'bg-verdigris text-surface' : 'border border-line'}`}>
+                  {step.done ? '✓' : ''}
+                </span>
+                {step.done ? (
+                  <span className="text-muted line-through">{step.text}<span className="sr-only"> (done)</span></span>
+                ) : step === next ? (
+                  <Link href={step.href} className="font-semibold text-verdigris hover:underline" data-testid="next-step">
+                    Next: {step.text}
+                  </Link>
+                ) : (
+                  <Link href={step.href} className="text-ink hover:underline">{step.text}</Link>
+                )}
+              </li>
+            ))}
+          </ol>
+        </Card>
+      ) : null}
       <Card title="Upcoming sessions">
         {sessions.length === 0 ? (
           <p className="text-muted">
@@ -77,7 +118,9 @@ export default async function RailwayDashboard({ params }: { params: Promise<{ r
           ) : (
             <ul className="list-inside list-disc space-y-1 text-sm" data-testid="attention">
               {attention.map((a) => (
-                <li key={a}>{a}</li>
+                <li key={a.key}>
+                  <Link href={a.href} className="text-verdigris hover:underline">{a.text}</Link>
+                </li>
               ))}
             </ul>
           )}

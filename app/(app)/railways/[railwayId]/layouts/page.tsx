@@ -17,6 +17,7 @@ export default async function LayoutsPage({ params }: { params: Promise<{ railwa
   const layouts = listLayoutsWithCounts(railwayId);
   return (
     <div className="grid gap-6 lg:grid-cols-[1fr_22rem]">
+      <h1 className="sr-only">Layouts</h1>
       <Card title={`Layouts (${layouts.length})`}>
         {layouts.length === 0 ? (
           <p className="text-muted">{canEdit ? 'No layouts yet. Create the first one.' : 'No layouts yet.'}</p>

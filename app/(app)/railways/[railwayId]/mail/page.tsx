@@ -25,6 +25,7 @@ export default async function MailPage({ params }: { params: Promise<{ railwayId
   const caught = localCatcher ? listCaughtMailForRailway(railwayId) : [];
   return (
     <div className="space-y-6">
+      <h1 className="sr-only">Mail outbox</h1>
       {localCatcher ? (
         <Notice tone="info">
           Fishplate is not connected to a mail server (no <code>SMTP_URL</code>), so it catches its own e-mail on this

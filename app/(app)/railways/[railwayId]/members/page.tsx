@@ -18,6 +18,7 @@ export default async function MembersPage({ params }: { params: Promise<{ railwa
   const offers = isHost ? listMemberInvitations(railwayId) : [];
   return (
     <div className="grid gap-6 lg:grid-cols-[1fr_22rem]">
+      <h1 className="sr-only">Members</h1>
       <div className="space-y-6">
       <Card title={`Members (${members.length})`}>
         <ul className="divide-y divide-line" data-testid="member-list">

@@ -23,7 +23,8 @@ export default async function SessionsPage({ params }: { params: Promise<{ railw
   const planner = roleAtLeast(member.role, 'planner');
   const sessions = listRailwaySessions(railwayId, { userId: member.user.id, role: member.role });
   const now = Date.now();
-  const upcoming = sessions.filter((s) => s.endsAt.getTime() >= now);
+  const upcoming = sessions.filter((s) => s.endsAt.getTime() >= now && s.status !== 'cancelled');
+  const cancelled = sessions.filter((s) => s.endsAt.getTime() >= now && s.status === 'cancelled');
   const past = sessions.filter((s) => s.endsAt.getTime() < now).reverse();
   const errors = planner ? errorCounts(sessions.map((s) => s.id)) : new Map<string, number>();
   const layouts = planner ? listLayoutsWithCounts(railwayId) : [];
@@ -64,8 +65,10 @@ export default async function SessionsPage({ params }: { params: Promise<{ railw
 
   return (
     <div className="grid gap-6 lg:grid-cols-[1fr_24rem]">
+      <h1 className="sr-only">Sessions</h1>
       <div className="space-y-6">
         <Card title="Upcoming sessions">{list(upcoming, member.role === 'operator' ? 'No published session has invited you yet.' : 'No upcoming sessions yet.')}</Card>
+        {cancelled.length ? <Card title="Cancelled">{list(cancelled, '')}</Card> : null}
         <Card title="Past sessions">{list(past, 'None yet.')}</Card>
       </div>
       {planner ? (

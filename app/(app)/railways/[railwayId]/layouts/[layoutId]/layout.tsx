@@ -13,9 +13,9 @@ export default async function LayoutShell({ children, params }: { children: Reac
           <Link href={`/railways/${railwayId}/layouts`} className="text-sm text-muted hover:text-ink">
             ← Layouts
           </Link>
-          <h2 className="font-display text-xl font-bold" data-testid="layout-name">
+          <h1 className="font-display text-xl font-bold" data-testid="layout-name">
             {layout.name}
-          </h2>
+          </h1>
           <p className="text-sm text-muted">
             {layout.scaleName} · 1:{layout.scaleRatio} · {layout.setting}
           </p>

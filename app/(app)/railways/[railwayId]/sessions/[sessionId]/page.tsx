@@ -32,9 +32,9 @@ export default async function SessionBuilderPage({ params }: { params: Promise<{
           <p className="text-sm">
             <Link href={`/railways/${railwayId}/sessions`} className="text-verdigris hover:underline">Sessions</Link>
           </p>
-          <h2 className="flex flex-wrap items-center gap-2 font-display text-xl font-bold sm:text-2xl" data-testid="session-title">
+          <h1 className="flex flex-wrap items-center gap-2 font-display text-xl font-bold sm:text-2xl" data-testid="session-title">
             {session.title} <Badge tone={STATUS_TONE[session.status]}>{session.status}</Badge>
-          </h2>
+          </h1>
           <p className="text-sm text-muted">
             {dateLabel} · {rows.layout?.name} · fast clock {session.clockRatio}:1 from {session.fastStart}
           </p>

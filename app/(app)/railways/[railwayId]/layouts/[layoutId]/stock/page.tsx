@@ -6,6 +6,10 @@ import { LocomotivesTable, TrainsTable } from '@/components/layouts/stock-tables
 import { Card } from '@/components/ui/card';
 import { budgetInputOf, layoutForPage } from '@/lib/layouts/layout-page';
 import { dutyTables, trainLoads } from '@/lib/layouts/power-budget';
+import { gaugeForScale, nominalTrackVolts } from '@/lib/planning';
+
+// Common practice for a modern HO can motor (no formal source): plan on 0.5 A running, about 0.9 A stalled.
+const LOCOMOTIVE_DEFAULTS = { runningAmps: 0.5, stallAmps: 0.9 } as const;
 
 export const metadata: Metadata = { title: 'Rolling stock' };
 
@@ -16,6 +20,8 @@ export default async function StockPage({ params }: { params: Promise<{ railwayI
   const input = budgetInputOf(rows);
   const loads = new Map(trainLoads(input).map((l) => [l.id, l]));
   const ids = { railwayId, layoutId: layout.id, canEdit };
+  const gauge = gaugeForScale({ name: layout.scaleName, ratio: layout.scaleRatio });
+  const ratedVolts = nominalTrackVolts(gauge ?? 16.5);
   return (
     <div className="space-y-6">
       <Card title={`Locomotives (${rows.locomotives.length})`}>
@@ -23,7 +29,14 @@ export default async function StockPage({ params }: { params: Promise<{ railwayI
           Running and stall current from your own measurement or the maker&apos;s figures. Common practice when unknown: plan on 0.5 A running for a modern HO
           locomotive; an HO can motor stalls near 0.9 A, older open-frame motors up to about 3 A.
         </p>
-        <LocomotivesTable {...ids} locomotives={rows.locomotives} />
+        {canEdit ? (
+          <p className="mb-3 text-sm" data-testid="locomotive-defaults">
+            A new locomotive starts with planning figures, not measurements: {LOCOMOTIVE_DEFAULTS.runningAmps} A running and {LOCOMOTIVE_DEFAULTS.stallAmps} A
+            stalled (common practice for a modern HO can motor), rated {ratedVolts} V ({gauge === null ? 'the usual figure for 16.5 mm gauge' : `NEM 630 for ${gauge} mm gauge`}).
+            Replace them with your own.
+          </p>
+        ) : null}
+        <LocomotivesTable {...ids} locomotives={rows.locomotives} defaults={{ ...LOCOMOTIVE_DEFAULTS, ratedVolts }} />
         <div className="mt-4">
           <CsvPanel layoutId={layout.id} table="locomotives" canEdit={canEdit} />
         </div>

@@ -59,7 +59,7 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
               ← {session.title}
             </Link>
           </p>
-          <h2 className="font-display text-xl font-bold">Invitations</h2>
+          <h1 className="font-display text-xl font-bold">Invitations</h1>
           <p className="text-sm text-muted">
             {formatInZone(session.startsAt, zone)} – {formatInZone(session.endsAt, zone, { weekday: undefined, day: undefined, month: undefined, year: undefined })} · {zone} ·{' '}
             <Badge tone={STATUS_TONE[session.status]}>{session.status}</Badge> · calendar sequence {session.sequence}

@@ -22,6 +22,7 @@ export default async function SessionSettingsPage({ params }: { params: Promise<
   const check = checkCounts(session.id);
   return (
     <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
+      <h1 className="sr-only">Settings of {session.title}</h1>
       <Card title="Settings">
         <p className="mb-4 text-sm">
           <Link href={`/railways/${railwayId}/sessions/${session.id}`} className="text-verdigris hover:underline">← Back to the timetable</Link>
