@@ -268,6 +268,11 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
         cabId: run.cabId,
       });
     });
+    // The cab is busy from its first block connecting to its last block released.
+    for (const w of feedWindows.values()) {
+      cabWindow.fromS = Math.min(cabWindow.fromS, w.fromS);
+      cabWindow.toS = Math.max(cabWindow.toS, w.toS);
+    }
     const cabClash = (cabWindows.get(run.cabId) ?? []).find((w) => w.fromS < cabWindow.toS && cabWindow.fromS < w.toS);
     if (cabClash) {
       leaveOut(`${cabName(run.cabId)} is still driving another run`, [cabClash.runId]);
@@ -294,14 +299,16 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
     for (const flip of flips) {
       const prev = run.steps[flip.step - 1]!;
       const next = run.steps[flip.step + 1]!;
-      const windowStart = prev.exitS;
-      const windowEnd = next.enterS;
-      if (!(windowStart < windowEnd)) {
-        broken = `the train never stands wholly inside the reversing section ${blockName(route[flip.step]!)}`;
+      const here = run.steps[flip.step]!;
+      // Wholly inside: the tail has cleared the block before and the head has not reached the block after.
+      const windowStart = Math.max(prev.exitS, here.enterS, legStart + 0.001);
+      const windowEnd = Math.min(next.enterS, here.exitS, run.arriveS);
+      const stopS = windowStart;
+      const flipS = stopS + timing.brakeS + deadS;
+      if (!(flipS < windowEnd)) {
+        broken = `the train is not wholly inside the reversing section ${blockName(route[flip.step]!)} long enough to stop (${timing.brakeS} s) and change direction`;
         break;
       }
-      const stopS = Math.max(windowStart, legStart + 0.001);
-      const flipS = stopS + timing.brakeS + deadS;
       legs.push({ fromS: legStart, toS: stopS + timing.brakeS, direction: legDir });
       stops.push({ stopS, flipS, blockId: route[flip.step]!, direction: flip.to });
       legStart = flipS;
