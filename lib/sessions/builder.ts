@@ -5,8 +5,6 @@ import type { StoredRun } from '@/db/queries/runs';
 import type { Session } from '@/db/schema';
 import { AppError, notFound, type Issue } from '@/lib/errors';
 import {
-  CheckBudgetError,
-  checkPlan,
   fastToReal,
   findRoute,
   formatIssuePath,
@@ -18,9 +16,9 @@ import {
   type LoadProfile,
   type LoadSeries,
   type Plan,
-  type PlanCheck,
   type TimedRun,
 } from '@/lib/planning';
+import { storedCheck } from '@/lib/sessions/stored-check';
 import { sessionToPlan } from '@/lib/sessions/to-plan';
 import type { BuilderLayout, BuilderRun, BuilderSession, BuilderSnapshot } from '@/lib/sessions/types';
 
@@ -87,30 +85,11 @@ function chartLoad(load: LoadProfile): LoadProfile {
   return { supplies: series(load.supplies), drivers: series(load.drivers), cabs: series(load.cabs) };
 }
 
-/**
- * How long one check may hold the server's event loop. A plan inside the plan schema's limits
- * checks in well under this (see the README's engine figures); a larger stored session is refused
- * with 413 rather than stalling every other request.
- */
-export const CHECK_BUDGET_MS = 2_000;
-
-/** checkPlan within CHECK_BUDGET_MS; past it, 413 with a message saying what to do. */
-export function checkInBudget(plan: Plan): PlanCheck {
-  try {
-    return checkPlan(plan, { budget: { ms: CHECK_BUDGET_MS, now: () => performance.now() } });
-  } catch (error) {
-    if (error instanceof CheckBudgetError) {
-      throw new AppError('too_large', `This plan is too large to check within ${CHECK_BUDGET_MS / 1000} s. Split it into smaller plans or remove runs.`);
-    }
-    throw error;
-  }
-}
-
 /** The session as stored, checked now: what every builder handler answers with. */
 export function snapshotOf(sessionId: string, loaded?: { rows: SessionRows; plan: Plan }): BuilderSnapshot {
   const started = performance.now();
   const { rows, plan } = loaded ?? loadSessionPlan(sessionId);
-  const check = checkInBudget(plan);
+  const { check } = storedCheck(plan);
   return {
     session: sessionView(rows.session),
     runs: runsOf(rows),

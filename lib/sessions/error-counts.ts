@@ -1,12 +1,13 @@
 import 'server-only';
-import { checkInBudget, loadSessionPlan } from '@/lib/sessions/builder';
+import { loadSessionPlan } from '@/lib/sessions/builder';
+import { storedCheck } from '@/lib/sessions/stored-check';
 
 /** How many errors the engine finds in each stored session (for lists and the dashboard). */
 export function errorCounts(sessionIds: readonly string[]): Map<string, number> {
   const counts = new Map<string, number>();
   for (const id of sessionIds) {
     try {
-      counts.set(id, checkInBudget(loadSessionPlan(id).plan).totals.errors);
+      counts.set(id, storedCheck(loadSessionPlan(id).plan).check.totals.errors);
     } catch {
       // A session that cannot be read (or checked in time) is left out of the count rather than breaking a list.
     }
@@ -16,5 +17,5 @@ export function errorCounts(sessionIds: readonly string[]): Map<string, number> 
 
 /** Errors and warnings the engine finds in one stored session (for the status panel and publishing). */
 export function checkCounts(sessionId: string): { errors: number; warnings: number } {
-  return checkInBudget(loadSessionPlan(sessionId).plan).totals;
+  return storedCheck(loadSessionPlan(sessionId).plan).check.totals;
 }

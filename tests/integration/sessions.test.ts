@@ -8,7 +8,7 @@ import { getDb } from '@/db';
 import { addMember } from '@/db/queries/memberships';
 import { createRailway } from '@/db/queries/railways';
 import { getSessionById } from '@/db/queries/session-records';
-import { runs, sessions } from '@/db/schema';
+import { blocks, runs, sessions } from '@/db/schema';
 import { resetRateLimits } from '@/lib/rate-limit';
 import { checkCounts } from '@/lib/sessions/error-counts';
 import { eq } from 'drizzle-orm';
@@ -194,6 +194,34 @@ describe('sessions', () => {
     expect(overlap.message).toMatch(/Morning stopper \(06:\d\d departure\)/);
     expect(overlap.message).toMatch(/Evening goods \(06:\d\d departure\)/);
     expect(body.load.cabs.map((c: { name: string }) => c.name)).toEqual(['Cab 1', 'Cab 2']);
+  });
+
+  it('GET /check answers with the plan state as ETag and 304 while it holds; a run or layout change gives a new one (RFC 9110 8.8.3, 13.1.2)', async () => {
+    const w = makeWorld();
+    const { session, layout } = makeSessionWorld(w);
+    signInAs(w.planner);
+    const get = (etag?: string) =>
+      getCheck(new Request(url(`/api/sessions/${session.id}/check`), { headers: etag ? { 'If-None-Match': etag } : {} }), ctx({ sessionId: session.id }));
+    const first = await get();
+    const etag = first.headers.get('etag')!;
+    expect(etag).toMatch(/^"[\w-]{20,}"$/);
+    const again = await get(etag);
+    expect(again.status).toBe(304);
+    expect(await again.text()).toBe('');
+    expect((await get(`"other", W/${etag}`)).status).toBe(304);
+    expect((await get('"something-else"')).status).toBe(200);
+
+    const [run] = getDb().select().from(runs).where(eq(runs.sessionId, session.id)).all();
+    getDb().update(runs).set({ departS: run!.departS + 1 }).where(eq(runs.id, run!.id)).run();
+    const afterRun = await get(etag);
+    expect(afterRun.status).toBe(200);
+    const runTag = afterRun.headers.get('etag')!;
+    expect(runTag).not.toBe(etag);
+
+    getDb().update(blocks).set({ lengthMm: 4321 }).where(eq(blocks.id, layout.blocks.B!)).run();
+    const afterBlock = await get(runTag);
+    expect(afterBlock.status).toBe(200);
+    expect(afterBlock.headers.get('etag')).not.toBe(runTag);
   });
 
   it('POST /api/plans/check checks a posted plan for planners, refuses bad ones, and is rate-limited', async () => {

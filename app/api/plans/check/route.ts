@@ -2,7 +2,7 @@ import { listRailwaysOfUser } from '@/db/queries/memberships';
 import { requireUser } from '@/lib/auth';
 import { forbidden, parseOrThrow, readJson } from '@/lib/errors';
 import { handler } from '@/lib/http';
-import { checkInBudget } from '@/lib/sessions/builder';
+import { checkInBudget } from '@/lib/sessions/stored-check';
 import { rateLimit } from '@/lib/rate-limit';
 import { roleAtLeast } from '@/lib/roles';
 import { CHECK_MAX_BYTES, CHECKS_PER_MINUTE, checkPlanBodySchema } from './schema';
