@@ -76,11 +76,14 @@ export function timedSteps(layout: ReturnType<typeof makeLayout>, keys: string[]
   });
 }
 
+/** What makeSessionWorld makes when not told: tests/integration/authz-operator.test.ts re-runs the matrix's rows with others. */
+export const sessionWorldDefaults: { status: t.SessionStatus; inviteOperator: boolean } = { status: 'published', inviteOperator: true };
+
 /**
  * A published session on a fresh test layout, with the world's operator invited and two runs that
  * meet in block B (a block clash) — and a session of the other railway.
  */
-export function makeSessionWorld(w: World, options: { status?: t.SessionStatus } = {}) {
+export function makeSessionWorld(w: World, options: { status?: t.SessionStatus; inviteOperator?: boolean } = {}) {
   const db = getDb();
   const layout = makeLayout(w.railway.id);
   // Whole minutes, as the session form writes them.
@@ -99,11 +102,13 @@ export function makeSessionWorld(w: World, options: { status?: t.SessionStatus }
       headwayS: 30,
       surgeS: 2,
       derate: 0.8,
-      status: options.status ?? 'published',
+      status: options.status ?? sessionWorldDefaults.status,
     })
     .returning()
     .get();
-  db.insert(t.invitations).values({ sessionId: session.id, userId: w.operator.id, email: w.operator.email }).run();
+  if (options.inviteOperator ?? sessionWorldDefaults.inviteOperator) {
+    db.insert(t.invitations).values({ sessionId: session.id, userId: w.operator.id, email: w.operator.email }).run();
+  }
   const first = timedSteps(layout, ['A', 'B', 'C'], 60);
   const second = timedSteps(layout, ['D', 'C', 'B'], 65);
   const runIds = insertRuns(session.id, [

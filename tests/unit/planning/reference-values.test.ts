@@ -34,7 +34,7 @@ describe('scale table', () => {
 
   it('carries the NMRA S-1.2 ratios and gauges', () => {
     expect(ratio('ho-nmra')).toBe(87.1); // NMRA S-1.2: 3.5 mm to the foot
-    expect(304.8 / 3.5).toBeCloseTo(87.1, 1); // derived: 1 ft = 304.8 mm, / 3.5 mm
+    expect(ratio('ho-nmra')).toBeCloseTo(304.8 / 3.5, 1); // derived: 1 ft = 304.8 mm, / 3.5 mm
     expect(gauge('ho-nmra')).toBe(16.5); // NMRA S-1.2
     expect(ratio('n-nmra')).toBe(160); // NMRA S-1.2
     expect(ratio('tt-nmra')).toBe(120); // NMRA S-1.2
@@ -56,7 +56,7 @@ describe('scale table', () => {
 
 describe('speed conversion', () => {
   it('100 km/h in H0 is 319.3 mm/s (derived: 100 000 m / 3600 s / 87 = 0.3193 m/s)', () => {
-    expect(100_000 / 3600 / 87).toBeCloseTo(0.3193, 4); // derived, NEM 010 ratio 1:87
+    expect(modelSpeedMmPerS(100, 87)).toBeCloseTo((100_000_000 / 3600) / 87, 9); // derived: 10⁸ mm per 3600 s, NEM 010 ratio 1:87
     expect(modelSpeedMmPerS(100, 87)).toBeCloseTo(319.3, 1);
   });
 
