@@ -9,13 +9,16 @@ import { useClockReading, useLiveSession } from './use-live-session';
 
 /** My runs during the session: the next run on top with a countdown in fast minutes, and the report buttons. */
 export function MyLiveRuns({ sessionId, railwayId, userId, initial }: { sessionId: string; railwayId: string; userId: string; initial: LiveState }) {
-  const { state, mode, offsetMs, accept } = useLiveSession(sessionId, initial);
+  const { state, mode, feed, offsetMs, accept } = useLiveSession(sessionId, initial);
   const reading = useClockReading(state, offsetMs);
   const clock = state.clock.clock;
   const names = namesOf(state);
   const nowS = reading.sessionS;
   const mine = state.runs.filter((r) => r.operatorId === userId && r.status !== 'arrived').sort((a, b) => a.departS - b.departS);
   const [current, ...later] = mine;
+  const late = state.runs
+    .filter((r) => r.status !== 'arrived' && fastMinutes(Math.max(r.departDelayS, r.arriveDelayS), clock) >= 1)
+    .map((r) => `${names.train.get(r.trainId)} ${delayLabel(Math.max(r.departDelayS, r.arriveDelayS), clock)}`);
   return (
     <section className="space-y-3 rounded-plate border-2 border-verdigris bg-surface p-4" data-testid="my-live-runs" aria-labelledby={`live-${sessionId}`}>
       <div className="flex items-baseline justify-between gap-2">
@@ -27,6 +30,12 @@ export function MyLiveRuns({ sessionId, railwayId, userId, initial }: { sessionI
         <span data-testid="live-mode">{mode === 'live' ? 'Live' : mode === 'polling' ? 'Polling (stream cut)' : 'Connecting…'}</span> ·{' '}
         <Link href={`/railways/${railwayId}/sessions/${sessionId}/live`} className="font-semibold text-verdigris hover:underline">Live board</Link>
       </p>
+      {late.length ? (
+        <p className="rounded-plate bg-signal-soft px-3 py-2 text-sm text-signal" data-testid="my-late">
+          Running late: {late.join(' · ')}
+        </p>
+      ) : null}
+      {feed[0] ? <p className="text-sm text-muted" data-testid="my-latest">Latest: {feed[0].summary}</p> : null}
       {current ? (
         <div className="space-y-2 rounded-plate bg-sunken p-3" data-testid="my-next-run" data-run-id={current.id}>
           <p className="text-sm font-semibold uppercase tracking-wider text-brass">

@@ -2,7 +2,7 @@ import { parseOrThrow, readJson } from '@/lib/errors';
 import { handler } from '@/lib/http';
 import { publishLive } from '@/lib/live/hub';
 import { makeReport } from '@/lib/live/reports';
-import { buildLiveState } from '@/lib/live/state';
+import { liveStateJson } from '@/lib/live/state';
 import { requireSession } from '@/lib/sessions/access';
 import { assertTimetableEditable } from '@/lib/sessions/changes';
 import { reportSchema, runParamsSchema } from './schema';
@@ -17,10 +17,9 @@ const report = handler<{ sessionId: string; runId: string }>(async (request, { p
   const input = parseOrThrow(reportSchema, await readJson(request, 10_000));
   const { report: stored, live } = makeReport(session, member, runId, input);
   publishLive(session.id);
-  return Response.json(
-    { report: { id: stored.id, kind: stored.kind, reason: stored.reason, sessionS: stored.sessionS, reportedAt: stored.reportedAt.getTime() }, seq: live.seq, state: buildLiveState(session.id) },
-    { status: 201 },
-  );
+  // The state built here is the one the streams get (liveStateJson keeps it for the same event).
+  const head = JSON.stringify({ report: { id: stored.id, kind: stored.kind, reason: stored.reason, sessionS: stored.sessionS, reportedAt: stored.reportedAt.getTime() }, seq: live.seq });
+  return new Response(`${head.slice(0, -1)},"state":${liveStateJson(session.id)}}`, { status: 201, headers: { 'content-type': 'application/json' } });
 });
 
 export { report as POST };
