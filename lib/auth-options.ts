@@ -3,12 +3,19 @@ import bcrypt from 'bcryptjs';
 import type { NextAuthOptions } from 'next-auth';
 import CredentialsProvider from 'next-auth/providers/credentials';
 import { getUserByEmail, getUserById, markEmailVerified } from '@/db/queries/users';
-import { rateLimit } from '@/lib/rate-limit';
+import { clientAddress } from '@/lib/client-key';
+import { assertSignInAllowed, recordSignInFailure, recordSignInSuccess } from '@/lib/sign-in-limits';
 import { spendAuthToken } from '@/lib/tokens';
 import { signInSchema } from '@/lib/validations/account';
 
 /** Session lifetime: a week, renewed while the user keeps using Fishplate. */
 const SESSION_MAX_AGE_S = 7 * 24 * 60 * 60;
+
+let dummy: string | undefined;
+/** A bcrypt hash of nothing anyone can type, at the same cost as real ones (10). */
+function dummyHash(): string {
+  return (dummy ??= bcrypt.hashSync(`no account ${Math.random()}`, 10));
+}
 
 export const authOptions: NextAuthOptions = {
   session: { strategy: 'jwt', maxAge: SESSION_MAX_AGE_S, updateAge: 24 * 60 * 60 },
@@ -21,12 +28,19 @@ export const authOptions: NextAuthOptions = {
       async authorize(credentials) {
         const parsed = signInSchema.safeParse(credentials);
         if (!parsed.success) return null;
-        // Ten tries per address per quarter hour slows password guessing to a crawl.
-        rateLimit(`sign-in:${parsed.data.email}`, 10, 15 * 60_000);
-        const user = getUserByEmail(parsed.data.email);
-        if (!user?.passwordHash) return null;
-        const ok = await bcrypt.compare(parsed.data.password, user.passwordHash);
-        return ok ? { id: user.id, email: user.email, name: user.name } : null;
+        const { email, password } = parsed.data;
+        const client = await clientAddress();
+        assertSignInAllowed(email, client);
+        const user = getUserByEmail(email);
+        // An unknown address (or one with no password) costs the same bcrypt comparison as a known
+        // one, so the answer's timing does not tell which addresses have accounts.
+        const ok = await bcrypt.compare(password, user?.passwordHash ?? dummyHash());
+        if (!ok || !user?.passwordHash) {
+          recordSignInFailure(email, client);
+          return null;
+        }
+        recordSignInSuccess(email, client);
+        return { id: user.id, email: user.email, name: user.name };
       },
     }),
     CredentialsProvider({

@@ -15,6 +15,16 @@ const envSchema = z.object({
   LOCAL_SMTP_ACTUAL_PORT: z.coerce.number().int().min(1).max(65535).optional(),
   /** 1: the sign-in page lists the demo accounts. */
   FISHPLATE_DEMO: z.enum(['0', '1']).default('0'),
+  /**
+   * Comma-separated addresses of the reverse proxies in front of Fishplate. Only a request whose
+   * socket peer is one of them has its X-Forwarded-For read (from the right); unset, forwarding
+   * headers are ignored and each socket peer is one client for the limits.
+   */
+  TRUSTED_PROXIES: z
+    .string()
+    .default('')
+    .transform((text) => text.split(',').map((a) => a.trim()).filter(Boolean))
+    .pipe(z.array(z.union([z.ipv4(), z.ipv6()], { error: 'TRUSTED_PROXIES lists IP addresses, comma-separated' })).max(20)),
   /** off: no outbox worker in this process (benchmarks, tests that deliver by hand). */
   FISHPLATE_OUTBOX_WORKER: z.enum(['on', 'off']).default('on'),
 });

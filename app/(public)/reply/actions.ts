@@ -1,6 +1,6 @@
 'use server';
 
-import { headers } from 'next/headers';
+import { clientAddress } from '@/lib/client-key';
 import { parseOrThrow, type ActionState } from '@/lib/errors';
 import { action } from '@/lib/http';
 import { replyByToken as recordReply } from '@/lib/invitations/reply';
@@ -9,15 +9,6 @@ import { rateLimit } from '@/lib/rate-limit';
 import { replyByTokenSchema } from '@/lib/validations/invitation';
 
 export type ReplyResult = { answer: string; sessionTitle: string; railwayName: string; joined: boolean; nextToken: string };
-
-async function clientAddress(): Promise<string> {
-  try {
-    const h = await headers();
-    return h.get('x-forwarded-for')?.split(',')[0]?.trim() || h.get('x-real-ip') || 'local';
-  } catch {
-    return 'local';
-  }
-}
 
 /**
  * Anyone holding a reply link: records accept, maybe or decline without signing in. The link's
