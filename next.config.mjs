@@ -1,16 +1,12 @@
-const isProduction = process.env.NODE_ENV === 'production';
-
-// A strict policy: no third-party origins at all (fonts are local, nothing is fetched at run time).
-const contentSecurityPolicy = [
+// Pages get their Content-Security-Policy from proxy.ts, with a fresh script nonce per request.
+// Route handlers answer data, not pages: this strict policy, except where a handler sets its own
+// (the track-plan image keeps `default-src 'none'`, which a rule here would replace).
+const apiContentSecurityPolicy = [
   "default-src 'self'",
-  `script-src 'self' 'unsafe-inline'${isProduction ? '' : " 'unsafe-eval'"}`,
-  "style-src 'self' 'unsafe-inline'",
-  "img-src 'self' data: blob:",
-  "font-src 'self'",
-  "connect-src 'self'",
+  "script-src 'none'",
   "frame-ancestors 'none'",
-  "base-uri 'self'",
-  "form-action 'self'",
+  "base-uri 'none'",
+  "form-action 'none'",
   "object-src 'none'",
 ].join('; ');
 
@@ -23,9 +19,12 @@ const nextConfig = {
   async headers() {
     return [
       {
+        source: '/api/:path((?!layouts/[^/]+/track-plan$).*)',
+        headers: [{ key: 'Content-Security-Policy', value: apiContentSecurityPolicy }],
+      },
+      {
         source: '/:path*',
         headers: [
-          { key: 'Content-Security-Policy', value: contentSecurityPolicy },
           { key: 'Referrer-Policy', value: 'strict-origin-when-cross-origin' },
           { key: 'X-Content-Type-Options', value: 'nosniff' },
           { key: 'X-Frame-Options', value: 'DENY' },

@@ -1,5 +1,6 @@
 import type { Metadata, Viewport } from 'next';
 import localFont from 'next/font/local';
+import { connection } from 'next/server';
 import './globals.css';
 
 const body = localFont({
@@ -30,7 +31,10 @@ export const viewport: Viewport = {
   ],
 };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // Rendered per request, never at build time: Next puts the request's CSP nonce (proxy.ts) on its
+  // scripts only while rendering, so a page prerendered without one would have every script blocked.
+  await connection();
   return (
     <html lang="en" className={`${body.variable} ${display.variable}`}>
       <body className="min-h-dvh bg-paper font-sans text-ink antialiased">{children}</body>

@@ -13,32 +13,45 @@ function tempDir() {
 }
 
 describe('backup and restore', () => {
-  it('copies a database that another process is writing to, consistently', async () => {
+  it('copies a database that another process is writing to, consistently (synchronised on the writer’s events, not on time)', async () => {
     const dir = tempDir();
     const live = path.join(dir, 'live.db');
     openDatabase(live).$client.close(); // migrations applied
-    // A separate process keeps writing audit rows while the backup runs.
+    // A separate process keeps writing audit rows while the backup runs. It says "ready" once its
+    // first rows are committed and stops when its stdin closes: the test waits for those events,
+    // not for a time, so a loaded machine only makes it slower.
     const writer = spawn(
       process.execPath,
       [
         '-e',
         `const D=require('better-sqlite3');const d=new D(${JSON.stringify(live)});d.pragma('busy_timeout=5000');
          const s=d.prepare("insert into audit_log(id,action,entity,at) values(?, 'write','test',0)");
-         let i=0;const t=Date.now();while(Date.now()-t<1500){s.run('w'+(i++));}
-         console.log(i);d.close();`,
+         let i=0,open=true;process.stdin.on('end',()=>{open=false;});process.stdin.resume();
+         const batch=()=>{for(let k=0;k<50;k++)s.run('w'+(i++));if(i===50)process.stdout.write('ready\\n');
+           if(open)setImmediate(batch);else{process.stdout.write('wrote '+i+'\\n');d.close();}};
+         batch();`,
       ],
-      { cwd: process.cwd(), stdio: ['ignore', 'pipe', 'inherit'] },
+      { cwd: process.cwd(), stdio: ['pipe', 'pipe', 'inherit'] },
     );
     let written = '';
-    writer.stdout.on('data', (c) => (written += c));
-    await new Promise((r) => setTimeout(r, 300));
+    const ready = new Promise<void>((resolve) =>
+      writer.stdout.on('data', (c) => {
+        written += c;
+        if (written.includes('ready')) resolve();
+      }),
+    );
+    const exited = new Promise((r) => writer.on('exit', r));
+    await ready;
     const copy = path.join(dir, 'copy.db');
     await backupDatabase(live, copy);
-    await new Promise((r) => writer.on('exit', r));
+    writer.stdin.end();
+    await exited;
+    written = /wrote (\d+)/.exec(written)?.[1] ?? '0';
     const backup = new Database(copy, { readonly: true });
     expect(backup.pragma('integrity_check', { simple: true })).toBe('ok'); // SQLite: PRAGMA integrity_check
     const rows = backup.prepare('select count(*) n from audit_log').get() as { n: number };
     expect(rows.n).toBeGreaterThan(0);
+    expect(rows.n).toBeGreaterThanOrEqual(50); // the rows committed before "ready"
     expect(rows.n).toBeLessThanOrEqual(Number(written));
     backup.close();
     fs.rmSync(dir, { recursive: true, force: true });
