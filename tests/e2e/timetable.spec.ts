@@ -180,6 +180,14 @@ test('speed: a 200-run session opens and re-checks an edit (figures recorded, no
   await expect(page.getByTestId('session-title')).toBeVisible();
   const bigId = page.url().split('/').pop()!;
   expect(bigId).not.toBe(demoId);
+  // Ten copies 17 minutes apart reach past the three-hour evening: run times must lie within the
+  // session, so the copy lasts until 02:30 the next morning.
+  await page.goto(`${page.url()}/settings`);
+  await page.waitForLoadState('networkidle');
+  await page.getByLabel('Ends').fill('02:30');
+  const saved = page.waitForResponse((r) => r.request().method() === 'POST' && r.url().endsWith('/settings'));
+  await page.getByRole('button', { name: 'Save settings' }).click();
+  expect(await (await saved).text()).toContain('Saved.');
   const plan = await (await page.request.get(`/api/sessions/${bigId}/plan`)).json();
   const runs = [];
   for (let k = 0; k < 10; k++) {
