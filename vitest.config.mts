@@ -1,10 +1,14 @@
 import { fileURLToPath } from 'node:url';
 import { defineConfig, type TestProjectInlineConfiguration } from 'vitest/config';
 
+// Stryker's coverage run instruments every line; the property tests then outlast Vitest's 5 s default.
+// Stryker times each mutant out itself (stryker.config.mjs).
+const underStryker = process.env.STRYKER_MUTATOR_WORKER !== undefined;
+
 // Under Stryker (npm run test:mutation, which sets STRYKER_MUTATOR_WORKER in its test runners) the
 // tests that start child processes are left out: the children load the source from disk, not the
 // mutated copy in memory, so they can kill no mutant and only cost time on a 2-core machine.
-const childProcessTests = process.env.STRYKER_MUTATOR_WORKER === undefined ? [] : ['tests/integration/crash-and-concurrency.test.ts', 'tests/integration/backup.test.ts'];
+const childProcessTests = !underStryker ? [] : ['tests/integration/crash-and-concurrency.test.ts', 'tests/integration/backup.test.ts'];
 
 // lib/planning is pure and tested by the unit project; its mutation run (FISHPLATE_MUTATION_UNIT_ONLY=1,
 // set by lib/cli/mutation.mjs) leaves the integration project out, which reaches the engine only
@@ -18,6 +22,7 @@ const unit: TestProjectInlineConfiguration = {
     include: ['tests/unit/**/*.test.ts'],
     exclude: ['**/node_modules/**', ...(unitOnly ? ['tests/unit/control/**'] : [])],
     environment: 'node',
+    ...(underStryker ? { testTimeout: 120_000 } : {}),
   },
 };
 

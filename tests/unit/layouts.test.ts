@@ -95,6 +95,25 @@ describe('power budget', () => {
     expect(low.messages[0]).toMatch(/NEM 630 Table 1.*NMRA S-9 I\.A/);
   });
 
+  it('flags a supply below the driver class minimum (SLRS007B: 4.5 V motor supply at least)', () => {
+    const driver = powerBudget(layout({ supplies: [{ id: 's', name: 'Cell pack', volts: 4, amps: 2 }] })).drivers[0]!;
+    expect(driver.status).not.toBe('ok');
+    expect(driver.messages.join(' ')).toMatch(/Supply 4 V is below the 4\.5 V motor-supply minimum of this driver class/);
+    // At the minimum itself there is no such message.
+    const atMinimum = powerBudget(layout({ supplies: [{ id: 's', name: 'Cell pack', volts: 4.5, amps: 2 }] })).drivers[0]!;
+    expect(atMinimum.messages.join(' ')).not.toMatch(/motor-supply minimum/);
+  });
+
+  it('judges the driver total rating against the surge of all cabs starting at once, not their running draw', () => {
+    // Running: Double 0.9 + Stopper 0.59 = 1.49 A, inside 2.5 A; surge: Double 1.9 + Light 1.02 = 2.92 A,
+    // above it (a start-up surge is judged against the rating it could trip, common practice).
+    const totalRated = layout({ drivers: [{ ...layout().drivers[0]!, totalAmps: 2.5 }] });
+    const driver = powerBudget(totalRated).drivers[0]!;
+    expect(driver.messages.join(' ')).toMatch(/All cabs at once could surge to 2\.92 A, above the driver's 2\.5 A total rating/);
+    const roomy = powerBudget(layout({ drivers: [{ ...layout().drivers[0]!, totalAmps: 3 }] })).drivers[0]!;
+    expect(roomy.messages.join(' ')).not.toMatch(/total rating/);
+  });
+
   it('flags a channel overload and a supply above the driver class maximum', () => {
     const heavy = layout({
       supplies: [{ id: 's', name: 'Big', volts: 15, amps: 10 }],
