@@ -8,6 +8,7 @@ const TABS = [
   { href: '/track', label: 'Blocks & links' },
   { href: '/power', label: 'Power' },
   { href: '/stock', label: 'Rolling stock' },
+  { href: '/wiring', label: 'Wiring' },
 ];
 
 export function LayoutTabs({ base }: { base: string }) {

@@ -2,6 +2,7 @@ import { insertLayout } from '@/db/queries/layouts';
 import { insertBlock, insertLink } from '@/db/queries/layout-blocks';
 import { insertCab, insertDriver, insertSupply } from '@/db/queries/layout-power';
 import { insertLocomotive, insertTrain } from '@/db/queries/layout-stock';
+import { DEFAULT_TIMING } from '@/lib/control';
 import type { ActionState } from '@/lib/errors';
 import { formData } from '../world';
 import { actionStatus, anyMember, plannerUp, type AuthzCase, type AuthzExemption, type Expect, type World } from './shared';
@@ -99,6 +100,16 @@ export const LAYOUT_CASES: AuthzCase[] = [
     expect: plannerUp,
   },
   actionCase('createBlock', () => ({ name: 'New block', length: '2', unit: 'm', position: '3' })),
+  actionCase('saveWiring', (s) => ({
+    sheet: JSON.stringify({
+      version: 1,
+      boards: [{ id: 'u', kind: 'atmega328p', name: 'Board', emergencyStopPin: 'PD2', startPin: null }],
+      cabs: [],
+      blocks: [{ blockId: s.blockA.id, boardId: 'u', feeds: [], polarityPin: null, forwardTowards: [] }],
+      timing: DEFAULT_TIMING,
+    }),
+    version: '',
+  })),
   actionCase('updateBlock', (s) => ({ id: s.blockA.id, version: '1', name: 'Seed east', length: '60', unit: 'in', position: '0' })),
   actionCase('deleteBlock', (s) => ({ id: s.blockC.id, version: '1' })),
   actionCase('createLink', (s) => ({ blockAId: s.blockB.id, blockBId: s.blockC.id })),

@@ -1,5 +1,6 @@
 import type { ActionState } from '@/lib/errors';
 import { CSV_TABLES, blockEditSchema, blockSchema, layoutEditSchema, layoutSchema, locomotiveEditSchema, locomotiveSchema, rowDeleteSchema, supplyEditSchema, supplySchema } from '@/lib/validations/layout';
+import { wiringSheetSchema } from '@/lib/control';
 import { seedLayout, TINY_PNG } from '../authz/layouts';
 import { actionStatus, type World } from '../authz/shared';
 import { DRIVER_BOUNDS, LOCOMOTIVE_BOUNDS, SUPPLY_BOUNDS, withinBounds } from '../../shared/expected-bounds';
@@ -21,6 +22,14 @@ const accepts = (schema: { safeParse: (v: unknown) => { success: boolean } }, ex
 const blankName = { name: ' ' };
 // Limits from the tests' own table: a schema loosened by mistake no longer decides what counts as valid here.
 const LAYOUT_BOUNDS = [...SUPPLY_BOUNDS, ...DRIVER_BOUNDS, ...LOCOMOTIVE_BOUNDS];
+
+function savableSheet(text: string | undefined): boolean {
+  try {
+    return wiringSheetSchema.safeParse(JSON.parse(text ?? '')).success;
+  } catch {
+    return false;
+  }
+}
 
 function formOf(fields: Record<string, string>): FormData {
   const data = new FormData();
@@ -99,6 +108,10 @@ export const LAYOUT_HOSTILE: HostileTarget[] = [
       return actionStatus(() => deleteLayout(w.railway.id, layout.id, null, formOf(refused(f, current, { version: '' }))));
     },
   },
+  layoutAction('saveWiring', ['sheet', 'version'], {
+    // A sheet that would pass every check is made invalid, so nothing is ever written.
+    guard: (f) => refused(f, (v) => savableSheet(v.sheet), { sheet: '{' }),
+  }),
   layoutAction('createBlock', ['name', 'length', 'unit', 'position'], { guard: (f) => refused(f, accepts(blockSchema), blankName) }),
   layoutAction('updateBlock', ['name', 'length', 'unit', 'position', 'version'], {
     fixed: (s) => ({ id: s.blockA.id }),

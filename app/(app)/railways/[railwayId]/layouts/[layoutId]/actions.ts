@@ -4,6 +4,7 @@ import { parseOrThrow } from '@/lib/errors';
 import { action } from '@/lib/http';
 import * as edits from '@/lib/layouts/layout-edits';
 import { runLayoutAction } from '@/lib/layouts/layout-edits';
+import { saveWiringSheet, wiringFormSchema } from '@/lib/layouts/wiring-sheet';
 import {
   blockEditSchema,
   blockSchema,
@@ -95,4 +96,10 @@ export const updateTrain = action(ROW_ACTION, async (railwayId, layoutId, _prev,
 );
 export const deleteTrain = action(ROW_ACTION, async (railwayId, layoutId, _prev, formData) =>
   runLayoutAction(railwayId, layoutId, (ctx) => edits.removeTrain(ctx, parseOrThrow(rowDeleteSchema, form(formData)))),
+);
+
+export const saveWiring = action(ROW_ACTION, async (railwayId, layoutId, _prev, formData) =>
+  runLayoutAction(railwayId, layoutId, (ctx) =>
+    saveWiringSheet(ctx, parseOrThrow(wiringFormSchema, { sheet: formData.get('sheet'), version: formData.get('version') ?? '' })),
+  ),
 );

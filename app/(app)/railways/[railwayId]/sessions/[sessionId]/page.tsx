@@ -45,6 +45,7 @@ export default async function SessionBuilderPage({ params }: { params: Promise<{
             <>
               <Link href={`${base}/settings`} className="text-verdigris hover:underline">Settings and status</Link>
               <Link href={`${base}/invitations`} className="text-verdigris hover:underline">Invitations</Link>
+              <Link href={`${base}/control`} className="text-verdigris hover:underline">Control</Link>
               <a href={`/api/sessions/${session.id}/plan`} className="text-verdigris hover:underline" download>Plan (JSON)</a>
             </>
           ) : null}

@@ -1,0 +1,91 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { NotAllowed } from '@/components/railway/not-allowed';
+import { ControlList, ControlTimeline } from '@/components/control/control-timeline';
+import { SafetyCautions } from '@/components/layouts/safety-cautions';
+import { Card } from '@/components/ui/card';
+import { AppError } from '@/lib/errors';
+import { formatFast } from '@/lib/planning';
+import { memberForPage } from '@/lib/page-access';
+import { sessionControl } from '@/lib/sessions/control';
+import { sessionForPage } from '@/lib/sessions/page-session';
+
+export const metadata: Metadata = { title: 'Control' };
+export const dynamic = 'force-dynamic';
+
+export default async function SessionControlPage({ params }: { params: Promise<{ railwayId: string; sessionId: string }> }) {
+  const { railwayId, sessionId } = await params;
+  const page = await memberForPage(railwayId, 'planner', `/railways/${railwayId}/sessions/${sessionId}/control`);
+  if (page.denied) return <NotAllowed needs="planner" />;
+  const session = sessionForPage(page.member, sessionId);
+  const base = `/railways/${railwayId}/sessions/${session.id}`;
+  let control;
+  try {
+    control = sessionControl(session);
+  } catch (error) {
+    if (error instanceof AppError && error.status === 409) {
+      return (
+        <Card title="Control">
+          <p data-testid="control-missing">{error.message}</p>
+          <p className="mt-2 text-sm">
+            <Link href={`/railways/${railwayId}/layouts/${session.layoutId}/wiring`} className="text-verdigris hover:underline">Open the wiring sheet</Link>
+          </p>
+        </Card>
+      );
+    }
+    throw error;
+  }
+  if (!control) notFound();
+  const { schedule, boards } = control;
+  const api = `/api/sessions/${session.id}/control`;
+  return (
+    <div className="space-y-4" data-testid="control-view">
+      <nav aria-label="Session" className="flex flex-wrap gap-4 text-sm font-semibold">
+        <Link href={base} className="text-verdigris hover:underline">Timetable and train graph</Link>
+        <Link href={`/railways/${railwayId}/layouts/${session.layoutId}/wiring`} className="text-verdigris hover:underline">Wiring sheet</Link>
+        <a href={api} className="text-verdigris hover:underline" download>Schedule (JSON)</a>
+      </nav>
+      <h2 className="font-display text-2xl font-bold">Control: {session.title}</h2>
+      <p className="text-sm text-muted">
+        {schedule.runs.length} of {schedule.runs.length + schedule.findings.filter((f) => f.kind === 'control-left-out').length} runs scheduled,{' '}
+        {schedule.entries.length} timed settings. Times are on the fast clock ({schedule.clock.ratio}:1 from {schedule.clock.fastStart}).
+      </p>
+      <Card title="Downloads">
+        <ul className="space-y-2 text-sm" data-testid="control-downloads">
+          {boards.map((b) => (
+            <li key={b.id} className="flex flex-col gap-1 sm:flex-row sm:items-baseline sm:gap-3">
+              <span className="font-semibold">{b.name}</span>
+              <span className="text-muted">{b.title}, {b.entries} settings</span>
+              {b.kind === 'header40' ? (
+                <a href={`${api}/controller.py?board=${encodeURIComponent(b.id)}`} className="text-verdigris hover:underline" download>Python program (gpiozero)</a>
+              ) : (
+                <>
+                  <a href={`${api}/firmware.zip?board=${encodeURIComponent(b.id)}`} className="text-verdigris hover:underline" download>Firmware (C, Makefile)</a>
+                  <span className={b.size?.fits ? 'text-muted' : 'font-semibold text-signal'} data-testid="firmware-fit">{b.size?.advice}</span>
+                </>
+              )}
+            </li>
+          ))}
+        </ul>
+      </Card>
+      <Card title="Interlock findings">
+        <ul className="space-y-1 text-sm" data-testid="control-findings">
+          {schedule.findings.map((f, i) => (
+            <li key={i} className={f.severity === 'error' ? 'text-signal' : 'text-amber'}>
+              <span className="tabular-nums">{formatFast(f.fromS, schedule.clock)}</span> {f.message}
+            </li>
+          ))}
+          {schedule.findings.length === 0 ? <li className="text-muted">Every run is scheduled and every interlock holds.</li> : null}
+        </ul>
+      </Card>
+      <Card title="Timeline" className="hidden sm:block">
+        <ControlTimeline schedule={schedule} />
+      </Card>
+      <Card title="Settings in order" className="sm:hidden">
+        <ControlList schedule={schedule} />
+      </Card>
+      <SafetyCautions />
+    </div>
+  );
+}
