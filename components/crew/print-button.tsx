@@ -2,10 +2,10 @@
 
 import { Button } from '@/components/ui/button';
 
-export function PrintButton() {
+export function PrintButton({ label = 'Print crew card' }: { label?: string }) {
   return (
     <Button type="button" onClick={() => window.print()} className="no-print">
-      Print crew card
+      {label}
     </Button>
   );
 }

@@ -34,7 +34,7 @@ export default async function WiringPage({ params }: { params: Promise<{ railway
     <div className="space-y-6" data-testid="wiring-page">
       {problem ? <p className="text-signal">{problem}</p> : null}
       {sheet ? (
-        <Card title="Wiring sheet" action={<PrintButton />}>
+        <Card title="Wiring sheet" action={<PrintButton label="Print wiring sheet" />}>
           <div className="space-y-4 text-sm" data-testid="wiring-sheet">
             <p className="text-muted">Pins by port and bit, with the label printed beside the header in brackets. Sources: each board&apos;s published pinout.</p>
             <table className="w-full text-left">
@@ -83,7 +83,7 @@ export default async function WiringPage({ params }: { params: Promise<{ railway
       )}
       <SafetyCautions />
       {canEdit ? (
-        <Card title="Edit">
+        <Card title="Edit" className="no-print">
           <p className="mb-2 text-sm text-muted">
             Boards: {Object.values(BOARDS).map((b) => b.title).join(', ')}. Cab ids: {rows.cabs.map((c) => `${c.name} = ${c.id}`).join(', ')}. Block ids:{' '}
             {rows.blocks.map((b) => `${b.name} = ${b.id}`).join(', ')}.
