@@ -16,8 +16,9 @@ export function RailwayNav({ railwayId, role }: { railwayId: string; role: Role 
   const pathname = usePathname();
   const base = `/railways/${railwayId}`;
   return (
-    <nav className="no-print -mx-4 overflow-x-auto border-b border-line px-4" aria-label="Railway">
-      <ul className="flex gap-1">
+    // The tabs wrap onto a second line on a phone rather than scroll out of sight.
+    <nav className="no-print border-b border-line" aria-label="Railway">
+      <ul className="flex flex-wrap gap-x-1">
         {TABS.filter((t) => roleAtLeast(role, t.minimum)).map((tab) => {
           const href = `${base}${tab.href}`;
           const active = tab.href === '' ? pathname === base : pathname.startsWith(href);

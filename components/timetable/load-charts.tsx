@@ -2,6 +2,7 @@
 
 import { CartesianGrid, Line, LineChart, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import type { Finding, LoadProfile, LoadSeries } from '@/lib/planning';
+import { niceTicks } from '@/lib/charts/nice-ticks';
 import type { Highlight } from '@/lib/sessions/highlight';
 import { fastLabel, realLabel, type SessionClock } from '@/lib/sessions/time-labels';
 
@@ -29,7 +30,8 @@ function SeriesChart({
   const data = [{ t: 0, running: 0, peak: 0 }, ...series.points.map(([t, running, peak]) => ({ t, running, peak }))];
   const last = data[data.length - 1]!;
   if (last.t < lengthS) data.push({ t: lengthS, running: last.running, peak: last.peak });
-  const top = Math.max(series.maxPeakAmps, series.limitAmps ?? 0, series.peakLimitAmps ?? 0) * 1.15 || 1;
+  const ticks = niceTicks(Math.max(series.maxPeakAmps, series.limitAmps ?? 0, series.peakLimitAmps ?? 0) * 1.1);
+  const top = ticks[ticks.length - 1]!;
   const over = overloads.length > 0;
   return (
     <figure
@@ -46,7 +48,7 @@ function SeriesChart({
           {kind === 'supply' && series.runningLimitAmps !== null ? ` · ${Math.round(derate * 100)} % ${amps(series.runningLimitAmps)}` : ''}
         </span>
       </figcaption>
-      <div className="h-36">
+      <div className="h-36" data-ticks={ticks.join(' ')}>
         <ResponsiveContainer width="100%" height="100%">
           <LineChart data={data} margin={{ top: 4, right: 8, bottom: 0, left: -18 }}>
             <CartesianGrid stroke="var(--line)" strokeDasharray="2 4" />
@@ -58,7 +60,7 @@ function SeriesChart({
               tick={{ fontSize: 10, fill: 'var(--muted)' }}
               stroke="var(--line)"
             />
-            <YAxis domain={[0, top]} tick={{ fontSize: 10, fill: 'var(--muted)' }} stroke="var(--line)" tickFormatter={(v: number) => `${Math.round(v * 10) / 10}`} />
+            <YAxis domain={[0, top]} ticks={ticks} interval={0} tick={{ fontSize: 10, fill: 'var(--muted)' }} stroke="var(--line)" tickFormatter={(v: number) => String(v)} />
             {overloads.map((f) => (
               <ReferenceArea key={`${f.kind}${f.fromS}`} x1={f.fromS} x2={Math.max(f.toS, f.fromS + lengthS / 400)} fill="var(--signal)" fillOpacity={0.22} stroke="var(--signal)" strokeOpacity={0.6} />
             ))}

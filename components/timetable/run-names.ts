@@ -7,5 +7,21 @@ export function routeSummary(run: BuilderRun, layout: BuilderLayout): string {
   return `${names[0]} → ${names[names.length - 1]} (via ${names.length - 2} block${names.length === 3 ? '' : 's'})`;
 }
 
-/** Colours for cabs or operators: mid tones readable on light and dark paper, with white text. */
-export const PALETTE = ['#2a7fb8', '#c0622f', '#4f8a2b', '#8e4fb0', '#b8860b', '#138a8a', '#b83a6b', '#5d6d7e', '#7a5c2e', '#3b5ba5'];
+/**
+ * Fishplate's own cab colours, drawn from the workshop: verdigris and brass from the brand, then paint
+ * and metal tones. Deep enough for white text; no pure red, which marks clashes.
+ */
+export const CAB_COLOURS = [
+  { name: 'verdigris', hex: '#1d6f63' },
+  { name: 'brass', hex: '#8a6212' },
+  { name: 'slate blue', hex: '#3d5a80' },
+  { name: 'heather', hex: '#7b4f8e' },
+  { name: 'moss', hex: '#4f6b22' },
+  { name: 'rust', hex: '#8a5a2b' },
+  { name: 'lamp teal', hex: '#1f6f86' },
+  { name: 'claret', hex: '#8a2846' },
+  { name: 'iron grey', hex: '#55606a' },
+  { name: 'night blue', hex: '#283f73' },
+] as const;
+
+export const PALETTE: readonly string[] = CAB_COLOURS.map((c) => c.hex);

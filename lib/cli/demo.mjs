@@ -44,6 +44,16 @@ if (buildIsStale() || process.env.FISHPLATE_REBUILD === '1') {
   step('npx', ['next', 'build']);
 }
 console.log(`\nFishplate: ${env.NEXTAUTH_URL}  — sign in as host@, planner@ or operator@fishplate.example, password "demo-railway"\n`);
-const server = spawn('npx', ['next', 'start', '-p', port], { stdio: 'inherit', env });
-for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => server.kill(signal));
-server.on('exit', (code) => process.exit(code ?? 0));
+// Its own process group: npx starts next, which starts the server and the mail catcher. A signal to
+// this script goes to the whole group, so SIGTERM (not only Ctrl-C in a terminal) frees ports 3000 and 2525.
+const server = spawn('npx', ['next', 'start', '-p', port], { stdio: 'inherit', env, detached: true });
+for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP']) {
+  process.on(signal, () => {
+    try {
+      process.kill(-server.pid, signal);
+    } catch {
+      // The group is gone already.
+    }
+  });
+}
+server.on('exit', (code, signal) => process.exit(code ?? (signal ? 0 : 1)));

@@ -96,11 +96,11 @@ export function runsOf(rows: SessionRows, userId: string): RunAssignment[] {
   return describeRuns(rows).filter((r) => r.operatorId === userId);
 }
 
-/** "2 min", "45 s", "1 min 30 s": stand times for people. */
+/** "2 min real", "45 s real", "1 min 30 s real": stand times for people, on the real clock (not the fast one). */
 export function formatStand(seconds: number): string {
   const s = Math.round(seconds);
-  if (s < 60) return `${s} s`;
+  if (s < 60) return `${s} s real`;
   const m = Math.floor(s / 60);
   const rest = s % 60;
-  return rest ? `${m} min ${rest} s` : `${m} min`;
+  return rest ? `${m} min ${rest} s real` : `${m} min real`;
 }

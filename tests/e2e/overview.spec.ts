@@ -1,4 +1,5 @@
 import { DEMO_RAILWAY, expect, screenshotBoth, test } from './fixtures';
+import { TimetablePage } from './pages/timetable-page';
 
 const SESSION = 'December running evening';
 
@@ -46,12 +47,7 @@ test('Needs attention names each session by title and date, links to it, and lea
   await railwayPage.openFromList(DEMO_RAILWAY);
   const railwayUrl = page.url();
   // A second session with the same title: a draft copy on another date.
-  await page.goto(`${railwayUrl}/sessions`);
-  const row = page.getByTestId('session-row').filter({ hasText: SESSION }).first();
-  await row.getByText('Duplicate as a starting point…').click();
-  await row.getByLabel(`New date for a copy of ${SESSION}`).fill('2031-03-08');
-  await row.getByRole('button', { name: 'Duplicate' }).click();
-  await expect(page.getByTestId('session-title')).toContainText('draft');
+  await new TimetablePage(page).duplicateFromSessions(railwayUrl, SESSION, '2031-03-08');
   const copyUrl = page.url();
 
   await page.goto(railwayUrl);

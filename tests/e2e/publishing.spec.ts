@@ -1,4 +1,5 @@
 import { DEMO_RAILWAY, expect, screenshotBoth, test } from './fixtures';
+import { TimetablePage } from './pages/timetable-page';
 
 const SESSION = 'December running evening';
 
@@ -7,12 +8,7 @@ test('publishing a timetable with errors asks first, and cancelling asks and sit
   await railwayPage.openFromList(DEMO_RAILWAY);
   const railwayUrl = page.url();
   // A draft copy of the demo session carries its clashes (8 errors).
-  await page.goto(`${railwayUrl}/sessions`);
-  const row = page.getByTestId('session-row').filter({ hasText: SESSION }).first();
-  await row.getByText('Duplicate as a starting point…').click();
-  await row.getByLabel(`New date for a copy of ${SESSION}`).fill('2031-02-14');
-  await row.getByRole('button', { name: 'Duplicate' }).click();
-  await expect(page.getByTestId('session-title')).toContainText('draft');
+  await new TimetablePage(page).duplicateFromSessions(railwayUrl, SESSION, '2031-02-14');
 
   // The builder shows the draft's status and Publish where the findings are.
   const panel = page.getByTestId('publish-panel');

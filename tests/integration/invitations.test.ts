@@ -134,7 +134,7 @@ describe('the e-mail over real SMTP', () => {
     expect(parsed.text).toContain('Your runs (2):');
     expect(parsed.text).toMatch(/06:20–06:24 fast \(\d\d:\d\d–\d\d:\d\d real\): Local on Cab A/);
     expect(parsed.text).toContain('Route: Yard → Main → Ærø halt');
-    expect(parsed.text).toContain('Stand: 2 min before departure, 3 min after arrival');
+    expect(parsed.text).toContain('Stand: 2 min real before departure, 3 min real after arrival');
     expect(parsed.text).toMatch(/Cab after you: planner \d+ \(Freight, 07:00\)/);
     expect(parsed.text).toContain('- stand-by: Covers cab B.');
     expect(parsed.text).toMatch(/Accept: http:\/\/127\.0\.0\.1:3999\/reply\?token=[^&\s]+&answer=accepted/);

@@ -62,9 +62,10 @@ describe('a person’s runs, as the e-mail, My runs and the calendar describe th
     expect(first!.standBeforeS).toBe(120); // departS − first step's enterS
     expect(first!.standAfterS).toBe(180); // last step's exitS − arriveS
     expect(second!.standBeforeS).toBe(0);
-    expect(formatStand(120)).toBe('2 min');
-    expect(formatStand(90)).toBe('1 min 30 s');
-    expect(formatStand(45)).toBe('45 s');
+    // Stand times are real seconds (the engine's steps are on the real clock), and say so.
+    expect(formatStand(120)).toBe('2 min real');
+    expect(formatStand(90)).toBe('1 min 30 s real');
+    expect(formatStand(45)).toBe('45 s real');
   });
 
   it('names who runs before and after on the same cab, by departure, and ignores other cabs', () => {

@@ -32,6 +32,16 @@ export class TimetablePage {
     return this.page.locator('[data-testid="graph-run"][data-selected="true"]');
   }
 
+  /** Duplicates a session from the Sessions list to a new date and waits for the draft copy's builder. */
+  async duplicateFromSessions(railwayUrl: string, title: string, date: string) {
+    await this.page.goto(`${railwayUrl}/sessions`);
+    const row = this.page.getByTestId('session-row').filter({ hasText: title }).first();
+    await row.getByText('Duplicate as a starting point…').click();
+    await row.getByLabel(`New date for a copy of ${title}`).fill(date);
+    await row.getByRole('button', { name: 'Duplicate' }).click();
+    await expect(this.page.getByTestId('session-title')).toContainText('draft');
+  }
+
   async openFromSessions(railwayUrl: string, title: string) {
     await this.page.goto(`${railwayUrl}/sessions`);
     await this.page.getByRole('link', { name: title }).click();
