@@ -133,6 +133,14 @@ export function buildInvitationCalendar(input: {
   return finish(calendar);
 }
 
+/** When an operator must be at the cab for a run: departure less the stand before, to arrival plus the stand after (at least a minute). */
+export function runEventSpan(run: RunAssignment): { start: Date; end: Date } {
+  const start = new Date(run.departAt.getTime() - run.standBeforeS * 1000);
+  const end = new Date(Math.max(run.arriveAt.getTime() + run.standAfterS * 1000, start.getTime() + 60_000));
+  // iCalendar DATE-TIME has whole seconds (RFC 5545 3.3.5).
+  return { start: new Date(Math.floor(start.getTime() / 1000) * 1000), end: new Date(Math.ceil(end.getTime() / 1000) * 1000) };
+}
+
 /** What one run says in a calendar: where the train goes, the stand times and the cab hand-overs. */
 export function describeRunForCalendar(run: RunAssignment): string {
   const lines = [
@@ -181,8 +189,9 @@ export function buildCalendarFile(input: {
         id: runUid(run.runId),
         sequence: session.sequence,
         stamp,
-        start: run.departAt,
-        end: run.arriveAt > run.departAt ? run.arriveAt : new Date(run.departAt.getTime() + 60_000),
+        // The operator is at the cab from the first stand until the train has cleared its last block:
+        // the event covers the stand times, not only the moving part (often under a real minute).
+        ...runEventSpan(run),
         summary: plainText(`${run.trainName} on ${run.cabName} — ${session.title}`),
         location: plainText(session.place) || null,
         description: plainText(describeRunForCalendar(run)),

@@ -25,6 +25,7 @@ function events(text: string) {
     summary: String(e.getFirstPropertyValue('summary')),
     status: e.getFirstPropertyValue('status'),
     start: (e.getFirstPropertyValue('dtstart') as ICAL.Time).toJSDate(),
+    end: (e.getFirstPropertyValue('dtend') as ICAL.Time).toJSDate(),
   }));
 }
 
@@ -44,8 +45,11 @@ describe('GET /api/sessions/{id}/calendar.ics', () => {
     }
     signInAs(w.operator);
     const own = events(await (await download(session.id)).text());
-    // The operator's runs depart 300 s and 1500 s after the start.
-    expect(own.slice(1).map((e) => e.start.getTime() - session.startsAt.getTime())).toEqual([300_000, 1_500_000]);
+    // The operator's runs depart 300 s and 1500 s after the start, standing 120 s before (first block entered
+    // at departure − 120 s) and 180 s after the 60 s move: each event covers the time at the cab,
+    // 120 + 60 + 180 = 360 s, not only the move (DTEND is exclusive, RFC 5545 3.6.1).
+    expect(own.slice(1).map((e) => e.start.getTime() - session.startsAt.getTime())).toEqual([180_000, 1_380_000]);
+    expect(own.slice(1).map((e) => e.end.getTime() - e.start.getTime())).toEqual([360_000, 360_000]);
     expect(own[1]!.summary).toBe('Local on Cab A — Test running evening');
   });
 
