@@ -201,7 +201,16 @@ export const drivers = sqliteTable(
     channelAmps: real('channel_amps').notNull(),
     channelPeakAmps: real('channel_peak_amps').notNull(),
     totalAmps: real('total_amps'),
+    /** Bridge drop against current, least line: dropVolts + dropOhms × I (see the engine's DropLine). */
     dropVolts: real('drop_volts').notNull(),
+    dropOhms: real('drop_ohms').notNull().default(0),
+    /** Greatest line (worst case); null: the same as the least line. */
+    dropMaxVolts: real('drop_max_volts'),
+    dropMaxOhms: real('drop_max_ohms'),
+    /** How long the peak rating holds, ms; null: no pulse width given (surges judged against channelAmps). */
+    peakPulseMs: real('peak_pulse_ms'),
+    /** Package dissipation rating, W; null: heat not checked. */
+    packageWatts: real('package_watts'),
     version: version(),
   },
   (t) => [index('drivers_layout_idx').on(t.layoutId)],
@@ -250,7 +259,9 @@ export const locomotives = sqliteTable(
     runningAmps: real('running_amps').notNull(),
     stallAmps: real('stall_amps').notNull(),
     ratedVolts: real('rated_volts').notNull(),
+    /** Calibration: top speed at ratedVolts, and the average voltage below which it does not move (null: not measured). */
     topSpeedKmh: real('top_speed_kmh').notNull(),
+    startVolts: real('start_volts'),
     version: version(),
   },
   (t) => [index('locomotives_layout_idx').on(t.layoutId)],

@@ -3,6 +3,7 @@ import type { PowerBudget, Status, WorstCase } from '@/lib/layouts/power-budget'
 
 const A = (v: number) => `${Math.round(v * 1000) / 1000} A`;
 const V = (v: number) => `${Math.round(v * 100) / 100} V`;
+const W = (v: number) => `${Math.round(v * 100) / 100} W`;
 const TONE = { ok: 'good', warning: 'warn', over: 'bad' } as const;
 const LABEL: Record<Status, string> = { ok: 'within ratings', warning: 'check', over: 'over a rating' };
 
@@ -32,7 +33,8 @@ export function PowerBudgetView({ budget }: { budget: PowerBudget }) {
       <p className="text-sm text-muted">
         Worst case before any timetable: every cab runs at once, each with a different train, heaviest first (a train is on one cab at a time). Running
         current is compared with {pct} % of a supply&apos;s rating — continuous loads are best kept to 80 % (rule of thumb; the same figure as NEC 210.20(A) for
-        breakers) — and start-up surge (stall current) with the full rating. Train currents are the locomotives&apos; and lighting figures you typed.
+        breakers) — and start-up surge with the full rating. A start draws the stall current scaled by the locomotive&apos;s start voltage (a PWM ramp holds the motor
+        below it until it turns); without a start voltage, the full stall current. Train currents are the locomotives&apos; and lighting figures you typed.
       </p>
       <section className="space-y-3">
         <h3 className="font-display text-base font-bold">Supplies</h3>
@@ -98,16 +100,37 @@ export function PowerBudgetView({ budget }: { budget: PowerBudget }) {
               </dd>
               <dt className="text-muted">One channel, surge</dt>
               <dd>
-                <Sum worst={d.channelSurge} empty="—" /> against {A(d.channelPeakAmps)} peak
+                <Sum worst={d.channelSurge} empty="—" /> against{' '}
+                {d.surgeJudgedContinuous ? (
+                  <>
+                    {A(d.surgeLimitAmps)} continuous{' '}
+                    <span className="text-muted">
+                      (the {A(d.channelPeakAmps)} peak holds {d.peakPulseMs === null ? 'for no stated time' : `${d.peakPulseMs} ms`}, shorter than the start-up surge)
+                    </span>
+                  </>
+                ) : (
+                  `${A(d.surgeLimitAmps)} peak`
+                )}
               </dd>
               <dt className="text-muted">All channels, surge</dt>
               <dd>
                 <Sum worst={d.worstSurge} empty="—" /> against{' '}
                 {d.totalAmps === null ? <span className="text-muted">no total rating (the channel ratings bind)</span> : `${A(d.totalAmps)} total`}
               </dd>
+              <dt className="text-muted">Heat in the bridge</dt>
+              <dd>
+                {d.heatHighWatts === 0 ? (
+                  <span className="text-muted">no train yet</span>
+                ) : (
+                  <>
+                    {W(d.heatLowWatts)} to {W(d.heatHighWatts)} <span className="text-muted">(drop × current, least to greatest drop, summed over channels)</span> against{' '}
+                    {d.packageWatts === null ? <span className="text-muted">no package rating entered</span> : `${W(d.packageWatts)} package rating`}
+                  </>
+                )}
+              </dd>
               <dt className="text-muted">Track voltage</dt>
               <dd>
-                {V(d.supplyVolts)} supply − {V(d.dropVolts)} bridge drop = <strong>{V(d.trackVolts)}</strong> at full throttle
+                {V(d.supplyVolts)} supply − {V(d.dropVolts)} bridge drop at {A(d.channelRunning.amps)} = <strong>{V(d.trackVolts)}</strong> at full throttle
                 {d.nominalVolts !== null ? (
                   <span className="text-muted">
                     {' '}

@@ -12,7 +12,8 @@ import {
   updateDriver,
   updateSupply,
 } from '@/app/(app)/railways/[railwayId]/layouts/[layoutId]/actions';
-import { DRIVER_PRESETS, findDriverPreset, presetDropVolts } from '@/lib/planning';
+import { presetDriverValues } from '@/lib/layouts/driver-electrics';
+import { DRIVER_PRESETS, findDriverPreset } from '@/lib/planning';
 import { cabEditSchema, cabSchema, driverEditSchema, driverSchema, supplyEditSchema, supplySchema } from '@/lib/validations/layout';
 import type { BudgetInput } from '@/lib/layouts/power-budget';
 import { EntityTable, type EntityColumn } from './entity-table';
@@ -72,7 +73,13 @@ export function DriversTable({ railwayId, layoutId, canEdit, drivers, supplies }
       { id: 'channelAmps', header: 'A / channel', sortValue: (r) => r.channelAmps, field: { name: 'channelAmps', kind: 'number', width: 'w-20', suffix: 'A', toInput: (r) => s(r.channelAmps) } },
       { id: 'channelPeakAmps', header: 'Peak A', sortValue: (r) => r.channelPeakAmps, field: { name: 'channelPeakAmps', kind: 'number', width: 'w-20', suffix: 'A', toInput: (r) => s(r.channelPeakAmps) } },
       { id: 'totalAmps', header: 'Total A', sortValue: (r) => r.totalAmps ?? -1, field: { name: 'totalAmps', kind: 'number', width: 'w-20', suffix: 'A', placeholder: 'none', toInput: (r) => s(r.totalAmps) } },
-      { id: 'dropVolts', header: 'Drop', sortValue: (r) => r.dropVolts, field: { name: 'dropVolts', kind: 'number', width: 'w-20', suffix: 'V', toInput: (r) => s(r.dropVolts) } },
+      { id: 'peakPulseMs', header: 'Peak holds', sortValue: (r) => r.peakPulseMs ?? -1, field: { name: 'peakPulseMs', kind: 'number', width: 'w-20', suffix: 'ms', placeholder: 'not given', toInput: (r) => s(r.peakPulseMs ?? null) } },
+      // Drop against current, as the datasheet gives it: fixed part + resistance × current.
+      { id: 'dropVolts', header: 'Drop, least', sortValue: (r) => r.dropVolts, field: { name: 'dropVolts', kind: 'number', width: 'w-16', suffix: 'V +', toInput: (r) => s(r.dropVolts) } },
+      { id: 'dropOhms', header: '× I', sortValue: (r) => r.dropOhms ?? 0, field: { name: 'dropOhms', kind: 'number', width: 'w-16', suffix: 'Ω', toInput: (r) => s(r.dropOhms ?? 0) } },
+      { id: 'dropMaxVolts', header: 'Drop, worst', sortValue: (r) => r.dropMaxVolts ?? r.dropVolts, field: { name: 'dropMaxVolts', kind: 'number', width: 'w-16', suffix: 'V +', placeholder: 'same', toInput: (r) => s(r.dropMaxVolts ?? null) } },
+      { id: 'dropMaxOhms', header: '× I', sortValue: (r) => r.dropMaxOhms ?? r.dropOhms ?? 0, field: { name: 'dropMaxOhms', kind: 'number', width: 'w-16', suffix: 'Ω', placeholder: 'same', toInput: (r) => s(r.dropMaxOhms ?? null) } },
+      { id: 'packageWatts', header: 'Package', sortValue: (r) => r.packageWatts ?? -1, field: { name: 'packageWatts', kind: 'number', width: 'w-20', suffix: 'W', placeholder: 'none', toInput: (r) => s(r.packageWatts ?? null) } },
     ],
     [supplies, supplyOptions],
   );
@@ -86,18 +93,14 @@ export function DriversTable({ railwayId, layoutId, canEdit, drivers, supplies }
       createSchema={driverSchema}
       editSchema={driverEditSchema}
       followDefaults
-      newDefaults={{ name: '', supplyId: supplies.length === 1 ? supplies[0]!.id : '', presetId: '', partNumber: '', channels: '', channelAmps: '', channelPeakAmps: '', totalAmps: '', dropVolts: '' }}
+      newDefaults={{ name: '', supplyId: supplies.length === 1 ? supplies[0]!.id : '', presetId: '', partNumber: '', channels: '', channelAmps: '', channelPeakAmps: '', totalAmps: '', peakPulseMs: '', dropVolts: '', dropOhms: '', dropMaxVolts: '', dropMaxOhms: '', packageWatts: '' }}
       onFieldChange={(name, value, form) => {
         // Choosing a class fills in its datasheet ratings; they can still be changed by hand.
         if (name !== 'presetId') return;
         const preset = findDriverPreset(String(value));
         if (!preset) return;
         const set = (k: string, v: string) => form.setValue(k, v, { shouldDirty: true, shouldValidate: false });
-        set('channels', String(preset.channels));
-        set('channelAmps', String(preset.channelAmps));
-        set('channelPeakAmps', String(preset.channelPeakAmps));
-        set('totalAmps', preset.totalAmps === null ? '' : String(preset.totalAmps));
-        set('dropVolts', String(presetDropVolts(preset)));
+        for (const [k, v] of Object.entries(presetDriverValues(preset))) set(k, v === null ? '' : String(v));
         if (!form.getValues('name')) set('name', preset.label);
       }}
       create={(fd) => createDriver(railwayId, layoutId, null, fd)}

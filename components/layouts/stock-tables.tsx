@@ -15,7 +15,16 @@ import { EntityTable, type EntityColumn } from './entity-table';
 import { UnitPicker } from './unit-picker';
 import { useLengthUnit } from './use-length-unit';
 
-export type LocomotiveRow = { id: string; name: string; runningAmps: number; stallAmps: number; ratedVolts: number; topSpeedKmh: number; version: number };
+export type LocomotiveRow = {
+  id: string;
+  name: string;
+  runningAmps: number;
+  stallAmps: number;
+  ratedVolts: number;
+  topSpeedKmh: number;
+  startVolts: number | null;
+  version: number;
+};
 export type TrainRow = {
   id: string;
   name: string;
@@ -49,7 +58,13 @@ export function LocomotivesTable({
       { id: 'runningAmps', header: 'Running', sortValue: (r) => r.runningAmps, field: { name: 'runningAmps', kind: 'number', suffix: 'A', width: 'w-20', toInput: (r) => String(r.runningAmps) } },
       { id: 'stallAmps', header: 'Stall', sortValue: (r) => r.stallAmps, field: { name: 'stallAmps', kind: 'number', suffix: 'A', width: 'w-20', toInput: (r) => String(r.stallAmps) } },
       { id: 'ratedVolts', header: 'Rated', sortValue: (r) => r.ratedVolts, field: { name: 'ratedVolts', kind: 'number', suffix: 'V', width: 'w-20', toInput: (r) => String(r.ratedVolts) } },
-      { id: 'topSpeedKmh', header: 'Top speed', sortValue: (r) => r.topSpeedKmh, field: { name: 'topSpeedKmh', kind: 'number', suffix: 'km/h', width: 'w-20', toInput: (r) => String(r.topSpeedKmh) } },
+      { id: 'topSpeedKmh', header: 'Top speed at rated', sortValue: (r) => r.topSpeedKmh, field: { name: 'topSpeedKmh', kind: 'number', suffix: 'km/h', width: 'w-20', toInput: (r) => String(r.topSpeedKmh) } },
+      {
+        id: 'startVolts',
+        header: 'Starts moving at',
+        sortValue: (r) => r.startVolts ?? -1,
+        field: { name: 'startVolts', kind: 'number', suffix: 'V', width: 'w-20', placeholder: 'not measured', toInput: (r) => (r.startVolts === null ? '' : String(r.startVolts)) },
+      },
     ],
     [],
   );
@@ -68,6 +83,7 @@ export function LocomotivesTable({
         stallAmps: String(defaults.stallAmps),
         ratedVolts: String(defaults.ratedVolts),
         topSpeedKmh: '',
+        startVolts: '',
       }}
       nextDefaults={(added) => ({ ...added, name: '' })}
       create={(fd) => createLocomotive(railwayId, layoutId, null, fd)}

@@ -14,7 +14,14 @@ export type DriverValues = {
   channelAmps: number;
   channelPeakAmps: number;
   totalAmps: number | null;
+  /** See DriverElectrics in lib/layouts/driver-electrics.ts. */
   dropVolts: number;
+  /** Absent when inserting: the column defaults (0 Ω, nulls). */
+  dropOhms?: number;
+  dropMaxVolts?: number | null;
+  dropMaxOhms?: number | null;
+  peakPulseMs?: number | null;
+  packageWatts?: number | null;
 };
 export type CabValues = { name: string; driverId: string; channel: number };
 

@@ -4,7 +4,7 @@ import { getDb, writeTransaction } from '@/db';
 import { locomotives, runs, trainLocomotives, trains } from '@/db/schema';
 import type { DbOrTx } from './layout-rows';
 
-export type LocomotiveValues = { name: string; runningAmps: number; stallAmps: number; ratedVolts: number; topSpeedKmh: number };
+export type LocomotiveValues = { name: string; runningAmps: number; stallAmps: number; ratedVolts: number; topSpeedKmh: number; startVolts?: number | null };
 export type TrainValues = { name: string; lightingAmps: number; lengthMm: number };
 
 export function insertLocomotive(layoutId: string, values: LocomotiveValues, db: DbOrTx = getDb()) {

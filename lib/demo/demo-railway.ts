@@ -3,7 +3,8 @@ import { eq } from 'drizzle-orm';
 import type { Db } from '@/db';
 import * as t from '@/db/schema';
 import { demoWiringSheet } from './demo-wiring';
-import { DRIVER_PRESETS, findRoute, presetDropVolts, timeRun, type DriverPreset } from '@/lib/planning';
+import { presetDriverValues } from '@/lib/layouts/driver-electrics';
+import { DRIVER_PRESETS, findRoute, timeRun, type DriverPreset } from '@/lib/planning';
 
 // The demo railway is a scenario of our own invention: the club, its places and its people are
 // made up. Currents are the common-practice figures of the reference notes (an HO can motor runs
@@ -58,17 +59,18 @@ const GARDEN_BLOCKS = [
 const GARDEN_LINKS = [['G1', 'G2'], ['G2', 'G3'], ['G3', 'G4'], ['G4', 'G5']] as const;
 
 const INDOOR_LOCOS = [
-  // key, name, running A, stall A, rated V, top scale km/h
-  ['tank41', 'Tank engine No. 41', 0.35, 0.9, 12, 80],
-  ['diesel7', 'Mixed-traffic diesel No. 7', 0.45, 1.0, 12, 120],
-  ['railcar12', 'Railcar No. 12', 0.3, 0.8, 12, 100],
-  ['shunter3', 'Yard shunter No. 3', 0.25, 0.7, 12, 50],
-  ['express88', 'Express engine No. 88', 0.5, 1.2, 12, 140],
-  ['freight205', 'Open-frame freight diesel No. 205', 0.6, 1.6, 12, 90],
+  // key, name, running A, stall A, rated V, top scale km/h at rated V, start V (common practice: 1.5–3 V on small can motors)
+  ['tank41', 'Tank engine No. 41', 0.35, 0.9, 12, 80, 2.0],
+  ['diesel7', 'Mixed-traffic diesel No. 7', 0.45, 1.0, 12, 120, 1.8],
+  ['railcar12', 'Railcar No. 12', 0.3, 0.8, 12, 100, 1.5],
+  ['shunter3', 'Yard shunter No. 3', 0.25, 0.7, 12, 50, 2.2],
+  ['express88', 'Express engine No. 88', 0.5, 1.2, 12, 140, 2.0],
+  // Not measured: starts are judged at its full 1.6 A stall current.
+  ['freight205', 'Open-frame freight diesel No. 205', 0.6, 1.6, 12, 90, null],
 ] as const;
 const GARDEN_LOCOS = [
-  ['mogul', 'Garden 2-6-0 "Thistle"', 1.5, 3.0, 18, 50],
-  ['railbus', 'Garden railbus', 0.8, 2.0, 18, 45],
+  ['mogul', 'Garden 2-6-0 "Thistle"', 1.5, 3.0, 18, 50, 3.0],
+  ['railbus', 'Garden railbus', 0.8, 2.0, 18, 45, 2.5],
 ] as const;
 
 const INDOOR_TRAINS = [
@@ -252,11 +254,7 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
           supplyId,
           name,
           presetId: p.id,
-          channels: p.channels,
-          channelAmps: p.channelAmps,
-          channelPeakAmps: p.channelPeakAmps,
-          totalAmps: p.totalAmps,
-          dropVolts: presetDropVolts(p),
+          ...presetDriverValues(p),
         })
         .returning({ id: t.drivers.id })
         .get().id;
@@ -286,14 +284,14 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
 
     const insertStock = (
       layoutId: string,
-      locoRows: readonly (readonly [string, string, number, number, number, number])[],
+      locoRows: readonly (readonly [string, string, number, number, number, number, number | null])[],
       trainRows: readonly (readonly [string, string, readonly string[], number, number])[],
     ) => {
       const locoIds: Record<string, string> = {};
-      for (const [key, name, runningAmps, stallAmps, ratedVolts, topSpeedKmh] of locoRows) {
+      for (const [key, name, runningAmps, stallAmps, ratedVolts, topSpeedKmh, startVolts] of locoRows) {
         locoIds[key] = tx
           .insert(t.locomotives)
-          .values({ layoutId, name, runningAmps, stallAmps, ratedVolts, topSpeedKmh })
+          .values({ layoutId, name, runningAmps, stallAmps, ratedVolts, topSpeedKmh, startVolts })
           .returning({ id: t.locomotives.id })
           .get().id;
       }

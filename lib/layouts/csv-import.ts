@@ -2,6 +2,7 @@ import 'server-only';
 import { createHash } from 'node:crypto';
 import type { z } from 'zod';
 import { applyCsvChanges, StaleRowError, type CsvChange, type CsvChanges } from '@/db/queries/layout-csv';
+import type { LocomotiveValues } from '@/db/queries/layout-stock';
 import { loadLayoutRows } from '@/db/queries/plan-data';
 import { AppError, conflict } from '@/lib/errors';
 import { CONSIST_SEPARATOR, readCsv, toCsv, type CsvIssue } from '@/lib/layouts/csv';
@@ -44,6 +45,7 @@ export function exportCsv(table: CsvTable, rows: LayoutRows): string {
           stall_amps: l.stallAmps,
           rated_volts: l.ratedVolts,
           top_speed_kmh: l.topSpeedKmh,
+          start_volts: l.startVolts ?? '',
         })),
       );
     case 'trains': {
@@ -176,8 +178,8 @@ export function planCsvImport(table: CsvTable, text: string, rows: LayoutRows): 
     }
     case 'locomotives': {
       const existing = new Map(rows.locomotives.map((l) => [lower(l.name), l]));
-      const list: CsvChange<{ name: string; runningAmps: number; stallAmps: number; ratedVolts: number; topSpeedKmh: number }>[] = [];
-      const columnOf = { runningAmps: 'running_amps', stallAmps: 'stall_amps', ratedVolts: 'rated_volts', topSpeedKmh: 'top_speed_kmh' };
+      const list: CsvChange<LocomotiveValues>[] = [];
+      const columnOf = { runningAmps: 'running_amps', stallAmps: 'stall_amps', ratedVolts: 'rated_volts', topSpeedKmh: 'top_speed_kmh', startVolts: 'start_volts' };
       for (const { row, cells } of records) {
         const parsed = locomotiveSchema.safeParse({
           name: cells.name,
@@ -185,6 +187,7 @@ export function planCsvImport(table: CsvTable, text: string, rows: LayoutRows): 
           stallAmps: cells.stall_amps,
           ratedVolts: cells.rated_volts,
           topSpeedKmh: cells.top_speed_kmh,
+          startVolts: cells.start_volts,
         });
         if (!parsed.success) {
           issues.push(...cellIssues(row, parsed.error, columnOf));
@@ -197,7 +200,7 @@ export function planCsvImport(table: CsvTable, text: string, rows: LayoutRows): 
           continue;
         }
         const old = existing.get(lower(v.name));
-        const same = old && old.name === v.name && old.runningAmps === v.runningAmps && old.stallAmps === v.stallAmps && old.ratedVolts === v.ratedVolts && old.topSpeedKmh === v.topSpeedKmh;
+        const same = old && old.name === v.name && old.runningAmps === v.runningAmps && old.stallAmps === v.stallAmps && old.ratedVolts === v.ratedVolts && old.topSpeedKmh === v.topSpeedKmh && (old.startVolts ?? null) === v.startVolts;
         if (!old) list.push({ action: 'create', values: v });
         else if (!same) list.push({ action: 'update', id: old.id, version: old.version, values: v });
         push(row, v.name, !old ? 'create' : same ? 'unchanged' : 'update');

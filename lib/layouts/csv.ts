@@ -20,6 +20,7 @@ export const CSV_COLUMNS: Record<CsvTable, { name: string; required: boolean; he
     { name: 'stall_amps', required: true, help: 'A' },
     { name: 'rated_volts', required: true, help: 'V' },
     { name: 'top_speed_kmh', required: true, help: 'scale km/h at rated volts' },
+    { name: 'start_volts', required: false, help: 'V at which it starts to move; blank if not measured' },
   ],
   trains: [
     { name: 'name', required: true, help: 'unique within the layout' },

@@ -4,6 +4,7 @@ import type { LayoutImport } from '@/db/queries/layout-import';
 import type { loadLayoutRows } from '@/db/queries/plan-data';
 import { AppError, type Issue } from '@/lib/errors';
 import { defaultRules, formatIssuePath, planSchema, type Plan } from '@/lib/planning';
+import { storedDriverElectrics } from '@/lib/layouts/driver-electrics';
 import { layoutToPlan } from '@/lib/sessions/to-plan';
 import { blockSchema, cabSchema, driverSchema, inScaleRange, locomotiveSchema, SCALE_RATIO_MESSAGE, supplySchema, trainSchema } from '@/lib/validations/layout';
 
@@ -23,7 +24,8 @@ const extras = z.object({
   layout: z.object({ name: z.string().optional(), setting: z.enum(['indoor', 'outdoor']).optional(), notes: z.string().optional() }).optional(),
   blocks: z.array(z.object({ positionMm: z.number().min(0).optional() })),
   drivers: z.array(z.object({ presetId: z.string().nullable().optional(), partNumber: z.string().nullable().optional() })),
-  locos: z.array(z.object({ topSpeedKmh: z.number().optional() })),
+  // Older exports carried the top speed here; the plan's locos now carry it themselves.
+  locos: z.array(z.object({ topSpeedKmh: z.number().nullable().optional() })),
 });
 
 /** The layout as the engine's plan interchange, version 1, without runs, with Fishplate's extras. */
@@ -33,13 +35,11 @@ export function exportPlan(rows: LayoutRows): Plan & Record<string, unknown> {
   const plan = layoutToPlan(rows, { clock: { ...EXPORT_CLOCK }, rules: { ...defaultRules } });
   const block = new Map(rows.blocks.map((b) => [b.id, b]));
   const driver = new Map(rows.drivers.map((d) => [d.id, d]));
-  const loco = new Map(rows.locomotives.map((l) => [l.id, l]));
   return {
     ...plan,
     layout: { name: layout.name, setting: layout.setting, notes: layout.notes },
     blocks: plan.blocks.map((b) => ({ ...b, positionMm: block.get(b.id)?.positionMm ?? 0 })),
     drivers: plan.drivers.map((d) => ({ ...d, presetId: driver.get(d.id)?.presetId ?? null, partNumber: driver.get(d.id)?.partNumber ?? null })),
-    locos: plan.locos.map((l) => ({ ...l, topSpeedKmh: loco.get(l.id)?.topSpeedKmh })),
   };
 }
 
@@ -100,7 +100,7 @@ export function planToImport(input: unknown, name: string | undefined): { data: 
   });
   const drivers = plan.drivers.map((d, i) => {
     const presetId = ext.drivers[i]?.presetId ?? null;
-    const v = check(driverSchema, { ...d, presetId, partNumber: ext.drivers[i]?.partNumber ?? null }, `drivers[${i}]`);
+    const v = check(driverSchema, { ...d, ...storedDriverElectrics(d), presetId, partNumber: ext.drivers[i]?.partNumber ?? null }, `drivers[${i}]`);
     return v && { ...v, key: d.id };
   });
   const cabs = plan.cabs.map((c, i) => {
@@ -108,12 +108,12 @@ export function planToImport(input: unknown, name: string | undefined): { data: 
     return v && { ...v, key: c.id };
   });
   const locomotives = plan.locos.map((l, i) => {
-    const top = ext.locos[i]?.topSpeedKmh;
+    const top = l.topSpeedKmh ?? ext.locos[i]?.topSpeedKmh ?? undefined;
     if (top === undefined) {
       issues.push({ path: `locos[${i}].topSpeedKmh`, message: 'missing: Fishplate needs each locomotive’s top scale speed (km/h) to work out PWM duty' });
       return null;
     }
-    const v = check(locomotiveSchema, { name: l.name, runningAmps: l.runningAmps, stallAmps: l.stallAmps, ratedVolts: l.ratedVolts, topSpeedKmh: top }, `locos[${i}]`);
+    const v = check(locomotiveSchema, { name: l.name, runningAmps: l.runningAmps, stallAmps: l.stallAmps, ratedVolts: l.ratedVolts, topSpeedKmh: top, startVolts: l.startVolts ?? null }, `locos[${i}]`);
     return v && { ...v, key: l.id };
   });
   const trains = plan.trains.map((tr, i) => {

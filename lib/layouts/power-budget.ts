@@ -1,16 +1,20 @@
 import {
+  channelWatts,
   defaultRules,
+  dropAt,
   dutyFor,
   findDriverPreset,
-  presetDropVolts,
   gaugeForScale,
   nominalTrackVolts,
+  startAmps,
+  surgeLimit,
   trackVoltsOf,
   AMPS_TOLERANCE,
   VOLTS_TOLERANCE,
   type DriverPreset,
 } from '@/lib/planning';
 import type { CabValues, DriverValues, SupplyValues } from '@/db/queries/layout-power';
+import { planDriverElectrics, presetDriverValues, type DriverElectrics } from './driver-electrics';
 
 // The power budget of a layout before any timetable: what each supply and driver could be asked to
 // carry if every cab ran a train at once. Every figure is an input, a sum or product of inputs, or a
@@ -20,22 +24,27 @@ export interface BudgetInput {
   scale: { name: string; ratio: number };
   /** Share of a supply's rating it may carry continuously (rules derate; 0.8 by default). */
   derate?: number;
+  /** How long a start-up surge lasts, s (rules surgeS; 2 s by default). */
+  surgeS?: number;
   supplies: (SupplyValues & { id: string })[];
   drivers: (DriverValues & { id: string })[];
   cabs: (CabValues & { id: string })[];
-  locomotives: { id: string; name: string; runningAmps: number; stallAmps: number; ratedVolts: number; topSpeedKmh: number }[];
+  locomotives: { id: string; name: string; runningAmps: number; stallAmps: number; ratedVolts: number; topSpeedKmh: number; startVolts?: number | null }[];
   trains: { id: string; name: string; locomotiveIds: string[]; lightingAmps: number; lengthMm: number }[];
 }
 
 export type Status = 'ok' | 'warning' | 'over';
 
-/** A train's current: lighting plus each locomotive's, running and at stall (start-up surge). */
+/**
+ * A train's current: lighting plus each locomotive's, running and at start (start-up surge: the stall
+ * current scaled by the start voltage under a PWM ramp; the full stall current when not measured).
+ */
 export interface TrainLoad {
   id: string;
   name: string;
   runningAmps: number;
   surgeAmps: number;
-  parts: { label: string; runningAmps: number; stallAmps: number }[];
+  parts: { label: string; runningAmps: number; stallAmps: number; startAmps: number }[];
   /** The slowest locomotive's top speed: the consist cannot go faster. Null without locomotives. */
   topSpeedKmh: number | null;
 }
@@ -74,7 +83,16 @@ export interface DriverBudget {
   channelAmps: number;
   channelPeakAmps: number;
   totalAmps: number | null;
+  /** What a channel's surge is judged against (the peak while the surge fits its pulse width). */
+  surgeLimitAmps: number;
+  surgeJudgedContinuous: boolean;
+  peakPulseMs: number | null;
+  /** The bridge's greatest drop at the heaviest train (NMRA S-9 I.A: at maximum anticipated load). */
   dropVolts: number;
+  /** Heat with one heaviest train per used channel, on the least and greatest drop lines, W. */
+  heatLowWatts: number;
+  heatHighWatts: number;
+  packageWatts: number | null;
   /** The heaviest single train on one channel (a channel drives one train at a time). */
   channelRunning: WorstCase;
   channelSurge: WorstCase;
@@ -94,20 +112,22 @@ export interface PowerBudget {
   drivers: DriverBudget[];
 }
 
-/** Lighting plus every locomotive of the consist, running and at stall. */
+/** Lighting plus every locomotive of the consist, running and at start (see startAmps). */
 export function trainLoads(input: Pick<BudgetInput, 'locomotives' | 'trains'>): TrainLoad[] {
   const locoOf = new Map(input.locomotives.map((l) => [l.id, l]));
   return input.trains.map((train) => {
     const locos = train.locomotiveIds.map((id) => locoOf.get(id)).filter((l) => l !== undefined);
     const parts = [
-      ...locos.map((l) => ({ label: l.name, runningAmps: l.runningAmps, stallAmps: l.stallAmps })),
-      ...(train.lightingAmps > 0 ? [{ label: 'lighting', runningAmps: train.lightingAmps, stallAmps: train.lightingAmps }] : []),
+      ...locos.map((l) => ({ label: l.name, runningAmps: l.runningAmps, stallAmps: l.stallAmps, startAmps: startAmps(l) })),
+      ...(train.lightingAmps > 0
+        ? [{ label: 'lighting', runningAmps: train.lightingAmps, stallAmps: train.lightingAmps, startAmps: train.lightingAmps }]
+        : []),
     ];
     return {
       id: train.id,
       name: train.name,
       runningAmps: round(parts.reduce((s, p) => s + p.runningAmps, 0)),
-      surgeAmps: round(parts.reduce((s, p) => s + p.stallAmps, 0)),
+      surgeAmps: round(parts.reduce((s, p) => s + p.startAmps, 0)),
       parts,
       topSpeedKmh: locos.length ? Math.min(...locos.map((l) => l.topSpeedKmh)) : null,
     };
@@ -128,6 +148,7 @@ export function heaviest(loads: TrainLoad[], k: number, which: 'runningAmps' | '
 }
 
 const a = (v: number) => `${round(v)} A`;
+const w = (x: number) => `${Math.round(x * 100) / 100} W`;
 const v = (x: number) => `${Math.round(x * 100) / 100} V`;
 const worse = (x: Status, y: Status): Status => (x === 'over' || y === 'over' ? 'over' : x === 'warning' || y === 'warning' ? 'warning' : 'ok');
 
@@ -182,39 +203,56 @@ export function powerBudget(input: BudgetInput): PowerBudget {
     };
   });
 
+  const surgeS = input.surgeS ?? defaultRules.surgeS;
   const drivers: DriverBudget[] = input.drivers.map((d) => {
     const supply = supplyOf.get(d.supplyId);
     const cabCount = cabsOnDriver.get(d.id) ?? 0;
     const preset = d.presetId ? findDriverPreset(d.presetId) : undefined;
-    const edited =
-      preset !== undefined &&
-      !(preset.channels === d.channels && preset.channelAmps === d.channelAmps && preset.channelPeakAmps === d.channelPeakAmps &&
-        preset.totalAmps === d.totalAmps && presetDropVolts(preset) === d.dropVolts);
+    const electrics = storedElectrics(d);
+    const edited = preset !== undefined && !sameRatings(presetDriverValues(preset), { ...d, ...electrics });
+    const plan = planDriverElectrics(electrics);
+    const drop = plan.drop!;
+    const surge = surgeLimit({ channelAmps: d.channelAmps, channelPeakAmps: d.channelPeakAmps, peakPulseS: plan.peakPulseS }, surgeS);
     const channelRunning = heaviest(loads, Math.min(1, cabCount), 'runningAmps');
     const channelSurge = heaviest(loads, Math.min(1, cabCount), 'surgeAmps');
     const worstRunning = heaviest(loads, cabCount, 'runningAmps');
     const worstSurge = heaviest(loads, cabCount, 'surgeAmps');
     const supplyVolts = supply?.volts ?? 0;
-    const trackVolts = round(trackVoltsOf(supplyVolts, d.dropVolts));
+    const dropVolts = round(dropAt(drop.max, channelRunning.amps));
+    const trackVolts = round(trackVoltsOf(supplyVolts, dropVolts));
+    // One heaviest train per used channel: drop × current on each, summed over the package.
+    const heatLowWatts = round(worstRunning.terms.reduce((w, t) => w + channelWatts(drop.min, t.amps), 0));
+    const heatHighWatts = round(worstRunning.terms.reduce((w, t) => w + channelWatts(drop.max, t.amps), 0));
     const messages: string[] = [];
     let status: Status = 'ok';
     if (channelRunning.amps > d.channelAmps + AMPS_TOLERANCE) {
       status = 'over';
       messages.push(`“${channelRunning.terms[0]?.trainName}” draws ${a(channelRunning.amps)} running, above the ${a(d.channelAmps)} continuous rating of a channel.`);
     }
-    if (channelSurge.amps > d.channelPeakAmps + AMPS_TOLERANCE) {
+    if (channelSurge.amps > surge.amps + AMPS_TOLERANCE) {
       status = 'over';
-      messages.push(`“${channelSurge.terms[0]?.trainName}” surges to ${a(channelSurge.amps)} at start, above the ${a(d.channelPeakAmps)} peak rating of a channel.`);
+      messages.push(
+        surge.continuous
+          ? `“${channelSurge.terms[0]?.trainName}” draws ${a(channelSurge.amps)} for its ${surgeS} s start, above the ${a(surge.amps)} continuous rating: the ${a(d.channelPeakAmps)} peak holds ${electrics.peakPulseMs === null ? 'for no stated time' : `for ${electrics.peakPulseMs} ms only`}.`
+          : `“${channelSurge.terms[0]?.trainName}” surges to ${a(channelSurge.amps)} at start, above the ${a(d.channelPeakAmps)} peak rating of a channel.`,
+      );
     }
     if (d.totalAmps !== null && worstSurge.amps > d.totalAmps + AMPS_TOLERANCE) {
       status = 'over';
       messages.push(`All cabs at once could surge to ${a(worstSurge.amps)}, above the driver's ${a(d.totalAmps)} total rating.`);
     }
+    if (electrics.packageWatts !== null && heatHighWatts > electrics.packageWatts + 1e-9) {
+      const typical = heatLowWatts > electrics.packageWatts + 1e-9;
+      status = typical ? 'over' : worse(status, 'warning');
+      messages.push(
+        `With every cab running its heaviest train the bridge dissipates about ${w(heatLowWatts)} to ${w(heatHighWatts)}, above its ${w(electrics.packageWatts)} package rating: add a heat sink or spread the trains over more drivers.`,
+      );
+    }
     if (nominalVolts !== null && gaugeMm !== null && trackVolts < nominalVolts - VOLTS_TOLERANCE) {
       status = worse(status, 'warning');
       messages.push(
-        `Track gets ${v(trackVolts)} at full throttle, below the ${nominalVolts} V nominal of NEM 630 Table 1 for ${gaugeMm} mm gauge` +
-          (nominalVolts === 12 ? ' (NMRA S-9 I.A: at least 12 V at full throttle)' : '') + '.',
+        `Track gets ${v(trackVolts)} at full throttle with the heaviest train, below the ${nominalVolts} V nominal of NEM 630 Table 1 for ${gaugeMm} mm gauge` +
+          (nominalVolts === 12 ? ' (NMRA S-9 I.A: at least 12 V at full throttle at maximum anticipated load)' : '') + '.',
       );
     }
     if (preset && supply) {
@@ -241,7 +279,13 @@ export function powerBudget(input: BudgetInput): PowerBudget {
       channelAmps: d.channelAmps,
       channelPeakAmps: d.channelPeakAmps,
       totalAmps: d.totalAmps,
-      dropVolts: d.dropVolts,
+      surgeLimitAmps: surge.amps,
+      surgeJudgedContinuous: surge.continuous,
+      peakPulseMs: electrics.peakPulseMs,
+      dropVolts,
+      heatLowWatts,
+      heatHighWatts,
+      packageWatts: electrics.packageWatts,
       channelRunning,
       channelSurge,
       worstRunning,
@@ -296,20 +340,31 @@ export function dutyTables(input: BudgetInput): DutyTable[] {
       return driver && supply ? { cab, driver, supply } : null;
     })
     .filter((c) => c !== null);
+  const loads = new Map(trainLoads(input).map((l) => [l.id, l]));
   return input.trains.map((train) => {
     const locos = train.locomotiveIds.map((id) => locoOf.get(id)).filter((l) => l !== undefined);
     const top = locos.length ? Math.min(...locos.map((l) => l.topSpeedKmh)) : null;
     const speeds = top === null ? [] : dutySpeeds(top);
+    // The bridge's greatest drop at this train's running current, so the duty is enough.
+    const amps = loads.get(train.id)?.runningAmps ?? 0;
+    const dropOf = (driver: DriverValues) => dropAt(planDriverElectrics(storedElectrics(driver)).drop!.max, amps);
     const rows = speeds.map((speed) =>
       cabs.map(({ driver, supply }): DutyCell => {
         let best: { duty: number; pwm8: number; loco: string } | null = null;
         for (const loco of locos) {
-          const r = dutyFor({ supplyVolts: supply.volts, dropVolts: driver.dropVolts, ratedVolts: loco.ratedVolts, topSpeedKmh: loco.topSpeedKmh, targetSpeedKmh: speed });
+          const r = dutyFor({
+            supplyVolts: supply.volts,
+            dropVolts: dropOf(driver),
+            ratedVolts: loco.ratedVolts,
+            topSpeedKmh: loco.topSpeedKmh,
+            startVolts: loco.startVolts ?? 0,
+            targetSpeedKmh: speed,
+          });
           if (!r.ok) return { ok: false, duty: null, pwm8: null, note: locos.length > 1 ? `${loco.name}: ${r.reason}` : r.reason };
           if (best === null || r.duty > best.duty) best = { duty: r.duty, pwm8: r.pwm8, loco: loco.name };
         }
         if (best === null) return { ok: false, duty: null, pwm8: null, note: 'no locomotive' };
-        const mixed = new Set(locos.map((l) => `${l.ratedVolts}/${l.topSpeedKmh}`)).size > 1;
+        const mixed = new Set(locos.map((l) => `${l.ratedVolts}/${l.topSpeedKmh}/${l.startVolts ?? 0}`)).size > 1;
         return { ok: true, duty: best.duty, pwm8: best.pwm8, note: mixed ? `set by ${best.loco}` : '' };
       }),
     );
@@ -318,10 +373,27 @@ export function dutyTables(input: BudgetInput): DutyTable[] {
       trainName: train.name,
       topSpeedKmh: top,
       speeds,
-      cabs: cabs.map(({ cab, driver, supply }) => ({ id: cab.id, name: cab.name, trackVolts: round(trackVoltsOf(supply.volts, driver.dropVolts)) })),
+      cabs: cabs.map(({ cab, driver, supply }) => ({ id: cab.id, name: cab.name, trackVolts: round(trackVoltsOf(supply.volts, dropOf(driver))) })),
       rows,
     };
   });
+}
+
+/** A driver row's electrics, with the columns an older caller may leave out at their defaults. */
+function storedElectrics(d: DriverValues): DriverElectrics {
+  return {
+    dropVolts: d.dropVolts,
+    dropOhms: d.dropOhms ?? 0,
+    dropMaxVolts: d.dropMaxVolts ?? null,
+    dropMaxOhms: d.dropMaxOhms ?? null,
+    peakPulseMs: d.peakPulseMs ?? null,
+    packageWatts: d.packageWatts ?? null,
+  };
+}
+
+/** Whether a driver still has a preset's ratings (so the page can say they were edited). */
+function sameRatings(p: ReturnType<typeof presetDriverValues>, d: DriverValues & DriverElectrics): boolean {
+  return (Object.keys(p) as (keyof typeof p)[]).every((k) => p[k] === d[k]);
 }
 
 function round(value: number): number {

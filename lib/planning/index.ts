@@ -60,7 +60,7 @@ export { propagateDelays } from './propagate';
 export type { RunActuals, PropagateInput, PredictedRun, PredictedStatus, Propagation } from './propagate';
 export { SCALES, findScale, gaugeForScale } from './scales';
 export type { ScaleEntry } from './scales';
-export { DRIVER_PRESETS, findDriverPreset, driverFromPreset, presetDropVolts } from './presets';
+export { DRIVER_PRESETS, findDriverPreset, driverFromPreset } from './presets';
 export type { DriverPreset } from './presets';
 export { defaultRules, AMPS_TOLERANCE, VOLTS_TOLERANCE } from './rules';
 export { indexPlan } from './plan-index';

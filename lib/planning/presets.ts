@@ -1,4 +1,4 @@
-import { dropAt, type DriverDrop } from './electrics';
+import type { DriverDrop } from './electrics';
 import type { Driver } from './schema';
 
 /** A class of H-bridge motor driver, ready to become a plan's driver. */
@@ -135,14 +135,6 @@ export const DRIVER_PRESETS: readonly DriverPreset[] = [
     source: 'Texas Instruments DRV8833 datasheet: 0.36 Ω high + low side, 1.5 A RMS and 2 A peak per H-bridge.',
   },
 ];
-
-/**
- * One figure for the drop of a preset, for places that hold a single fixed drop: its least drop at
- * its continuous rating (for the quad half-H class the typical 2.6 V at 1 A).
- */
-export function presetDropVolts(preset: DriverPreset): number {
-  return Math.round(dropAt(preset.drop.min, preset.channelAmps) * 1000) / 1000;
-}
 
 /** Finds a driver preset by id. */
 export function findDriverPreset(id: string): DriverPreset | undefined {

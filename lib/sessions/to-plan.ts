@@ -1,3 +1,4 @@
+import { planDriverElectrics } from '@/lib/layouts/driver-electrics';
 import type { Plan } from '@/lib/planning';
 import type { loadLayoutRows, loadSessionRows } from '@/db/queries/plan-data';
 
@@ -24,7 +25,7 @@ export function layoutToPlan(rows: LayoutRows, extra: Pick<Plan, 'clock' | 'rule
       channelAmps: d.channelAmps,
       channelPeakAmps: d.channelPeakAmps,
       totalAmps: d.totalAmps,
-      dropVolts: d.dropVolts,
+      ...planDriverElectrics(d),
     })),
     cabs: rows.cabs.map((c) => ({ id: c.id, name: c.name, driverId: c.driverId, channel: c.channel })),
     blocks: rows.blocks.map((b) => ({ id: b.id, name: b.name, lengthMm: b.lengthMm })),
@@ -35,6 +36,8 @@ export function layoutToPlan(rows: LayoutRows, extra: Pick<Plan, 'clock' | 'rule
       runningAmps: l.runningAmps,
       stallAmps: l.stallAmps,
       ratedVolts: l.ratedVolts,
+      startVolts: l.startVolts,
+      topSpeedKmh: l.topSpeedKmh,
     })),
     // A train without locomotives cannot be in a valid plan; the rolling-stock screens refuse to
     // save one, so none should reach here.

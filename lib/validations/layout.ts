@@ -186,15 +186,34 @@ export const driverFields = z.object({
   channelAmps: number({ gt: 0, max: 50, unit: 'A' }),
   channelPeakAmps: number({ gt: 0, max: 100, unit: 'A' }),
   totalAmps: numberOrNull({ gt: 0, max: 200, unit: 'A' }),
+  // Bridge drop against current: least line dropVolts + dropOhms × I; greatest line (blank: the same).
   dropVolts: number({ min: 0, max: 20, unit: 'V' }),
+  dropOhms: numberOr(0, { min: 0, max: 20, unit: 'Ω' }),
+  dropMaxVolts: numberOrNull({ min: 0, max: 20, unit: 'V' }),
+  dropMaxOhms: numberOrNull({ min: 0, max: 20, unit: 'Ω' }),
+  // How long the peak holds (blank: no pulse width given); datasheets give 100 µs to tens of ms.
+  peakPulseMs: numberOrNull({ gt: 0, max: 60_000, unit: 'ms' }),
+  // Package dissipation (blank: not checked); the heat-sunk module class is rated 25 W.
+  packageWatts: numberOrNull({ gt: 0, max: 500, unit: 'W' }),
 });
 
-const peakAtLeastContinuous = (v: { channelAmps: number; channelPeakAmps: number }) =>
-  v.channelPeakAmps >= v.channelAmps;
+type DriverCheck = z.infer<typeof driverFields>;
+const peakAtLeastContinuous = (v: DriverCheck) => v.channelPeakAmps >= v.channelAmps;
 const peakMessage = { path: ['channelPeakAmps'], message: 'The peak rating cannot be below the continuous rating.' };
+const maxDropAtLeastLeast = (v: DriverCheck) => (v.dropMaxVolts ?? v.dropVolts) >= v.dropVolts;
+const maxDropMessage = { path: ['dropMaxVolts'], message: 'The worst-case drop cannot be below the least drop.' };
+const maxOhmsAtLeastLeast = (v: DriverCheck) => (v.dropMaxOhms ?? v.dropOhms) >= v.dropOhms;
+const maxOhmsMessage = { path: ['dropMaxOhms'], message: 'The worst-case resistance cannot be below the least.' };
 
-export const driverSchema = driverFields.refine(peakAtLeastContinuous, peakMessage);
-export const driverEditSchema = driverFields.extend({ id: rowId, version }).refine(peakAtLeastContinuous, peakMessage);
+export const driverSchema = driverFields
+  .refine(peakAtLeastContinuous, peakMessage)
+  .refine(maxDropAtLeastLeast, maxDropMessage)
+  .refine(maxOhmsAtLeastLeast, maxOhmsMessage);
+export const driverEditSchema = driverFields
+  .extend({ id: rowId, version })
+  .refine(peakAtLeastContinuous, peakMessage)
+  .refine(maxDropAtLeastLeast, maxDropMessage)
+  .refine(maxOhmsAtLeastLeast, maxOhmsMessage);
 
 export const cabSchema = z.object({
   name: entityName,
@@ -213,10 +232,17 @@ export const locomotiveFields = z.object({
   runningAmps: number({ min: 0, max: 20, unit: 'A' }),
   stallAmps: number({ min: 0, max: 40, unit: 'A' }),
   ratedVolts: number({ gt: 0, max: 60, unit: 'V' }),
+  // Calibration: top speed at the rated voltage, and the voltage at which it starts to move (blank: not measured).
   topSpeedKmh: number({ gt: 0, max: 600, unit: 'km/h' }),
+  startVolts: numberOrNull({ min: 0, max: 60, unit: 'V' }),
 });
-export const locomotiveSchema = locomotiveFields.refine(stallAtLeastRunning, stallMessage);
-export const locomotiveEditSchema = locomotiveFields.extend({ id: rowId, version }).refine(stallAtLeastRunning, stallMessage);
+const startBelowRated = (v: { startVolts: number | null; ratedVolts: number }) => v.startVolts === null || v.startVolts < v.ratedVolts;
+const startMessage = { path: ['startVolts'], message: 'The start voltage must be below the rated voltage.' };
+export const locomotiveSchema = locomotiveFields.refine(stallAtLeastRunning, stallMessage).refine(startBelowRated, startMessage);
+export const locomotiveEditSchema = locomotiveFields
+  .extend({ id: rowId, version })
+  .refine(stallAtLeastRunning, stallMessage)
+  .refine(startBelowRated, startMessage);
 
 const locomotiveIds = z.preprocess(
   (v) => (Array.isArray(v) ? v : typeof v === 'string' && v !== '' ? [v] : []),

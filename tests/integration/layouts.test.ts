@@ -3,6 +3,8 @@ import { createLayout, deleteLayout, updateLayout } from '@/app/(app)/railways/[
 import * as actions from '@/app/(app)/railways/[railwayId]/layouts/[layoutId]/actions';
 import { getLayout } from '@/db/queries/layouts';
 import { loadLayoutRows } from '@/db/queries/plan-data';
+import { defaultRules } from '@/lib/planning';
+import { layoutToPlan } from '@/lib/sessions/to-plan';
 import { signInAs } from './caller';
 import { seedLayout } from './authz/layouts';
 import { makeSessionWorld } from './authz/sessions';
@@ -146,6 +148,29 @@ describe('power', () => {
     expect(await actions.createSupply(r, l, null, form({ name: 'No volts', volts: '', amps: '2' }))).toMatchObject({ ok: false, fieldErrors: { volts: 'Enter a number.' } });
   });
 
+  it('stores a driver’s drop lines, pulse width and package rating, and the plan carries them (SLRS007B figures)', async () => {
+    const { r, l, seed } = setup();
+    // SLRS007B: least drop 1.6 V + 1.0 Ω × I (through 2.1 V at 0.5 A, 2.6 V at 1 A), worst 3.6 V at 1 A,
+    // 2 A peak for 5 ms, 2075 mW package.
+    const quad = {
+      name: 'Quad board', supplyId: seed.supply.id, presetId: 'bipolar-quad-half-h-1a', partNumber: '', channels: '2', channelAmps: '1',
+      channelPeakAmps: '2', totalAmps: '', dropVolts: '1.6', dropOhms: '1', dropMaxVolts: '2.6', dropMaxOhms: '1', peakPulseMs: '5', packageWatts: '2.075',
+    };
+    expect(await actions.createDriver(r, l, null, form(quad))).toMatchObject({ ok: true });
+    const rows = loadLayoutRows(l);
+    const board = rows.drivers.find((d) => d.name === 'Quad board')!;
+    expect(board).toMatchObject({ dropVolts: 1.6, dropOhms: 1, dropMaxVolts: 2.6, dropMaxOhms: 1, peakPulseMs: 5, packageWatts: 2.075 });
+    const planned = layoutToPlan(rows, { clock: { ratio: 1, fastStart: '00:00' }, rules: defaultRules }).drivers.find((d) => d.id === board.id)!;
+    expect(planned).toMatchObject({ drop: { min: { fixedVolts: 1.6, ohms: 1 }, max: { fixedVolts: 2.6, ohms: 1 } }, peakPulseS: 0.005, packageWatts: 2.075 });
+    // Blank worst case means "the same as the least"; a worst case below the least is refused.
+    const flat = { ...quad, name: 'Flat board', dropMaxVolts: '', dropMaxOhms: '', peakPulseMs: '', packageWatts: '' };
+    expect(await actions.createDriver(r, l, null, form(flat))).toMatchObject({ ok: true });
+    expect(loadLayoutRows(l).drivers.find((d) => d.name === 'Flat board')).toMatchObject({ dropMaxVolts: null, peakPulseMs: null, packageWatts: null });
+    expect(await actions.createDriver(r, l, null, form({ ...quad, name: 'Odd board', dropMaxVolts: '1' }))).toMatchObject({
+      ok: false, fieldErrors: { dropMaxVolts: 'The worst-case drop cannot be below the least drop.' },
+    });
+  });
+
   it('a stale supply edit is 409 and keeps the other edit', async () => {
     const { r, l, seed } = setup();
     expect(await actions.updateSupply(r, l, null, form({ id: seed.supply.id, version: '1', name: 'Seed supply', volts: '16', amps: '4' }))).toMatchObject({ ok: true });
@@ -178,6 +203,21 @@ describe('rolling stock', () => {
     expect(await actions.createTrain(r, l, null, form({ name: 'Borrowed', locomotiveIds: [other.loco.id], lightingAmps: '0', length: '1', unit: 'm' }))).toMatchObject({ ok: false, status: 400 });
     expect(await actions.createLocomotive(r, l, null, form({ name: 'Odd', runningAmps: '0.5', stallAmps: '0.2', ratedVolts: '12', topSpeedKmh: '80' }))).toMatchObject({
       ok: false, fieldErrors: { stallAmps: 'Stall current cannot be below the running current.' },
+    });
+  });
+
+  it('a locomotive keeps its calibration: start voltage (blank: not measured) below its rated voltage', async () => {
+    const { r, l } = setup();
+    // Common practice: small can motors start at about 1.5–3 V.
+    expect(await actions.createLocomotive(r, l, null, form({ name: 'Calibrated', runningAmps: '0.3', stallAmps: '0.8', ratedVolts: '12', topSpeedKmh: '90', startVolts: '2.2' }))).toMatchObject({ ok: true });
+    expect(await actions.createLocomotive(r, l, null, form({ name: 'Unmeasured', runningAmps: '0.3', stallAmps: '0.8', ratedVolts: '12', topSpeedKmh: '90', startVolts: '' }))).toMatchObject({ ok: true });
+    const rows = loadLayoutRows(l);
+    expect(rows.locomotives.find((x) => x.name === 'Calibrated')).toMatchObject({ startVolts: 2.2, topSpeedKmh: 90 });
+    expect(rows.locomotives.find((x) => x.name === 'Unmeasured')).toMatchObject({ startVolts: null });
+    const planned = layoutToPlan(rows, { clock: { ratio: 1, fastStart: '00:00' }, rules: defaultRules }).locos.find((x) => x.name === 'Calibrated');
+    expect(planned).toMatchObject({ startVolts: 2.2, topSpeedKmh: 90 });
+    expect(await actions.createLocomotive(r, l, null, form({ name: 'Odd start', runningAmps: '0.3', stallAmps: '0.8', ratedVolts: '12', topSpeedKmh: '90', startVolts: '12' }))).toMatchObject({
+      ok: false, fieldErrors: { startVolts: 'The start voltage must be below the rated voltage.' },
     });
   });
 });

@@ -126,18 +126,18 @@ export const LAYOUT_HOSTILE: HostileTarget[] = [
     guard: (f) => refused(f, accepts(supplyEditSchema), blankName),
   }),
   layoutAction('deleteSupply', ['id', 'version']),
-  layoutAction('createDriver', ['name', 'supplyId', 'presetId', 'partNumber', 'channels', 'channelAmps', 'channelPeakAmps', 'totalAmps', 'dropVolts']),
-  layoutAction('updateDriver', ['name', 'supplyId', 'presetId', 'partNumber', 'channels', 'channelAmps', 'channelPeakAmps', 'totalAmps', 'dropVolts', 'version'], {
+  layoutAction('createDriver', ['name', 'supplyId', 'presetId', 'partNumber', 'channels', 'channelAmps', 'channelPeakAmps', 'totalAmps', 'dropVolts', 'dropOhms', 'dropMaxVolts', 'dropMaxOhms', 'peakPulseMs', 'packageWatts']),
+  layoutAction('updateDriver', ['name', 'supplyId', 'presetId', 'partNumber', 'channels', 'channelAmps', 'channelPeakAmps', 'totalAmps', 'dropVolts', 'dropOhms', 'dropMaxVolts', 'dropMaxOhms', 'peakPulseMs', 'packageWatts', 'version'], {
     fixed: (s) => ({ id: s.driver.id }),
   }),
   layoutAction('deleteDriver', ['id', 'version']),
   layoutAction('createCab', ['name', 'driverId', 'channel']),
   layoutAction('updateCab', ['name', 'driverId', 'channel', 'version'], { fixed: (s) => ({ id: s.cab.id }) }),
   layoutAction('deleteCab', ['id', 'version']),
-  layoutAction('createLocomotive', ['name', 'runningAmps', 'stallAmps', 'ratedVolts', 'topSpeedKmh'], {
+  layoutAction('createLocomotive', ['name', 'runningAmps', 'stallAmps', 'ratedVolts', 'topSpeedKmh', 'startVolts'], {
     guard: (f) => refused(f, accepts(locomotiveSchema), blankName),
   }),
-  layoutAction('updateLocomotive', ['name', 'runningAmps', 'stallAmps', 'ratedVolts', 'topSpeedKmh', 'version'], {
+  layoutAction('updateLocomotive', ['name', 'runningAmps', 'stallAmps', 'ratedVolts', 'topSpeedKmh', 'startVolts', 'version'], {
     fixed: (s) => ({ id: s.loco.id }),
     guard: (f) => refused(f, accepts(locomotiveEditSchema), blankName),
   }),
