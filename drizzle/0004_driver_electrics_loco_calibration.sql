@@ -3,7 +3,8 @@ ALTER TABLE `drivers` ADD `drop_max_volts` real;--> statement-breakpoint
 ALTER TABLE `drivers` ADD `drop_max_ohms` real;--> statement-breakpoint
 ALTER TABLE `drivers` ADD `peak_pulse_ms` real;--> statement-breakpoint
 ALTER TABLE `drivers` ADD `package_watts` real;--> statement-breakpoint
-ALTER TABLE `locomotives` ADD `start_volts` real;-- Drivers made from a preset whose drop is still the preset's old single figure take the preset's
+ALTER TABLE `locomotives` ADD `start_volts` real;--> statement-breakpoint
+-- Drivers made from a preset whose drop is still the preset's old single figure take the preset's
 -- drop lines, pulse width and package rating; hand-edited drops stay a flat line (ohms 0).
 UPDATE `drivers` SET `drop_volts` = 1.6, `drop_ohms` = 1.0, `drop_max_volts` = 2.6, `drop_max_ohms` = 1.0, `peak_pulse_ms` = 5, `package_watts` = 2.075
   WHERE `preset_id` = 'bipolar-quad-half-h-1a' AND `drop_volts` = 2.6;--> statement-breakpoint
