@@ -14,6 +14,7 @@ import {
   type FastClock,
   type LoadPoint,
   type LoadProfile,
+  type HeatPoint,
   type LoadSeries,
   type Plan,
   type TimedRun,
@@ -81,7 +82,11 @@ export function runsOf(rows: SessionRows): BuilderRun[] {
 /** The load profile for charts: milliseconds and tenths of a milliamp are plenty, and the answer is smaller. */
 function chartLoad(load: LoadProfile): LoadProfile {
   const series = (list: LoadSeries[]) =>
-    list.map((s) => ({ ...s, points: s.points.map(([t, running, peak]) => [round(t, 3), round(running, 4), round(peak, 4)] as LoadPoint) }));
+    list.map((s) => ({
+      ...s,
+      points: s.points.map(([t, running, peak]) => [round(t, 3), round(running, 4), round(peak, 4)] as LoadPoint),
+      heat: s.heat && { ...s.heat, points: s.heat.points.map(([t, low, high]) => [round(t, 3), round(low, 4), round(high, 4)] as HeatPoint) },
+    }));
   return { supplies: series(load.supplies), drivers: series(load.drivers), cabs: series(load.cabs) };
 }
 
