@@ -1,17 +1,19 @@
 import type { DutyTable } from '@/lib/layouts/power-budget';
 
 /**
- * PWM duty per train, scale speed and cab, from the engine's linear model: speed is taken as
- * proportional to average track voltage, reaching top speed at the rated voltage.
+ * PWM duty per train, scale speed and cab, from the engine's calibrated model (dutyFor): no motion
+ * below the start voltage, then speed in proportion to the voltage above it, reaching top speed at
+ * the rated voltage.
  */
 export function DutyTablesView({ tables }: { tables: DutyTable[] }) {
   if (tables.length === 0) return <p className="text-sm text-muted">Add trains to see the duty they need.</p>;
   return (
     <div className="space-y-3" data-testid="duty-tables">
       <p className="text-sm text-muted">
-        Linear model: a locomotive&apos;s speed is taken as proportional to its average track voltage, reaching its top speed at its rated voltage; PWM gives
-        duty × (supply − bridge drop) on average (NEM 630 Table 2 judges pulsed supplies by their average). Real motors need a starting voltage and slow under
-        load: treat each figure as a first setting to trim by eye. 8-bit value = duty × 255.
+        Calibrated model: a locomotive stands below its start voltage, then its speed grows in proportion to the average track voltage above it, reaching its
+        top speed at its rated voltage (no start voltage entered: from 0 V). PWM gives duty × (supply − bridge drop) on average (NEM 630 Table 2 judges
+        pulsed supplies by their average); the drop is the bridge&apos;s greatest at the train&apos;s running current, and each cab&apos;s heading shows what
+        the rails then get. Motors slow under load: treat each figure as a first setting to trim by eye. 8-bit value = duty × 255.
       </p>
       {tables.map((t) => (
         <details key={t.trainId} className="rounded-plate border border-line p-3" data-testid="duty-table">

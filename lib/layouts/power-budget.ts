@@ -242,8 +242,8 @@ export function powerBudget(input: BudgetInput): PowerBudget {
       messages.push(`All cabs at once could surge to ${a(worstSurge.amps)}, above the driver's ${a(d.totalAmps)} total rating.`);
     }
     if (electrics.packageWatts !== null && heatHighWatts > electrics.packageWatts + 1e-9) {
-      const typical = heatLowWatts > electrics.packageWatts + 1e-9;
-      status = typical ? 'over' : worse(status, 'warning');
+      // A warning, as in the plan check: the package rating holds for one mounting at 25 °C.
+      status = worse(status, 'warning');
       messages.push(
         `With every cab running its heaviest train the bridge dissipates about ${w(heatLowWatts)} to ${w(heatHighWatts)}, above its ${w(electrics.packageWatts)} package rating: add a heat sink or spread the trains over more drivers.`,
       );

@@ -59,7 +59,8 @@ test('a planner builds a small layout, fixes a CSV import by its row number and 
 
   // Rolling stock: a loco by hand, a train, then more locos from CSV.
   await layout.openTab('Rolling stock');
-  await layout.addRow('locomotive', { Name: 'Harbour tank', Running: '0.35', Stall: '0.9', Rated: '12', 'Top speed': '60' });
+  // Calibration: top speed at the rated voltage, and the voltage at which it starts to move (common practice 1.5–3 V).
+  await layout.addRow('locomotive', { Name: 'Harbour tank', Running: '0.35', Stall: '0.9', Rated: '12', 'Top speed at rated': '60', 'Starts moving at': '2' });
   const trainRow = page.getByTestId('train-new-row');
   await trainRow.getByLabel('Add a locomotive to Consist of new train').selectOption({ label: 'Harbour tank' });
   await page.getByLabel('Lengths in').first().selectOption('mm');
@@ -78,7 +79,7 @@ test('a planner builds a small layout, fixes a CSV import by its row number and 
   await expect(layout.csv('locomotives')).toContainText('Imported: 2 new, 0 changed, 0 unchanged.');
   await expect(page.getByTestId('locomotive-row')).toHaveCount(3);
   await page.getByTestId('duty-table').first().locator('summary').click();
-  await expect(page.getByTestId('duty-tables')).toContainText('Linear model');
+  await expect(page.getByTestId('duty-tables')).toContainText('Calibrated model');
   await screenshotBoth(page, 'layouts-stock');
 
   // The power budget traces each figure.
@@ -88,8 +89,10 @@ test('a planner builds a small layout, fixes a CSV import by its row number and 
   await expect(supply).toContainText('2 A × 0.8 = 1.6 A');
   await expect(supply).toContainText('0.37 A (Fish train)');
   const driver = page.getByTestId('driver-budget');
-  // 12 V − 0.6 V drop = 11.4 V, below NEM 630's 12 V for H0.
-  await expect(driver).toContainText('12 V supply − 0.6 V bridge drop = 11.4 V');
+  // TB6612FNG: drop = 0.5 Ω × 0.37 A = 0.185 V, so 12 − 0.185 = 11.815 V at the rails, below NEM 630's 12 V for H0.
+  await expect(driver).toContainText(/12 V supply − 0\.19 V bridge drop at 0\.37 A = 11\.8\d V/);
+  // Its 3.2 A peak holds for a single 10 ms pulse: the 2 s start is judged against 1.2 A.
+  await expect(driver).toContainText('1.2 A continuous');
   await expect(driver).toContainText('Toshiba TB6612FNG datasheet (2014)');
   await screenshotBoth(page, 'layouts-power');
 });

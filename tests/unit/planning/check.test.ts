@@ -89,12 +89,15 @@ describe('checkPlan against brute force', () => {
         );
       });
 
-      it('finds exactly the driver heat intervals, with their severity (drop × current summed over channels)', () => {
+      it('finds exactly the driver heat intervals, and whether even the least drop is over (drop × current summed over channels)', () => {
         const full = (f: OracleFinding | Finding) => `${key(f)}|${f.fromS}|${f.toS}`;
         fc.assert(
           fc.property(plans, (plan) => {
-            const found = checkPlan(plan).findings.filter((f) => f.kind === 'driver-heat').map(full).sort();
-            expect(found).toEqual(oracleHeat(plan).map(full).sort());
+            const found = checkPlan(plan).findings.filter((f) => f.kind === 'driver-heat');
+            const expected = oracleHeat(plan);
+            expect(found.map(full).sort()).toEqual(expected.map(full).sort());
+            const evenLeast = (list: { fromS?: number; ids: string[] }[]) => list.map((f) => `${f.ids[0]}|${f.fromS}`).sort();
+            expect(evenLeast(found.filter((f) => f.message.includes('even at the least drop')))).toEqual(evenLeast(expected.filter((f) => f.lowOver)));
           }),
           RUNS,
         );

@@ -178,9 +178,10 @@ describe('driver heat', () => {
     // Greatest drop (2.6 + 1.0 × 0.5) V × 0.5 A × 2 = 3.1 W.
     const { findings, load } = checkPlan(two([standing('r1', 't1', 'c1', 0, 60), standing('r2', 't2', 'c2', 10, 50, 'C')]));
     const heat = of(findings, 'driver-heat');
-    expect(heat).toMatchObject([{ ids: ['d1'], severity: 'error', fromS: 10, toS: 50, limitWatts: 2.075 }]);
+    expect(heat).toMatchObject([{ ids: ['d1'], severity: 'warning', fromS: 10, toS: 50, limitWatts: 2.075 }]);
     expect(heat[0]!.peakWatts).toBeCloseTo(3.1, 12);
     expect(heat[0]!.message).toContain('2.1 W');
+    expect(heat[0]!.message).toContain('even at the least drop');
     const series = load.drivers[0]!.heat!;
     expect(series.limitWatts).toBe(2.075);
     expect(series.maxLowWatts).toBeCloseTo(2.1, 12);

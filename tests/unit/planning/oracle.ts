@@ -5,6 +5,7 @@
 import type { Plan } from '@/lib/planning';
 
 export interface OracleFinding {
+  lowOver?: boolean;
   kind: string;
   severity: 'error' | 'warning';
   ids: string[];
@@ -226,7 +227,8 @@ export function oracleHeat(plan: Plan): OracleFinding[] {
     const close = () => {
       if (open === null) return;
       const { lowOver, ...finding } = open;
-      out.push({ ...finding, severity: lowOver ? 'error' : 'warning' });
+      // Severity is always a warning; whether even the least drop is over shows in the message.
+      out.push({ ...finding, severity: 'warning', lowOver });
       open = null;
     };
     for (let i = 0; i + 1 < times.length; i++) {
