@@ -31,6 +31,8 @@ export const users = sqliteTable('users', {
   passwordHash: text('password_hash'),
   emailVerifiedAt: integer('email_verified_at', { mode: 'timestamp_ms' }),
   /** Secret for the personal calendar feed; resetting it stops the old URL at once. */
+  /** Raised by a password reset or "sign out everywhere": every session signed before it ends. */
+  sessionVersion: integer('session_version').notNull().default(0),
   calendarToken: text('calendar_token')
     .notNull()
     .unique()
@@ -53,6 +55,19 @@ export const authTokens = sqliteTable(
     createdAt: createdAt(),
   },
   (t) => [index('auth_tokens_user_idx').on(t.userId)],
+);
+
+/** Sessions ended by signing out before their cookie expired (a replayed cookie finds its id here). */
+export const endedSessions = sqliteTable(
+  'ended_sessions',
+  {
+    sessionId: text('session_id').primaryKey(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    expiresAt: integer('expires_at', { mode: 'timestamp_ms' }).notNull(),
+  },
+  (t) => [index('ended_sessions_expires_idx').on(t.expiresAt)],
 );
 
 /** A railway is the tenant: a club or a home layout group. */

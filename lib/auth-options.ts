@@ -2,7 +2,8 @@ import 'server-only';
 import bcrypt from 'bcryptjs';
 import type { NextAuthOptions } from 'next-auth';
 import CredentialsProvider from 'next-auth/providers/credentials';
-import { getUserByEmail, getUserById, markEmailVerified } from '@/db/queries/users';
+import crypto from 'node:crypto';
+import { endSession, getUserByEmail, getUserById, markEmailVerified } from '@/db/queries/users';
 import { clientAddress } from '@/lib/client-key';
 import { assertSignInAllowed, recordSignInFailure, recordSignInSuccess } from '@/lib/sign-in-limits';
 import { spendAuthToken } from '@/lib/tokens';
@@ -40,7 +41,7 @@ export const authOptions: NextAuthOptions = {
           return null;
         }
         recordSignInSuccess(email, client);
-        return { id: user.id, email: user.email, name: user.name };
+        return { id: user.id, email: user.email, name: user.name, sessionVersion: user.sessionVersion };
       },
     }),
     CredentialsProvider({
@@ -53,18 +54,32 @@ export const authOptions: NextAuthOptions = {
         const user = getUserById(userId);
         if (!user) return null;
         markEmailVerified(user.id);
-        return { id: user.id, email: user.email, name: user.name };
+        return { id: user.id, email: user.email, name: user.name, sessionVersion: user.sessionVersion };
       },
     }),
   ],
   callbacks: {
     jwt({ token, user }) {
-      if (user) token.sub = user.id;
+      if (user) {
+        token.sub = user.id;
+        token.sv = user.sessionVersion ?? 0;
+        token.sid = crypto.randomUUID();
+      }
       return token;
     },
     session({ session, token }) {
-      if (session.user && token.sub) session.user.id = token.sub;
+      if (session.user && token.sub) {
+        session.user.id = token.sub;
+        session.user.sessionVersion = token.sv;
+        session.user.sessionId = token.sid;
+      }
       return session;
+    },
+  },
+  events: {
+    // A signed-out cookie replayed later finds its session id among the ended ones.
+    signOut({ token }) {
+      if (token?.sid && token.sub) endSession(token.sid, token.sub, new Date(typeof token.exp === 'number' ? token.exp * 1000 : Date.now() + SESSION_MAX_AGE_S * 1000));
     },
   },
 };

@@ -1,7 +1,7 @@
 import 'server-only';
-import { and, eq, gt, isNull } from 'drizzle-orm';
-import { getDb } from '@/db';
-import { authTokens, users, type User } from '@/db/schema';
+import { and, eq, gt, isNull, lte, sql } from 'drizzle-orm';
+import { getDb, writeTransaction } from '@/db';
+import { authTokens, endedSessions, users, type User } from '@/db/schema';
 
 /** Finds a user by e-mail address (addresses are stored lower-case). */
 export function getUserByEmail(email: string): User | undefined {
@@ -65,4 +65,28 @@ export function consumeAuthToken(tokenHash: string, purpose: 'sign-in' | 'reset-
     .returning({ userId: authTokens.userId })
     .get();
   return row?.userId ?? null;
+}
+
+/**
+ * Ends every session of a user and every sign-in or reset link not used yet: the session version
+ * goes up (cookies carry the one they were signed with) and outstanding tokens count as used.
+ */
+export function endAllSessions(userId: string, now = new Date()): void {
+  writeTransaction((tx) => {
+    tx.update(users).set({ sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, userId)).run();
+    tx.update(authTokens).set({ usedAt: now }).where(and(eq(authTokens.userId, userId), isNull(authTokens.usedAt))).run();
+  });
+}
+
+/** Records that one session was signed out, until its cookie would have expired anyway. */
+export function endSession(sessionId: string, userId: string, expiresAt: Date, now = new Date()): void {
+  const db = getDb();
+  db.delete(endedSessions).where(lte(endedSessions.expiresAt, now)).run();
+  if (!getUserById(userId)) return;
+  db.insert(endedSessions).values({ sessionId, userId, expiresAt }).onConflictDoNothing().run();
+}
+
+/** Whether this session was signed out. */
+export function isSessionEnded(sessionId: string): boolean {
+  return Boolean(getDb().select({ id: endedSessions.sessionId }).from(endedSessions).where(eq(endedSessions.sessionId, sessionId)).get());
 }

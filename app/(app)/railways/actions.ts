@@ -6,7 +6,7 @@ import { z } from 'zod';
 import { listMemberInvitationsFor, takeMemberInvitation } from '@/db/queries/member-invitations';
 import { addMember } from '@/db/queries/memberships';
 import { createRailway as insertRailway, recordAudit } from '@/db/queries/railways';
-import { getUserById } from '@/db/queries/users';
+import { endAllSessions, getUserById } from '@/db/queries/users';
 import { requireUser } from '@/lib/auth';
 import { AppError, notFound, type ActionState, parseOrThrow } from '@/lib/errors';
 import { action } from '@/lib/http';
@@ -41,4 +41,11 @@ export const answerMemberOffer = action(['state', 'form'], async (_prev, formDat
   recordAudit({ railwayId: offer.railwayId, userId: user.id, action: `${input.answer}-offer`, entity: 'member', entityId: user.id, detail: { role: offer.role } });
   revalidatePath('/railways');
   return { ok: true, message: input.answer === 'accept' ? 'You joined the railway.' : 'Invitation declined.' };
+});
+
+/** Ends every session of the signed-in person (this one too) and every sign-in or reset link not used yet. */
+export const signOutEverywhere = action(['state', 'form'], async (): Promise<ActionState> => {
+  const user = await requireUser();
+  endAllSessions(user.id);
+  redirect('/sign-in');
 });

@@ -4,6 +4,7 @@ import { listMemberInvitationsFor } from '@/db/queries/member-invitations';
 import { listRailwaysOfUser } from '@/db/queries/memberships';
 import { CreateRailwayForm } from '@/components/railway/create-railway-form';
 import { MemberOfferRow } from '@/components/railway/member-offer-forms';
+import { SignOutEverywhereForm } from '@/components/account/sign-out-everywhere';
 import { Badge, Card } from '@/components/ui/card';
 import { requireUser } from '@/lib/auth';
 import { ROLE_LABELS } from '@/lib/roles';
@@ -55,10 +56,15 @@ export default async function RailwaysPage() {
           </ul>
         )}
       </div>
-      <Card title="Start a railway">
-        <p className="mb-4 text-sm text-muted">A club or a home layout group. You will be its host.</p>
-        <CreateRailwayForm timeZones={Intl.supportedValuesOf('timeZone')} />
-      </Card>
+      <div className="space-y-6">
+        <Card title="Start a railway">
+          <p className="mb-4 text-sm text-muted">A club or a home layout group. You will be its host.</p>
+          <CreateRailwayForm timeZones={Intl.supportedValuesOf('timeZone')} />
+        </Card>
+        <Card title="Signed-in devices">
+          <SignOutEverywhereForm />
+        </Card>
+      </div>
     </div>
   );
 }

@@ -1,7 +1,7 @@
 'use server';
 
 import bcrypt from 'bcryptjs';
-import { getUserByEmail, markEmailVerified, setPasswordHash } from '@/db/queries/users';
+import { endAllSessions, getUserByEmail, markEmailVerified, setPasswordHash } from '@/db/queries/users';
 import { AppError, type ActionState, parseOrThrow } from '@/lib/errors';
 import { action } from '@/lib/http';
 import { queueResetMail } from '@/lib/mail/account-mail';
@@ -35,5 +35,7 @@ export const resetPassword = action(['state', 'form'], async (_prev, formData): 
   }
   setPasswordHash(userId, passwordHash);
   markEmailVerified(userId);
+  // Whoever held the old password (or a link sent before) is out: every session and token ends.
+  endAllSessions(userId);
   return { ok: true, message: 'Your password is changed. Sign in with it now.' };
 });

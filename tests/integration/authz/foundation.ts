@@ -66,6 +66,14 @@ export const FOUNDATION_CASES: AuthzCase[] = [
     },
     expect: { anon: 401, outsider: 404, operator: 200, planner: 404, host: 404 },
   },
+  {
+    target: 'app/(app)/railways/actions.ts#signOutEverywhere',
+    call: async () => {
+      const { signOutEverywhere } = await import('@/app/(app)/railways/actions');
+      return actionStatus(() => signOutEverywhere(null, formData({})));
+    },
+    expect: signedIn,
+  },
   // Account actions are for people who are not signed in yet: every caller gets the same answer.
   {
     target: 'app/(auth)/sign-in/actions.ts#requestSignInLink',

@@ -61,6 +61,11 @@ export const FOUNDATION_HOSTILE: HostileTarget[] = [
     },
   },
   {
+    target: 'app/(app)/railways/actions.ts#signOutEverywhere',
+    kind: 'exempt',
+    why: 'takes no input: any call by a signed-in person is a valid request that ends their own sessions (tests/integration/session-end.test.ts)',
+  },
+  {
     target: 'app/(auth)/sign-in/actions.ts#requestSignInLink',
     kind: 'action',
     fields: ['email'],
