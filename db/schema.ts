@@ -48,8 +48,11 @@ export const authTokens = sqliteTable(
     userId: text('user_id')
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
-    purpose: text('purpose', { enum: ['sign-in', 'reset-password'] }).notNull(),
+    purpose: text('purpose', { enum: ['sign-in', 'reset-password', 'sign-up'] }).notNull(),
     tokenHash: text('token_hash').notNull().unique(),
+    /** Sign-up only: the chosen password's hash and name, applied when the address's owner confirms. */
+    pendingPasswordHash: text('pending_password_hash'),
+    pendingName: text('pending_name'),
     expiresAt: integer('expires_at', { mode: 'timestamp_ms' }).notNull(),
     usedAt: integer('used_at', { mode: 'timestamp_ms' }),
     createdAt: createdAt(),

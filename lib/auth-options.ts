@@ -3,10 +3,10 @@ import bcrypt from 'bcryptjs';
 import type { NextAuthOptions } from 'next-auth';
 import CredentialsProvider from 'next-auth/providers/credentials';
 import crypto from 'node:crypto';
-import { endSession, getUserByEmail, getUserById, markEmailVerified } from '@/db/queries/users';
+import { completeSignUp, endSession, getUserByEmail, getUserById, markEmailVerified } from '@/db/queries/users';
 import { clientAddress } from '@/lib/client-key';
 import { assertSignInAllowed, recordSignInFailure, recordSignInSuccess } from '@/lib/sign-in-limits';
-import { spendAuthToken } from '@/lib/tokens';
+import { spendAuthToken, spendSignUpToken } from '@/lib/tokens';
 import { signInSchema } from '@/lib/validations/account';
 
 /** Session lifetime: a week, renewed while the user keeps using Fishplate. */
@@ -55,6 +55,18 @@ export const authOptions: NextAuthOptions = {
         if (!user) return null;
         markEmailVerified(user.id);
         return { id: user.id, email: user.email, name: user.name, sessionVersion: user.sessionVersion };
+      },
+    }),
+    CredentialsProvider({
+      id: 'sign-up',
+      name: 'Finish creating an account',
+      credentials: { token: { type: 'text' } },
+      async authorize(credentials) {
+        const pending = spendSignUpToken(String(credentials?.token ?? ''));
+        if (!pending) return null;
+        completeSignUp(pending.userId, pending.passwordHash, pending.name);
+        const user = getUserById(pending.userId);
+        return user ? { id: user.id, email: user.email, name: user.name, sessionVersion: user.sessionVersion } : null;
       },
     }),
   ],

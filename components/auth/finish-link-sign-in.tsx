@@ -7,13 +7,21 @@ import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 
-export function FinishLinkSignIn({ token }: { token: string }) {
+export function FinishLinkSignIn({
+  token,
+  provider = 'link',
+  label = 'Sign in to Fishplate',
+}: {
+  token: string;
+  provider?: 'link' | 'sign-up';
+  label?: string;
+}) {
   const router = useRouter();
   const [state, setState] = useState<'idle' | 'pending' | 'failed'>('idle');
 
   async function finish() {
     setState('pending');
-    const result = await signIn('link', { token, redirect: false });
+    const result = await signIn(provider, { token, redirect: false });
     if (result?.ok) {
       router.push('/railways');
       router.refresh();
@@ -32,7 +40,7 @@ export function FinishLinkSignIn({ token }: { token: string }) {
         <p className="text-muted">Press the button to sign in with the link from your e-mail.</p>
       )}
       <Button onClick={finish} disabled={state === 'pending'} className="w-full">
-        {state === 'pending' ? 'Signing in…' : 'Sign in to Fishplate'}
+        {state === 'pending' ? 'Signing in…' : label}
       </Button>
     </div>
   );

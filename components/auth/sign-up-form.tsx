@@ -1,7 +1,5 @@
 'use client';
 
-import { signIn } from 'next-auth/react';
-import { useRouter } from 'next/navigation';
 import { useState, useTransition } from 'react';
 import { signUp } from '@/app/(auth)/sign-up/actions';
 import { Button } from '@/components/ui/button';
@@ -10,32 +8,28 @@ import { Field, TextInput } from '@/components/ui/field';
 import type { ActionState } from '@/lib/errors';
 
 export function SignUpForm() {
-  const router = useRouter();
   const [state, setState] = useState<ActionState>(null);
   const [pending, startTransition] = useTransition();
   const errors = state && !state.ok ? (state.fieldErrors ?? {}) : {};
 
+  // Submitted by hand (not a form action) so that the fields keep what was typed after an error.
   function onSubmit(event: React.FormEvent<HTMLFormElement>) {
     event.preventDefault();
     const form = new FormData(event.currentTarget);
-    startTransition(async () => {
-      const result = await signUp(null, form);
-      setState(result);
-      if (!result?.ok) return;
-      const signedIn = await signIn('password', {
-        email: String(form.get('email') ?? ''),
-        password: String(form.get('password') ?? ''),
-        redirect: false,
-      });
-      router.push(signedIn?.ok ? '/railways' : '/sign-in');
-      router.refresh();
-    });
+    startTransition(async () => setState(await signUp(null, form)));
   }
 
+  if (state?.ok) {
+    return (
+      <Notice tone="good">
+        <span data-testid="sign-up-sent">{state.message}</span> Follow it to finish: your password works from then
+        on. The link works once, for a day.
+      </Notice>
+    );
+  }
   return (
     <form onSubmit={onSubmit} className="space-y-4" noValidate>
       {state && !state.ok && Object.keys(errors).length === 0 ? <Notice tone="bad">{state.error}</Notice> : null}
-      {state?.ok ? <Notice tone="good">Account created — signing you in…</Notice> : null}
       <Field label="Your name" name="name" error={errors.name}>
         <TextInput name="name" autoComplete="name" required maxLength={80} />
       </Field>

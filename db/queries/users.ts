@@ -39,9 +39,11 @@ export function markEmailVerified(userId: string): void {
 /** Stores the hash of a one-time token. */
 export function insertAuthToken(input: {
   userId: string;
-  purpose: 'sign-in' | 'reset-password';
+  purpose: AuthTokenPurpose;
   tokenHash: string;
   expiresAt: Date;
+  pendingPasswordHash?: string | null;
+  pendingName?: string | null;
 }): void {
   getDb().insert(authTokens).values(input).run();
 }
@@ -50,8 +52,15 @@ export function insertAuthToken(input: {
  * Uses a one-time token: marks it used and returns its user id, in one statement so that two
  * requests racing with the same token cannot both succeed. Expired or used tokens return null.
  */
-export function consumeAuthToken(tokenHash: string, purpose: 'sign-in' | 'reset-password'): string | null {
-  const row = getDb()
+export function consumeAuthToken(tokenHash: string, purpose: AuthTokenPurpose): string | null {
+  return consumeAuthTokenRow(tokenHash, purpose)?.userId ?? null;
+}
+
+export type AuthTokenPurpose = 'sign-in' | 'reset-password' | 'sign-up';
+
+/** As consumeAuthToken, with what a sign-up token carries. */
+export function consumeAuthTokenRow(tokenHash: string, purpose: AuthTokenPurpose) {
+  return getDb()
     .update(authTokens)
     .set({ usedAt: new Date() })
     .where(
@@ -62,9 +71,13 @@ export function consumeAuthToken(tokenHash: string, purpose: 'sign-in' | 'reset-
         gt(authTokens.expiresAt, new Date()),
       ),
     )
-    .returning({ userId: authTokens.userId })
+    .returning({ userId: authTokens.userId, pendingPasswordHash: authTokens.pendingPasswordHash, pendingName: authTokens.pendingName })
     .get();
-  return row?.userId ?? null;
+}
+
+/** Applies a confirmed sign-up: the password and name chosen, and the address proved. */
+export function completeSignUp(userId: string, passwordHash: string, name: string): void {
+  getDb().update(users).set({ passwordHash, name, emailVerifiedAt: new Date() }).where(eq(users.id, userId)).run();
 }
 
 /**

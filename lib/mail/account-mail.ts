@@ -83,3 +83,38 @@ export function queueMembershipOfferMail(input: {
     }),
   });
 }
+
+/** Queues the link that finishes creating an account (nothing is usable until it is followed). */
+export function queueConfirmSignUpMail(to: string, token: string): void {
+  const url = absoluteUrl(`/sign-up/confirm?token=${encodeURIComponent(token)}`);
+  enqueueMail({
+    railwayId: null,
+    dedupeKey: `sign-up:${crypto.randomUUID()}`,
+    kind: 'sign-up',
+    toAddress: to,
+    subject: 'Finish creating your Fishplate account',
+    ...linkMail({
+      intro: 'Someone (we hope you) asked to create a Fishplate account with this address.',
+      action: 'Finish creating my account',
+      url,
+      after: 'The link works once and expires in a day. If you did not ask for it, ignore this message: no account is made.',
+    }),
+  });
+}
+
+/** Tells the owner of an address that someone tried to create a second account with it. */
+export function queueAccountExistsMail(to: string): void {
+  enqueueMail({
+    railwayId: null,
+    dedupeKey: `sign-up-exists:${crypto.randomUUID()}`,
+    kind: 'sign-up-exists',
+    toAddress: to,
+    subject: 'You already have a Fishplate account',
+    ...linkMail({
+      intro: 'Someone (we hope you) tried to create a Fishplate account with this address, which already has one.',
+      action: 'Sign in, or reset your password',
+      url: absoluteUrl('/sign-in'),
+      after: 'Nothing was changed. If it was not you, no action is needed.',
+    }),
+  });
+}

@@ -2,13 +2,19 @@
 
 import bcrypt from 'bcryptjs';
 import { createUser, getUserByEmail } from '@/db/queries/users';
-import { AppError, type ActionState, parseOrThrow } from '@/lib/errors';
+import { type ActionState, parseOrThrow } from '@/lib/errors';
 import { action } from '@/lib/http';
 import { clientAddress } from '@/lib/client-key';
+import { queueAccountExistsMail, queueConfirmSignUpMail } from '@/lib/mail/account-mail';
 import { rateLimit } from '@/lib/rate-limit';
+import { issueSignUpToken } from '@/lib/tokens';
 import { signUpSchema } from '@/lib/validations/account';
 
-/** Creates an account with e-mail and password; the form then signs in with the same details. */
+/**
+ * Starts an account: e-mails a link that finishes it, so the address is proved before any
+ * password works or any membership or invitation can attach (a sign-up in someone else's name gets
+ * nowhere). The answer is the same whether or not the address has an account; its owner is told.
+ */
 export const signUp = action(['state', 'form'], async (_prev, formData): Promise<ActionState> => {
   const input = parseOrThrow(signUpSchema, {
     name: formData.get('name'),
@@ -16,11 +22,15 @@ export const signUp = action(['state', 'form'], async (_prev, formData): Promise
     password: formData.get('password'),
   });
   rateLimit(`sign-up:${await clientAddress()}`, 10, 60 * 60_000);
-  if (getUserByEmail(input.email)) {
-    throw new AppError('conflict', 'That e-mail address already has an account. Sign in instead, or reset the password.', {
-      issues: [{ path: 'email', message: 'That e-mail address already has an account.' }],
-    });
+  rateLimit(`sign-up-address:${input.email}`, 3, 60 * 60_000);
+  const passwordHash = await bcrypt.hash(input.password, 10);
+  const existing = getUserByEmail(input.email);
+  if (existing?.passwordHash) {
+    queueAccountExistsMail(existing.email);
+  } else {
+    // A host may have invited this address already (an account with no password yet).
+    const user = existing ?? createUser({ email: input.email, name: input.name, passwordHash: null });
+    queueConfirmSignUpMail(user.email, issueSignUpToken(user.id, passwordHash, input.name));
   }
-  createUser({ email: input.email, name: input.name, passwordHash: await bcrypt.hash(input.password, 10) });
-  return { ok: true, message: 'Account created.' };
+  return { ok: true, message: `Check ${input.email}: we sent a link there to finish creating your account.` };
 });
