@@ -141,11 +141,11 @@ describe('power budget', () => {
   });
 
   it('judges the driver total rating against the surge of all cabs starting at once, not their running draw', () => {
-    // Running: Double 0.9 + Stopper 0.59 = 1.49 A, inside 2.5 A; surge: Double 1.9 + Light 1.02 = 2.92 A,
+    // Running: Double 0.9 + Stopper 0.59 = 1.49 A, inside 2.2 A; surge: Double 1.3 + Stopper 0.99 = 2.29 A,
     // above it (a start-up surge is judged against the rating it could trip, common practice).
-    const totalRated = layout({ drivers: [{ ...layout().drivers[0]!, totalAmps: 2.5 }] });
+    const totalRated = layout({ drivers: [{ ...layout().drivers[0]!, totalAmps: 2.2 }] });
     const driver = powerBudget(totalRated).drivers[0]!;
-    expect(driver.messages.join(' ')).toMatch(/All cabs at once could surge to 2\.92 A, above the driver's 2\.5 A total rating/);
+    expect(driver.messages.join(' ')).toMatch(/All cabs at once could surge to 2\.29 A, above the driver's 2\.2 A total rating/);
     const roomy = powerBudget(layout({ drivers: [{ ...layout().drivers[0]!, totalAmps: 3 }] })).drivers[0]!;
     expect(roomy.messages.join(' ')).not.toMatch(/total rating/);
   });
