@@ -3,7 +3,11 @@ import type { Plan } from '@/lib/planning';
 /** The plan of issue 10 finding 3, shared by the benchmark and the hostile-input tests. */
 const BLOCKS = ['A', 'B', 'C'];
 
-/** One layout, and `count` identical runs of one train on one cab and operator (the report's plan). */
+/**
+ * One layout, and `count` identical runs on one cab and operator (the report's plan), each of its own
+ * train, all trains hauled by the same locomotive: every pair clashes in every block, on the cab,
+ * the operator and the locomotive.
+ */
 export function identicalRunsPlan(count: number): Plan {
   return {
     version: 1,
@@ -19,11 +23,11 @@ export function identicalRunsPlan(count: number): Plan {
       { a: 'B', b: 'C' },
     ],
     locos: [{ id: 'l1', name: 'Loco', runningAmps: 0.3, stallAmps: 0.9, ratedVolts: 12 }],
-    trains: [{ id: 't1', name: 'Train', locoIds: ['l1'], lightingAmps: 0.05, lengthMm: 1000 }],
+    trains: Array.from({ length: count }, (_, i) => ({ id: `t${i}`, name: `Train ${i}`, locoIds: ['l1'], lightingAmps: 0.05, lengthMm: 1000 })),
     operators: [{ id: 'o1', name: 'Ann' }],
     runs: Array.from({ length: count }, (_, i) => ({
       id: `r${i}`,
-      trainId: 't1',
+      trainId: `t${i}`,
       cabId: 'c1',
       operatorId: 'o1',
       departS: 0,

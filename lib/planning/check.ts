@@ -1,5 +1,6 @@
 import { compareFindings, FINDING_KINDS, orderedPair, type Finding, type FindingKind } from './finding';
-import { countOverlapsInGroups, forEachOverlapInGroups, groupBy, sortByKey } from './intervals';
+import { countOverlapsInGroups, forEachMarkedOverlapInGroups, forEachOverlapInGroups, groupBy, sortByKey } from './intervals';
+import { TIME_TOLERANCE_S } from './rules';
 import { buildLoadProfile, findPowerOverloads, type LoadProfile } from './load';
 import { planNames, withNoun, type PlanNames } from './names';
 import { indexPlan, type PlanIndex } from './plan-index';
@@ -80,14 +81,25 @@ class FindingList {
  * Checks a plan the schema accepted; never throws on one.
  *
  * Finding kinds and their ids (run pairs in ascending string order; intervals half-open):
- * - `block-overlap` (error) `[blockId, runA, runB]`: steps of two runs in one block within the
- *   headway (`a.enterS < b.exitS + headwayS && b.enterS < a.exitS + headwayS`); one per block and
- *   pair of stays, where a run's stay merges its steps in the block that overlap, touch or come
- *   within the headway of each other (so a run that passes a block twice, far apart, can clash
- *   twice with another). fromS..toS is the shared occupancy, or the too-short gap between them.
+ * Times compare with TIME_TOLERANCE_S (1 ms): a clash must last, and a too-short gap fall short
+ * of the headway, by more than that.
+ *
+ * - `block-overlap` (error) `[blockId, runA, runB]`: steps of two trains in one block within the
+ *   headway (`a.enterS < b.exitS + headwayS − 1 ms` and the other way round); one per block and
+ *   pair of stays, where a train's stay merges its steps in the block (of any of its runs) that
+ *   overlap, touch or come within the headway of each other. Runs of one train never clash here.
+ *   The runs named are those whose steps the trains had entered last when the clash began.
+ * - `block-occupied` (error) `[blockId, runA, runB]`: as block-overlap, where one side is a train
+ *   standing in the block between its runs, or before its first run (from the session's start) or
+ *   after its last (to `sessionEndS`); the stand is named by the run before it (the first run for
+ *   the wait before it). A retime cannot clear these: a train standing all session needs another
+ *   route or block.
+ * - `loco-in-two-trains` (error) `[locoId, trainA, trainB]`: see findLocoInTwoTrains.
+ * - `step-gap` (error) `[runId, blockA, blockB]`: a run's step begins more than 1 ms after the
+ *   step before it ended.
  * - `cab-double-booked`, `operator-double-booked`, `train-double-booked` (errors)
- *   `[cabId | operatorId | trainId, runA, runB]`: movements `[departS, arriveS)` overlap; fromS..toS
- *   is the overlap.
+ *   `[cabId | operatorId | trainId, runA, runB]`: movements `[departS, arriveS)` overlap by more
+ *   than 1 ms; fromS..toS is the overlap. Two runs of one train that overlap are this finding only.
  * - `train-continuity` (warning) `[trainId, earlierRun, laterRun]`: consecutive runs of a train
  *   (by departS, ties by run id) where the later one starts away from where the earlier one ended.
  * - `route-gap` (error) `[runId, blockA, blockB]`: consecutive steps in different blocks that no
@@ -112,15 +124,17 @@ export function checkPlan(plan: Plan, options: CheckOptions = {}): PlanCheck {
   const list = new FindingList(options.maxPerKind ?? FINDING_LIMITS.perKind);
   const index = indexPlan(plan);
   const names = planNames(plan);
-  findBlockOverlaps(plan, index, names, list);
+  const sessionEnd = findBlockClashes(plan, index, names, list);
   inBudget();
   findDoubleBookings(plan, index.runCab, plan.cabs, 'cab-double-booked', (id) => withNoun('cab', names.cab(id)), names, list);
   findDoubleBookings(plan, index.runOperator, plan.operators, 'operator-double-booked', names.operator, names, list);
   findDoubleBookings(plan, index.runTrain, plan.trains, 'train-double-booked', (id) => withNoun('train', names.train(id)), names, list);
   inBudget();
   const shapes: Finding[] = [];
+  findLocoInTwoTrains(plan, index, names, sessionEnd, list);
   findContinuityBreaks(plan, index, names, shapes);
   findRouteGaps(plan, index, names, shapes);
+  findStepGaps(plan, names, shapes);
   findTooLong(plan, index, names, shapes);
   inBudget();
   const load = buildLoadProfile(plan, index);
@@ -136,78 +150,186 @@ export function checkPlan(plan: Plan, options: CheckOptions = {}): PlanCheck {
 }
 
 /**
- * A run's stays in the blocks: its steps in one block merged where they overlap, touch or come
- * within the headway of each other, so that two stays of one run in a block are always more than
- * the headway apart. `reach` is the stay's end plus the headway: two stays clash exactly when their
- * `[enter, reach)` intervals overlap (a.enter < b.exit + h && b.enter < a.exit + h).
+ * Where each train is over the whole session, block by block. A train occupies a block from the
+ * session's start (the block its first run departs from) to the session's end (the block its last
+ * run stops in), and between two runs it holds the block it stands in. So the occupancy has two
+ * parts: stays, a train's steps in one block merged where they overlap, touch or come within the
+ * headway of each other (so two stays of one train in a block are always more than the headway
+ * apart); and stands, the time a train waits between its runs and before the first and after the
+ * last, which no step covers. An interval clashes with another train's when their
+ * `[enter, reach)` overlap, reach = exit + headway − TIME_TOLERANCE_S.
  */
-function stays(plan: Plan, index: PlanIndex) {
+function occupancy(plan: Plan, index: PlanIndex) {
   const headway = plan.rules.headwayS;
-  const { stepEnter, stepExit, stepBlock, stepRun } = index;
-  // By block, then run, then entry: each run's steps in one block are then side by side.
-  const order = Array.from({ length: stepEnter.length }, (_, k) => k).sort(
-    (x, y) => stepBlock[x]! - stepBlock[y]! || stepRun[x]! - stepRun[y]! || stepEnter[x]! - stepEnter[y]! || x - y,
+  const { stepEnter, stepExit, stepBlock, stepRun, stepStart } = index;
+  const trainCount = plan.trains.length;
+  // A run whose train is unknown (only in a plan the schema never saw) is an owner of its own.
+  const ownerOfRun = (r: number) => (index.runTrain[r]! >= 0 ? index.runTrain[r]! : trainCount + r);
+  const stepOrder = Array.from({ length: stepEnter.length }, (_, k) => k).sort(
+    (x, y) =>
+      stepBlock[x]! - stepBlock[y]! ||
+      ownerOfRun(stepRun[x]!) - ownerOfRun(stepRun[y]!) ||
+      stepEnter[x]! - stepEnter[y]! ||
+      x - y,
   );
   const block: number[] = [];
-  const run: number[] = [];
+  const owner: number[] = [];
   const enter: number[] = [];
   const exit: number[] = [];
   const reach: number[] = [];
-  for (const k of order) {
+  /** Stays: their steps are stepOrder[from[i]] .. stepOrder[to[i] − 1]; stands: from[i] = −1 − run. */
+  const from: number[] = [];
+  const to: number[] = [];
+  const push = (b: number, o: number, e: number, x: number, f: number, t: number) => {
+    block.push(b);
+    owner.push(o);
+    enter.push(e);
+    exit.push(x);
+    reach.push(x + headway - TIME_TOLERANCE_S);
+    from.push(f);
+    to.push(t);
+  };
+  for (let i = 0; i < stepOrder.length; i++) {
+    const k = stepOrder[i]!;
     const b = stepBlock[k]!;
     if (b < 0) continue;
+    const o = ownerOfRun(stepRun[k]!);
     const last = block.length - 1;
-    if (last >= 0 && block[last] === b && run[last] === stepRun[k] && stepEnter[k]! <= reach[last]!) {
+    if (last >= 0 && block[last] === b && owner[last] === o && stepEnter[k]! <= exit[last]! + headway) {
       if (stepExit[k]! > exit[last]!) {
         exit[last] = stepExit[k]!;
-        reach[last] = stepExit[k]! + headway;
+        reach[last] = stepExit[k]! + headway - TIME_TOLERANCE_S;
       }
+      to[last] = i + 1;
       continue;
     }
-    block.push(b);
-    run.push(stepRun[k]!);
-    enter.push(stepEnter[k]!);
-    exit.push(stepExit[k]!);
-    reach.push(stepExit[k]! + headway);
+    push(b, o, stepEnter[k]!, stepExit[k]!, i, i + 1);
   }
-  return { block, run, enter, exit, reach };
+  const stayCount = block.length;
+
+  // Stands, train by train in departure order.
+  let sessionEnd = plan.sessionEndS ?? -Infinity;
+  if (plan.sessionEndS === undefined) for (const x of stepExit) if (x > sessionEnd) sessionEnd = x;
+  const { items, offsets } = groupBy(index.runTrain, trainCount);
+  for (let t = 0; t < trainCount; t++) {
+    const runs = sortRunsByDeparture(plan, Array.from(items.subarray(offsets[t]!, offsets[t + 1]!)));
+    const stand = (r: number, at: number, fromS: number, toS: number) => {
+      const b = stepBlock[at]!;
+      if (b >= 0 && toS - fromS > TIME_TOLERANCE_S) push(b, t, fromS, toS, -1 - r, -1);
+    };
+    runs.forEach((r, i) => {
+      const firstStep = stepStart[r]!;
+      const lastStep = stepStart[r + 1]! - 1;
+      if (i === 0) stand(r, firstStep, Math.min(0, stepEnter[firstStep]!), stepEnter[firstStep]!);
+      const next = runs[i + 1];
+      if (next !== undefined) stand(r, lastStep, stepExit[lastStep]!, stepEnter[stepStart[next]!]!);
+      else stand(r, lastStep, stepExit[lastStep]!, sessionEnd);
+    });
+  }
+  const isStand = Uint8Array.from(from, (f) => (f < 0 ? 1 : 0));
+  // An interval shorter than the tolerance (with no headway) can clash with nothing.
+  const group = Int32Array.from(block, (b, i) => (reach[i]! > enter[i]! ? b : -1));
+
+  /** The run an interval speaks for at time `atS`: a stand's own, or the stay's step entered last by then. */
+  const runAt = (i: number, atS: number): number => {
+    if (from[i]! < 0) return -1 - from[i]!;
+    let lo = from[i]!;
+    let hi = to[i]! - 1;
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (stepEnter[stepOrder[mid]!]! <= atS) lo = mid;
+      else hi = mid - 1;
+    }
+    return stepRun[stepOrder[lo]!]!;
+  };
+  return { block, owner, enter, exit, reach, group, isStand, stayCount, runAt, sessionEnd };
+}
+
+type Occupancy = ReturnType<typeof occupancy>;
+
+/** A gap as people read it: to the millisecond, never rounded up (29.9995 s is "29.999 s"). */
+function formatGap(seconds: number): string {
+  return `${Math.floor(seconds * 1000 + 1e-6) / 1000} s`;
+}
+
+/** The shared time of two intervals, or the too-short gap between them. */
+function meeting(occ: Occupancy, p: number, q: number) {
+  const lastIn = Math.max(occ.enter[p]!, occ.enter[q]!);
+  const firstOut = Math.min(occ.exit[p]!, occ.exit[q]!);
+  const shared = lastIn < firstOut;
+  return { shared, lastIn, fromS: Math.min(lastIn, firstOut), toS: Math.max(lastIn, firstOut) };
 }
 
 /**
- * Block overlaps, one finding per block and pair of stays (see stays). All are counted in
- * O(n log n); only as many as the list has room for are found, in order of the later stay's entry.
+ * `block-overlap` between two trains' stays and `block-occupied` where a stand is one side, one
+ * finding per block and pair. All are counted in O(n log n); only as many as the list has room for
+ * are found, in order of the later interval's entry.
  */
-function findBlockOverlaps(plan: Plan, index: PlanIndex, names: PlanNames, list: FindingList): void {
+function findBlockClashes(plan: Plan, index: PlanIndex, names: PlanNames, list: FindingList): number {
   const headway = plan.rules.headwayS;
-  const stay = stays(plan, index);
+  const occ = occupancy(plan, index);
   const blockCount = plan.blocks.length;
-  const total = countOverlapsInGroups(stay.block, blockCount, stay.enter, stay.reach).reduce((a, b) => a + b, 0);
-  let room = list.room('block-overlap');
-  if (room > 0 && total > 0) {
-    const order = sortByKey(Array.from({ length: stay.block.length }, (_, i) => i), stay.enter);
-    forEachOverlapInGroups(order, stay.block, blockCount, stay.enter, stay.reach, (p, q) => {
-      const lastIn = Math.max(stay.enter[p]!, stay.enter[q]!);
-      const firstOut = Math.min(stay.exit[p]!, stay.exit[q]!);
-      const shared = lastIn < firstOut;
-      const fromS = Math.min(lastIn, firstOut);
-      const toS = Math.max(lastIn, firstOut);
-      const runP = stay.run[p]!;
-      const runQ = stay.run[q]!;
-      const blockId = plan.blocks[stay.block[p]!]!.id;
-      const [runA, runB] = orderedPair(plan.runs[runP]!.id, plan.runs[runQ]!.id);
+  const sum = (values: number[]) => values.reduce((a, b) => a + b, 0);
+  const stayGroup = occ.group.map((g, i) => (occ.isStand[i] ? -1 : g));
+  const stayPairs = sum(countOverlapsInGroups(stayGroup, blockCount, occ.enter, occ.reach));
+  // Pairs of one train (a stand and its own stays) never clash: count them to take them off.
+  const ownerGroupOf = new Map<number, number>();
+  const ownerGroup = occ.group.map((g, i) => {
+    if (g < 0) return -1;
+    const key = g * (plan.trains.length + plan.runs.length) + occ.owner[i]!;
+    let id = ownerGroupOf.get(key);
+    if (id === undefined) ownerGroupOf.set(key, (id = ownerGroupOf.size));
+    return id;
+  });
+  const samePairs = sum(countOverlapsInGroups(ownerGroup, ownerGroupOf.size, occ.enter, occ.reach));
+  const allPairs = sum(countOverlapsInGroups(occ.group, blockCount, occ.enter, occ.reach));
+  const order = sortByKey(Array.from({ length: occ.block.length }, (_, i) => i), occ.enter);
+
+  const describe = (p: number, q: number, kind: 'block-overlap' | 'block-occupied') => {
+    const m = meeting(occ, p, q);
+    const runP = occ.runAt(p, m.lastIn);
+    const runQ = occ.runAt(q, m.lastIn);
+    const blockId = plan.blocks[occ.block[p]!]!.id;
+    const [runA, runB] = orderedPair(plan.runs[runP]!.id, plan.runs[runQ]!.id);
+    const block = withNoun('block', names.block(blockId));
+    const apart = `only ${formatGap(m.toS - m.fromS)} apart (${names.span(m.fromS, m.toS)}); the headway is ${headway} s`;
+    let message: string;
+    if (kind === 'block-overlap') {
       // Ids stay in string order; the message names the earlier departure first, as people read it.
       const [early, late] = earlierFirst(plan, runP, runQ);
       const both = `${names.run(early)} and ${names.run(late)}`;
-      const block = withNoun('block', names.block(blockId));
-      const message = shared
-        ? `${both} are both in ${block} ${names.span(fromS, toS)}`
-        : `${both} pass through ${block} only ${round1(toS - fromS)} s apart ` +
-          `(${names.span(fromS, toS)}); the headway is ${headway} s`;
-      list.add({ kind: 'block-overlap', severity: 'error', ids: [blockId, runA, runB], fromS, toS, message });
+      message = m.shared ? `${both} are both in ${block} ${names.span(m.fromS, m.toS)}` : `${both} pass through ${block} ${apart}`;
+    } else {
+      const [stand, other] = occ.isStand[p] ? [p, q] : [q, p];
+      const standing = withNoun('train', names.train(plan.trains[occ.owner[stand]!]?.id ?? ''));
+      const waits = `${standing} stands in ${block} ${names.span(occ.enter[stand]!, occ.exit[stand]!)}, between its runs or at the session's start or end`;
+      const otherRun = names.run(plan.runs[other === p ? runP : runQ]!.id);
+      const does = occ.isStand[other] ? `${withNoun('train', names.train(plan.trains[occ.owner[other]!]?.id ?? ''))} stands there too` : `${otherRun} runs through it`;
+      message = m.shared ? `${waits}; ${does} ${names.span(m.fromS, m.toS)}` : `${waits}; ${does} ${apart}`;
+    }
+    return { kind, severity: 'error' as const, ids: [blockId, runA, runB], fromS: m.fromS, toS: m.toS, message };
+  };
+
+  let room = list.room('block-overlap');
+  if (room > 0 && stayPairs > 0) {
+    forEachOverlapInGroups(order, stayGroup, blockCount, occ.enter, occ.reach, (p, q) => {
+      list.add(describe(p, q, 'block-overlap'));
       return --room > 0;
     });
   }
-  list.countAll('block-overlap', total, 'error');
+  list.countAll('block-overlap', stayPairs, 'error');
+
+  const occupiedPairs = allPairs - stayPairs - samePairs;
+  room = list.room('block-occupied');
+  if (room > 0 && occupiedPairs > 0) {
+    forEachMarkedOverlapInGroups(order, occ.group, blockCount, occ.isStand, occ.enter, occ.reach, (p, q) => {
+      if (occ.owner[p] === occ.owner[q]) return true;
+      list.add(describe(p, q, 'block-occupied'));
+      return --room > 0;
+    });
+  }
+  list.countAll('block-occupied', occupiedPairs, 'error');
+  return occ.sessionEnd;
 }
 
 function findDoubleBookings(
@@ -222,12 +344,15 @@ function findDoubleBookings(
   const runs = plan.runs;
   const depart = Float64Array.from(runs, (run) => run.departS);
   const arrive = Float64Array.from(runs, (run) => run.arriveS);
-  const total = countOverlapsInGroups(runOwner, owners.length, depart, arrive).reduce((a, b) => a + b, 0);
+  // Two movements clash when they share more than the tolerance: [departS, arriveS − tolerance).
+  const until = Float64Array.from(runs, (run) => run.arriveS - TIME_TOLERANCE_S);
+  const owner = Int32Array.from(runOwner, (o, r) => (until[r]! > depart[r]! ? o : -1));
+  const total = countOverlapsInGroups(owner, owners.length, depart, until).reduce((a, b) => a + b, 0);
   let room = list.room(kind);
   if (room > 0 && total > 0) {
     const order = sortByKey(Array.from({ length: runs.length }, (_, r) => r), depart);
-    forEachOverlapInGroups(order, runOwner, owners.length, depart, arrive, (p, q) => {
-      const ownerId = owners[runOwner[p]!]!.id;
+    forEachOverlapInGroups(order, owner, owners.length, depart, until, (p, q) => {
+      const ownerId = owners[owner[p]!]!.id;
       const [runA, runB] = orderedPair(runs[p]!.id, runs[q]!.id);
       const fromS = Math.max(depart[p]!, depart[q]!);
       const toS = Math.min(arrive[p]!, arrive[q]!);
@@ -243,6 +368,96 @@ function findDoubleBookings(
     });
   }
   list.countAll(kind, total, 'error');
+}
+
+/**
+ * `loco-in-two-trains` `[locoId, trainA, trainB]` (error): a locomotive in the consists of two
+ * trains that are on the track at the same moment. A train with runs is on the track from the
+ * session's start (or its first step, if earlier) to the session's end.
+ */
+function findLocoInTwoTrains(plan: Plan, index: PlanIndex, names: PlanNames, sessionEnd: number, list: FindingList): void {
+  const firstEnter = new Float64Array(plan.trains.length).fill(Infinity);
+  const lastExit = new Float64Array(plan.trains.length).fill(-Infinity);
+  for (let r = 0; r < plan.runs.length; r++) {
+    const t = index.runTrain[r]!;
+    if (t < 0) continue;
+    const first = index.stepEnter[index.stepStart[r]!]!;
+    const last = index.stepExit[index.stepStart[r + 1]! - 1]!;
+    if (first < firstEnter[t]!) firstEnter[t] = first;
+    if (last > lastExit[t]!) lastExit[t] = last;
+  }
+  const locoOf = new Map(plan.locos.map((loco, i) => [loco.id, i]));
+  const loco: number[] = [];
+  const train: number[] = [];
+  const start: number[] = [];
+  const end: number[] = [];
+  plan.trains.forEach((t, i) => {
+    if (firstEnter[i] === Infinity) return;
+    for (const locoId of new Set(t.locoIds)) {
+      const l = locoOf.get(locoId);
+      if (l === undefined) continue;
+      loco.push(l);
+      train.push(i);
+      start.push(Math.min(0, firstEnter[i]!));
+      end.push(Math.max(sessionEnd, lastExit[i]!) - TIME_TOLERANCE_S);
+    }
+  });
+  const group = Int32Array.from(loco, (l, i) => (end[i]! > start[i]! ? l : -1));
+  const total = countOverlapsInGroups(group, plan.locos.length, start, end).reduce((a, b) => a + b, 0);
+  let room = list.room('loco-in-two-trains');
+  if (room > 0 && total > 0) {
+    const order = sortByKey(Array.from({ length: loco.length }, (_, i) => i), start);
+    forEachOverlapInGroups(order, group, plan.locos.length, start, end, (p, q) => {
+      const locoId = plan.locos[loco[p]!]!.id;
+      const [trainA, trainB] = orderedPair(plan.trains[train[p]!]!.id, plan.trains[train[q]!]!.id);
+      const fromS = Math.max(start[p]!, start[q]!);
+      const toS = Math.min(end[p]!, end[q]!) + TIME_TOLERANCE_S;
+      list.add({
+        kind: 'loco-in-two-trains',
+        severity: 'error',
+        ids: [locoId, trainA, trainB],
+        fromS,
+        toS,
+        message:
+          `${withNoun('locomotive', names.loco(locoId))} is in ${withNoun('train', names.train(trainA))} and ` +
+          `${withNoun('train', names.train(trainB))}, which are both on the track ${names.span(fromS, toS)}`,
+      });
+      return --room > 0;
+    });
+  }
+  list.countAll('loco-in-two-trains', total, 'error');
+}
+
+/** `step-gap` `[runId, blockA, blockB]` (error): a run's next step begins after its step before ended. */
+function findStepGaps(plan: Plan, names: PlanNames, findings: Finding[]): void {
+  for (const run of plan.runs) {
+    for (let j = 1; j < run.steps.length; j++) {
+      const before = run.steps[j - 1]!;
+      const after = run.steps[j]!;
+      const gap = after.enterS - before.exitS;
+      if (!(gap > TIME_TOLERANCE_S)) continue;
+      findings.push({
+        kind: 'step-gap',
+        severity: 'error',
+        ids: [run.id, before.blockId, after.blockId],
+        fromS: before.exitS,
+        toS: after.enterS,
+        message:
+          `${names.run(run.id)} leaves ${withNoun('block', names.block(before.blockId))} ${formatGap(gap)} before it enters ` +
+          `${withNoun('block', names.block(after.blockId))}: between them the train is nowhere`,
+      });
+    }
+  }
+}
+
+/** Runs (indices) by departS, ties by run id: the order a train runs them. */
+function sortRunsByDeparture(plan: Plan, runs: number[]): number[] {
+  return runs.sort((a, b) => {
+    const x = plan.runs[a]!;
+    const y = plan.runs[b]!;
+    if (x.departS !== y.departS) return x.departS - y.departS;
+    return x.id < y.id ? -1 : x.id > y.id ? 1 : 0;
+  });
 }
 
 function findContinuityBreaks(plan: Plan, index: PlanIndex, names: PlanNames, findings: Finding[]): void {
@@ -349,6 +564,3 @@ function earlierFirst(plan: Plan, a: number, b: number): [string, string] {
   return x.departS < y.departS || (x.departS === y.departS && x.id < y.id) ? [x.id, y.id] : [y.id, x.id];
 }
 
-function round1(value: number): number {
-  return Math.round(value * 10) / 10;
-}

@@ -1,11 +1,14 @@
 /** The kinds of finding checkPlan reports. */
 export type FindingKind =
   | 'block-overlap'
+  | 'block-occupied'
   | 'cab-double-booked'
   | 'operator-double-booked'
   | 'train-double-booked'
+  | 'loco-in-two-trains'
   | 'train-continuity'
   | 'route-gap'
+  | 'step-gap'
   | 'train-too-long'
   | 'channel-overload'
   | 'channel-peak-overload'
@@ -20,11 +23,14 @@ export type FindingKind =
 /** Every finding kind, in the order findings are listed when they start at the same time. */
 export const FINDING_KINDS: readonly FindingKind[] = [
   'block-overlap',
+  'block-occupied',
   'cab-double-booked',
   'operator-double-booked',
   'train-double-booked',
+  'loco-in-two-trains',
   'train-continuity',
   'route-gap',
+  'step-gap',
   'train-too-long',
   'channel-overload',
   'channel-peak-overload',

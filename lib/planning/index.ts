@@ -62,6 +62,6 @@ export { SCALES, findScale, gaugeForScale } from './scales';
 export type { ScaleEntry } from './scales';
 export { DRIVER_PRESETS, findDriverPreset, driverFromPreset } from './presets';
 export type { DriverPreset } from './presets';
-export { defaultRules, AMPS_TOLERANCE, VOLTS_TOLERANCE } from './rules';
+export { defaultRules, AMPS_TOLERANCE, VOLTS_TOLERANCE, TIME_TOLERANCE_S } from './rules';
 export { indexPlan } from './plan-index';
 export type { PlanIndex } from './plan-index';

@@ -59,6 +59,50 @@ export function forEachOverlapInGroups(
 }
 
 /**
+ * forEachOverlapInGroups for the pairs in which at least one interval is `marked`: an unmarked
+ * interval is only compared with the marked ones active when it starts, so the work stays
+ * O(n + pairs visited) however many unmarked intervals overlap each other.
+ */
+export function forEachMarkedOverlapInGroups(
+  order: ArrayLike<number>,
+  group: ArrayLike<number>,
+  groups: number,
+  marked: ArrayLike<number>,
+  start: ArrayLike<number>,
+  end: ArrayLike<number>,
+  visit: (earlier: number, later: number) => boolean,
+): void {
+  const activeMarked: (number[] | undefined)[] = new Array(groups);
+  const activePlain: (number[] | undefined)[] = new Array(groups);
+  const keepActive = (list: number[], from: number) => {
+    let kept = 0;
+    for (let i = 0; i < list.length; i++) {
+      const other = list[i]!;
+      if (end[other]! > from) list[kept++] = other;
+    }
+    list.length = kept;
+  };
+  for (let k = 0; k < order.length; k++) {
+    const current = order[k]!;
+    const g = group[current]!;
+    if (g < 0) continue;
+    const from = start[current]!;
+    const marks = (activeMarked[g] ??= []);
+    const plain = (activePlain[g] ??= []);
+    keepActive(marks, from);
+    for (const other of marks) if (!visit(other, current)) return;
+    if (marked[current]) {
+      // Only now is the plain list swept: what stays in it is visited, what leaves it leaves once.
+      keepActive(plain, from);
+      for (const other of plain) if (!visit(other, current)) return;
+      marks.push(current);
+    } else {
+      plain.push(current);
+    }
+  }
+}
+
+/**
  * How many pairs of the same group overlap (half-open intervals, each with start < end), without
  * listing them: O(n log n) however many pairs there are. In start order, interval i overlaps every
  * earlier one except those that ended by its start, and an interval that ended by i's start began

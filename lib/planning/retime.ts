@@ -24,7 +24,8 @@ export interface RetimeOptions {
 
 /**
  * Delays that clear every `block-overlap`, `cab-double-booked`, `operator-double-booked` and
- * `train-double-booked` finding once applied (shift the run's departS, arriveS and all steps by
+ * `train-double-booked` finding once applied (not `block-occupied`: a standing train is not moved
+ * by a delay) (shift the run's departS, arriveS and all steps by
  * delayS), keep each train's runs in order (a later run departs no earlier than the earlier one
  * arrives), and delay no more in total than the baseline greedy. One entry per moved run, in plan
  * order.
@@ -123,7 +124,8 @@ function keepTrainOrder(index: PlanIndex, trainOrder: readonly number[], order: 
 function placeGreedily(plan: Plan, index: PlanIndex, order: readonly number[], fixed: Uint8Array): Float64Array {
   const headway = plan.rules.headwayS;
   const runs = plan.runs;
-  const blockTaken = new Map<number, IntervalUnion>();
+  // Per block, per train: a train's own runs never clash with each other in a block.
+  const blockTaken = new Map<number, Map<number, IntervalUnion>>();
   const cabTaken = new Map<number, IntervalUnion>();
   const operatorTaken = new Map<number, IntervalUnion>();
   const trainFreeAt = new Map<number, number>();
@@ -167,12 +169,15 @@ function placeGreedily(plan: Plan, index: PlanIndex, order: readonly number[], f
       }
       for (let k = firstStep; k < endStep; k++) {
         const block = stepBlock[k]!;
-        const set = block >= 0 ? blockTaken.get(block) : undefined;
-        if (set === undefined) continue;
-        const end = set.overlapEnd(stepEnter[k]! + delay, stepExit[k]! + delay + headway);
-        if (end !== -Infinity) {
-          delay = shiftReaching(stepEnter[k]!, end);
-          moved = true;
+        const trains = block >= 0 ? blockTaken.get(block) : undefined;
+        if (trains === undefined) continue;
+        for (const [other, set] of trains) {
+          if (other === train) continue;
+          const end = set.overlapEnd(stepEnter[k]! + delay, stepExit[k]! + delay + headway);
+          if (end !== -Infinity) {
+            delay = shiftReaching(stepEnter[k]!, end);
+            moved = true;
+          }
         }
       }
     }
@@ -182,7 +187,10 @@ function placeGreedily(plan: Plan, index: PlanIndex, order: readonly number[], f
     if (operator >= 0) taken(operatorTaken, operator).add(depart + delay, arrive + delay);
     for (let k = firstStep; k < endStep; k++) {
       const block = stepBlock[k]!;
-      if (block >= 0) taken(blockTaken, block).add(stepEnter[k]! + delay, stepExit[k]! + delay + headway);
+      if (block < 0) continue;
+      let trains = blockTaken.get(block);
+      if (trains === undefined) blockTaken.set(block, (trains = new Map()));
+      taken(trains, train).add(stepEnter[k]! + delay, stepExit[k]! + delay + headway);
     }
     const arrival = arrive + delay;
     if (freeAt === undefined || arrival > freeAt) trainFreeAt.set(train, arrival);

@@ -12,3 +12,9 @@ export const AMPS_TOLERANCE = 1e-9;
 
 /** Voltages within this many volts of a rating count as within it. */
 export const VOLTS_TOLERANCE = 1e-9;
+
+/**
+ * Two times closer than this (1 ms) count as the same time: a clash must be longer, and a gap
+ * wider, than this, so that rounding in sums of seconds (5.5e-17 s) never makes a finding.
+ */
+export const TIME_TOLERANCE_S = 0.001;

@@ -147,6 +147,11 @@ const planShape = z.object({
   trains: listOf(trainSchema),
   operators: listOf(operatorSchema),
   runs: listOf(runSchema, PLAN_LIMITS.runs),
+  /**
+   * When the session ends, real seconds from its start: every train holds the block it last
+   * stopped in until then. Absent: the latest time in the plan.
+   */
+  sessionEndS: seconds.optional(),
 });
 
 type PlanShape = z.infer<typeof planShape>;

@@ -24,6 +24,7 @@ export function highlightOf(finding: Finding, runs: readonly RunLike[], layout: 
   };
   switch (finding.kind) {
     case 'block-overlap':
+    case 'block-occupied':
       if (a) h.blockIds.add(a);
       [b, c].forEach((id) => id && h.runIds.add(id));
       break;
@@ -36,7 +37,11 @@ export function highlightOf(finding: Finding, runs: readonly RunLike[], layout: 
     case 'train-continuity':
       [b, c].forEach((id) => id && h.runIds.add(id));
       break;
+    case 'loco-in-two-trains':
+      for (const run of runs) if (run.trainId === b || run.trainId === c) h.runIds.add(run.id);
+      break;
     case 'route-gap':
+    case 'step-gap':
       if (a) h.runIds.add(a);
       [b, c].forEach((id) => id && h.blockIds.add(id));
       break;
@@ -89,11 +94,14 @@ export const TIMING_KINDS: ReadonlySet<Finding['kind']> = new Set([
 
 export const FINDING_LABELS: Record<Finding['kind'], string> = {
   'block-overlap': 'Block clash',
+  'block-occupied': 'Block held by a standing train',
   'cab-double-booked': 'Cab booked twice',
   'operator-double-booked': 'Operator booked twice',
   'train-double-booked': 'Train booked twice',
+  'loco-in-two-trains': 'Locomotive in two trains',
   'train-continuity': 'Train not where it ended',
   'route-gap': 'Route gap',
+  'step-gap': 'Gap between steps',
   'train-too-long': 'Train longer than block',
   'channel-overload': 'Channel overload',
   'channel-peak-overload': 'Start-up surge overload',

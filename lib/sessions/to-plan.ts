@@ -68,6 +68,8 @@ export function sessionToPlan(rows: SessionRows): Plan {
   });
   return {
     ...base,
+    // Every train holds the block it last stopped in until the session ends.
+    sessionEndS: (rows.session.endsAt.getTime() - rows.session.startsAt.getTime()) / 1000,
     runs: rows.runs.map((r) => ({
       id: r.id,
       trainId: r.trainId,

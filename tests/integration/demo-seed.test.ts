@@ -50,7 +50,12 @@ describe('demo railway seed', () => {
     expect(parsed.success).toBe(true);
     if (!parsed.success) return;
     const kinds = new Set(checkPlan(parsed.data).findings.filter((f) => f.severity === 'error').map((f) => f.kind));
-    expect(kinds).toEqual(new Set(['block-overlap', 'cab-double-booked', 'channel-overload', 'channel-peak-overload']));
+    // The three deliberate clashes, and what the whole session's occupancy (issue 12) finds in a
+    // timetable written before it: trains standing between runs in blocks others use, and the
+    // freight diesel in both the goods and the stone train.
+    expect(kinds).toEqual(
+      new Set(['block-overlap', 'block-occupied', 'loco-in-two-trains', 'cab-double-booked', 'channel-overload', 'channel-peak-overload']),
+    );
   });
 
   it('demo sessions always start on a Saturday at least two days ahead', () => {

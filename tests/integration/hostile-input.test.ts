@@ -193,7 +193,7 @@ describe('hostile plans (issue 10)', () => {
     expect(answer.counts['block-overlap']).toBe(3 * pairs);
     expect(answer.counts['cab-double-booked']).toBe(pairs);
     expect(answer.counts['operator-double-booked']).toBe(pairs);
-    expect(answer.counts['train-double-booked']).toBe(pairs);
+    expect(answer.counts['loco-in-two-trains']).toBe(pairs);
     expect(answer.errors).toBeGreaterThanOrEqual(6 * pairs);
   }, 120_000);
 

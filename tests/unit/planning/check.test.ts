@@ -17,6 +17,7 @@ import {
   loadAt,
   oracleClashes,
   oracleContinuityAndRoutes,
+  oracleStepGaps,
   oracleHeat,
   oraclePower,
   oracleSpeed,
@@ -29,8 +30,8 @@ const key = (f: OracleFinding | Finding) => `${f.kind}|${f.severity}|${f.ids.joi
 const keysOf = (findings: readonly (OracleFinding | Finding)[], kinds: readonly string[]) =>
   findings.filter((f) => kinds.includes(f.kind)).map(key).sort();
 
-const CLASH_KINDS = ['block-overlap', 'cab-double-booked', 'operator-double-booked', 'train-double-booked'];
-const SHAPE_KINDS = ['train-continuity', 'route-gap', 'train-too-long'];
+const CLASH_KINDS = ['block-overlap', 'block-occupied', 'cab-double-booked', 'operator-double-booked', 'train-double-booked', 'loco-in-two-trains'];
+const SHAPE_KINDS = ['train-continuity', 'route-gap', 'train-too-long', 'step-gap'];
 const POWER_KINDS = ['channel-overload', 'channel-peak-overload', 'driver-overload', 'supply-overload', 'supply-derate'];
 const VOLTAGE_KINDS = ['track-voltage-high', 'track-voltage-low'];
 
@@ -48,7 +49,7 @@ describe('checkPlan against brute force', () => {
         );
       });
 
-      it('finds exactly the pairwise block overlaps and double bookings', () => {
+      it('finds exactly the whole session’s block clashes (stays and stands), double bookings and shared locomotives', () => {
         fc.assert(
           fc.property(plans, (plan) => {
             expect(keysOf(checkPlan(plan).findings, CLASH_KINDS)).toEqual(keysOf(oracleClashes(plan), CLASH_KINDS));
@@ -60,7 +61,7 @@ describe('checkPlan against brute force', () => {
       it('finds exactly the continuity breaks, route gaps and too-long stands', () => {
         fc.assert(
           fc.property(plans, (plan) => {
-            expect(keysOf(checkPlan(plan).findings, SHAPE_KINDS)).toEqual(keysOf(oracleContinuityAndRoutes(plan), SHAPE_KINDS));
+            expect(keysOf(checkPlan(plan).findings, SHAPE_KINDS)).toEqual(keysOf([...oracleContinuityAndRoutes(plan), ...oracleStepGaps(plan)], SHAPE_KINDS));
           }),
           RUNS,
         );

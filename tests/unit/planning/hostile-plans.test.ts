@@ -13,11 +13,11 @@ describe('issue 10 finding 3: quadratic stall', () => {
     const plan = identicalRunsPlan(1000);
     expect(planSchema.safeParse(plan).success).toBe(true);
     const check = checkPlan(plan);
-    // Every pair of the 1,000 runs meets in each of the three blocks and shares cab, operator and train.
+    // Every pair of the 1,000 runs meets in each of the three blocks and shares cab, operator and locomotive.
     expect(check.counts['block-overlap']).toBe(3 * pairs(1000));
     expect(check.counts['cab-double-booked']).toBe(pairs(1000));
     expect(check.counts['operator-double-booked']).toBe(pairs(1000));
-    expect(check.counts['train-double-booked']).toBe(pairs(1000));
+    expect(check.counts['loco-in-two-trains']).toBe(pairs(1000));
     expect(check.truncated).toBe(true);
     expect(check.findings.length).toBe(FINDING_LIMITS.total);
     for (const kind of FINDING_KINDS) {
@@ -37,7 +37,7 @@ describe('issue 10 finding 3: quadratic stall', () => {
     expect(check.findings).toHaveLength(12);
     expect(check.truncated).toBe(true);
     for (const kind of FINDING_KINDS) expect(check.findings.filter((f) => f.kind === kind).length).toBeLessThanOrEqual(5);
-    expect(check.counts['train-double-booked']).toBe(pairs(40));
+    expect(check.counts['loco-in-two-trains']).toBe(pairs(40));
   });
 
   it('refuses plans past the run and step limits in the schema', () => {

@@ -19,54 +19,149 @@ const TOL = 1e-9;
 const pair = (a: string, b: string) => (a < b ? [a, b] : [b, a]);
 const movementsOverlap = (a: Plan['runs'][number], b: Plan['runs'][number]) => a.departS < b.arriveS && b.departS < a.arriveS;
 
-/**
- * A run's stays in one block: its steps there, merged again and again while any two overlap, touch
- * or come within the headway (`x.enterS <= y.exitS + h` and the other way round).
- */
-export function oracleStays(run: Plan['runs'][number], blockId: string, h: number): { enterS: number; exitS: number }[] {
-  let stays = run.steps.filter((s) => s.blockId === blockId).map((s) => ({ enterS: s.enterS, exitS: s.exitS }));
+/** 1 ms: clashes must last, and gaps fall short, by more than this (the engine's TIME_TOLERANCE_S). */
+const TIME_TOL = 0.001;
+
+/** One thing a train does in a block: a step of one of its runs, or a stand (between runs, or at the session's ends). */
+interface Piece {
+  enterS: number;
+  exitS: number;
+  /** The run it speaks for: the step's own run, or the run before a stand (the first, for the wait before it). */
+  run: number;
+  /** Steps: the flat position (runs in plan order, steps in order), which breaks ties as the engine does. */
+  flat: number;
+  stand: boolean;
+}
+
+/** Every step and every stand of one train, walked through the whole session, in one block. */
+export function oraclePieces(plan: Plan, trainId: string, blockId: string): { steps: Piece[]; stands: Piece[] } {
+  const steps: Piece[] = [];
+  let flat = 0;
+  plan.runs.forEach((run, r) => {
+    run.steps.forEach((step) => {
+      if (run.trainId === trainId && step.blockId === blockId) steps.push({ enterS: step.enterS, exitS: step.exitS, run: r, flat, stand: false });
+      flat++;
+    });
+  });
+  const own = plan.runs
+    .map((run, r) => ({ run, r }))
+    .filter(({ run }) => run.trainId === trainId)
+    .sort((x, y) => x.run.departS - y.run.departS || (x.run.id < y.run.id ? -1 : 1));
+  const allExits = plan.runs.flatMap((run) => run.steps.map((s) => s.exitS));
+  const sessionEnd = plan.sessionEndS ?? Math.max(...allExits);
+  const stands: Piece[] = [];
+  const stand = (r: number, block: string, fromS: number, toS: number) => {
+    if (block === blockId && toS - fromS > TIME_TOL) stands.push({ enterS: fromS, exitS: toS, run: r, flat: -1, stand: true });
+  };
+  own.forEach(({ run, r }, i) => {
+    const first = run.steps[0]!;
+    const last = run.steps.at(-1)!;
+    if (i === 0) stand(r, first.blockId, Math.min(0, first.enterS), first.enterS);
+    const next = own[i + 1];
+    stand(r, last.blockId, last.exitS, next ? next.run.steps[0]!.enterS : sessionEnd);
+  });
+  return { steps, stands };
+}
+
+/** A train's stays: its steps in the block merged, again and again, while two come within the headway. */
+export function oracleStays(steps: Piece[], h: number): Piece[][] {
+  let groups = steps.map((s) => [s]);
+  const span = (g: Piece[]) => ({ enterS: Math.min(...g.map((p) => p.enterS)), exitS: Math.max(...g.map((p) => p.exitS)) });
   for (let merged = true; merged; ) {
     merged = false;
-    outer: for (let i = 0; i < stays.length; i++) {
-      for (let j = 0; j < stays.length; j++) {
-        const x = stays[i]!;
-        const y = stays[j]!;
+    outer: for (let i = 0; i < groups.length; i++) {
+      for (let j = 0; j < groups.length; j++) {
+        const x = span(groups[i]!);
+        const y = span(groups[j]!);
         if (i !== j && x.enterS <= y.exitS + h && y.enterS <= x.exitS + h) {
-          const joined = { enterS: Math.min(x.enterS, y.enterS), exitS: Math.max(x.exitS, y.exitS) };
-          stays = [...stays.filter((_, k) => k !== i && k !== j), joined];
+          groups = [...groups.filter((_, k) => k !== i && k !== j), [...groups[i]!, ...groups[j]!]];
           merged = true;
           break outer;
         }
       }
     }
   }
-  return stays;
+  return groups;
 }
 
+/** One interval per stay or stand, speaking for the run entered last by a given time. */
+interface Held {
+  enterS: number;
+  exitS: number;
+  stand: boolean;
+  runAt: (atS: number) => number;
+}
+
+function held(plan: Plan, trainId: string, blockId: string, h: number): Held[] {
+  const { steps, stands } = oraclePieces(plan, trainId, blockId);
+  const out: Held[] = stands.map((s) => ({ enterS: s.enterS, exitS: s.exitS, stand: true, runAt: () => s.run }));
+  for (const group of oracleStays(steps, h)) {
+    const byEntry = [...group].sort((x, y) => x.enterS - y.enterS || x.flat - y.flat);
+    out.push({
+      enterS: byEntry[0]!.enterS,
+      exitS: Math.max(...group.map((p) => p.exitS)),
+      stand: false,
+      runAt: (atS) => [...byEntry].reverse().find((p) => p.enterS <= atS)?.run ?? byEntry[0]!.run,
+    });
+  }
+  return out;
+}
+
+/**
+ * The whole session's clashes, brute force: every pair of trains walked through every block
+ * (stays and stands), every pair of runs for the bookings.
+ */
 export function oracleClashes(plan: Plan): OracleFinding[] {
   const out: OracleFinding[] = [];
   const h = plan.rules.headwayS;
   const runs = plan.runs;
+  const trains = plan.trains;
+  for (let i = 0; i < trains.length; i++) {
+    for (let j = i + 1; j < trains.length; j++) {
+      for (const block of plan.blocks) {
+        for (const x of held(plan, trains[i]!.id, block.id, h)) {
+          for (const y of held(plan, trains[j]!.id, block.id, h)) {
+            if (!(x.enterS < y.exitS + h - TIME_TOL && y.enterS < x.exitS + h - TIME_TOL)) continue;
+            const lastIn = Math.max(x.enterS, y.enterS);
+            const kind = x.stand || y.stand ? 'block-occupied' : 'block-overlap';
+            out.push({ kind, severity: 'error', ids: [block.id, ...pair(runs[x.runAt(lastIn)]!.id, runs[y.runAt(lastIn)]!.id)] });
+          }
+        }
+      }
+    }
+  }
+  const bookedTogether = (a: Plan['runs'][number], b: Plan['runs'][number]) => a.departS < b.arriveS - TIME_TOL && b.departS < a.arriveS - TIME_TOL;
   for (let i = 0; i < runs.length; i++) {
     for (let j = i + 1; j < runs.length; j++) {
       const a = runs[i]!;
       const b = runs[j]!;
-      // One block overlap per block and pair of stays within the headway.
-      for (const block of plan.blocks) {
-        for (const sa of oracleStays(a, block.id, h)) {
-          for (const sb of oracleStays(b, block.id, h)) {
-            if (sa.enterS < sb.exitS + h && sb.enterS < sa.exitS + h) {
-              out.push({ kind: 'block-overlap', severity: 'error', ids: [block.id, ...pair(a.id, b.id)] });
-            }
-          }
-        }
-      }
-      if (!movementsOverlap(a, b)) continue;
+      if (!bookedTogether(a, b)) continue;
       if (a.cabId === b.cabId) out.push({ kind: 'cab-double-booked', severity: 'error', ids: [a.cabId, ...pair(a.id, b.id)] });
       if (a.operatorId !== null && a.operatorId === b.operatorId) {
         out.push({ kind: 'operator-double-booked', severity: 'error', ids: [a.operatorId, ...pair(a.id, b.id)] });
       }
       if (a.trainId === b.trainId) out.push({ kind: 'train-double-booked', severity: 'error', ids: [a.trainId, ...pair(a.id, b.id)] });
+    }
+  }
+  // A locomotive in two trains: every train with runs is on the track for the whole session.
+  const onTrack = trains.filter((t) => runs.some((r) => r.trainId === t.id));
+  for (const loco of plan.locos) {
+    const inIt = onTrack.filter((t) => t.locoIds.includes(loco.id));
+    for (let i = 0; i < inIt.length; i++) {
+      for (let j = i + 1; j < inIt.length; j++) out.push({ kind: 'loco-in-two-trains', severity: 'error', ids: [loco.id, ...pair(inIt[i]!.id, inIt[j]!.id)] });
+    }
+  }
+  return out;
+}
+
+/** Gaps between consecutive steps of a run wider than 1 ms. */
+export function oracleStepGaps(plan: Plan): OracleFinding[] {
+  const out: OracleFinding[] = [];
+  for (const run of plan.runs) {
+    for (let i = 1; i < run.steps.length; i++) {
+      if (run.steps[i]!.enterS - run.steps[i - 1]!.exitS > TIME_TOL) {
+        out.push({ kind: 'step-gap', severity: 'error', ids: [run.id, run.steps[i - 1]!.blockId, run.steps[i]!.blockId] });
+      }
     }
   }
   return out;
@@ -342,6 +437,7 @@ function clash(plan: Plan, a: Plan['runs'][number], b: Plan['runs'][number]): bo
     if (a.cabId === b.cabId || a.trainId === b.trainId) return true;
     if (a.operatorId !== null && a.operatorId === b.operatorId) return true;
   }
+  if (a.trainId === b.trainId) return false;
   return a.steps.some((sa) => b.steps.some((sb) => sa.blockId === sb.blockId && sa.enterS < sb.exitS + h && sb.enterS < sa.exitS + h));
 }
 

