@@ -26,6 +26,16 @@ export function forEachOverlap(
   }
 }
 
+/** Keeps in `list` (in place, in order) the intervals still active at `from`: those ending after it. */
+function keepActive(list: number[], end: ArrayLike<number>, from: number): void {
+  let kept = 0;
+  for (let i = 0; i < list.length; i++) {
+    const other = list[i]!;
+    if (end[other]! > from) list[kept++] = other;
+  }
+  list.length = kept;
+}
+
 /**
  * Like forEachOverlap, but over intervals of many groups at once (only intervals of the same group
  * pair up), in one sweep in the order given (by start across all groups), and stopping as soon as
@@ -47,13 +57,8 @@ export function forEachOverlapInGroups(
     if (g < 0) continue;
     const from = start[current]!;
     const list = (active[g] ??= []);
-    let kept = 0;
-    for (let i = 0; i < list.length; i++) {
-      const other = list[i]!;
-      if (end[other]! > from) list[kept++] = other;
-    }
-    list.length = kept;
-    for (let i = 0; i < kept; i++) if (!visit(list[i]!, current)) return;
+    keepActive(list, end, from);
+    for (let i = 0; i < list.length; i++) if (!visit(list[i]!, current)) return;
     list.push(current);
   }
 }
@@ -74,14 +79,6 @@ export function forEachMarkedOverlapInGroups(
 ): void {
   const activeMarked: (number[] | undefined)[] = new Array(groups);
   const activePlain: (number[] | undefined)[] = new Array(groups);
-  const keepActive = (list: number[], from: number) => {
-    let kept = 0;
-    for (let i = 0; i < list.length; i++) {
-      const other = list[i]!;
-      if (end[other]! > from) list[kept++] = other;
-    }
-    list.length = kept;
-  };
   for (let k = 0; k < order.length; k++) {
     const current = order[k]!;
     const g = group[current]!;
@@ -89,11 +86,11 @@ export function forEachMarkedOverlapInGroups(
     const from = start[current]!;
     const marks = (activeMarked[g] ??= []);
     const plain = (activePlain[g] ??= []);
-    keepActive(marks, from);
+    keepActive(marks, end, from);
     for (const other of marks) if (!visit(other, current)) return;
     if (marked[current]) {
       // Only now is the plain list swept: what stays in it is visited, what leaves it leaves once.
-      keepActive(plain, from);
+      keepActive(plain, end, from);
       for (const other of plain) if (!visit(other, current)) return;
       marks.push(current);
     } else {
