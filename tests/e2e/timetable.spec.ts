@@ -138,7 +138,10 @@ test('a planner creates a session and builds runs from an empty timetable', asyn
   await expect(page.getByTestId('route-preview')).toContainText('Larkholm yard road 1 → Larkholm yard lead → Wrenhollow east');
   await runForm.getByRole('button', { name: 'Add run' }).click();
   await expect(page.getByTestId('run-row')).toHaveCount(1);
-  await expect(page.getByTestId('no-findings')).toBeVisible();
+  // One run clashes with nothing. On the quad half-H class the least and greatest drops differ by 1 V
+  // (SLRS007B: 2.6 V typical, 3.6 V worst at 1 A), so a voltage warning may stand; no error does.
+  await expect(page.getByTestId('findings-panel')).toBeVisible();
+  await expect(page.locator('[data-testid="finding"][data-severity="error"]')).toHaveCount(0);
 
   // A series every 40 fast minutes, then a second train against it on the same cab: a clash.
   const row = page.getByTestId('run-row').first();
