@@ -40,7 +40,10 @@ export interface BoardSpec {
   /** avr-gcc's -mmcu and avrdude's -p part names. */
   mcu: string | null;
   avrdudePart: string | null;
-  /** avrdude programmer and baud rate of the usual serial boot loader. */
+  /**
+   * avrdude programmer (the protocol the usual serial boot loader speaks: STK500 version 1 on the ATmega328P board,
+   * version 2 on the ATmega2560 board: common practice) and its baud rate.
+   */
   avrdudeProgrammer: string | null;
   avrdudeBaud: number | null;
   cpuHz: number | null;
@@ -127,7 +130,7 @@ export const BOARDS: Record<BoardKind, BoardSpec> = {
     ramBytes: 2 * 1024,
     mcu: 'atmega328p',
     avrdudePart: 'm328p',
-    avrdudeProgrammer: 'arduino',
+    avrdudeProgrammer: 'stk500v1',
     avrdudeBaud: 115200,
     cpuHz: 16_000_000,
     pins: ATMEGA328P_PINS,
@@ -142,7 +145,7 @@ export const BOARDS: Record<BoardKind, BoardSpec> = {
     ramBytes: 8 * 1024,
     mcu: 'atmega2560',
     avrdudePart: 'm2560',
-    avrdudeProgrammer: 'wiring',
+    avrdudeProgrammer: 'stk500v2',
     avrdudeBaud: 115200,
     cpuHz: 16_000_000,
     pins: ATMEGA2560_PINS,

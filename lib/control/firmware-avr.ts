@@ -191,6 +191,7 @@ function makefile(p: BoardProgram): string {
     'size: firmware.elf',
     '\tavr-size -A firmware.elf',
     '',
+    '# Opening the port resets the board into its boot loader; if the upload does not start, press reset as it begins.',
     'upload: firmware.hex',
     `\tavrdude -p ${spec.avrdudePart} -c ${spec.avrdudeProgrammer} -P $(PORT) -b ${spec.avrdudeBaud} -D -U flash:w:firmware.hex:i`,
     '',

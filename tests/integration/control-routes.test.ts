@@ -45,7 +45,7 @@ describe('control exports of the demo session', () => {
     const files = unzipSync(new Uint8Array(await res.arrayBuffer()));
     expect(Object.keys(files).sort()).toEqual(['fishplate-cab-board/Makefile', 'fishplate-cab-board/README.txt', 'fishplate-cab-board/main.c', 'fishplate-cab-board/schedule.h']);
     expect(strFromU8(files['fishplate-cab-board/schedule.h']!)).toContain('PROGMEM');
-    expect(strFromU8(files['fishplate-cab-board/Makefile']!)).toContain('avrdude -p m328p');
+    expect(strFromU8(files['fishplate-cab-board/Makefile']!)).toContain('avrdude -p m328p -c stk500v1');
     for (const board of ['yard-board', 'nowhere']) {
       const bad = await getFirmware(new Request(url(`/api/sessions/${session.id}/control/firmware.zip?board=${board}`)), ctx(session.id));
       expect(bad.status).toBe(400);
