@@ -114,7 +114,7 @@ export function TrainsTable({ railwayId, layoutId, canEdit, trains, locomotives 
         header: 'Running / surge',
         sortValue: (r) => r.runningAmps,
         render: (r) => (
-          <span className="whitespace-nowrap font-semibold text-ink" title="Σ locomotives' running current + lighting / Σ stall current + lighting">
+          <span className="whitespace-nowrap font-semibold text-ink" title="Σ locomotives' running current + lighting / Σ start current + lighting">
             {amps(r.runningAmps)} / {amps(r.surgeAmps)}
           </span>
         ),

@@ -48,7 +48,7 @@ function SeriesChart({
           peak {amps(series.maxPeakAmps)}, running {amps(series.maxRunningAmps)}
           {series.limitAmps !== null ? ` · rating ${amps(series.limitAmps)}` : ''}
           {kind === 'supply' && series.runningLimitAmps !== null ? ` · ${Math.round(derate * 100)} % ${amps(series.runningLimitAmps)}` : ''}
-          {kind === 'cab' && series.surgeJudgedContinuous ? ' · surge judged against the rating (longer than the peak holds)' : ''}
+          {kind === 'cab' && series.surgeJudgedContinuous ? ' · surge judged against the rating' : ''}
         </span>
       </figcaption>
       <div className="h-36" data-ticks={ticks.join(' ')}>

@@ -51,7 +51,7 @@ export const DRIVER_PRESETS: readonly DriverPreset[] = [
     note:
       'Peak 2 A is non-repetitive, 5 ms at most: a longer start-up surge is judged against the 1 A continuous rating. Absolute maximum 1.1 A per channel. Package dissipation 2075 mW at 25 °C: two channels at 0.5 A already reach it. No internal clamp diodes: add flyback diodes.',
     source:
-      'Texas Instruments datasheet SLRS007B, quadruple half-H driver. Drop line fitted through 2.1 V at 0.5 A and 2.6 V at 1 A (typical); worst case 3.6 V at 1 A.',
+      'Texas Instruments datasheet SLRS007B, quadruple half-H driver. Drop line fitted through 2.1 V at 0.5 A and 2.6 V at 1 A (typical); worst case 3.6 V at 1 A',
   },
   {
     id: 'bipolar-dual-full-bridge-2a',
@@ -73,7 +73,7 @@ export const DRIVER_PRESETS: readonly DriverPreset[] = [
     note:
       'Heat-sunk module. Drop 1.8–3.2 V at 1 A, up to 4.9 V at 2 A. Peak 2.5 A for 10 ms (repetitive), 3.0 A for 100 µs: a longer start-up surge is judged against 2 A. The two channels may be paralleled for 3 A.',
     source:
-      'STMicroelectronics dual full-bridge driver datasheet (Multiwatt15, January 2000). Maximum drop line through 3.2 V at 1 A and 4.9 V at 2 A; minimum line scaled to 1.8 V at 1 A.',
+      'STMicroelectronics dual full-bridge driver datasheet (Multiwatt15, January 2000). Maximum drop line through 3.2 V at 1 A and 4.9 V at 2 A; minimum line scaled to 1.8 V at 1 A',
   },
   {
     id: 'mosfet-dual-low-voltage-1-2a',
@@ -91,7 +91,7 @@ export const DRIVER_PRESETS: readonly DriverPreset[] = [
     maxSupplyVolts: 13.5,
     note:
       '1.2 A is an average rating; the 3.2 A peak holds for a single 10 ms pulse. Absolute maximum supply 15 V. Drop is resistive: current × 0.5 Ω. Dissipation depends on the board: no package figure is entered, so heat is shown but not checked.',
-    source: 'Toshiba TB6612FNG datasheet (2014): 0.5 Ω upper + lower on-resistance; peak 3.2 A (tw = 10 ms, single pulse).',
+    source: 'Toshiba TB6612FNG datasheet (2014): 0.5 Ω upper + lower on-resistance; peak 3.2 A (tw = 10 ms, single pulse)',
   },
   {
     id: 'mosfet-single-high-current-3-6a',
@@ -114,7 +114,7 @@ export const DRIVER_PRESETS: readonly DriverPreset[] = [
     note:
       '3.6 A is a current limit, not a continuous rating: 1.9 A continuous is derived from the thermal figures (see source), and start-up surges are judged against it. Needs its exposed pad soldered to copper. Drop is resistive: current × 0.565 Ω.',
     source:
-      'Texas Instruments DRV8871 datasheet SLVSCY9B: 0.565 Ω high + low side, 3.6 A peak. Continuous 1.9 A derived: (150 °C − 25 °C) / ≈ 40 °C/W ≈ 3.1 W; √(3.1 W / (1.5 × 0.565 Ω)) ≈ 1.9 A.',
+      'Texas Instruments DRV8871 datasheet SLVSCY9B: 0.565 Ω high + low side, 3.6 A peak. Continuous 1.9 A derived: (150 °C − 25 °C) / ≈ 40 °C/W ≈ 3.1 W; √(3.1 W / (1.5 × 0.565 Ω)) ≈ 1.9 A',
   },
   {
     id: 'mosfet-dual-very-low-voltage-1-5a',
@@ -132,7 +132,7 @@ export const DRIVER_PRESETS: readonly DriverPreset[] = [
     maxSupplyVolts: 10.8,
     note:
       '1.5 A is an RMS rating at 25 °C and 5 V; the 2 A peak has no pulse width, so start-up surges are judged against 1.5 A. Drop is resistive: current × 0.36 Ω. No package figure is entered, so heat is shown but not checked.',
-    source: 'Texas Instruments DRV8833 datasheet: 0.36 Ω high + low side, 1.5 A RMS and 2 A peak per H-bridge.',
+    source: 'Texas Instruments DRV8833 datasheet: 0.36 Ω high + low side, 1.5 A RMS and 2 A peak per H-bridge',
   },
 ];
 

@@ -43,7 +43,7 @@ export default async function StockPage({ params }: { params: Promise<{ railwayI
       </Card>
       <Card title={`Trains (${rows.trains.length})`}>
         <p className="mb-3 text-sm text-muted">
-          Running = every locomotive&apos;s running current + lighting; surge = every stall current + lighting. Lighting, common practice: about 50 mA per
+          Running = every locomotive&apos;s running current + lighting; surge = every locomotive&apos;s start current + lighting (its stall current × start volts / rated volts under a PWM ramp, the full stall current if no start voltage is entered). Lighting, common practice: about 50 mA per
           grain-of-wheat bulb, 30 mA grain-of-rice, 20 mA LED.
         </p>
         <TrainsTable
