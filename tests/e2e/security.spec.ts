@@ -78,7 +78,7 @@ test('finding 14: pages get a fresh script nonce and no script unsafe-inline; th
   await railwayPage.openFromList(DEMO_RAILWAY);
   const railwayUrl = page.url();
   await page.goto(`${railwayUrl}/sessions`);
-  await page.getByRole('link', { name: 'December running evening' }).click();
+  await page.getByRole('link', { name: 'December running evening', exact: true }).first().click(); // the earliest: the seeded one
   await expect(page.getByTestId('train-graph')).toBeVisible();
   await page.getByRole('tab', { name: 'Calendar' }).click();
   await expect(page.getByTestId('calendar-view').locator('.fc-event').first()).toBeVisible();
@@ -120,7 +120,7 @@ test('session and layout pages under a loading skeleton answer 404 for a made-up
   await railwayPage.openFromList(DEMO_RAILWAY);
   const railwayUrl = page.url();
   await page.goto(`${railwayUrl}/sessions`);
-  await page.getByRole('link', { name: 'December running evening' }).click();
+  await page.getByRole('link', { name: 'December running evening', exact: true }).first().click(); // the earliest: the seeded one
   await expect(page.getByTestId('train-graph')).toBeVisible();
   const sessionPath = new URL(page.url()).pathname;
   const sessionId = sessionPath.split('/').pop()!;

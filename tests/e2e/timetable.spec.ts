@@ -173,7 +173,7 @@ test('speed: a 200-run session opens and re-checks an edit (figures recorded, no
   await railwayPage.openFromList(DEMO_RAILWAY);
   const railwayUrl = page.url();
   await page.goto(`${railwayUrl}/sessions`);
-  const demoHref = await page.getByRole('link', { name: SESSION }).getAttribute('href');
+  const demoHref = await page.getByRole('link', { name: SESSION, exact: true }).first().getAttribute('href'); // the earliest: the seeded one
   const demoId = demoHref!.split('/').pop()!;
   // A copy of the demo session with its twenty runs repeated ten times, 17 real minutes apart.
   const duplicate = page.getByTestId('session-row').filter({ hasText: SESSION }).first();
