@@ -344,6 +344,8 @@ export const sessions = sqliteTable(
     standS: real('stand_s').notNull().default(60),
     /** A run departing within this many fast minutes of its time counts as punctual in the report. */
     punctualFastMin: real('punctual_fast_min').notNull().default(3),
+    /** The host's reply deadline; a reply after it still counts and is marked late. */
+    replyBy: integer('reply_by', { mode: 'timestamp_ms' }),
     version: version(),
     createdAt: createdAt(),
   },
@@ -431,6 +433,13 @@ export const invitations = sqliteTable(
     replyNonce: integer('reply_nonce').notNull().default(0),
     /** The session SEQUENCE last sent to this invitee. */
     sentSequence: integer('sent_sequence'),
+    /** What the person was last told (JSON, lib/invitations/changes.ts), to say what changed since. */
+    sentSnapshot: text('sent_snapshot'),
+    /** The last reminder to reply, and how many were sent. */
+    remindedAt: integer('reminded_at', { mode: 'timestamp_ms' }),
+    reminderCount: integer('reminder_count').notNull().default(0),
+    /** A short note with the reply, for the host and planners only. */
+    comment: text('comment').notNull().default(''),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex('invitations_session_user_idx').on(t.sessionId, t.userId)],
