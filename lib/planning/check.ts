@@ -2,7 +2,7 @@ import { compareFindings, FINDING_KINDS, orderedPair, type Finding, type Finding
 import { countOverlapsInGroups, forEachMarkedOverlapInGroups, forEachOverlapInGroups, groupBy, sortByKey } from './intervals';
 import { TIME_TOLERANCE_S } from './rules';
 import { buildLoadProfile, findPowerOverloads, type LoadProfile } from './load';
-import { planNames, withNoun, type PlanNames } from './names';
+import { planNames, sentenceCase, withNoun, type PlanNames } from './names';
 import { indexPlan, type PlanIndex } from './plan-index';
 import type { Plan } from './schema';
 import { findVoltageIssues } from './voltage';
@@ -67,6 +67,7 @@ class FindingList {
     this.totals[finding.severity === 'error' ? 'errors' : 'warnings']++;
     if (this.kept[finding.kind] >= this.maxPerKind) return;
     this.kept[finding.kind]++;
+    finding.message = sentenceCase(finding.message);
     this.listed.push(finding);
   }
 
@@ -301,11 +302,20 @@ function findBlockClashes(plan: Plan, index: PlanIndex, names: PlanNames, list: 
       message = m.shared ? `${both} are both in ${block} ${names.span(m.fromS, m.toS)}` : `${both} pass through ${block} ${apart}`;
     } else {
       const [stand, other] = occ.isStand[p] ? [p, q] : [q, p];
-      const standing = withNoun('train', names.train(plan.trains[occ.owner[stand]!]?.id ?? ''));
-      const waits = `${standing} stands in ${block} ${names.span(occ.enter[stand]!, occ.exit[stand]!)}, between its runs or at the session's start or end`;
-      const otherRun = names.run(plan.runs[other === p ? runP : runQ]!.id);
-      const does = occ.isStand[other] ? `${withNoun('train', names.train(plan.trains[occ.owner[other]!]?.id ?? ''))} stands there too` : `${otherRun} runs through it`;
-      message = m.shared ? `${waits}; ${does} ${names.span(m.fromS, m.toS)}` : `${waits}; ${does} ${apart}`;
+      // A stand is named by the run it waits for (before a train's first run) or follows.
+      const standRun = (i: number) => {
+        const run = plan.runs[occ.runAt(i, m.lastIn)]!;
+        return { train: names.train(run.trainId), which: `${occ.exit[i]! <= run.departS ? 'before' : 'after'} ${names.run(run.id)}` };
+      };
+      const waiting = standRun(stand);
+      const waits = `${waiting.train} stands in ${block} ${names.span(occ.enter[stand]!, occ.exit[stand]!)}, ${waiting.which}`;
+      const when = m.shared ? names.span(m.fromS, m.toS) : apart;
+      if (occ.isStand[other]) {
+        const also = standRun(other);
+        message = `${waits}; ${also.train} stands there too, ${also.which}, ${when}`;
+      } else {
+        message = `${waits}; ${names.run(plan.runs[other === p ? runP : runQ]!.id)} runs through it ${when}`;
+      }
     }
     return { kind, severity: 'error' as const, ids: [blockId, runA, runB], fromS: m.fromS, toS: m.toS, message };
   };

@@ -72,3 +72,14 @@ export function planNames(plan: Plan): PlanNames {
 export function withNoun(noun: string, name: string): string {
   return name.toLowerCase().includes(noun.toLowerCase()) ? name : `${noun} ${name}`;
 }
+
+/**
+ * A finding's message in sentence case: its first letter upper-case (`cab North is…` reads
+ * `Cab North is…`), the rest as written, so names keep their own spelling.
+ */
+export function sentenceCase(text: string): string {
+  const first = text.codePointAt(0);
+  if (first === undefined) return text;
+  const head = String.fromCodePoint(first);
+  return head.toUpperCase() + text.slice(head.length);
+}

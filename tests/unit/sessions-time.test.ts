@@ -93,12 +93,14 @@ describe('finding messages name things and say times on the fast clock', () => {
     const { findings } = checkPlan(plan());
     const cab = findings.find((f) => f.kind === 'cab-double-booked')!;
     expect(cab.ids).toEqual(['c2', 'r1', 'r2']);
-    expect(cab.message).toBe('cab North is booked for Stopper (06:00 departure) and "t2" (06:02 departure) at once, from 06:02 to 06:04 fast');
+    // Sentence case: the message starts with a capital even when it starts with a name's noun.
+    expect(cab.message).toBe('Cab North is booked for Stopper (06:00 departure) and "t2" (06:02 departure) at once, from 06:02 to 06:04 fast');
     const block = findings.find((f) => f.kind === 'block-overlap' && f.ids[0] === 'B')!;
     expect(block.message).toContain('block Main');
     // 0.6 A + 0.6 A = 1.2 A running on a 1 A channel while both move.
     const power = findings.find((f) => f.kind === 'channel-overload')!;
-    expect(power.message).toContain('cab North draws up to 1.2 A running');
+    expect(power.message).toContain('Cab North draws up to 1.2 A running');
+    for (const f of findings) expect(f.message.charAt(0)).toBe(f.message.charAt(0).toUpperCase());
     for (const f of findings) expect(f.message).not.toMatch(/"r[12]"|"c[12]"|"[AB]"/);
   });
 });

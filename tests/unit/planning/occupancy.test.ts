@@ -63,7 +63,10 @@ describe('issue 12 item 1: a train standing between its runs holds its block', (
     const found = checkPlan(p).findings.filter((f) => f.kind === 'block-occupied');
     expect(found.map((f) => f.ids)).toEqual([['B', 'r1', 'r3']]);
     expect(found[0]!.severity).toBe('error');
-    expect(found[0]!.message).toContain('T1 stands in block B');
+    // The stand is named by the run it follows, the other side by its train and departure (issue 13 item 8).
+    expect(found[0]!.message).toBe(
+      'T1 stands in block B from 06:01 to 06:06 fast, after T1 (06:00 departure); T2 (06:03 departure) runs through it at 06:03 fast',
+    );
   });
 
   it('holds the first block from the session start and the last to the session end', () => {
@@ -80,6 +83,9 @@ describe('issue 12 item 1: a train standing between its runs holds its block', (
     expect(ids).toContain('A r1 r2');
     // T1 stands in B from 360 s to the session's end (named by its last run, r1) while T2 comes at 510 s.
     expect(ids).toContain('B r1 r3');
+    const before = checkPlan(p).findings.find((f) => f.kind === 'block-occupied' && f.ids.join(' ') === 'A r1 r2')!;
+    // Before its first run the stand is named by the run it waits for.
+    expect(before.message).toMatch(/^T1 stands in block A from 06:00 to 06:05 fast, before T1 \(06:05 departure\); T2 \(06:00 departure\) runs through it/);
   });
 
   it('a wait covered by hand is not "T1 and T1 … 0 s apart", and the repair moves nothing', () => {
