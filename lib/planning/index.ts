@@ -49,6 +49,8 @@ export { suggestRetime, applyRetime } from './retime';
 export type { Retime, RetimeOptions } from './retime';
 export { timeRun, modelSpeedMmPerS } from './timing';
 export type { TimeRunInput, TimedRun } from './timing';
+export { defaultRamps, modelRateMmPerS2, Movement } from './motion';
+export type { Ramps, RampDefault } from './motion';
 export { findRoute } from './route';
 export type { TrackGraph } from './route';
 export { dutyFor, pwm8Of } from './duty';

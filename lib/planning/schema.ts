@@ -114,6 +114,10 @@ export const trainSchema = z.object({
   locoIds: z.array(id).min(1, 'a train needs at least one loco').max(16, 'a train has at most 16 locos'),
   lightingAmps: zeroTo(100),
   lengthMm: upTo(100_000),
+  /** Scale km/h gained per second from a stand (motion.ts defaultRamps gives common practice). */
+  accelKmhPerS: upTo(1000).optional(),
+  /** Scale km/h lost per second when stopping. */
+  brakingKmhPerS: upTo(1000).optional(),
 });
 
 export const operatorSchema = z.object({ id, name });

@@ -5,6 +5,7 @@ import { runCurrents } from './load';
 import { planNames, withNoun, type PlanNames } from './names';
 import type { PlanIndex } from './plan-index';
 import { VOLTS_TOLERANCE } from './rules';
+import { modelRateMmPerS2, type Ramps } from './motion';
 import { gaugeForScale } from './scales';
 import type { Plan } from './schema';
 
@@ -27,19 +28,32 @@ const volts = (value: number) => `${Math.round(value * 100) / 100} V`;
 const ampsText = (value: number) => `${Math.round(value * 1000) / 1000} A`;
 
 /**
- * The scale speed a run is planned at, at least: the distance its head covers (every block between
- * the first and the last, plus the train's length to clear the one before the last; see timeRun)
- * over the time it moves. Exact at constant speed; with ramps or stops on the way the cruise is
- * faster, so this never overstates the need. Null for a run whose blocks are unknown.
+ * The cruise, scale km/h, a run is planned at: the distance its head covers (every block after the
+ * first, from the first block's far end to the last's; see timeRun) over the time it moves. With
+ * the train's ramps (accelKmhPerS, brakingKmhPerS) the cruise v solves T = D/v + v/2a + v/2b
+ * (elementary kinematics: accelerating to v and braking from it each cost v/2·rate more than running
+ * at v), the smaller root; a time too short even for a train that brakes as soon as it reaches
+ * its peak gives that triangle's peak, 2D/T. Stops on the way only add to T, so this never
+ * overstates the need. Null for a run whose blocks are unknown or that stands in one block.
  */
-export function plannedSpeedKmh(plan: Plan, run: Plan['runs'][number], blockLength: ReadonlyMap<string, number>, trainLengthMm: number): number | null {
-  let distance = trainLengthMm;
-  for (let k = 1; k < run.steps.length - 1; k++) {
+export function plannedSpeedKmh(plan: Plan, run: Plan['runs'][number], blockLength: ReadonlyMap<string, number>, ramps: Partial<Ramps> = {}): number | null {
+  let distance = 0;
+  for (let k = 1; k < run.steps.length; k++) {
     const length = blockLength.get(run.steps[k]!.blockId);
     if (length === undefined) return null;
     distance += length;
   }
-  return scaleSpeedKmh(distance, run.arriveS - run.departS, plan.scale.ratio);
+  if (distance === 0) return null; // a run of one block stands: there is no speed to reach
+  const seconds = run.arriveS - run.departS;
+  const ratio = plan.scale.ratio;
+  // k = 1/2a + 1/2b in model s²/mm; 0 at constant speed.
+  const k =
+    (ramps.accelKmhPerS === undefined ? 0 : 1 / (2 * modelRateMmPerS2(ramps.accelKmhPerS, ratio))) +
+    (ramps.brakingKmhPerS === undefined ? 0 : 1 / (2 * modelRateMmPerS2(ramps.brakingKmhPerS, ratio)));
+  if (k === 0) return scaleSpeedKmh(distance, seconds, ratio);
+  const discriminant = seconds * seconds - 4 * k * distance;
+  const mmPerS = discriminant < 0 ? (2 * distance) / seconds : (seconds - Math.sqrt(discriminant)) / (2 * k);
+  return scaleSpeedKmh(mmPerS, 1, ratio);
 }
 
 /**
@@ -94,7 +108,7 @@ export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Findin
       const loco = locoOf.get(locoId);
       if (loco === undefined) continue;
       if (loco.topSpeedKmh !== undefined && loco.topSpeedKmh !== null) {
-        speed ??= plannedSpeedKmh(plan, run, blockLength, train.lengthMm);
+        speed ??= plannedSpeedKmh(plan, run, blockLength, train);
         if (speed !== null) reachFinding(run, loco, loco.topSpeedKmh, speed, supply.volts, dropAt(drop.max, amps), names, findings);
       }
       if (!(highest > loco.ratedVolts + VOLTS_TOLERANCE)) continue;

@@ -7,6 +7,7 @@ import {
   planSchema,
   plannedSpeedKmh,
   startAmps,
+  timeRun,
   type Finding,
   type Plan,
 } from '@/lib/planning';
@@ -211,8 +212,8 @@ describe('load maxima at coincident events', () => {
 });
 
 describe('planned speed against what a cab can give', () => {
-  // H0 (1:87): v mm/s = km/h / 3.6 × 1000 / 87 (DOMAIN: 100 km/h = 319.3 mm/s). The head covers the
-  // middle block (2000 mm) plus the train's length (1000 mm) while it moves.
+  // H0 (1:87): v mm/s = km/h / 3.6 × 1000 / 87 (DOMAIN: 100 km/h = 319.3 mm/s). The head runs from
+  // A's far end to C's (4000 mm) while it moves; the 1000 mm train's tail clears a block 1000 mm later.
   const timedAt = (kmh: number): Plan['runs'][number] => {
     const v = ((kmh / 3.6) * 1000) / 87;
     const t = (mm: number) => mm / v;
@@ -222,11 +223,11 @@ describe('planned speed against what a cab can give', () => {
       cabId: 'c1',
       operatorId: null,
       departS: 0,
-      arriveS: t(3000),
+      arriveS: t(4000),
       steps: [
         { blockId: 'A', enterS: -5, exitS: t(1000) },
         { blockId: 'B', enterS: 0, exitS: t(3000) },
-        { blockId: 'C', enterS: t(2000), exitS: t(3000) + 5 },
+        { blockId: 'C', enterS: t(2000), exitS: t(4000) + 5 },
       ],
     };
   };
@@ -235,7 +236,20 @@ describe('planned speed against what a cab can give', () => {
 
   it('recovers the planned speed from the steps', () => {
     const p = plan({ driver: QUAD, volts: 12, locos: [loco], runs: [timedAt(90)] });
-    expect(plannedSpeedKmh(p, p.runs[0]!, new Map(p.blocks.map((b) => [b.id, b.lengthMm])), 1000)).toBeCloseTo(90, 9);
+    expect(plannedSpeedKmh(p, p.runs[0]!, new Map(p.blocks.map((b) => [b.id, b.lengthMm])))).toBeCloseTo(90, 9);
+  });
+
+  it('recovers the cruise of a run timed with ramps (kinematics: T = D/v + v/2a + v/2b)', () => {
+    const blocks = [{ id: 'A', lengthMm: 2000 }, { id: 'B', lengthMm: 2000 }, { id: 'C', lengthMm: 2000 }];
+    const ramps = { accelKmhPerS: 15, brakingKmhPerS: 20 }; // H0 common practice (defaultRamps)
+    const timed = timeRun({ blocks, scaleRatio: 87, trainLengthMm: 1000, route: ['A', 'B', 'C'], departS: 0, speedKmh: 90, ...ramps });
+    // 90 km/h: 287.36 mm/s; 4000 / 287.36 = 13.92 s, + 90/30 + 90/40 = 3 + 2.25 s of ramps = 19.17 s.
+    expect(timed.arriveS).toBeCloseTo(4000 / ((90 / 3.6) * 1000 / 87) + 5.25, 9);
+    const p = plan({ driver: QUAD, volts: 12, locos: [loco], runs: [{ id: 'r1', trainId: 't1', cabId: 'c1', operatorId: null, ...timed }] });
+    const lengths = new Map(p.blocks.map((b) => [b.id, b.lengthMm]));
+    expect(plannedSpeedKmh(p, p.runs[0]!, lengths, ramps)).toBeCloseTo(90, 6);
+    // Without the ramps the average, 4000 mm / 19.17 s = 208.7 mm/s = 65.35 km/h, understates the cruise.
+    expect(plannedSpeedKmh(p, p.runs[0]!, lengths)).toBeCloseTo(65.35, 2);
   });
 
   it('SLRS007B at 12 V: 90 km/h needs 2 + 10 × 0.9 = 11 V but the rails get 12 − 3.1 = 8.9 V; 60 km/h (8 V) fits', () => {

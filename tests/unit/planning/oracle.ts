@@ -386,9 +386,29 @@ export function oracleVoltage(plan: Plan, gaugeMm: number | null): OracleFinding
 }
 
 /**
- * Speed: a run's average scale speed (head distance = interior blocks + train length, over the
- * movement time; km/h = mm/s × ratio × 3.6 / 1000) against each loco's top speed and against the
- * track voltage with the greatest drop at the train's current.
+ * The cruise (mm/s) that covers `distance` mm in `seconds` from a stand to a stand with ramps
+ * `a`, `b` (mm/s²), found by bisection on the movement's duration: D/v + v/2a + v/2b while the
+ * ramps fit (v²/2a + v²/2b ≤ D), else the triangle's √(2D(1/a + 1/b)), which no cruise shortens.
+ * Too short a time for even the triangle: its peak for that time, 2D/T.
+ */
+function cruiseFor(distance: number, seconds: number, a: number, b: number): number {
+  const duration = (v: number) => (v * v * (1 / a + 1 / b) <= 2 * distance ? distance / v + v / (2 * a) + v / (2 * b) : Math.sqrt(2 * distance * (1 / a + 1 / b)));
+  if (seconds <= duration(1e12) * (1 + 1e-12)) return (2 * distance) / seconds;
+  let lo = 1e-9;
+  let hi = Math.sqrt((2 * distance) / (1 / a + 1 / b)); // the fastest cruise the ramps let it reach
+  for (let i = 0; i < 200; i++) {
+    const mid = (lo + hi) / 2;
+    if (duration(mid) > seconds) lo = mid;
+    else hi = mid;
+  }
+  return (lo + hi) / 2;
+}
+
+/**
+ * Speed: a run's cruise scale speed (head distance = every block after the first, over the
+ * movement time, less the ramps' cost when the train has ramps; km/h = mm/s × ratio × 3.6 / 1000)
+ * against each loco's top speed and against the track voltage with the greatest drop at the
+ * train's current.
  */
 export function oracleSpeed(plan: Plan): OracleFinding[] {
   const out: OracleFinding[] = [];
@@ -397,8 +417,15 @@ export function oracleSpeed(plan: Plan): OracleFinding[] {
     const cab = plan.cabs.find((c) => c.id === run.cabId)!;
     const driver = plan.drivers.find((d) => d.id === cab.driverId)!;
     const supply = plan.supplies.find((s) => s.id === driver.supplyId)!;
-    const interior = run.steps.slice(1, -1).reduce((sum, step) => sum + plan.blocks.find((b) => b.id === step.blockId)!.lengthMm, 0);
-    const kmh = (((interior + train.lengthMm) / (run.arriveS - run.departS)) * plan.scale.ratio * 3.6) / 1000;
+    const distance = run.steps.slice(1).reduce((sum, step) => sum + plan.blocks.find((b) => b.id === step.blockId)!.lengthMm, 0);
+    if (distance === 0) continue; // one block: the run stands, nothing to reach
+    const seconds = run.arriveS - run.departS;
+    const rate = (kmhPerS: number) => ((kmhPerS / 3.6) * 1000) / plan.scale.ratio;
+    const mmPerS =
+      train.accelKmhPerS === undefined || train.brakingKmhPerS === undefined
+        ? distance / seconds
+        : cruiseFor(distance, seconds, rate(train.accelKmhPerS), rate(train.brakingKmhPerS));
+    const kmh = (mmPerS * plan.scale.ratio * 3.6) / 1000;
     const amps = runAmps(plan, run).running;
     const { max } = dropLines(driver);
     const track = supply.volts - (max.fixedVolts + max.ohms * amps);

@@ -74,6 +74,7 @@ export function planArbitrary(options: PlanArbitraryOptions = {}): fc.Arbitrary<
           locos: fc.array(fc.nat(), { minLength: 1, maxLength: 2 }),
           lightingAmps: fc.integer({ min: 0, max: 2 }),
           lengthMm: fc.integer({ min: 2, max: 12 }),
+          ramps: fc.constantFrom(undefined, { accelKmhPerS: 15, brakingKmhPerS: 20 }, { accelKmhPerS: 2, brakingKmhPerS: 40 }),
         }),
         { minLength: 1, maxLength: 3 },
       ),
@@ -141,6 +142,7 @@ export function planArbitrary(options: PlanArbitraryOptions = {}): fc.Arbitrary<
         locoIds: [...new Set(tr.locos.map((n) => locos[n % locos.length]!.id))],
         lightingAmps: quarter(tr.lightingAmps),
         lengthMm: tr.lengthMm * 100,
+        ...tr.ramps,
       }));
       const operators = Array.from({ length: raw.operators }, (_, i) => ({ id: `o${i}`, name: `Operator ${i}` }));
       const runs = raw.runs.map((r, i) => {
