@@ -1,73 +1,37 @@
-// npm run bench:http — drives the production build on loopback with autocannon and compares it with
-// a bare Node http server answering from the same SQLite file. `--smoke` is the short CI version
-// (it fails on any error). All traffic goes to 127.0.0.1 and every run is bounded in time.
-import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import fs from 'node:fs';
+// npm run bench:http — drives the production build on loopback with autocannon. Each endpoint is
+// measured right after the app's own health route, in turn, so its ratio to health compares two
+// figures taken under the same machine load (the machine is shared); last, a bare Node http server
+// answering from the same SQLite file. Each endpoint's single-request time (one connection, one request
+// after another) is measured too. `--smoke` is the short CI version (it fails on any error). All
+// traffic goes to 127.0.0.1 and every run is bounded in time.
 import http from 'node:http';
+import { performance } from 'node:perf_hooks';
 import autocannon from 'autocannon';
 import Database from 'better-sqlite3';
+import { loadAverage, median, signIn, startBenchServer, type BenchServer } from './bench-server';
 
 const smoke = process.argv.includes('--smoke');
 const DURATION_S = smoke ? 2 : 20;
 const CONNECTIONS = smoke ? 10 : 50;
+const SINGLE_REQUESTS = smoke ? 3 : 30;
 // BENCH_PORT moves the servers so that two checkouts can benchmark side by side.
 const PORT = Number(process.env.BENCH_PORT ?? 3610);
 const BARE_PORT = PORT + 10;
-const BASE = `http://127.0.0.1:${PORT}`;
-const DB = `data/bench-${PORT}.db`;
-const distDir = process.env.NEXT_DIST_DIR ?? '.next';
-const env = {
-  ...process.env,
-  DATABASE_URL: DB,
-  NEXTAUTH_URL: BASE,
-  NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? 'bench-secret-not-for-production-0123456789',
-  LOCAL_SMTP_PORT: String(PORT + 1),
-  NEXT_TELEMETRY_DISABLED: '1',
-  FISHPLATE_OUTBOX_WORKER: 'off',
-};
 
-function must(status: number | null, what: string) {
-  if (status !== 0) throw new Error(`${what} failed`);
-}
-
-async function waitFor(url: string, timeoutMs = 60_000) {
-  const start = Date.now();
-  for (;;) {
-    try {
-      if ((await fetch(url)).ok) return;
-    } catch {
-      /* not up yet */
-    }
-    if (Date.now() - start > timeoutMs) throw new Error(`${url} did not come up`);
-    await new Promise((r) => setTimeout(r, 250));
-  }
-}
-
-/** Signs in through next-auth's credentials flow and returns the session cookie. */
-async function signIn(email: string): Promise<string> {
-  const csrfResponse = await fetch(`${BASE}/api/auth/csrf`);
-  const { csrfToken } = (await csrfResponse.json()) as { csrfToken: string };
-  const csrfCookie = csrfResponse.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
-  const response = await fetch(`${BASE}/api/auth/callback/password`, {
-    method: 'POST',
-    redirect: 'manual',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: csrfCookie },
-    body: new URLSearchParams({ csrfToken, email, password: 'demo-railway', json: 'true' }),
-  });
-  const session = response.headers.getSetCookie().find((c) => c.includes('session-token'));
-  if (!session) throw new Error(`could not sign in as ${email}`);
-  return session.split(';')[0]!;
-}
-
-type Row = { name: string; rps: number; p50: number; p99: number; errors: number; non2xx: number; requests: number };
+type Row = { name: string; rps: number; p50: number; p99: number; errors: number; non2xx: number; requests: number; singleMs: number; bytes: number; healthRps?: number };
 
 async function drive(name: string, url: string, cookie?: string): Promise<Row> {
-  const result = await autocannon({
-    url,
-    connections: CONNECTIONS,
-    duration: DURATION_S,
-    headers: cookie ? { cookie } : {},
-  });
+  const headers: Record<string, string> = cookie ? { cookie } : {};
+  // One request after another on one connection: what a single visitor waits for the answer.
+  const single: number[] = [];
+  let bytes = 0;
+  for (let i = 0; i < SINGLE_REQUESTS + 2; i++) {
+    const started = performance.now();
+    const response = await fetch(url, { headers });
+    bytes = (await response.arrayBuffer()).byteLength;
+    if (i >= 2) single.push(performance.now() - started); // two to warm up
+  }
+  const result = await autocannon({ url, connections: CONNECTIONS, duration: DURATION_S, headers });
   return {
     name,
     rps: result.requests.average,
@@ -76,67 +40,65 @@ async function drive(name: string, url: string, cookie?: string): Promise<Row> {
     errors: result.errors + result.timeouts,
     non2xx: result.non2xx,
     requests: result.requests.total,
+    singleMs: median(single),
+    bytes,
   };
 }
 
-let server: ChildProcess | undefined;
+let app: BenchServer | undefined;
 let bare: http.Server | undefined;
 try {
-  try {
-    await fetch(`${BASE}/api/health`);
-    throw new Error(`Something already answers on port ${PORT}: stop it first.`);
-  } catch (error) {
-    if (error instanceof Error && error.message.startsWith('Something')) throw error;
-  }
-  if (!fs.existsSync(`${distDir}/BUILD_ID`)) must(spawnSync('npx', ['next', 'build'], { stdio: 'inherit', env }).status, 'next build');
-  for (const suffix of ['', '-wal', '-shm']) fs.rmSync(DB + suffix, { force: true });
-  must(spawnSync('npx', ['tsx', 'lib/cli/seed.ts', '--large-session'], { stdio: 'inherit', env }).status, 'seed');
-
-  const sqlite = new Database(DB, { readonly: true });
-  const sessions = sqlite.prepare('select id, title from sessions order by starts_at').all() as { id: string; title: string }[];
-  const demo = sessions.find((s) => s.title === 'December running evening')!;
-  const large = sessions.find((s) => s.title.startsWith('Marathon'))!;
-
-  // Its own process group, so that stopping it also stops the next-server child that npx starts.
-  server = spawn('npx', ['next', 'start', '-p', String(PORT)], { env, stdio: ['ignore', 'ignore', 'inherit'], detached: true });
-  await waitFor(`${BASE}/api/health`);
-  const planner = await signIn('planner@fishplate.example');
-  const operator = await signIn('operator@fishplate.example');
+  app = await startBenchServer(PORT);
+  const { base } = app;
+  const planner = await signIn(base, 'planner@fishplate.example');
+  const operator = await signIn(base, 'operator@fishplate.example');
 
   // The same question answered by a bare Node server: one SQLite row as JSON.
+  const sqlite = new Database(app.db, { readonly: true });
   const row = sqlite.prepare('select id, title, starts_at, status from sessions where id = ?');
+  const demoId = app.demoId;
   bare = http.createServer((_req, res) => {
     res.writeHead(200, { 'content-type': 'application/json' });
-    res.end(JSON.stringify(row.get(demo.id)));
+    res.end(JSON.stringify(row.get(demoId)));
   });
   await new Promise<void>((resolve) => bare!.listen(BARE_PORT, '127.0.0.1', resolve));
 
+  const health = `${base}/api/health`;
   const targets: [string, string, string | undefined][] = [
-    ['health', `${BASE}/api/health`, undefined],
-    ["operator's sessions (GET /api/sessions)", `${BASE}/api/sessions`, operator],
-    ['demo session check (20 runs)', `${BASE}/api/sessions/${demo.id}/check`, planner],
-    ['large session check (200 runs)', `${BASE}/api/sessions/${large.id}/check`, planner],
-    ['bare Node http + same SQLite row', `http://127.0.0.1:${BARE_PORT}/`, undefined],
+    ["operator's sessions (GET /api/sessions)", `${base}/api/sessions`, operator],
+    ['demo session check (20 runs)', `${base}/api/sessions/${app.demoId}/check`, planner],
+    ['large session check (200 runs)', `${base}/api/sessions/${app.largeId}/check`, planner],
+    ['builder page, demo session (server-rendered HTML)', `${base}/railways/${app.railwayId}/sessions/${app.demoId}`, planner],
+    ['builder page, 200-run session', `${base}/railways/${app.railwayId}/sessions/${app.largeId}`, planner],
   ];
+  const loadBefore = loadAverage();
   const rows: Row[] = [];
   for (const [name, url, cookie] of targets) {
     const probe = await fetch(url, { headers: cookie ? { cookie } : {} });
     if (probe.status !== 200) {
       console.log(`skip ${name}: ${url} answers ${probe.status}`);
-      rows.push({ name, rps: 0, p50: 0, p99: 0, errors: 0, non2xx: 1, requests: 0 });
+      rows.push({ name, rps: 0, p50: 0, p99: 0, errors: 0, non2xx: 1, requests: 0, singleMs: 0, bytes: 0 });
       continue;
     }
-    rows.push(await drive(name, url, cookie));
+    // Health first, then the endpoint: the two sides of the ratio under the same load.
+    const h = await drive('health', health);
+    rows.push(h);
+    rows.push({ ...(await drive(name, url, cookie)), healthRps: h.rps });
   }
+  rows.push(await drive('bare Node http + same SQLite row', `http://127.0.0.1:${BARE_PORT}/`));
   sqlite.close();
 
   const bareRow = rows.at(-1)!;
-  console.log(`\n${CONNECTIONS} connections, ${DURATION_S} s per endpoint, loopback\n`);
-  console.log('| endpoint | req/s | p50 ms | p99 ms | errors | non-2xx | × bare req/s |');
-  console.log('|---|---|---|---|---|---|---|');
+  console.log(`\n${CONNECTIONS} connections, ${DURATION_S} s per endpoint, loopback; each endpoint right after a health run`);
+  console.log(`load average (1, 5, 15 min) before: ${loadBefore}, after: ${loadAverage()}\n`);
+  console.log('| endpoint | one request ms | answer bytes | req/s | × health req/s (same turn) | p50 ms | p99 ms | errors | non-2xx | bare ÷ endpoint req/s |');
+  console.log('|---|---|---|---|---|---|---|---|---|---|');
   for (const r of rows) {
-    const ratio = bareRow.rps > 0 && r.rps > 0 ? (bareRow.rps / r.rps).toFixed(1) : '—';
-    console.log(`| ${r.name} | ${Math.round(r.rps)} | ${r.p50} | ${r.p99} | ${r.errors} | ${r.non2xx} | ${ratio} |`);
+    const vsBare = bareRow.rps > 0 && r.rps > 0 ? (bareRow.rps / r.rps).toFixed(1) : '—';
+    const vsHealth = r.healthRps ? (r.rps / r.healthRps).toFixed(2) : '—';
+    console.log(
+      `| ${r.name} | ${r.singleMs.toFixed(1)} | ${r.bytes} | ${Math.round(r.rps)} | ${vsHealth} | ${r.p50} | ${r.p99} | ${r.errors} | ${r.non2xx} | ${vsBare} |`,
+    );
   }
   const bad = rows.filter((r) => r.errors > 0 || r.non2xx > 0);
   if (bad.length) {
@@ -145,5 +107,5 @@ try {
   }
 } finally {
   bare?.close();
-  if (server?.pid) process.kill(-server.pid, 'SIGTERM');
+  app?.stop();
 }

@@ -6,6 +6,7 @@ import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
 import http from 'node:http';
 import Database from 'better-sqlite3';
+import { signIn as signInAt, waitFor } from './bench-server';
 
 const smoke = process.argv.includes('--smoke');
 const DURATION_S = Number(process.env.BENCH_LIVE_SECONDS ?? (smoke ? 20 : 300));
@@ -27,34 +28,7 @@ const env = {
 };
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
-
-async function waitFor(url: string, timeoutMs = 90_000) {
-  const start = Date.now();
-  for (;;) {
-    try {
-      if ((await fetch(url)).ok) return;
-    } catch {
-      /* not up yet */
-    }
-    if (Date.now() - start > timeoutMs) throw new Error(`${url} did not come up`);
-    await sleep(250);
-  }
-}
-
-async function signIn(email: string): Promise<string> {
-  const csrfResponse = await fetch(`${BASE}/api/auth/csrf`);
-  const { csrfToken } = (await csrfResponse.json()) as { csrfToken: string };
-  const csrfCookie = csrfResponse.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
-  const response = await fetch(`${BASE}/api/auth/callback/password`, {
-    method: 'POST',
-    redirect: 'manual',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: csrfCookie },
-    body: new URLSearchParams({ csrfToken, email, password: 'demo-railway', json: 'true' }),
-  });
-  const session = response.headers.getSetCookie().find((c) => c.includes('session-token'));
-  if (!session) throw new Error(`could not sign in as ${email}`);
-  return session.split(';')[0]!;
-}
+const signIn = (email: string) => signInAt(BASE, email);
 
 /** One open stream: the event numbers it received, in order, and when. */
 type Client = { seqs: number[]; at: Map<number, number>; request: http.ClientRequest; errors: number };
