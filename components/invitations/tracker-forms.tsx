@@ -8,6 +8,7 @@ import {
 } from '@/app/(app)/railways/[railwayId]/sessions/[sessionId]/invitations/actions';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Field, inputClass } from '@/components/ui/field';
 
 export type PickableMember = { userId: string; name: string; email: string; role: string; runCount: number };
@@ -100,38 +101,47 @@ export function InviteCrewForm({
   );
 }
 
+export type AffectedInvitee = { id: string; name: string; lines: string[] };
+
 /**
- * What the session's state calls for: invitations not sent yet, an update after a change, or the
- * cancellation. Stays mounted when the counts drop to zero so that the result stays in view.
+ * What the session's state calls for: invitations not sent yet, an update to the people whose
+ * session or runs changed since their last e-mail (previewed in a dialog: who, and what changed for
+ * each), or the cancellation. Stays mounted when the counts drop to zero so that the result stays in view.
  */
 export function NoticeActions({
   railwayId,
   sessionId,
   pending,
-  outdated,
+  affected,
   toCancel,
-  sequence,
 }: {
   railwayId: string;
   sessionId: string;
   pending: number;
-  outdated: number;
+  affected: AffectedInvitee[];
   toCancel: number;
-  sequence: number;
 }) {
   const [state, action, busy] = useActionState(sendNotices.bind(null, railwayId, sessionId), null);
-  if (!state && !pending && !outdated && !toCancel) return null;
+  const formId = `update-${sessionId}`;
+  if (!state && !pending && !affected.length && !toCancel) return null;
   return (
-    <form action={action} className="space-y-2" data-testid="notice-actions">
-      <div className="flex flex-wrap gap-3">
+    <div className="space-y-2" data-testid="notice-actions">
+      {affected.length ? (
+        <Notice tone="warn">
+          <span data-testid="affected-count">
+            {affected.length === 1 ? '1 invitee is' : `${affected.length} invitees are`} affected by changes since their last e-mail:{' '}
+            {affected.map((a) => a.name).join(', ')}.
+          </span>
+        </Notice>
+      ) : null}
+      {/* The update is sent from the dialog; its form holds only the kind. */}
+      <form id={formId} action={action} hidden>
+        <input type="hidden" name="kind" value="update" />
+      </form>
+      <form action={action} className="flex flex-wrap gap-3">
         {pending ? (
           <Button type="submit" name="kind" value="pending" disabled={busy}>
             Send {pending} invitation{pending === 1 ? '' : 's'} not sent yet
-          </Button>
-        ) : null}
-        {outdated ? (
-          <Button type="submit" name="kind" value="update" variant="secondary" disabled={busy}>
-            Send update to {outdated} (sequence {sequence})
           </Button>
         ) : null}
         {toCancel ? (
@@ -139,9 +149,33 @@ export function NoticeActions({
             Send cancellation to {toCancel}
           </Button>
         ) : null}
-      </div>
+      </form>
+      {affected.length ? (
+        <ConfirmDialog
+          trigger={`Review and send update to ${affected.length}`}
+          title={`Send an update to ${affected.length === 1 ? '1 person' : `${affected.length} people`}`}
+          confirm={`Send update to ${affected.length}`}
+          keep="Not now"
+          form={formId}
+          disabled={busy}
+        >
+          <p>Each gets an e-mail with their runs as they are now, what changed for them, and a calendar update that replaces the event they have.</p>
+          <ul className="max-h-[55vh] space-y-3 overflow-y-auto rounded-plate border border-line p-3" data-testid="update-preview">
+            {affected.map((a) => (
+              <li key={a.id}>
+                <p className="font-semibold">{a.name}</p>
+                <ul className="list-disc space-y-1 pl-5 text-muted">
+                  {a.lines.map((line, i) => (
+                    <li key={i}>{line}</li>
+                  ))}
+                </ul>
+              </li>
+            ))}
+          </ul>
+        </ConfirmDialog>
+      ) : null}
       {state ? <Notice tone={state.ok ? 'good' : 'bad'}>{state.ok ? state.message : state.error}</Notice> : null}
-    </form>
+    </div>
   );
 }
 

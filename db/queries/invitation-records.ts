@@ -48,6 +48,10 @@ export function listSessionInvitations(sessionId: string) {
       respondedAt: invitations.respondedAt,
       replyNonce: invitations.replyNonce,
       sentSequence: invitations.sentSequence,
+      sentSnapshot: invitations.sentSnapshot,
+      remindedAt: invitations.remindedAt,
+      reminderCount: invitations.reminderCount,
+      comment: invitations.comment,
       createdAt: invitations.createdAt,
     })
     .from(invitations)
@@ -127,10 +131,33 @@ export function recordAnswer(invitationId: string, expectedNonce: number | null,
     .get();
 }
 
-/** Notes the SEQUENCE last queued to these invitations. */
-export function markInvitationsQueued(invitationIds: string[], sequence: number): void {
+/**
+ * Notes the SEQUENCE last queued to each invitation and, for an invitation or update, what it told
+ * the person (null: leave the stored snapshot, as a cancellation does).
+ */
+export function markInvitationsQueued(entries: { id: string; sequence: number; told: string | null }[]): void {
+  const db = getDb();
+  for (const entry of entries) {
+    db.update(invitations)
+      .set(entry.told === null ? { sentSequence: entry.sequence } : { sentSequence: entry.sequence, sentSnapshot: entry.told })
+      .where(eq(invitations.id, entry.id))
+      .run();
+  }
+}
+
+/** Notes a reminder sent to these invitations now. */
+export function markInvitationsReminded(invitationIds: string[], now: Date): void {
   if (invitationIds.length === 0) return;
-  getDb().update(invitations).set({ sentSequence: sequence }).where(inArray(invitations.id, invitationIds)).run();
+  getDb()
+    .update(invitations)
+    .set({ remindedAt: now, reminderCount: sql`${invitations.reminderCount} + 1` })
+    .where(inArray(invitations.id, invitationIds))
+    .run();
+}
+
+/** Sets or clears a session's reply deadline. */
+export function setSessionReplyBy(railwayId: string, sessionId: string, replyBy: Date | null): void {
+  getDb().update(sessions).set({ replyBy }).where(and(eq(sessions.id, sessionId), eq(sessions.railwayId, railwayId))).run();
 }
 
 /** Puts a failed invitation e-mail back in the queue, due now; returns whether it was failed. */

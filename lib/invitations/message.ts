@@ -17,6 +17,12 @@ export type InvitationContent = {
   runs: RunAssignment[];
   duties: { duty: string; note: string }[];
   links: { accept: string; tentative: string; decline: string; myRuns: string; timetable: string };
+  /** For an update: what changed for this person since their last e-mail, one line each. */
+  changes?: string[];
+  /** The host's reply deadline, if set. */
+  replyBy?: Date | null;
+  /** A reminder to reply (plain e-mail, no calendar part). */
+  isReminder?: boolean;
 };
 
 // A batch of 200 invitations formats the same few session times over and over; Intl formatters
@@ -42,7 +48,7 @@ function escapeHtml(text: string): string {
 }
 
 /** "Sat 12 Dec 2026, 18:00 to 21:00 (Europe/Berlin)", or both dates when the session runs past midnight. */
-export function sessionSpan(session: CalendarSession): string {
+export function sessionSpan(session: Pick<CalendarSession, 'startsAt' | 'endsAt' | 'timeZone'>): string {
   const { startsAt, endsAt, timeZone } = session;
   const dateOnly = { hour: undefined, minute: undefined, hourCycle: undefined } as const;
   const sameDay = formatInZone(startsAt, timeZone, dateOnly) === formatInZone(endsAt, timeZone, dateOnly);
@@ -53,6 +59,7 @@ export function sessionSpan(session: CalendarSession): string {
 export function subjectOf(c: InvitationContent): string {
   const when = formatInZone(c.session.startsAt, c.session.timeZone, { hour: undefined, minute: undefined, hourCycle: undefined });
   if (c.method === 'CANCEL') return `Cancelled: ${c.session.title} (${when})`;
+  if (c.isReminder) return `Reminder, please reply: ${c.session.title} (${when})`;
   if (c.isUpdate) return `Updated: ${c.session.title} (${when})`;
   return `Invitation: ${c.session.title} (${when})`;
 }
@@ -103,14 +110,20 @@ export function buildInvitationBody(c: InvitationContent): { subject: string; te
   const opening =
     c.method === 'CANCEL'
       ? `${c.host.name} has cancelled this operating session. Your calendar can remove it.`
-      : c.isUpdate
-        ? `${c.host.name} has changed this operating session. Please check your runs and answer again if your plans changed.`
-        : `${c.host.name} invites you to an operating session.`;
+      : c.isReminder
+        ? `${c.host.name} has not had your answer yet for this operating session.`
+        : c.isUpdate
+          ? `${c.host.name} has changed this operating session. Please check your runs and answer again if your plans changed.`
+          : `${c.host.name} invites you to an operating session.`;
+  const changes = c.method === 'REQUEST' && c.isUpdate && !c.isReminder ? (c.changes ?? []) : [];
+  const changesText = changes.length ? ['What changed for you:', ...changes.map((l) => `- ${l}`), ''] : [];
+  const deadline = c.method === 'CANCEL' || !c.replyBy ? null : `Please reply by ${formatInZone(c.replyBy, c.session.timeZone)} (${c.session.timeZone}).`;
   const replyText =
     c.method === 'CANCEL'
       ? []
       : [
           'Will you come? Reply without signing in:',
+          ...(deadline ? [deadline] : []),
           `Accept: ${c.links.accept}`,
           `Maybe: ${c.links.tentative}`,
           `Decline: ${c.links.decline}`,
@@ -119,7 +132,7 @@ export function buildInvitationBody(c: InvitationContent): { subject: string; te
           `Your runs on your phone: ${c.links.myRuns}`,
           '',
         ];
-  const text = [`Hello ${c.invitee.name},`, '', opening, '', assignmentSummary(c), '', ...replyText, '— Fishplate, for ' + c.railwayName].join('\n');
+  const text = [`Hello ${c.invitee.name},`, '', opening, '', ...changesText, assignmentSummary(c), '', ...replyText, '— Fishplate, for ' + c.railwayName].join('\n');
 
   const e = escapeHtml;
   const runsHtml = c.runs.length
@@ -136,12 +149,14 @@ export function buildInvitationBody(c: InvitationContent): { subject: string; te
   const replyHtml =
     c.method === 'CANCEL'
       ? ''
-      : `<p>Will you come? Reply without signing in:</p><p>${button(c.links.accept, 'Accept')}${button(c.links.tentative, 'Maybe')}${button(
+      : `<p>Will you come? Reply without signing in:${deadline ? `<br><strong>${e(deadline)}</strong>` : ''}</p><p>${button(c.links.accept, 'Accept')}${button(c.links.tentative, 'Maybe')}${button(
           c.links.decline,
           'Decline',
         )}</p><p><a href="${e(c.links.timetable)}">Published timetable</a> · <a href="${e(c.links.myRuns)}">Your runs on your phone</a></p>`;
   const html = `<!doctype html><html><body style="font-family:sans-serif;line-height:1.45">
-<p>Hello ${e(c.invitee.name)},</p><p>${e(opening)}</p>
+<p>Hello ${e(c.invitee.name)},</p><p>${e(opening)}</p>${
+    changes.length ? `<h3>What changed for you</h3><ul>${changes.map((l) => `<li>${e(l)}</li>`).join('')}</ul>` : ''
+  }
 <h2>${e(c.session.title)}</h2>
 <p>${e(c.railwayName)}<br>When: ${e(sessionSpan(c.session))}${
     c.session.place ? `<br>Where: ${e(c.session.place)}` : ''

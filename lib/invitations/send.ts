@@ -15,7 +15,8 @@ import { createUser, getUserByEmail } from '@/db/queries/users';
 import type { Session } from '@/db/schema';
 import { buildInvitationCalendar, type Person } from '@/lib/calendar/ics';
 import { AppError, notFound } from '@/lib/errors';
-import { describeRuns } from '@/lib/invitations/assignments';
+import { describeRuns, type RunAssignment } from '@/lib/invitations/assignments';
+import { changesBetween, describeChange, parseTold, toldOf, type Change, type Told } from '@/lib/invitations/changes';
 import { assignmentSummary, buildInvitationBody, type InvitationContent } from '@/lib/invitations/message';
 import { replyExpiry, signReplyToken } from '@/lib/invitations/reply-token';
 import { absoluteUrl } from '@/lib/mail/account-mail';
@@ -24,6 +25,43 @@ import type { NoticeKind } from '@/lib/validations/invitation';
 
 export type Host = { id: string; name: string; email: string };
 type InvitationRow = ReturnType<typeof listSessionInvitations>[number];
+
+/** What changed for one invitee since their last e-mail, and whether they should be sent an update. */
+export type Standing = { told: Told; changes: Change[]; affected: boolean };
+
+/**
+ * Compares what the person was told last (the snapshot stored when their e-mail was queued) with
+ * what they would be told now. An invitation from before snapshots were kept counts as affected
+ * when it carried an older SEQUENCE than the session has.
+ */
+export function standingOf(session: Session, inv: InvitationRow, runs: RunAssignment[]): Standing {
+  const told = toldOf(session, runs.filter((r) => r.operatorId === inv.userId));
+  if (inv.mailCount === 0 || inv.sentSequence === null) return { told, changes: [], affected: false };
+  const before = parseTold(inv.sentSnapshot);
+  const changes = before ? changesBetween(before, told) : [];
+  return { told, changes, affected: changes.length > 0 || inv.sentSequence < session.sequence };
+}
+
+/**
+ * The SEQUENCE a REQUEST to this person carries: the session's for a first invitation; for an
+ * update, one above the last they were sent (and at least the session's), since the event they
+ * hold changed (RFC 5545 3.8.7.4, RFC 5546 2.1.4); otherwise what they already hold, never less.
+ */
+export function requestSequence(session: Session, inv: InvitationRow, standing: Standing): number {
+  if (inv.sentSequence === null) return session.sequence;
+  return standing.affected ? Math.max(session.sequence, inv.sentSequence + 1) : Math.max(session.sequence, inv.sentSequence);
+}
+
+/** Every invitation of a session with its standing (for the tracker and the update). */
+export function sessionStandings(session: Session, invitations: InvitationRow[], described?: RunAssignment[]): Map<string, Standing> {
+  let runs = described;
+  if (!runs) {
+    const rows = loadSessionRows(session.id);
+    if (!rows) throw notFound('That session');
+    runs = describeRuns(rows);
+  }
+  return new Map(invitations.map((inv) => [inv.id, standingOf(session, inv, runs)]));
+}
 
 /** The e-mail kind of an invitation message in the outbox. */
 export const INVITATION_MAIL_KIND = 'session-invitation';
@@ -75,10 +113,11 @@ function queueNotices(input: {
   const myRuns = absoluteUrl('/my-runs');
   let queued = 0;
   let skipped = 0;
-  const bySequence = new Map<number, string[]>();
+  const marks: { id: string; sequence: number; told: string | null }[] = [];
   for (const inv of input.invitations) {
+    const standing = standingOf(session, inv, allRuns);
     const sequence =
-      input.method === 'CANCEL' ? Math.max(session.sequence, (inv.sentSequence ?? -1) + 1) : session.sequence;
+      input.method === 'CANCEL' ? Math.max(session.sequence, (inv.sentSequence ?? -1) + 1) : requestSequence(session, inv, standing);
     const token = signReplyToken({
       railwayId: session.railwayId,
       invitationId: inv.id,
@@ -86,9 +125,10 @@ function queueNotices(input: {
       expiresAt: replyExpiry(session.endsAt, now.getTime()),
     });
     const invitee: Person = { name: inv.name, email: inv.email };
+    const isUpdate = input.method === 'REQUEST' && inv.mailCount > 0 && standing.affected;
     const content: InvitationContent = {
       method: input.method,
-      isUpdate: input.method === 'REQUEST' && inv.mailCount > 0 && (inv.sentSequence ?? session.sequence) < session.sequence,
+      isUpdate,
       session,
       railwayName: railway.name,
       host: { name: host.name, email: host.email },
@@ -103,6 +143,8 @@ function queueNotices(input: {
         myRuns,
         timetable,
       },
+      changes: isUpdate ? standing.changes.map(describeChange) : undefined,
+      replyBy: session.replyBy,
     };
     const body = buildInvitationBody(content);
     const calendar = buildInvitationCalendar({
@@ -131,12 +173,12 @@ function queueNotices(input: {
     });
     if (added) {
       queued += 1;
-      bySequence.set(sequence, [...(bySequence.get(sequence) ?? []), inv.id]);
+      marks.push({ id: inv.id, sequence, told: input.method === 'REQUEST' ? JSON.stringify(standing.told) : null });
     } else {
       skipped += 1;
     }
   }
-  for (const [sequence, ids] of bySequence) markInvitationsQueued(ids, sequence);
+  markInvitationsQueued(marks);
   return { queued, skipped };
 }
 
@@ -193,8 +235,8 @@ export function inviteToSession(input: {
 
 /**
  * Host: sends what the session's state calls for. "pending": the invitation to everyone invited
- * who has had no e-mail yet; "update": the new SEQUENCE to everyone who was sent an older one
- * (RFC 5546 2.1.4); "cancel": METHOD:CANCEL to everyone who was sent anything (RFC 5546 3.2.5).
+ * who has had no e-mail yet; "update": to everyone whose session or runs changed since their last
+ * e-mail, with a higher SEQUENCE and what changed for them (RFC 5546 2.1.4); "cancel": METHOD:CANCEL to everyone who was sent anything (RFC 5546 3.2.5).
  */
 export function sendNotices(input: { railwayId: string; sessionId: string; host: Host; kind: NoticeKind; now?: Date }) {
   const now = input.now ?? new Date();
@@ -207,10 +249,9 @@ export function sendNotices(input: { railwayId: string; sessionId: string; host:
       result = queueNotices({ session, host: input.host, invitations: all.filter((i) => i.mailCount > 0), method: 'CANCEL', now });
     } else {
       requirePublished(session, now);
+      const standings = input.kind === 'update' ? sessionStandings(session, all) : null;
       const chosen =
-        input.kind === 'pending'
-          ? all.filter((i) => i.mailCount === 0)
-          : all.filter((i) => i.mailCount > 0 && (i.sentSequence ?? -1) < session.sequence);
+        input.kind === 'pending' ? all.filter((i) => i.mailCount === 0) : all.filter((i) => standings?.get(i.id)?.affected === true);
       result = queueNotices({ session, host: input.host, invitations: chosen, method: 'REQUEST', now });
     }
     recordAudit({ railwayId: input.railwayId, userId: input.host.id, action: `send-${input.kind}`, entity: 'session', entityId: session.id, detail: result });

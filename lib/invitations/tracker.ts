@@ -32,11 +32,6 @@ export function deliveryOf(inv: TrackedInvitation): Delivery {
   return inv.mail.lastError ? 'retrying' : 'queued';
 }
 
-/** True when the person was sent an older SEQUENCE than the session has now. */
-export function needsUpdate(inv: TrackedInvitation, session: { sequence: number; status: SessionStatus }): boolean {
-  return session.status === 'published' && inv.mailCount > 0 && (inv.sentSequence ?? -1) < session.sequence;
-}
-
 /** True when the person was sent something but not yet the cancellation. */
 export function needsCancel(inv: TrackedInvitation, session: { status: SessionStatus }): boolean {
   return session.status === 'cancelled' && inv.mailCount > 0 && inv.mail?.calendarMethod !== 'CANCEL';

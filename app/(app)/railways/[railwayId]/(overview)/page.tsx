@@ -1,10 +1,12 @@
 import type { Metadata } from 'next';
 import { listLayoutsWithCounts } from '@/db/queries/layouts';
 import { listMembers } from '@/db/queries/memberships';
+import { getRailwaySession } from '@/db/queries/invitation-records';
 import { listOutbox } from '@/db/queries/outbox';
 import { listRailwaySessions } from '@/db/queries/sessions';
 import { Badge, Card } from '@/components/ui/card';
 import { formatDateInZone, formatInZone } from '@/lib/format';
+import { crewStatus } from '@/lib/invitations/crew-status';
 import { memberForPage } from '@/lib/page-access';
 import { roleAtLeast } from '@/lib/roles';
 import { errorCounts } from '@/lib/sessions/error-counts';
@@ -37,6 +39,23 @@ export default async function RailwayDashboard({ params }: { params: Promise<{ r
     for (const s of sessions) {
       const n = errors.get(s.id) ?? 0;
       if (n) attention.push({ key: `errors-${s.id}`, text: `${sessionName(s)}: the timetable has ${n} error${n > 1 ? 's' : ''} (clashes or overloads).`, href: `${base}/sessions/${s.id}` });
+    }
+    // The crew's replies and changes since their invitations (published sessions; names are for hosts and planners).
+    for (const s of sessions.filter((x) => x.status === 'published')) {
+      const full = getRailwaySession(railwayId, s.id);
+      if (!full) continue;
+      const crew = crewStatus(full);
+      const tracker = member.role === 'host' ? `${base}/sessions/${s.id}/invitations` : `${base}/sessions/${s.id}`;
+      if (crew.declinedWithRuns.length) {
+        const names = crew.declinedWithRuns.join(', ');
+        attention.push({ key: `declined-${s.id}`, text: `${sessionName(s)}: declined, still has runs: ${names}.`, href: `${base}/sessions/${s.id}` });
+      }
+      if (member.role === 'host' && crew.affected) {
+        attention.push({ key: `changed-${s.id}`, text: `${sessionName(s)}: ${crew.affected} invitee${crew.affected > 1 ? 's are' : ' is'} affected by changes since their last e-mail; send an update.`, href: tracker });
+      }
+      if (member.role === 'host' && crew.noReply && crew.pastDeadline) {
+        attention.push({ key: `no-reply-${s.id}`, text: `${sessionName(s)}: ${crew.noReply} invitee${crew.noReply > 1 ? 's have' : ' has'} not replied and the reply deadline has passed.`, href: tracker });
+      }
     }
   }
   const noPassword = members.filter((m) => !m.hasPassword).length;

@@ -9,7 +9,9 @@ import { InviteCrewForm, NoticeActions, ResendButton } from '@/components/invita
 import { NotAllowed } from '@/components/railway/not-allowed';
 import { Badge, Card, Notice } from '@/components/ui/card';
 import { formatInZone } from '@/lib/format';
-import { countStates, DELIVERY_LABELS, deliveryOf, needsCancel, needsUpdate, RSVP_LABELS, type Delivery } from '@/lib/invitations/tracker';
+import { describeChange, summariseChanges } from '@/lib/invitations/changes';
+import { sessionStandings } from '@/lib/invitations/send';
+import { countStates, DELIVERY_LABELS, deliveryOf, needsCancel, RSVP_LABELS, type Delivery } from '@/lib/invitations/tracker';
 import { memberForPage } from '@/lib/page-access';
 
 export const metadata: Metadata = { title: 'Invitations' };
@@ -44,7 +46,13 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
     .map((m) => ({ userId: m.userId, name: m.name, email: m.email, role: m.role, runCount: runCount.get(m.userId) ?? 0 }));
   const zone = session.timeZone;
   const pending = invitations.filter((i) => i.mailCount === 0).length;
-  const outdated = invitations.filter((i) => needsUpdate(i, session)).length;
+  const standings = sessionStandings(session, invitations);
+  const affected = invitations
+    .filter((i) => session.status === 'published' && standings.get(i.id)?.affected)
+    .map((i) => {
+      const changes = standings.get(i.id)!.changes;
+      return { id: i.id, name: i.name, lines: changes.length ? changes.map(describeChange) : ['The session changed since their last e-mail.'] };
+    });
   const toCancel = invitations.filter((i) => needsCancel(i, session)).length;
   const ended = session.endsAt.getTime() < Date.now();
   const open = session.status === 'published' && !ended;
@@ -99,9 +107,8 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
         railwayId={railwayId}
         sessionId={sessionId}
         pending={open ? pending : 0}
-        outdated={open ? outdated : 0}
+        affected={open ? affected : []}
         toCancel={toCancel}
-        sequence={session.sequence}
       />
 
       <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
@@ -132,11 +139,24 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
                         <td className="whitespace-nowrap py-2 pr-3">
                           <Badge tone={DELIVERY_TONE[delivery]}>{DELIVERY_LABELS[delivery]}</Badge>
                           {inv.mail?.calendarMethod === 'CANCEL' ? <span className="ml-1 text-xs text-muted">cancellation</span> : null}
-                          {needsUpdate(inv, session) ? <span className="ml-1 text-xs text-amber">sent sequence {inv.sentSequence}</span> : null}
+                          {open && standings.get(inv.id)?.affected ? (
+                            <span className="block max-w-xs whitespace-normal text-xs text-amber" data-testid="changed-since">
+                              Changed since their last e-mail: {summariseChanges(standings.get(inv.id)!.changes) || 'session settings'}
+                            </span>
+                          ) : null}
                           {inv.mail?.lastError ? <span className="block max-w-xs truncate text-xs text-signal" title={inv.mail.lastError}>{inv.mail.lastError}</span> : null}
                         </td>
                         <td className="whitespace-nowrap py-2 pr-3">
-                          <span data-testid="rsvp"><Badge tone={RSVP_TONE[inv.rsvp]}>{RSVP_LABELS[inv.rsvp]}</Badge></span>
+                          <span data-testid="rsvp">
+                            <Badge tone={RSVP_TONE[inv.rsvp]}>
+                              {inv.rsvp === 'declined' && runCount.get(inv.userId) ? 'declined, still has runs' : RSVP_LABELS[inv.rsvp]}
+                            </Badge>
+                          </span>
+                          {inv.rsvp === 'declined' && runCount.get(inv.userId) ? (
+                            <span className="block text-xs text-signal">
+                              {runCount.get(inv.userId)} run{runCount.get(inv.userId) === 1 ? '' : 's'} to hand to someone else
+                            </span>
+                          ) : null}
                           {inv.respondedAt ? (
                             <span className="block text-xs text-muted sm:hidden">{formatInZone(inv.respondedAt, zone, { weekday: undefined, year: undefined })}</span>
                           ) : null}
