@@ -295,6 +295,10 @@ export const trains = sqliteTable(
     name: text('name').notNull(),
     lightingAmps: real('lighting_amps').notNull().default(0),
     lengthMm: real('length_mm').notNull(),
+    /** Scale km/h per second from a stand; null: the common-practice default for the layout's scale. */
+    accelKmhPerS: real('accel_kmh_per_s'),
+    /** Scale km/h per second when stopping; null: the common-practice default for the layout's scale. */
+    brakingKmhPerS: real('braking_kmh_per_s'),
     version: version(),
   },
   (t) => [index('trains_layout_idx').on(t.layoutId)],
