@@ -10,17 +10,19 @@ const underStryker = process.env.STRYKER_MUTATOR_WORKER !== undefined;
 // mutated copy in memory, so they can kill no mutant and only cost time on a 2-core machine.
 const childProcessTests = !underStryker ? [] : ['tests/integration/crash-and-concurrency.test.ts', 'tests/integration/backup.test.ts'];
 
-// lib/planning is pure and tested by the unit project; its mutation run (FISHPLATE_MUTATION_UNIT_ONLY=1,
-// set by lib/cli/mutation.mjs) leaves the integration project out, which reaches the engine only
-// through the app, and the control tests, whose random plans take long and test lib/control.
+// Pure folders (lib/planning, lib/validations, …; the list is in lib/cli/mutation.mjs) are tested by the
+// unit project; their mutation runs (FISHPLATE_MUTATION_UNIT_ONLY=1) leave the integration project out,
+// which reaches them only through the app. The engine's run also leaves out the control tests, whose
+// random plans take long and test lib/control.
 const unitOnly = process.env.FISHPLATE_MUTATION_UNIT_ONLY === '1';
+const engineRun = process.env.FISHPLATE_MUTATION_FOLDER === 'planning';
 
 const unit: TestProjectInlineConfiguration = {
   extends: true,
   test: {
     name: 'unit',
     include: ['tests/unit/**/*.test.ts'],
-    exclude: ['**/node_modules/**', ...(unitOnly ? ['tests/unit/control/**'] : [])],
+    exclude: ['**/node_modules/**', ...(engineRun ? ['tests/unit/control/**'] : [])],
     environment: 'node',
     ...(underStryker ? { testTimeout: 120_000 } : {}),
   },

@@ -1,7 +1,9 @@
-// npm run test:mutation [-- folder …] — Stryker over lib/, one folder at a time (stryker.config.mjs),
-// then the score of every folder that has a report. Folders: the sub-folders of lib/ and "root" for
-// the files directly in lib/. Each folder keeps its own incremental file in reports/mutation/, so a
-// second run re-tests only mutants whose code or tests changed.
+// npm run test:mutation [-- target …] [--unit] [--concurrency 1] — Stryker over lib/, one folder at a time
+// (stryker.config.mjs), then the score of every folder that has a report. A target is a folder (a
+// sub-folder of lib/, or "root" for the files directly in lib/) or one file (lib/calendar/ics.ts), for
+// a quick look while writing its tests. Each target keeps its own incremental file in reports/mutation/
+// (git-ignored: it holds this machine's results, and a clean clone starts over), so a second run
+// re-tests only mutants whose code or tests changed.
 import fs from 'node:fs';
 import path from 'node:path';
 import { Stryker } from '@stryker-mutator/core';
@@ -20,41 +22,66 @@ const all = [
     .map((e) => e.name)
     .sort(),
 ];
-const asked = process.argv.slice(2).filter((a) => !a.startsWith('-'));
-const unknown = asked.filter((f) => !all.includes(f));
+// Folders of pure code (zod schemas, the engine, chart ticks, the control exporters): their unit tests
+// are the ones meant to catch a bug, and an integration test per mutant costs seconds on two cores.
+const UNIT_ONLY = new Set(['planning', 'validations', 'charts', 'control']);
+const args = process.argv.slice(2);
+const options = {};
+const concurrencyAt = args.indexOf('--concurrency');
+if (concurrencyAt >= 0) options.concurrency = Number(args[concurrencyAt + 1]);
+// --unit: only the unit tests, for a quick look at one file whose unit tests are meant to catch its bugs.
+const unitFlag = args.includes('--unit');
+const asked = args.filter((a, i) => !a.startsWith('-') && args[i - 1] !== '--concurrency');
+const fileTarget = (t) => /^lib\/[a-z-]+\/[a-z0-9-]+\.ts$/.test(t) && fs.existsSync(t);
+const unknown = asked.filter((t) => !all.includes(t) && !fileTarget(t));
 if (unknown.length) {
-  console.error(`Unknown folder ${unknown.join(', ')}; one of: ${all.join(', ')}`);
+  console.error(`Unknown target ${unknown.join(', ')}; a file lib/<folder>/<name>.ts or one of: ${all.join(', ')}`);
   process.exit(2);
 }
 // The engine last: it is the largest and is often the one being changed.
-const folders = asked.length ? asked : [...all.filter((f) => f !== 'planning'), 'planning'];
+const targets = asked.length ? asked : [...all.filter((f) => f !== 'planning'), 'planning'];
 fs.mkdirSync(OUT, { recursive: true });
 
-for (const folder of folders) {
-  const mutate = folder === 'root' ? ['lib/*.ts', '!lib/*.d.ts'] : [`lib/${folder}/**/*.ts`, '!lib/**/*.d.ts'];
-  console.log(`\n== lib/${folder === 'root' ? '' : `${folder}/`} ==`);
-  // The engine is pure and tested by the unit tests (see vitest.config.mts).
-  if (folder === 'planning') process.env.FISHPLATE_MUTATION_UNIT_ONLY = '1';
+for (const target of targets) {
+  const file = fileTarget(target);
+  const folder = file ? target.split('/')[1] : target;
+  const name = (file ? target.slice('lib/'.length, -'.ts'.length).replace('/', '--') : target) + (unitFlag && !UNIT_ONLY.has(folder) ? '.unit' : '');
+  const mutate = file ? [target] : folder === 'root' ? ['lib/*.ts', '!lib/*.d.ts'] : [`lib/${folder}/**/*.ts`, '!lib/**/*.d.ts'];
+  console.log(`\n== ${file ? target : `lib/${folder === 'root' ? '' : `${folder}/`}`} ==`);
+  // Read by vitest.config.mts.
+  if (unitFlag || UNIT_ONLY.has(folder)) process.env.FISHPLATE_MUTATION_UNIT_ONLY = '1';
   else delete process.env.FISHPLATE_MUTATION_UNIT_ONLY;
+  process.env.FISHPLATE_MUTATION_FOLDER = folder;
   await new Stryker({
+    ...options,
     mutate,
-    incrementalFile: path.join(OUT, `${folder}.incremental.json`),
-    jsonReporter: { fileName: path.join(OUT, `${folder}.json`) },
-    htmlReporter: { fileName: path.join(OUT, `${folder}.html`) },
+    incrementalFile: path.join(OUT, `${name}.incremental.json`),
+    jsonReporter: { fileName: path.join(OUT, `${name}.json`) },
+    htmlReporter: { fileName: path.join(OUT, `${name}.html`) },
   }).runMutationTest();
 }
 
 // Score = (killed + timed out) / (everything except compile errors and ignored), as Stryker counts it.
+// One row per report in reports/mutation/: the folders, then any single files looked at.
+const label = (name) => {
+  const [base, unit] = name.split('.');
+  const where = all.includes(base) ? `lib/${base === 'root' ? '' : `${base}/`}` : `lib/${base.replace('--', '/')}.ts`;
+  return `\`${where}\`${unit ? ' (unit tests only)' : ''}`;
+};
+const reports = fs
+  .readdirSync(OUT)
+  .filter((f) => f.endsWith('.json') && !f.endsWith('.incremental.json'))
+  .map((f) => f.slice(0, -'.json'.length))
+  .sort((a, b) => Number(!all.includes(a.split('.')[0])) - Number(!all.includes(b.split('.')[0])) || a.localeCompare(b));
 const rows = [];
-for (const folder of all) {
-  const file = path.join(OUT, `${folder}.json`);
-  if (!fs.existsSync(file)) continue;
-  const report = JSON.parse(fs.readFileSync(file, 'utf8'));
+for (const name of reports) {
+  const report = JSON.parse(fs.readFileSync(path.join(OUT, `${name}.json`), 'utf8'));
   const count = { Killed: 0, Timeout: 0, Survived: 0, NoCoverage: 0 };
   for (const f of Object.values(report.files)) for (const m of f.mutants) if (m.status in count) count[m.status] += 1;
   const valid = count.Killed + count.Timeout + count.Survived + count.NoCoverage;
   const score = valid ? (100 * (count.Killed + count.Timeout)) / valid : 100;
-  rows.push(`| \`lib/${folder === 'root' ? '' : `${folder}/`}\` | ${valid} | ${count.Killed + count.Timeout} | ${count.Survived} | ${count.NoCoverage} | ${score.toFixed(1)} % |`);
+  const when = fs.statSync(path.join(OUT, `${name}.json`)).mtime.toISOString().slice(0, 16).replace('T', ' ');
+  rows.push(`| ${label(name)} | ${when} | ${valid} | ${count.Killed + count.Timeout} | ${count.Survived} | ${count.NoCoverage} | ${score.toFixed(1)} % |`);
 }
-console.log('\n| Folder | Mutants | Killed | Survived | No coverage | Score |\n|---|---|---|---|---|---|');
+console.log('\n| Target | Report written (UTC) | Mutants | Killed | Survived | No coverage | Score |\n|---|---|---|---|---|---|---|');
 console.log(rows.join('\n'));

@@ -9,7 +9,6 @@ const NUMBER_TEXT = /^[-+]?(\d+([.,]\d*)?|[.,]\d+)([eE][-+]?\d+)?$/;
 
 /** Text or number → number; blank → undefined (so "required" and "optional" read clearly). */
 function toNumber(value: unknown): unknown {
-  if (typeof value === 'number') return value;
   if (value === null || value === undefined) return undefined;
   if (typeof value !== 'string') return value;
   const text = value.trim();
@@ -44,7 +43,7 @@ function numberOrNull(opts: Parameters<typeof number>[0]) {
   return z.preprocess((v) => toNumber(v) ?? null, number(opts).nullable());
 }
 
-const text = (v: unknown) => (typeof v === 'string' ? v : v === null || v === undefined ? '' : String(v));
+const text = (v: unknown) => (v === null || v === undefined ? '' : String(v));
 
 /** A name shown in lists: trimmed, 1–80 characters. */
 export const entityName = z.preprocess(
@@ -69,10 +68,11 @@ export const lengthUnitSchema = z.preprocess(
 const MAX_LENGTH_MM = 1_000_000;
 
 /** A length typed in a unit, checked after conversion to mm (the bound is in mm). */
-function lengthIn(unit: LengthUnit, value: number, ctx: z.RefinementCtx, path: string, allowZero: boolean) {
+function lengthIn(unit: LengthUnit, value: number, ctx: z.RefinementCtx, path: string) {
   const mm = toMm(value, unit);
   if (mm > MAX_LENGTH_MM) ctx.addIssue({ code: 'custom', path: [path], message: 'Must be at most 1 000 m (1 000 000 mm).' });
-  if (!allowZero && !(mm > 0)) ctx.addIssue({ code: 'custom', path: [path], message: 'Must be more than 0.' });
+  // Rounded to 0.001 mm, a positive length typed in a large unit can come out as 0.
+  if (!(mm > 0)) ctx.addIssue({ code: 'custom', path: [path], message: 'Must be more than 0.' });
   return mm;
 }
 
@@ -140,7 +140,7 @@ export const blockFields = z.object({
 
 const toBlock = (v: z.infer<typeof blockFields>, ctx: z.RefinementCtx) => ({
   name: v.name,
-  lengthMm: lengthIn(v.unit, v.length, ctx, 'length', false),
+  lengthMm: lengthIn(v.unit, v.length, ctx, 'length'),
   positionMm: toMm(v.position, v.unit),
 });
 
@@ -265,7 +265,7 @@ const toTrain = (v: z.infer<typeof trainFields>, ctx: z.RefinementCtx) => ({
   name: v.name,
   locomotiveIds: v.locomotiveIds,
   lightingAmps: v.lightingAmps,
-  lengthMm: lengthIn(v.unit, v.length, ctx, 'length', false),
+  lengthMm: lengthIn(v.unit, v.length, ctx, 'length'),
 });
 
 export const trainSchema = trainFields.transform(toTrain);

@@ -11,7 +11,8 @@ function numberField(label: string, min: number, max: number) {
     .transform((v) => (typeof v === 'string' ? v.trim() : v))
     .refine((v) => v !== '', `Enter ${label}.`)
     .transform(Number)
-    .refine((v) => Number.isFinite(v), `Enter ${label} as a number.`)
+    // One message per field: a value that is not a number is not also out of range.
+    .refine((v) => Number.isFinite(v), { message: `Enter ${label} as a number.`, abort: true })
     .refine((v) => v >= min && v <= max, `Use ${min} to ${max}.`);
 }
 
@@ -38,7 +39,7 @@ export const sessionSettingsSchema = z.object({
   date: z
     .string({ error: 'Enter the date.' })
     .trim()
-    .regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter the date as YYYY-MM-DD.')
+    .regex(/^\d{4}-\d{2}-\d{2}$/, { message: 'Enter the date as YYYY-MM-DD.', abort: true })
     .refine((d) => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)) && new Date(`${d}T00:00:00Z`).toISOString().startsWith(d), 'That date does not exist.'),
   startTime: timeOfDay('the start time'),
   endTime: timeOfDay('the end time'),
