@@ -29,6 +29,9 @@ const args = process.argv.slice(2);
 const options = {};
 const concurrencyAt = args.indexOf('--concurrency');
 if (concurrencyAt >= 0) options.concurrency = Number(args[concurrencyAt + 1]);
+// --force: test every mutant again, ignoring the incremental file (which does not notice a new test
+// reaching a mutant that had no coverage before).
+if (args.includes('--force')) options.force = true;
 // --unit: only the unit tests, for a quick look at one file whose unit tests are meant to catch its bugs.
 const unitFlag = args.includes('--unit');
 const asked = args.filter((a, i) => !a.startsWith('-') && args[i - 1] !== '--concurrency');

@@ -19,7 +19,7 @@ export const MAX_GUESTS = 200;
 export const guestEmailsSchema = z
   .string()
   .max(20_000, 'That is too much text for a list of addresses.')
-  .transform((text) => [...new Set(text.split(/[\s,;]+/).map((s) => s.trim().toLowerCase()).filter(Boolean))])
+  .transform((text) => [...new Set(text.split(/[\s,;]+/).map((s) => s.toLowerCase()).filter(Boolean))])
   .pipe(
     z
       .array(emailSchema, { error: 'Enter e-mail addresses.' })

@@ -9,8 +9,7 @@ const NUMBER_TEXT = /^[-+]?(\d+([.,]\d*)?|[.,]\d+)([eE][-+]?\d+)?$/;
 
 /** Text or number → number; blank → undefined (so "required" and "optional" read clearly). */
 function toNumber(value: unknown): unknown {
-  if (value === null || value === undefined) return undefined;
-  if (typeof value !== 'string') return value;
+  if (typeof value !== 'string') return value ?? undefined;
   const text = value.trim();
   if (text === '') return undefined;
   return NUMBER_TEXT.test(text) ? Number(text.replace(',', '.')) : Number.NaN;
@@ -175,7 +174,7 @@ export const driverFields = z.object({
   name: entityName,
   supplyId: rowId,
   presetId: z.preprocess(
-    (v) => (v === '' || v === null || v === undefined ? null : v),
+    (v) => (v === '' || v === undefined ? null : v),
     z.enum(presetIds, { error: 'Choose a preset from the list, or “Own ratings”.' }).nullable(),
   ),
   partNumber: z.preprocess(

@@ -1,6 +1,6 @@
 import ICAL from 'ical.js';
 import { describe, expect, it } from 'vitest';
-import { buildCalendarFile, buildInvitationCalendar, escapeText, sessionTimes, sessionUid, type CalendarSession } from '@/lib/calendar/ics';
+import { buildCalendarFile, buildInvitationCalendar, describeRunForCalendar, escapeText, plainText, runEventSpan, sessionTimes, sessionUid, type CalendarSession } from '@/lib/calendar/ics';
 import type { RunAssignment } from '@/lib/invitations/assignments';
 
 const host = { name: 'Hazel Brightwater', email: 'host@fishplate.example' };
@@ -248,5 +248,78 @@ describe('issue 10 finding 6: calendar injection through ids', () => {
     expect(namesIn(parsed.root)).not.toContain('valarm');
     expect(namesIn(parsed.root)).not.toContain('x-injected');
     expect(parsed.event.getAllProperties('attendee')).toHaveLength(1);
+  });
+});
+
+describe('run events and their text', () => {
+  it('escapes TEXT as RFC 5545 3.3.11 says: backslash, semicolon, comma; every line break as \\n; control characters dropped, tab kept', () => {
+    expect(escapeText('a\\b;c,d')).toBe('a\\\\b\\;c\\,d');
+    expect(escapeText('one\r\ntwo\nthree\rfour')).toBe('one\\ntwo\\nthree\\nfour');
+    expect(escapeText('bell\u0007 tab\t del\u007f esc\u001b')).toBe('bell tab\t del esc');
+    expect(plainText('x\u0000\u0008\u000b\u000c\u000e\u001fy\t\n\r')).toBe('xy\t\n\r');
+  });
+
+  it('covers the stands: from the stand before departure to the stand after arrival, in whole seconds (RFC 5545 3.3.5)', () => {
+    const r = { ...run('r1', 5), departAt: new Date('2026-12-05T18:35:00.400Z'), arriveAt: new Date('2026-12-05T18:40:00.200Z') };
+    expect(runEventSpan(r)).toEqual({ start: new Date('2026-12-05T18:33:00Z'), end: new Date('2026-12-05T18:43:01Z') });
+  });
+
+  it('lasts at least a minute, so a calendar shows it', () => {
+    const r = { ...run('r1', 5), arriveAt: new Date(run('r1', 5).departAt.getTime() + 10_000), standBeforeS: 0, standAfterS: 0 };
+    const span = runEventSpan(r);
+    expect(span.end.getTime() - span.start.getTime()).toBe(60_000);
+  });
+
+  it('describes the train, cab, times, route, stands, operator and the cab hand-overs', () => {
+    const r = {
+      ...run('r1', 5),
+      before: { runId: 'y', operatorId: null, operatorName: null, trainName: 'Goods', fastDepart: '06:05', realDepart: '18:31' },
+      note: 'Shunt at Y1',
+    };
+    expect(describeRunForCalendar(r)).toBe(
+      [
+        'Train: Stopper',
+        'Cab: Cab 1',
+        'Fast clock: departs 06:20, arrives 06:40',
+        'Real time: departs 18:35, arrives 18:40',
+        'Route: T1 → M2 → Y1',
+        'Stands 2 min real before departure and 3 min real after arrival',
+        'Operator: Zoë',
+        'Cab before: no one named with Goods at 06:05',
+        'Cab after: Priya with Express at 06:52',
+        'Shunt at Y1',
+      ].join('\n'),
+    );
+    expect(describeRunForCalendar({ ...run('r1', 5), operatorName: null, after: { ...run('r1', 5).after!, operatorName: null } }).split('\n').slice(-1)).toEqual([
+      'Cab after: no one named with Express at 06:52',
+    ]);
+  });
+
+  it('a run event names train, cab and session, with the session’s place, link and status', () => {
+    const text = buildCalendarFile({
+      name: 'Feed',
+      entries: [{ session: session({ title: 'Evening', place: 'Hall', status: 'draft' }), runs: [run('r1', 5)], url: 'https://x.example/s/1' }],
+      now: NOW,
+    });
+    const { events } = expectWellFormed(text);
+    const runEvent = events[1]!;
+    expect(runEvent.getFirstPropertyValue('summary')).toBe('Stopper on Cab 1 — Evening');
+    expect(runEvent.getFirstPropertyValue('location')).toBe('Hall');
+    expect(runEvent.getFirstPropertyValue('url')).toBe('https://x.example/s/1');
+    expect(runEvent.getFirstPropertyValue('status')).toBe('TENTATIVE'); // RFC 5545 3.8.1.11: a draft is not confirmed
+    expect(events[0]!.getFirstPropertyValue('url')).toBe('https://x.example/s/1');
+    expect(events[0]!.getFirstPropertyValue('description')).toBe(session().description);
+    const bare = parse(buildCalendarFile({ name: 'Feed', entries: [{ session: session({ place: '', description: '' }), runs: [run('r1', 5)] }], now: NOW })).events;
+    for (const e of bare) for (const p of ['location', 'url']) expect(e.hasProperty(p), p).toBe(false);
+    expect(bare[0]!.hasProperty('description')).toBe(false);
+    expect(bare[1]!.getFirstPropertyValue('sequence')).toBe(0);
+  });
+
+  it('a session that starts and ends at local midnight on the same instant is not an all-day event', () => {
+    const midnight = new Date('2026-12-05T00:00:00Z');
+    expect(sessionTimes({ startsAt: midnight, endsAt: midnight, timeZone: 'Europe/London' }).allDay).toBe(false);
+    // Starts at midnight, ends in the evening: timed.
+    expect(sessionTimes({ startsAt: midnight, endsAt: new Date('2026-12-05T21:00:00Z'), timeZone: 'Europe/London' }).allDay).toBe(false);
+    expect(sessionTimes({ startsAt: new Date('2026-12-05T09:00:00Z'), endsAt: new Date('2026-12-06T00:00:00Z'), timeZone: 'Europe/London' }).allDay).toBe(false);
   });
 });

@@ -79,6 +79,7 @@ describe('layout numbers typed as text', () => {
     expect(parsed(supplySchema, { ...supply, name: '  Main supply ' }).name).toBe('Main supply');
     expect(parsed(supplySchema, { ...supply, name: 42 }).name).toBe('42');
     expect(refusedOn(supplySchema, { ...supply, name: null }, 'name')).toBe('Enter a name.');
+    expect(refusedOn(supplySchema, { volts: '15', amps: '3' }, 'name')).toBe('Enter a name.');
     expect(refusedOn(supplySchema, { ...supply, name: ' ' }, 'name')).toBe('Enter a name.');
   });
 
@@ -125,6 +126,7 @@ describe('blocks, links and trains', () => {
     expect(parsed(blockSchema, { ...block, position: null }).positionMm).toBe(0);
     expect(parsed(blockSchema, { ...block, position: '2,5' }).positionMm).toBe(25);
     expect(refusedOn(blockSchema, { ...block, unit: 'yd' }, 'unit')).toMatch(/mm, cm, m, in, ft/);
+    expect(refusedOn(blockSchema, { ...block, unit: 10 }, 'unit')).toMatch(/mm, cm, m, in, ft/);
   });
 
   it('at most 1 km of track after conversion to mm (common practice: far above any layout)', () => {
@@ -182,6 +184,9 @@ describe('drivers and locomotives: ratings that must agree', () => {
       partNumber: 'QH-1',
     });
     expect(parsed(driverSchema, { ...driver, partNumber: '   ' }).partNumber).toBeNull();
+    const { presetId: _none, ...withoutPreset } = driver;
+    expect(parsed(driverSchema, withoutPreset).presetId).toBeNull();
+    expect(parsed(driverSchema, { ...driver, presetId: null }).presetId).toBeNull();
     expect(parsed(driverSchema, { ...driver, partNumber: 7 }).partNumber).toBeNull();
     expect(refusedOn(driverSchema, { ...driver, presetId: 'no-such-class' }, 'presetId')).toMatch(SENTENCE);
   });
