@@ -12,8 +12,8 @@ describe('a driver’s electrics between the stored fields and the plan', () => 
     expect(values.packageWatts).toBe(2.075);
     expect(values.dropMaxVolts).not.toBeNull();
     const plan = planDriverElectrics(values);
-    expect(dropAt(plan.drop.min, 1)).toBeCloseTo(2.6, 9);
-    expect(dropAt(plan.drop.max, 1)).toBeCloseTo(3.6, 9);
+    expect(dropAt(plan.drop!.min, 1)).toBeCloseTo(2.6, 9);
+    expect(dropAt(plan.drop!.max, 1)).toBeCloseTo(3.6, 9);
     expect(plan.peakPulseS).toBeCloseTo(0.005, 12);
   });
 
@@ -33,10 +33,10 @@ describe('a driver’s electrics between the stored fields and the plan', () => 
 
   it('a greatest line that differs in its voltage or in its resistance alone is kept whole', () => {
     const volts = planDriverElectrics({ dropVolts: 1, dropOhms: 0.5, dropMaxVolts: 2, dropMaxOhms: null, peakPulseMs: null, packageWatts: 3 });
-    expect(volts.drop.max).toEqual({ fixedVolts: 2, ohms: 0.5 });
+    expect(volts.drop!.max).toEqual({ fixedVolts: 2, ohms: 0.5 });
     expect(storedDriverElectrics(volts)).toMatchObject({ dropMaxVolts: 2, dropMaxOhms: 0.5, packageWatts: 3, peakPulseMs: null });
     const ohms = planDriverElectrics({ dropVolts: 1, dropOhms: 0.5, dropMaxVolts: null, dropMaxOhms: 0.8, peakPulseMs: null, packageWatts: null });
-    expect(ohms.drop.max).toEqual({ fixedVolts: 1, ohms: 0.8 });
+    expect(ohms.drop!.max).toEqual({ fixedVolts: 1, ohms: 0.8 });
     expect(storedDriverElectrics(ohms)).toMatchObject({ dropMaxVolts: 1, dropMaxOhms: 0.8 });
   });
 

@@ -31,10 +31,10 @@ type Issue = { path: PropertyKey[]; message: string };
 type Schema = { safeParse: (v: unknown) => { success: boolean; data?: unknown; error?: { issues: Issue[] } } };
 
 /** The parsed value of a valid input (fails the test with the issues when it is refused). */
-function parsed(schema: Schema, input: unknown): any {
+function parsed<T>(schema: { safeParse: (v: unknown) => { data?: T; error?: { issues: Issue[] } } }, input: unknown): T {
   const result = schema.safeParse(input);
   expect(result.error?.issues ?? [], JSON.stringify(input)).toEqual([]);
-  return result.data;
+  return result.data as T;
 }
 
 /** The one issue a refused input gets; it must be on `field`. */
@@ -302,8 +302,8 @@ describe('runs', () => {
 
   it('a retime move shifts a run by up to a week either way, never by nothing', () => {
     const move = (delayS: number) => ({ moves: [{ runId: 'r', version: 1, delayS }] });
-    expect(parsed(retimeMovesSchema, move(7 * 86_400)).moves[0].delayS).toBe(604_800);
-    expect(parsed(retimeMovesSchema, move(-7 * 86_400)).moves[0].delayS).toBe(-604_800);
+    expect(parsed(retimeMovesSchema, move(7 * 86_400)).moves[0]!.delayS).toBe(604_800);
+    expect(parsed(retimeMovesSchema, move(-7 * 86_400)).moves[0]!.delayS).toBe(-604_800);
     expect(refusedOn(retimeMovesSchema, move(7 * 86_400 + 1), 'moves.0.delayS')).toMatch(/week/);
     expect(refusedOn(retimeMovesSchema, move(-7 * 86_400 - 1), 'moves.0.delayS')).toMatch(/week/);
     expect(refusedOn(retimeMovesSchema, move(0), 'moves.0.delayS')).toMatch(SENTENCE);
