@@ -1,36 +1,68 @@
 'use client';
 
 import { useMemo, useState } from 'react';
-import { findRoute, HH_MM_PATTERN } from '@/lib/planning';
-import type { BuilderLayout } from '@/lib/sessions/types';
+import { findRoute, HH_MM_PATTERN, type FastClock } from '@/lib/planning';
+import { carryOnFrom } from '@/lib/sessions/carry-on';
+import type { BuilderLayout, BuilderRun } from '@/lib/sessions/types';
 import { Button } from '@/components/ui/button';
 import { Field, Select, TextInput } from '@/components/ui/field';
 import type { NewRunBody } from './api';
 
+const STAND_BEFORE_S = '60';
+
 /**
  * Adds a run: train, cab, operator, a fast-clock departure, and a route picked by clicking blocks
  * in order (the first and last are enough: the shortest route between clicks is filled in).
+ * It carries on: a train that already has runs starts where its last run stopped, at the first
+ * fast minute after it, and after Add the form keeps its train, cab and operator and offers the
+ * next run of the same train.
  */
 export function RunForm({
   layout,
+  runs,
+  clock,
   suggestedDepart,
   onSubmit,
   pending,
 }: {
   layout: BuilderLayout;
+  /** The session's runs, to carry on from. */
+  runs: readonly BuilderRun[];
+  clock: FastClock;
+  /** The departure offered for a train with no runs yet. */
   suggestedDepart: string;
-  onSubmit: (body: NewRunBody, label: string) => Promise<boolean>;
+  /** Adds the run; the run made, or null when it was not added. */
+  onSubmit: (body: NewRunBody, label: string) => Promise<BuilderRun | null>;
   pending: boolean;
 }) {
-  const [trainId, setTrainId] = useState(layout.trains[0]?.id ?? '');
+  const firstTrain = layout.trains[0]?.id ?? '';
+  const [initial] = useState(() => carryOnFrom(runs, firstTrain, clock, Number(STAND_BEFORE_S)));
+  const [trainId, setTrainId] = useState(firstTrain);
   const [cabId, setCabId] = useState(layout.cabs[0]?.id ?? '');
   const [operatorId, setOperatorId] = useState('');
-  const [depart, setDepart] = useState(suggestedDepart);
+  const [depart, setDepart] = useState(initial?.depart ?? suggestedDepart);
   const [speed, setSpeed] = useState('50');
-  const [standBefore, setStandBefore] = useState('60');
+  const [standBefore, setStandBefore] = useState(STAND_BEFORE_S);
   const [standAfter, setStandAfter] = useState('120');
-  const [waypoints, setWaypoints] = useState<string[]>([]);
+  const [waypoints, setWaypoints] = useState<string[]>(initial ? [initial.fromBlockId] : []);
+  // The route start the form filled in itself (replaced when the train changes, kept once the planner picks on).
+  const [prefilled, setPrefilled] = useState<string | null>(initial?.fromBlockId ?? null);
+  const [added, setAdded] = useState<string | null>(null);
   const [errors, setErrors] = useState<Record<string, string>>({});
+
+  /** Departure and route start carried on from a train's last run (or the plain suggestion). */
+  const carryOn = (forTrain: string, among: readonly BuilderRun[]) => {
+    const next = carryOnFrom(among, forTrain, clock, Number(standBefore) >= 0 ? Number(standBefore) : 0);
+    setDepart(next?.depart ?? suggestedDepart);
+    setWaypoints(next ? [next.fromBlockId] : []);
+    setPrefilled(next?.fromBlockId ?? null);
+    return next;
+  };
+  const chooseTrain = (id: string) => {
+    setTrainId(id);
+    // Only a route the form filled in (or none) is replaced: blocks the planner picked stay.
+    if (waypoints.length === 0 || (waypoints.length === 1 && waypoints[0] === prefilled)) carryOn(id, runs);
+  };
 
   const train = layout.trains.find((t) => t.id === trainId);
   const blockName = useMemo(() => new Map(layout.blocks.map((b) => [b.id, b.name])), [layout.blocks]);
@@ -63,12 +95,19 @@ export function RunForm({
     else if (new Set(route).size < 2) next.waypoints = 'Pick two different blocks: a run has to go somewhere.';
     setErrors(next);
     if (Object.keys(next).length) return;
-    const ok = await onSubmit(
+    const label = `${train?.name ?? 'run'} at ${depart.trim()}`;
+    const made = await onSubmit(
       { trainId, cabId, operatorId: operatorId || null, depart: depart.trim(), waypoints, speedKmh, standBeforeS: before, standAfterS: after },
-      `${train?.name ?? 'run'} at ${depart.trim()}`,
+      label,
     );
-    if (ok) {
-      setWaypoints([]);
+    if (made) {
+      // Carry on: the same train, cab and operator, from where this run stops, after it.
+      const next = carryOn(made.trainId, [...runs.filter((r) => r.id !== made.id), made]);
+      setAdded(
+        next
+          ? `Added ${label}. The next run of ${train?.name ?? 'this train'} can depart at ${next.depart} from ${blockName.get(next.fromBlockId) ?? 'where it stopped'}: pick where it goes.`
+          : `Added ${label}.`,
+      );
     }
   };
 
@@ -84,7 +123,7 @@ export function RunForm({
     >
       <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         <Field label="Train" name="run-train" error={errors.trainId}>
-          <Select name="run-train" value={trainId} onChange={(e) => setTrainId(e.target.value)}>
+          <Select name="run-train" value={trainId} onChange={(e) => chooseTrain(e.target.value)}>
             {layout.trains.map((t) => (
               <option key={t.id} value={t.id}>{t.name}</option>
             ))}
@@ -131,6 +170,7 @@ export function RunForm({
                 key={b.id}
                 type="button"
                 onClick={() => setWaypoints((w) => [...w, b.id])}
+                aria-pressed={order >= 0}
                 className={`rounded-full border px-2.5 py-1 text-xs ${order >= 0 ? 'border-verdigris bg-verdigris-soft font-semibold' : 'border-line hover:bg-sunken'}`}
                 data-testid="route-block"
               >
@@ -155,7 +195,10 @@ export function RunForm({
         </div>
         {errors.waypoints ? <p className="text-sm text-signal" role="alert">{errors.waypoints}</p> : null}
       </fieldset>
-      <Button type="submit" disabled={pending}>{pending ? 'Saving…' : 'Add run'}</Button>
+      <div className="flex flex-wrap items-center gap-3">
+        <Button type="submit" disabled={pending}>{pending ? 'Saving…' : 'Add run'}</Button>
+        <p className="text-sm text-muted" role="status" data-testid="run-form-status">{added}</p>
+      </div>
     </form>
   );
 }

@@ -1,8 +1,9 @@
 'use client';
 
+import * as Tabs from '@radix-ui/react-tabs';
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import dynamic from 'next/dynamic';
-import { useCallback, useMemo, useState } from 'react';
+import { useCallback, useEffect, useMemo, useState } from 'react';
 import type { Finding } from '@/lib/planning';
 import { clashingRuns, highlightOf, type Highlight } from '@/lib/sessions/highlight';
 import { fastLabel, viewLengthS, type SessionClock } from '@/lib/sessions/time-labels';
@@ -12,6 +13,7 @@ import { Button } from '@/components/ui/button';
 import { Card, Notice } from '@/components/ui/card';
 import { CrewLoad } from './crew-load';
 import { FindingsPanel, findingKey } from './findings-panel';
+import { GRAPH_HEIGHT, GraphResizeHandle } from './graph-resize-handle';
 import { LoadCharts } from './load-charts';
 import { PrintView } from './print-view';
 import { RetimeDialog } from './retime-dialog';
@@ -69,6 +71,9 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
   const [colorBy, setColorBy] = useState<'cab' | 'operator'>('cab');
   const [selected, setSelected] = useState<{ finding?: Finding; runId?: string }>({});
   const [retimeOpen, setRetimeOpen] = useState(false);
+  // On a phone the findings are a sheet over the bottom of the screen, folded to one line until opened.
+  const [sheetOpen, setSheetOpen] = useState(false);
+  const graphHeight = useGraphHeight();
 
   const trainName = useCallback((id: string) => layout.trains.find((tr) => tr.id === id)?.name ?? 'Unknown train', [layout.trains]);
   const runLabel = useCallback(
@@ -115,23 +120,58 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
   const suggestedDepart = fastLabel(Number.isFinite(lastDepart) ? lastDepart + 600 / session.clockRatio : 0, clock);
   const colors = colorBy === 'cab' ? layout.cabs : layout.operators.filter((o) => runs.some((r) => r.operatorId === o.id));
 
+  const findingsPanel = (
+    <FindingsPanel
+      findings={findings}
+      counts={snapshot.counts}
+      totals={snapshot.totals}
+      truncated={snapshot.truncated}
+      clock={clock}
+      selectedKey={selected.finding ? findingKey(selected.finding) : undefined}
+      onSelect={(f) => {
+        setSelected(f ? { finding: f } : {});
+        // On a phone, fold the sheet so the views show what the finding marks.
+        if (f && window.matchMedia('(max-width: 1023.98px)').matches) setSheetOpen(false);
+      }}
+      repair={
+        <RetimeDialog
+          open={retimeOpen}
+          onOpenChange={setRetimeOpen}
+          sessionId={sessionId}
+          clock={clock}
+          runLabel={runLabel}
+          pending={t.pending}
+          onApply={async (moves) => {
+            const done = await t.change({ type: 'retime', moves, label: 'repair' });
+            if (done) setRetimeOpen(false);
+          }}
+        >
+          <Button type="button" data-testid="repair-timing">Repair timing…</Button>
+        </RetimeDialog>
+      }
+      canEdit={editable}
+      checking={t.pending}
+      checkMs={snapshot.checkMs}
+      roundTripMs={t.lastRoundTripMs}
+      revision={t.revision}
+    />
+  );
+  const total = snapshot.totals ?? counts;
+
   return (
-    <div className="space-y-4" data-testid="timetable-builder">
+    <Tabs.Root value={view} onValueChange={(v) => setView(v as View)} className="space-y-4 max-lg:pb-16" data-testid="timetable-builder">
       <div className="no-print flex flex-wrap items-center justify-between gap-3">
-        <div role="tablist" aria-label="Views" className="flex flex-wrap gap-1 rounded-plate bg-sunken p-1">
+        <Tabs.List aria-label="Views" className="flex flex-wrap gap-1 rounded-plate bg-sunken p-1">
           {VIEWS.map((v) => (
-            <button
+            <Tabs.Trigger
               key={v.id}
-              role="tab"
-              type="button"
-              aria-selected={view === v.id}
-              onClick={() => setView(v.id)}
-              className={`rounded-plate px-3 py-1.5 text-sm font-semibold ${view === v.id ? 'bg-surface text-ink shadow-sm' : 'text-muted hover:text-ink'}`}
+              value={v.id}
+              className="rounded-plate px-3 py-1.5 text-sm font-semibold text-muted hover:text-ink focus-visible:outline focus-visible:outline-2 focus-visible:outline-verdigris data-[state=active]:bg-surface data-[state=active]:text-ink data-[state=active]:shadow-sm"
             >
               {v.label}
-            </button>
+            </Tabs.Trigger>
           ))}
-        </div>
+        </Tabs.List>
         {view === 'graph' || view === 'calendar' ? (
           <label className="flex items-center gap-2 text-sm">
             Colour by
@@ -158,23 +198,27 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
       <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_22rem]">
         <div className="min-w-0 space-y-4">
           <section className="rounded-plate border border-line bg-surface p-3 shadow-sm sm:p-4" aria-label="View">
-            {view === 'graph' ? (
-              <TrainGraph
-                layout={layout}
-                runs={runs}
-                findings={findings}
-                clock={clock}
-                sessionLengthS={lengthS}
-                clashing={clashing}
-                highlight={highlight}
-                colorOf={colorOf}
-                trainName={trainName}
-                canEdit={editable}
-                onSelectRun={selectRun}
-                onMoveRun={move}
-              />
-            ) : null}
-            {view === 'calendar' ? (
+            <Tabs.Content value="graph" className="focus-visible:outline-none">
+              <div id="train-graph-area">
+                <TrainGraph
+                  layout={layout}
+                  runs={runs}
+                  findings={findings}
+                  clock={clock}
+                  sessionLengthS={lengthS}
+                  clashing={clashing}
+                  highlight={highlight}
+                  colorOf={colorOf}
+                  trainName={trainName}
+                  canEdit={editable}
+                  onSelectRun={selectRun}
+                  onMoveRun={move}
+                  height={graphHeight.px}
+                />
+              </div>
+              <GraphResizeHandle height={graphHeight.px} onResize={graphHeight.set} controls="train-graph-area" />
+            </Tabs.Content>
+            <Tabs.Content value="calendar" className="focus-visible:outline-none">
               <CalendarView
                 runs={runs}
                 clock={clock}
@@ -187,9 +231,13 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
                 onSelectRun={selectRun}
                 onMoveRun={move}
               />
-            ) : null}
-            {view === 'load' ? <LoadCharts load={load} findings={findings} clock={clock} lengthS={lengthS} highlight={highlight} derate={session.derate} /> : null}
-            {view === 'print' ? <PrintView title={session.title} dateLabel={dateLabel} runs={runs} layout={layout} clock={clock} clashing={clashing} /> : null}
+            </Tabs.Content>
+            <Tabs.Content value="load" className="focus-visible:outline-none">
+              <LoadCharts load={load} findings={findings} clock={clock} lengthS={lengthS} highlight={highlight} derate={session.derate} />
+            </Tabs.Content>
+            <Tabs.Content value="print" className="focus-visible:outline-none">
+              <PrintView title={session.title} dateLabel={dateLabel} runs={runs} layout={layout} clock={clock} clashing={clashing} />
+            </Tabs.Content>
             {(view === 'graph' || view === 'calendar') && colors.length ? (
               <ul className="mt-3 flex flex-wrap gap-3 text-xs" aria-label="Colours">
                 {colors.map((c, i) => (
@@ -204,6 +252,22 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
           </section>
 
           <div className="no-print space-y-4">
+            {editable ? (
+              <Card title="Add a run">
+                {layout.trains.length && layout.cabs.length && layout.blocks.length > 1 ? (
+                  <RunForm
+                    layout={layout}
+                    runs={runs}
+                    clock={clock}
+                    suggestedDepart={suggestedDepart}
+                    pending={t.pending}
+                    onSubmit={async (body, label) => (await t.change({ type: 'create', body, label }))?.run ?? null}
+                  />
+                ) : (
+                  <p className="text-sm text-muted">This layout needs at least two blocks, a cab and a train before runs can be added.</p>
+                )}
+              </Card>
+            ) : null}
             <Card title={`Runs (${runs.length})`}>
               <RunTable
                 runs={runs}
@@ -223,24 +287,11 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
             <div className="lg:hidden">
               <CrewLoad runs={runs} layout={layout} ratio={session.clockRatio} />
             </div>
-            {editable ? (
-              <Card title="Add a run">
-                {layout.trains.length && layout.cabs.length && layout.blocks.length > 1 ? (
-                  <RunForm
-                    layout={layout}
-                    suggestedDepart={suggestedDepart}
-                    pending={t.pending}
-                    onSubmit={async (body, label) => Boolean(await t.change({ type: 'create', body, label }))}
-                  />
-                ) : (
-                  <p className="text-sm text-muted">This layout needs at least two blocks, a cab and a train before runs can be added.</p>
-                )}
-              </Card>
-            ) : null}
           </div>
         </div>
 
-        <aside className={`no-print space-y-4 self-start lg:sticky lg:top-4 lg:order-none ${canEdit ? 'order-first' : ''}`}>
+        {/* Beside the views on a laptop, the findings stay in sight while the page scrolls (sticky, scrolling on their own). */}
+        <aside className={`no-print space-y-4 self-start lg:sticky lg:top-4 lg:max-h-[calc(100dvh-2rem)] lg:overflow-y-auto ${canEdit ? 'max-lg:order-first' : ''}`}>
           {canEdit && status?.status === 'draft' ? (
             <section className="rounded-plate border border-brass/40 bg-brass-soft p-4 text-sm" aria-label="Publishing" data-testid="publish-panel">
               <p className="mb-2">This timetable is a <strong>draft</strong>: invited operators cannot see it yet.</p>
@@ -250,42 +301,32 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
               <StatusForm key={status.version} railwayId={status.railwayId} session={{ id: sessionId, version: status.version, status: status.status, title: status.title }} check={counts} compact />
             </section>
           ) : null}
-          <FindingsPanel
-            findings={findings}
-            totals={snapshot.totals}
-            truncated={snapshot.truncated}
-            clock={clock}
-            selectedKey={selected.finding ? findingKey(selected.finding) : undefined}
-            onSelect={(f) => setSelected(f ? { finding: f } : {})}
-            onRepair={() => setRetimeOpen(true)}
-            canEdit={editable}
-            checking={t.pending}
-            checkMs={snapshot.checkMs}
-            roundTripMs={t.lastRoundTripMs}
-            revision={t.revision}
-          />
+          <div className="max-lg:fixed max-lg:inset-x-0 max-lg:bottom-0 max-lg:z-30 max-lg:border-t max-lg:border-line max-lg:bg-paper max-lg:shadow-[0_-6px_16px_-8px_rgb(0_0_0/0.3)]" data-testid="findings-dock">
+            <button
+              type="button"
+              className="flex w-full items-center justify-between gap-2 px-4 py-3 text-left text-sm font-semibold lg:hidden"
+              aria-expanded={sheetOpen}
+              aria-controls="findings-sheet"
+              onClick={() => setSheetOpen((o) => !o)}
+              data-testid="findings-sheet-toggle"
+            >
+              <span>
+                Findings: <span className={total.errors ? 'text-signal' : ''}>{total.errors} error{total.errors === 1 ? '' : 's'}</span>, {total.warnings} warning{total.warnings === 1 ? '' : 's'}
+              </span>
+              <span aria-hidden className={`transition-transform ${sheetOpen ? 'rotate-180' : ''}`}>▴</span>
+            </button>
+            <div id="findings-sheet" className={sheetOpen ? 'max-lg:max-h-[70dvh] max-lg:overflow-y-auto max-lg:px-2 max-lg:pb-2' : 'max-lg:hidden'}>
+              {findingsPanel}
+            </div>
+          </div>
           <div className="hidden lg:block">
             <CrewLoad runs={runs} layout={layout} ratio={session.clockRatio} />
           </div>
         </aside>
       </div>
 
-      {retimeOpen ? (
-        <RetimeDialog
-          sessionId={sessionId}
-          clock={clock}
-          runLabel={runLabel}
-          pending={t.pending}
-          onClose={() => setRetimeOpen(false)}
-          onApply={async (moves) => {
-            const done = await t.change({ type: 'retime', moves, label: 'repair' });
-            if (done) setRetimeOpen(false);
-          }}
-        />
-      ) : null}
-
       {t.undoable ? (
-        <div className="no-print fixed inset-x-2 bottom-3 z-40 mx-auto flex max-w-xl items-center justify-between gap-3 rounded-plate border border-line bg-ink px-4 py-3 text-sm text-paper shadow-lg" role="status" data-testid="undo-bar">
+        <div className="no-print fixed inset-x-2 bottom-3 z-40 max-lg:bottom-16 mx-auto flex max-w-xl items-center justify-between gap-3 rounded-plate border border-line bg-ink px-4 py-3 text-sm text-paper shadow-lg" role="status" data-testid="undo-bar">
           <span>{t.undoable.label}.</span>
           <span className="flex gap-2">
             <Button type="button" variant="secondary" onClick={t.undo} data-testid="undo">Undo</Button>
@@ -293,6 +334,30 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
           </span>
         </div>
       ) : null}
-    </div>
+    </Tabs.Root>
   );
+}
+
+const GRAPH_HEIGHT_KEY = 'fishplate:train-graph-height';
+
+/**
+ * The train graph's height: most of the window by default (a laptop gives it the screen's height
+ * less the page header, a phone a little over half), or what the planner last set it to.
+ */
+function useGraphHeight(): { px: number; set: (px: number) => void } {
+  const [px, setPx] = useState(480);
+  useEffect(() => {
+    const stored = Number(window.localStorage.getItem(GRAPH_HEIGHT_KEY));
+    const wide = window.matchMedia('(min-width: 1024px)').matches;
+    const fit = wide ? window.innerHeight - 150 : window.innerHeight * 0.55;
+    const wanted = stored >= GRAPH_HEIGHT.min && stored <= GRAPH_HEIGHT.max ? stored : Math.min(GRAPH_HEIGHT.max, Math.max(GRAPH_HEIGHT.min, Math.round(fit)));
+    // Read once the page is in the browser: the server cannot know the window.
+    // eslint-disable-next-line react-hooks/set-state-in-effect -- a one-off read of the window and storage after hydration
+    setPx(wanted);
+  }, []);
+  const set = useCallback((next: number) => {
+    setPx(next);
+    window.localStorage.setItem(GRAPH_HEIGHT_KEY, String(next));
+  }, []);
+  return { px, set };
 }

@@ -20,11 +20,15 @@ type Props = {
   canEdit: boolean;
   onSelectRun: (runId: string) => void;
   onMoveRun: (run: BuilderRun, departS: number) => void;
+  /** The drawing's height in px (the planner resizes it); without it each stretch of line gets ROW px. */
+  height?: number;
 };
 
 const TOP = 34;
 const BOTTOM = 26;
 const ROW = 30;
+/** The least height of one stretch of line, however small the drawing is made. */
+const MIN_ROW = 16;
 
 /** A label per distinct stretch of line: blocks side by side (a loop's two roads) share one row. */
 function rowsOf(blocks: BuilderLayout['blocks']) {
@@ -111,7 +115,8 @@ export function TrainGraph(props: Props) {
   const left = narrow ? 92 : 168;
   const right = 12;
   const rows = useMemo(() => rowsOf(layout.blocks), [layout.blocks]);
-  const height = TOP + BOTTOM + rows.length * ROW;
+  const ROW_H = props.height ? Math.max(MIN_ROW, (props.height - TOP - BOTTOM) / Math.max(1, rows.length)) : ROW;
+  const height = TOP + BOTTOM + rows.length * ROW_H;
   const rowOfBlock = useMemo(() => {
     const map = new Map<string, number>();
     rows.forEach((row, i) => row.ids.forEach((id) => map.set(id, i)));
@@ -125,7 +130,7 @@ export function TrainGraph(props: Props) {
       const row = rows[i]!;
       if (mm <= row.to || i === rows.length - 1) {
         const within = row.to > row.from ? Math.min(1, Math.max(0, (mm - row.from) / (row.to - row.from))) : 0.5;
-        return TOP + (i + within) * ROW;
+        return TOP + (i + within) * ROW_H;
       }
     }
     return TOP;
@@ -208,7 +213,8 @@ export function TrainGraph(props: Props) {
     for (let s = Math.ceil((t0 - offsetS) / stepS) * stepS + offsetS; s <= t1 && ticks.length < MAX_TICKS; s += stepS) ticks.push(s);
   }
 
-  const overlaps = findings.filter((f) => f.kind === 'block-overlap');
+  // Block clashes, and blocks held by a standing train when another comes: boxed where they happen.
+  const overlaps = findings.filter((f) => f.kind === 'block-overlap' || f.kind === 'block-occupied');
   const dimOthers = highlight && highlight.runIds.size > 0;
 
   return (
@@ -246,7 +252,7 @@ export function TrainGraph(props: Props) {
         >
           <defs>
             <clipPath id="graph-plot">
-              <rect x={left} y={TOP - 4} width={plotWidth} height={rows.length * ROW + 8} />
+              <rect x={left} y={TOP - 4} width={plotWidth} height={rows.length * ROW_H + 8} />
             </clipPath>
           </defs>
           {rows.map((row, i) => {
@@ -254,8 +260,8 @@ export function TrainGraph(props: Props) {
             const label = row.names.length > 1 ? `${row.names[0]} (+${row.names.length - 1})` : row.names[0]!;
             return (
               <g key={row.ids.join()}>
-                <rect x={left} y={TOP + i * ROW} width={plotWidth} height={ROW} className={marked ? 'fill-brass-soft' : i % 2 ? 'fill-sunken' : 'fill-surface'} opacity={marked ? 1 : 0.6} />
-                <text x={left - 6} y={TOP + i * ROW + ROW / 2 + 4} textAnchor="end" className={`fill-ink ${narrow ? 'text-[10px]' : 'text-[11px]'}`}>
+                <rect x={left} y={TOP + i * ROW_H} width={plotWidth} height={ROW_H} className={marked ? 'fill-brass-soft' : i % 2 ? 'fill-sunken' : 'fill-surface'} opacity={marked ? 1 : 0.6} />
+                <text x={left - 6} y={TOP + i * ROW_H + ROW_H / 2 + 4} textAnchor="end" className={`fill-ink ${narrow ? 'text-[10px]' : 'text-[11px]'}`}>
                   <title>{row.names.join(' · ')}</title>
                   {label.length > (narrow ? 13 : 26) ? `${label.slice(0, narrow ? 12 : 25)}…` : label}
                 </text>
@@ -273,7 +279,7 @@ export function TrainGraph(props: Props) {
           <text x={4} y={TOP - 6} className="fill-muted text-[10px]">real</text>
           <g clipPath="url(#graph-plot)">
             {highlight && highlight.toS >= highlight.fromS ? (
-              <rect x={x(highlight.fromS) - 2} y={TOP} width={Math.max(4, x(highlight.toS) - x(highlight.fromS) + 4)} height={rows.length * ROW} className="fill-brass" opacity={0.18} />
+              <rect x={x(highlight.fromS) - 2} y={TOP} width={Math.max(4, x(highlight.toS) - x(highlight.fromS) + 4)} height={rows.length * ROW_H} className="fill-brass" opacity={0.18} />
             ) : null}
             {runs.map((run) => {
               const selected = highlight?.runIds.has(run.id) ?? false;
@@ -301,9 +307,9 @@ export function TrainGraph(props: Props) {
               const x0 = x(f.fromS);
               const w = Math.max(6, x(f.toS) - x0);
               return (
-                <g key={`${f.ids.join()}`} data-testid="graph-clash" pointerEvents="none">
-                  <rect x={x0 - 3} y={TOP + row * ROW + 2} width={w + 6} height={ROW - 4} fill="none" className="stroke-signal" strokeWidth={2} rx={3} />
-                  <text x={x0 + w / 2} y={TOP + row * ROW + ROW / 2 + 4} textAnchor="middle" className="fill-signal text-[12px] font-bold">!</text>
+                <g key={`${f.kind}:${f.ids.join()}:${f.fromS}`} data-testid="graph-clash" data-kind={f.kind} pointerEvents="none">
+                  <rect x={x0 - 3} y={TOP + row * ROW_H + 2} width={w + 6} height={ROW_H - 4} fill="none" className="stroke-signal" strokeWidth={2} rx={3} />
+                  <text x={x0 + w / 2} y={TOP + row * ROW_H + ROW_H / 2 + 4} textAnchor="middle" className="fill-signal text-[12px] font-bold">!</text>
                 </g>
               );
             })}

@@ -12,6 +12,11 @@ export class TimetablePage {
     return this.page.locator(`[data-testid="finding"][data-kind="${kind}"]`);
   }
 
+  /** The group of findings of one kind (a disclosure with a count). */
+  findingGroup(kind: string): Locator {
+    return this.page.locator(`[data-testid="finding-group"][data-kind="${kind}"]`);
+  }
+
   get errorCount(): Locator {
     return this.page.getByTestId('error-count');
   }
