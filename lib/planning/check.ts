@@ -5,6 +5,7 @@ import { buildLoadProfile, findPowerOverloads, type LoadProfile } from './load';
 import { planNames, sentenceCase, withNoun, type PlanNames } from './names';
 import { indexPlan, type PlanIndex } from './plan-index';
 import type { Plan } from './schema';
+import { findPolarityIssues } from './polarity';
 import { findVoltageIssues } from './voltage';
 
 export interface PlanCheck {
@@ -107,6 +108,18 @@ class FindingList {
  *   link joins.
  * - `train-too-long` (warning) `[runId, blockId]`: the train stands (first or last step) in a block
  *   shorter than itself; one finding when both are the same block.
+ * - `route-reversal` (error) `[runId, blockId]`: the run changes direction inside a block (not its
+ *   first or last) that is not a reversing place.
+ * - `reversing-loop` (error) `[blockId…]` (the loop): joints no wiring can make agree, a reversing
+ *   loop or wye with no reversing section; from the layout, at time 0.
+ * - `joint-wiring` (warning) `[blockA, blockB]`: a joint whose two blocks are wired so that one cab
+ *   output gives opposite polarity across it (outside any reversing loop); at time 0.
+ * - `joint-short` (error) `[runId, blockLeft, blockEntered]`: while the train bridges the rail gap,
+ *   the two blocks need opposite cab outputs (neither a reversing section), or one of them is fed by
+ *   another cab for another run.
+ * - `reversing-section-short` (error) `[runId, blockId]`: the run passes through a reversing section
+ *   that must flip and is never wholly inside it (too short, or head out before tail in).
+ * See polarity.ts and track.ts for the model (NEM 631 2.3).
  * - `channel-overload`, `channel-peak-overload` `[cabId]`, `driver-overload` `[driverId]`,
  *   `supply-overload`, `supply-derate` (warning) `[supplyId]`: one per maximal interval over the
  *   limit, with peakAmps and limitAmps (see LoadProfile for the loads).
@@ -137,6 +150,7 @@ export function checkPlan(plan: Plan, options: CheckOptions = {}): PlanCheck {
   findRouteGaps(plan, index, names, shapes);
   findStepGaps(plan, names, shapes);
   findTooLong(plan, index, names, shapes);
+  findPolarityIssues(plan, index, names, shapes);
   inBudget();
   const load = buildLoadProfile(plan, index);
   findPowerOverloads(load, plan.rules.derate, shapes, names);

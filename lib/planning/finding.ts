@@ -10,6 +10,11 @@ export type FindingKind =
   | 'route-gap'
   | 'step-gap'
   | 'train-too-long'
+  | 'route-reversal'
+  | 'reversing-loop'
+  | 'joint-wiring'
+  | 'joint-short'
+  | 'reversing-section-short'
   | 'channel-overload'
   | 'channel-peak-overload'
   | 'driver-overload'
@@ -32,6 +37,11 @@ export const FINDING_KINDS: readonly FindingKind[] = [
   'route-gap',
   'step-gap',
   'train-too-long',
+  'route-reversal',
+  'reversing-loop',
+  'joint-wiring',
+  'joint-short',
+  'reversing-section-short',
   'channel-overload',
   'channel-peak-overload',
   'driver-overload',

@@ -13,6 +13,8 @@ export {
   operatorSchema,
   runSchema,
   stepSchema,
+  blockEndSchema,
+  BLOCK_ENDS,
   dropLineSchema,
   formatPlanIssues,
   formatIssuePath,
@@ -30,6 +32,7 @@ export type {
   Cab,
   Block,
   Link,
+  BlockEnd,
   Loco,
   Train,
   Operator,
@@ -51,8 +54,11 @@ export { timeRun, modelSpeedMmPerS } from './timing';
 export type { TimeRunInput, TimedRun } from './timing';
 export { defaultRamps, modelRateMmPerS2, Movement } from './motion';
 export type { Ramps, RampDefault } from './motion';
-export { findRoute } from './route';
-export type { TrackGraph } from './route';
+export { findRoute, routeThrough, ROUTE_WAYPOINTS_CAP } from './route';
+export type { TrackGraph, RouteStep, RouteResult } from './route';
+export { travelOfRun, neededOutput, jointAgrees, linkEnds, otherEnd, checkJointParity, endAdjacency } from './track';
+export type { End, Travel } from './track';
+export { travelOfPlan } from './polarity';
 export { dutyFor, pwm8Of } from './duty';
 export type { DutyInput, DutyResult } from './duty';
 export { realToFast, fastToReal, formatFast, parseFastTime, formatTimeOfDay, formatSessionTime } from './clock';

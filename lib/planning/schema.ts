@@ -91,10 +91,31 @@ export const cabSchema = z.object({
   channel: z.number().int('must be a whole number').min(1, 'must be 1 or more').max(64, 'must be 64 or fewer'),
 });
 
-// Lengths up to a kilometre of model track in one block, and trains up to 100 m.
-export const blockSchema = z.object({ id, name, lengthMm: upTo(1_000_000) });
+/** A block's two ends. A train travels through a block from one end to the other. */
+export const BLOCK_ENDS = ['a', 'b'] as const;
+export const blockEndSchema = z.enum(BLOCK_ENDS);
 
-export const linkSchema = z.object({ a: id, b: id });
+// Lengths up to a kilometre of model track in one block, and trains up to 100 m.
+export const blockSchema = z.object({
+  id,
+  name,
+  lengthMm: upTo(1_000_000),
+  /**
+   * Which rail the cab's positive output feeds, looking towards the block's `b` end. Absent: the
+   * right-hand rail, so that a cab driving forward moves a train towards `b` (NEM 631 2.3).
+   */
+  positiveRail: z.enum(['right', 'left']).optional(),
+  /** A reversing section: the block has its own polarity switch (a relay or an H-bridge of its own). */
+  reversingSection: z.boolean().optional(),
+  /** A reversing place: a train may change direction here in the middle of a run. */
+  reversingPlace: z.boolean().optional(),
+});
+
+/**
+ * A rail joint: end `aEnd` of block `a` meets end `bEnd` of block `b`. Absent ends (plans written
+ * before blocks had ends): `a`'s `b` end meets `b`'s `a` end, the line running from `a` to `b`.
+ */
+export const linkSchema = z.object({ a: id, b: id, aEnd: blockEndSchema.optional(), bEnd: blockEndSchema.optional() });
 
 export const locoSchema = z.object({
   id,
@@ -122,7 +143,18 @@ export const trainSchema = z.object({
 
 export const operatorSchema = z.object({ id, name });
 
-export const stepSchema = z.object({ blockId: id, enterS: seconds, exitS: seconds });
+/**
+ * A run's time in one block. `fromEnd` and `toEnd` give the direction of travel: the train comes in
+ * at `fromEnd` and leaves (or stops facing) `toEnd`; the same end twice means it reverses in the
+ * block. Absent: derived from the route (see travelOfRun).
+ */
+export const stepSchema = z.object({
+  blockId: id,
+  enterS: seconds,
+  exitS: seconds,
+  fromEnd: blockEndSchema.optional(),
+  toEnd: blockEndSchema.optional(),
+});
 
 export const runSchema = z.object({
   id,
@@ -185,6 +217,7 @@ export type Driver = Plan['drivers'][number];
 export type Cab = Plan['cabs'][number];
 export type Block = Plan['blocks'][number];
 export type Link = Plan['links'][number];
+export type BlockEnd = z.infer<typeof blockEndSchema>;
 export type Loco = Plan['locos'][number];
 export type Train = Plan['trains'][number];
 export type Operator = Plan['operators'][number];

@@ -42,12 +42,19 @@ export function highlightOf(finding: Finding, runs: readonly RunLike[], layout: 
       break;
     case 'route-gap':
     case 'step-gap':
+    case 'joint-short':
       if (a) h.runIds.add(a);
       [b, c].forEach((id) => id && h.blockIds.add(id));
       break;
     case 'train-too-long':
+    case 'route-reversal':
+    case 'reversing-section-short':
       if (a) h.runIds.add(a);
       if (b) h.blockIds.add(b);
+      break;
+    case 'reversing-loop':
+    case 'joint-wiring':
+      for (const id of finding.ids) h.blockIds.add(id);
       break;
     case 'channel-overload':
     case 'channel-peak-overload':
@@ -103,6 +110,11 @@ export const FINDING_LABELS: Record<Finding['kind'], string> = {
   'route-gap': 'Route gap',
   'step-gap': 'Gap between steps',
   'train-too-long': 'Train longer than block',
+  'route-reversal': 'Reverses where it may not',
+  'reversing-loop': 'Reversing loop without a reversing section',
+  'joint-wiring': 'Rail joint wired the other way round',
+  'joint-short': 'Short across a rail gap',
+  'reversing-section-short': 'Train not wholly inside the reversing section',
   'channel-overload': 'Channel overload',
   'channel-peak-overload': 'Start-up surge overload',
   'driver-overload': 'Driver overload',

@@ -49,13 +49,18 @@ describe('demo railway seed', () => {
     const parsed = planSchema.safeParse(sessionToPlan(loadSessionRows(session.id)!));
     expect(parsed.success).toBe(true);
     if (!parsed.success) return;
-    const kinds = new Set(checkPlan(parsed.data).findings.filter((f) => f.severity === 'error').map((f) => f.kind));
+    const findings = checkPlan(parsed.data).findings;
+    const kinds = new Set(findings.filter((f) => f.severity === 'error').map((f) => f.kind));
     // The three deliberate clashes, and what the whole session's occupancy (issue 12) finds in a
     // timetable written before it: trains standing between runs in blocks others use, and the
-    // freight diesel in both the goods and the stone train.
+    // freight diesel in both the goods and the stone train. Where the goods meets the express, each
+    // bridges a rail gap into a block the other's cab feeds (joint-short, two cabs).
     expect(kinds).toEqual(
-      new Set(['block-overlap', 'block-occupied', 'loco-in-two-trains', 'cab-double-booked', 'channel-overload', 'channel-peak-overload']),
+      new Set(['block-overlap', 'block-occupied', 'loco-in-two-trains', 'cab-double-booked', 'channel-overload', 'channel-peak-overload', 'joint-short']),
     );
+    const shorts = findings.filter((f) => f.kind === 'joint-short');
+    expect(shorts.every((f) => /two cabs meet across the gap/.test(f.message) && /Pick-up goods|Fernwick express/.test(f.message))).toBe(true);
+    expect(new Set(shorts.map((f) => f.fromS < 40 * 60 && f.fromS > 30 * 60))).toEqual(new Set([true]));
   });
 
   it('demo sessions always start on a Saturday at least two days ahead', () => {
