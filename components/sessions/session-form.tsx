@@ -21,6 +21,8 @@ export type SessionFormValues = {
   headwayS: number;
   surgeS: number;
   deratePercent: number;
+  standS: number;
+  punctualFastMin: number;
 };
 
 /**
@@ -103,6 +105,15 @@ export function SessionForm({
         </Field>
         <Field label="Supply load limit (%)" name="deratePercent" error={errors.deratePercent} hint={`Continuous load as a share of each supply's rating. Default ${SESSION_DEFAULTS.deratePercent} % (rule of thumb; NEC 210.20(A) uses the same 80 % for breakers).`}>
           <TextInput name="deratePercent" inputMode="decimal" defaultValue={v?.deratePercent ?? SESSION_DEFAULTS.deratePercent} />
+        </Field>
+      </fieldset>
+      <fieldset className="grid gap-4 sm:grid-cols-2">
+        <legend className="mb-2 text-sm font-semibold">Session day</legend>
+        <Field label="Least stand between runs (real s)" name="standS" error={errors.standS} hint={`When a delay is passed on, the next run of the same train, cab or operator starts at least this long after the one before ends. Default ${SESSION_DEFAULTS.standS} s.`}>
+          <TextInput name="standS" inputMode="decimal" defaultValue={v?.standS ?? SESSION_DEFAULTS.standS} />
+        </Field>
+        <Field label="Punctual within (fast min)" name="punctualFastMin" error={errors.punctualFastMin} hint={`In the report, a run that departs within this many fast minutes of its time counts as punctual. Default ${SESSION_DEFAULTS.punctualFastMin} min.`}>
+          <TextInput name="punctualFastMin" inputMode="decimal" defaultValue={v?.punctualFastMin ?? SESSION_DEFAULTS.punctualFastMin} />
         </Field>
       </fieldset>
       {session ? (

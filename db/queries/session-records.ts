@@ -43,7 +43,8 @@ export function getRailwayLayout(railwayId: string, layoutId: string) {
 export type SessionValues = Pick<
   Session,
   'title' | 'place' | 'description' | 'startsAt' | 'endsAt' | 'clockRatio' | 'fastStart' | 'headwayS' | 'surgeS' | 'derate'
->;
+> &
+  Partial<Pick<Session, 'standS' | 'punctualFastMin'>>;
 
 /** Creates a draft session on one of the railway's layouts. */
 export function insertSession(railwayId: string, layoutId: string, timeZone: string, values: SessionValues): Session {

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { CLOCK_ACTIONS, REPORT_KINDS, STOP_REASONS } from '@/db/enums';
 import { HH_MM_PATTERN } from '@/lib/planning';
+import { SESSION_DAY_RANGE } from '@/lib/validations/session';
 
 const fastTime = z
   .string({ error: 'Enter a fast-clock time as HH:MM.' })
@@ -62,5 +63,5 @@ export const livePollSchema = z.object({
 /** `GET /api/sessions/{id}/report`. */
 export const reportQuerySchema = z.object({
   format: z.enum(['json', 'csv']).default('json'),
-  punctualMin: z.coerce.number().min(0).max(120).optional(),
+  punctualMin: z.coerce.number().min(SESSION_DAY_RANGE.punctualFastMin.min).max(SESSION_DAY_RANGE.punctualFastMin.max).optional(),
 });

@@ -30,7 +30,14 @@ export const SESSION_DEFAULTS = {
   deratePercent: Math.round(defaultRules.derate * 100),
   startTime: '18:30',
   endTime: '21:30',
+  /** Session day: least real seconds between two runs of one train, cab or operator when delays propagate. */
+  standS: 60,
+  /** Session day: a departure within this many fast minutes of its time is punctual in the report. */
+  punctualFastMin: 3,
 } as const;
+
+/** Bounds of the session-day settings (also the report route's `punctualMin`). */
+export const SESSION_DAY_RANGE = { standS: { min: 0, max: 3600 }, punctualFastMin: { min: 0, max: 120 } } as const;
 
 export const sessionSettingsSchema = z.object({
   title: z.string({ error: 'Enter a title.' }).trim().min(2, 'Use at least 2 characters.').max(120, 'Use at most 120 characters.'),
@@ -48,6 +55,9 @@ export const sessionSettingsSchema = z.object({
   headwayS: numberField('the headway in seconds', 0, 3600),
   surgeS: numberField('the surge time in seconds', 0, 60),
   deratePercent: numberField('the supply load limit in percent', 10, 100),
+  // Optional so that a form or tool that leaves them out keeps the stored value (or the default).
+  standS: numberField('the least stand in seconds', SESSION_DAY_RANGE.standS.min, SESSION_DAY_RANGE.standS.max).optional(),
+  punctualFastMin: numberField('the punctuality margin in fast minutes', SESSION_DAY_RANGE.punctualFastMin.min, SESSION_DAY_RANGE.punctualFastMin.max).optional(),
 });
 export type SessionSettingsInput = z.infer<typeof sessionSettingsSchema>;
 

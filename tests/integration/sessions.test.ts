@@ -120,6 +120,24 @@ describe('sessions', () => {
     expect(await setSessionStatus(w.railway.id, null, formData({ sessionId: session.id, version: '5', status: 'published' }))).toMatchObject({ ok: false, status: 400 });
   });
 
+  it('saves the session-day settings (least stand, punctuality margin) for planners, keeps them when a form leaves them out, refuses out-of-range values and operators', async () => {
+    const w = makeWorld();
+    const { session } = makeSessionWorld(w, { status: 'draft' });
+    const base = { sessionId: session.id, date: session.startsAt.toISOString().slice(0, 10), startTime: session.startsAt.toISOString().slice(11, 16), endTime: session.endsAt.toISOString().slice(11, 16) };
+    expect(getSessionById(session.id)).toMatchObject({ standS: 60, punctualFastMin: 3 });
+    signInAs(w.operator);
+    expect(await updateSession(w.railway.id, null, settings({ ...base, version: '1', standS: '90' }))).toMatchObject({ ok: false, status: 403 });
+    signInAs(w.planner);
+    const refused = await updateSession(w.railway.id, null, settings({ ...base, version: '1', standS: '3601', punctualFastMin: '-1' }));
+    expect(refused).toMatchObject({ ok: false, status: 400, fieldErrors: { standS: 'Use 0 to 3600.', punctualFastMin: 'Use 0 to 120.' } });
+    expect(getSessionById(session.id)).toMatchObject({ standS: 60, punctualFastMin: 3, version: 1 });
+    expect(await updateSession(w.railway.id, null, settings({ ...base, version: '1', standS: '90', punctualFastMin: '5' }))).toMatchObject({ ok: true });
+    expect(getSessionById(session.id)).toMatchObject({ standS: 90, punctualFastMin: 5, version: 2 });
+    // A form (or tool) without the two fields keeps what is stored.
+    expect(await updateSession(w.railway.id, null, settings({ ...base, version: '2', title: 'Renamed' }))).toMatchObject({ ok: true });
+    expect(getSessionById(session.id)).toMatchObject({ title: 'Renamed', standS: 90, punctualFastMin: 5 });
+  });
+
   it('duplicates a session to a new date as a draft with the same runs', async () => {
     const w = makeWorld();
     const { session } = makeSessionWorld(w);

@@ -15,6 +15,8 @@ export const SESSION_SETTINGS_BOUNDS: Bound[] = [
     max: 100,
     source: 'continuous load at 80 % of a supply rating (rule of thumb, the NEC 210.20(A) figure); below 10 % a supply carries nothing useful',
   },
+  { field: 'standS', min: 0, max: 3600, source: 'real seconds a train, cab or operator stands between runs, at most an hour (common practice)' },
+  { field: 'punctualFastMin', min: 0, max: 120, source: 'a punctuality margin of a few fast minutes, at most two fast hours (common practice)' },
 ];
 
 export const SERIES_BOUNDS: Bound[] = [

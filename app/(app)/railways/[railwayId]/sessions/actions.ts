@@ -33,7 +33,7 @@ const fields = (formData: FormData, names: readonly string[]) =>
   Object.fromEntries(names.map((n) => [n, formData.get(n) ?? undefined]));
 
 const SETTINGS_FIELDS = [
-  'title', 'place', 'description', 'date', 'startTime', 'endTime', 'clockRatio', 'fastStart', 'headwayS', 'surgeS', 'deratePercent',
+  'title', 'place', 'description', 'date', 'startTime', 'endTime', 'clockRatio', 'fastStart', 'headwayS', 'surgeS', 'deratePercent', 'standS', 'punctualFastMin',
 ] as const;
 
 function fieldError(path: string, message: string): AppError {
@@ -63,6 +63,8 @@ function settingsValues(input: SessionSettingsInput, timeZone: string): SessionV
     headwayS: input.headwayS,
     surgeS: input.surgeS,
     derate: input.deratePercent / 100,
+    ...(input.standS === undefined ? {} : { standS: input.standS }),
+    ...(input.punctualFastMin === undefined ? {} : { punctualFastMin: input.punctualFastMin }),
   };
 }
 

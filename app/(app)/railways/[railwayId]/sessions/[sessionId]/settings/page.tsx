@@ -44,6 +44,8 @@ export default async function SessionSettingsPage({ params }: { params: Promise<
             headwayS: session.headwayS,
             surgeS: session.surgeS,
             deratePercent: Math.round(session.derate * 100),
+            standS: session.standS,
+            punctualFastMin: session.punctualFastMin,
           }}
         />
       </Card>
