@@ -5,7 +5,8 @@ import { Badge } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
 import type { LiveRun, LiveState } from '@/lib/live/types';
 import { ClockControls } from './clock-controls';
-import { blockAt, delayLabel, fastAt, fastMinutes, isUnderWay, namesOf, notDeparted } from './live-format';
+import { CorrectReports } from './correct-reports';
+import { blockAt, delayLabel, fastAt, fastMinutes, isUnderWay, namesOf, notDeparted, reportedRuns } from './live-format';
 import { ReportButtons } from './report-buttons';
 import { postLive, useClockReading, useLiveSession, type LiveMode } from './use-live-session';
 
@@ -147,6 +148,13 @@ export function LiveBoard({ sessionId, initial, canControl, isHost }: { sessionI
           </ul>
           {isHost && state.repair.length ? <RepairPanel state={state} accept={accept} trainName={(id) => train(state.runs.find((r) => r.id === id)!)} /> : null}
         </section>
+
+        {isHost ? (
+          <section className="rounded-plate border border-line bg-surface p-4" aria-labelledby="correct-h">
+            <h2 id="correct-h" className="font-display text-2xl font-bold">Correct a report</h2>
+            <CorrectReports state={state} accept={accept} runs={reportedRuns(state.runs)} trainName={train} />
+          </section>
+        ) : null}
 
         <section className="rounded-plate border border-line bg-surface p-4" aria-labelledby="feed-h">
           <h2 id="feed-h" className="font-display text-2xl font-bold">Latest</h2>

@@ -28,3 +28,8 @@ export function delayLabel(delayS: number, clock: FastClock): string | null {
   const min = fastMinutes(delayS, clock);
   return min >= 1 ? `+${min} min` : null;
 }
+
+/** Runs with something reported (departed, stopped or arrived), in the order they actually left. */
+export function reportedRuns(runs: readonly LiveRun[]): LiveRun[] {
+  return runs.filter((r) => r.actual.departS !== null || r.actual.arriveS !== null || r.actual.stop !== null).sort((a, b) => (a.actual.departS ?? 0) - (b.actual.departS ?? 0));
+}

@@ -3,7 +3,8 @@
 import Link from 'next/link';
 import type { LiveState } from '@/lib/live/types';
 import { Badge } from '@/components/ui/card';
-import { blockAt, delayLabel, fastAt, fastMinutes, namesOf } from './live-format';
+import { CorrectReports } from './correct-reports';
+import { blockAt, delayLabel, fastAt, fastMinutes, namesOf, reportedRuns } from './live-format';
 import { ReportButtons } from './report-buttons';
 import { useClockReading, useLiveSession } from './use-live-session';
 
@@ -16,6 +17,7 @@ export function MyLiveRuns({ sessionId, railwayId, userId, initial }: { sessionI
   const nowS = reading.sessionS;
   const mine = state.runs.filter((r) => r.operatorId === userId && r.status !== 'arrived').sort((a, b) => a.departS - b.departS);
   const [current, ...later] = mine;
+  const myReported = reportedRuns(state.runs.filter((r) => r.operatorId === userId));
   const late = state.runs
     .filter((r) => r.status !== 'arrived' && fastMinutes(Math.max(r.departDelayS, r.arriveDelayS), clock) >= 1)
     .map((r) => `${names.train.get(r.trainId)} ${delayLabel(Math.max(r.departDelayS, r.arriveDelayS), clock)}`);
@@ -68,6 +70,14 @@ export function MyLiveRuns({ sessionId, railwayId, userId, initial }: { sessionI
             </li>
           ))}
         </ol>
+      ) : null}
+      {myReported.length ? (
+        <details className="rounded-plate border border-line p-3" data-testid="my-corrections">
+          <summary className="cursor-pointer text-sm font-semibold">Correct a report of mine</summary>
+          <div className="mt-2">
+            <CorrectReports state={state} accept={accept} runs={myReported} trainName={(r) => names.train.get(r.trainId) ?? 'Train'} />
+          </div>
+        </details>
       ) : null}
     </section>
   );

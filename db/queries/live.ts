@@ -13,6 +13,7 @@ import {
   type RunRepair,
   type RunReport,
   type StopReason,
+  users,
 } from '@/db/schema';
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
@@ -118,4 +119,25 @@ export function addRepairs(
     for (const move of moves) tx.insert(runRepairs).values({ sessionId, runId: move.runId, delayS: move.delayS, appliedAt: at, byUserId }).run();
     return appendLiveEvent(tx, sessionId, 'repair', summary, at);
   });
+}
+
+/** One run's reports in the order they were made, with who made each (the audit of corrections), at most `limit`. */
+export function listRunReportsWithReporter(sessionId: string, runId: string, limit: number) {
+  return getDb()
+    .select({
+      id: runReports.id,
+      kind: runReports.kind,
+      reason: runReports.reason,
+      sessionS: runReports.sessionS,
+      reportedAt: runReports.reportedAt,
+      correction: runReports.correction,
+      withdrawn: runReports.withdrawn,
+      by: users.name,
+    })
+    .from(runReports)
+    .leftJoin(users, eq(users.id, runReports.byUserId))
+    .where(and(eq(runReports.sessionId, sessionId), eq(runReports.runId, runId)))
+    .orderBy(asc(runReports.reportedAt), sql`"run_reports".rowid`)
+    .limit(limit)
+    .all();
 }

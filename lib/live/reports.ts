@@ -1,5 +1,6 @@
 import 'server-only';
-import { addReport } from '@/db/queries/live';
+import { addReport, listRunReportsWithReporter } from '@/db/queries/live';
+import { recordAudit } from '@/db/queries/railways';
 import type { Session } from '@/db/schema';
 import type { Member } from '@/lib/auth';
 import { AppError, forbidden, notFound } from '@/lib/errors';
@@ -8,6 +9,7 @@ import { foldReports, reportRefusal } from '@/lib/live/actuals';
 import { fastClockOf, readClockNow } from '@/lib/live/clock';
 import { repairTotals } from '@/lib/live/state';
 import { departureFromFastTime, loadSessionPlan } from '@/lib/sessions/builder';
+import type { RunReportHistory } from '@/lib/live/types';
 import type { ReportInput } from '@/lib/validations/live';
 
 /** A session keeps at most this many reports (20 runs × a few presses is typical; 200 runs at most). */
@@ -41,7 +43,7 @@ export function makeReport(session: Session, member: Member, runId: string, inpu
     ? `${train}: “${input.kind}” withdrawn by ${member.user.name}`
     : `${train} ${verb} at ${formatFast(sessionS, clock)}${lateness}${correcting ? ` (corrected by ${member.user.name})` : ''}`;
 
-  return addReport(
+  const added = addReport(
     session.id,
     new Date(nowMs),
     {
@@ -60,4 +62,44 @@ export function makeReport(session: Session, member: Member, runId: string, inpu
       if (refusal) throw new AppError('bad_request', refusal, { issues: [{ path: 'kind', message: refusal }] });
     },
   );
+  // Corrections and withdrawals change what others reported: the railway's audit keeps who did it.
+  if (correcting) {
+    recordAudit({
+      railwayId: session.railwayId,
+      userId: member.user.id,
+      action: input.withdraw ? 'report-withdraw' : 'report-correct',
+      entity: 'run',
+      entityId: runId,
+      detail: { sessionId: session.id, kind: input.kind, ...(input.fast !== undefined ? { fast: input.fast } : {}), reportId: added.report.id },
+    });
+  }
+  return added;
+}
+
+/** A run's report history shows at most this many rows (MAX_REPORTS bounds the whole session). */
+export const MAX_RUN_HISTORY = 200;
+
+/**
+ * Who reported what for one run, corrections and withdrawals included, oldest first: the run's
+ * operator, a planner or the host may read it.
+ */
+export function runReportHistory(session: Session, member: Member, runId: string): RunReportHistory {
+  const { plan } = loadSessionPlan(session.id);
+  const run = plan.runs.find((r) => r.id === runId);
+  if (!run) throw notFound('That run');
+  if (member.role === 'operator' && run.operatorId !== member.user.id) throw forbidden('read the reports of a run that is not yours');
+  const clock = fastClockOf(session);
+  return {
+    runId,
+    reports: listRunReportsWithReporter(session.id, runId, MAX_RUN_HISTORY).map((r) => ({
+      id: r.id,
+      kind: r.kind,
+      reason: r.reason,
+      fast: formatFast(r.sessionS, clock),
+      reportedAt: r.reportedAt.toISOString(),
+      by: r.by ?? 'a former member',
+      correction: r.correction,
+      withdrawn: r.withdrawn,
+    })),
+  };
 }

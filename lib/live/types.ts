@@ -39,6 +39,12 @@ export type LiveState = {
   repair: { runId: string; delayS: number; newDepartS: number }[];
 };
 
+/** One run's reports with who made each (`GET /api/sessions/{id}/runs/{runId}/reports`). */
+export type RunReportHistory = {
+  runId: string;
+  reports: { id: string; kind: string; reason: string | null; fast: string; reportedAt: string; by: string; correction: boolean; withdrawn: boolean }[];
+};
+
 export type LiveMessage = { seq: number; type: string; summary: string; at: number; state?: LiveState };
 
 export type { Session } from '@/db/schema';

@@ -90,11 +90,45 @@ test('the session day: clock, reports from phones, the board follows, a delay ma
   await priya.unroute('**/api/sessions/*/live*');
   await expect(priya.getByTestId('live-mode')).toHaveText('Live');
 
+  // The host puts a wrong report right from the board: the stopper really left at 06:25, and its
+  // arrival was pressed too soon. Juno's phone follows, and the run's history names who did what.
+  const correct = host.getByTestId('correct-reports');
+  await correct.getByLabel('Run', { exact: true }).selectOption({ label: 'Wrenhollow stopper · planned 06:20' });
+  await correct.getByLabel('Departure at (fast HH:MM)').fill('06:25');
+  await correct.getByTestId('correction-row').filter({ hasText: 'Departure' }).getByRole('button', { name: 'Set time' }).click();
+  await expect(correct.getByTestId('report-history')).toContainText('06:25 departed — corrected by Hazel Brightwater');
+  await expect(host.getByTestId('live-feed')).toContainText('(corrected by Hazel Brightwater)');
+  await correct.getByTestId('correction-row').filter({ hasText: 'Arrival' }).getByRole('button', { name: 'Withdraw' }).click();
+  await expect(correct.getByTestId('report-history')).toContainText('arrived — withdrawn by Hazel Brightwater');
+  await expect(correct.getByTestId('correction-row').filter({ hasText: 'Arrival' })).toHaveCount(0);
+  await expect(junoNext).toContainText('Under way');
+  await expect(junoNext).toContainText('Wrenhollow stopper');
+  // 06:25 against the planned 06:20: five fast minutes late now, not ten.
+  await expect(host.getByTestId('late-run').filter({ hasText: 'Wrenhollow stopper' })).toContainText('+5 min');
+  await screenshotBoth(host, 'live-board-correct');
+  await juno.getByTestId('my-corrections').locator('summary').click();
+  await expect(juno.getByTestId('my-corrections').getByTestId('report-history')).toContainText('withdrawn by Hazel Brightwater');
+  await screenshotBoth(juno, 'live-my-runs-correct');
+  await junoNext.getByRole('button', { name: 'Arrived' }).click();
+  await expect(junoNext).not.toContainText('Wrenhollow stopper');
+
   // The host resumes; every screen runs the same clock.
   await host.getByRole('button', { name: 'Resume' }).click();
   await expect(juno.getByTestId('clock-state')).toHaveText('running');
 
+  // The session-day settings: a longer stand and a wider punctuality margin, used by the report.
+  await host.goto(`/railways/${demo.railway.id}/sessions/${demo.id}/settings`);
+  await host.getByLabel('Least stand between runs (real s)').fill('4000');
+  await host.getByRole('button', { name: 'Save settings' }).click();
+  await expect(host.getByText('Use 0 to 3600.')).toBeVisible();
+  await host.getByLabel('Least stand between runs (real s)').fill('90');
+  await host.getByLabel('Punctual within (fast min)').fill('5');
+  await host.getByRole('button', { name: 'Save settings' }).click();
+  await expect(host.getByText('Saved.')).toBeVisible();
+  await screenshotBoth(host, 'session-settings-day');
+
   await host.goto(`/railways/${demo.railway.id}/sessions/${demo.id}/report`);
+  await expect(host.getByTestId('punctuality')).toContainText('within 5 fast minutes');
   await expect(host.getByTestId('punctuality')).toContainText('departed runs');
   await expect(host.getByTestId('delays-began')).toContainText('fast min');
   await screenshotBoth(host, 'live-report');

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { POST as clockAction } from '@/app/api/sessions/[sessionId]/clock/route';
-import { POST as reportAction } from '@/app/api/sessions/[sessionId]/runs/[runId]/reports/route';
+import { GET as reportHistory, POST as reportAction } from '@/app/api/sessions/[sessionId]/runs/[runId]/reports/route';
 import { listReports } from '@/db/queries/live';
 import type { LiveState } from '@/lib/live/types';
 import { closeDb } from '@/db';
@@ -123,6 +123,41 @@ describe('reports from the session', () => {
     signInAs(w.host);
     const withdrawn: { state: LiveState } = await (await report(sid, mine, { kind: 'arrived', withdraw: true })).json();
     expect(withdrawn.state.runs.find((r) => r.id === mine)!.actual.arriveS).toBeNull();
+  });
+});
+
+describe('correcting reports', () => {
+  it('the host corrects a time and withdraws a report; the run’s history names who did what; the railway’s audit keeps each correction', async () => {
+    const { w, s, sid } = setup();
+    const [mine, other] = s.runIds;
+    const history = async (runId: string) => reportHistory(new Request(url(`/api/sessions/${sid}/runs/${runId}/reports`)), ctx({ sessionId: sid, runId }));
+    signInAs(w.host);
+    await clock(sid, { action: 'set', fast: '06:10' });
+    signInAs(w.operator);
+    expect((await report(sid, mine, { kind: 'departed' })).status).toBe(201);
+    signInAs(w.host);
+    // 06:04 at 4:1 from 06:00 is 240 fast s = 60 real s: the planned departure, so no delay.
+    const corrected: { state: LiveState } = await (await report(sid, mine, { kind: 'departed', fast: '06:04' })).json();
+    expect(corrected.state.runs.find((r) => r.id === mine)).toMatchObject({ departS: 60, departDelayS: 0, actual: { departS: 60 } });
+    const withdrawn: { state: LiveState } = await (await report(sid, mine, { kind: 'departed', withdraw: true })).json();
+    expect(withdrawn.state.runs.find((r) => r.id === mine)!.actual.departS).toBeNull();
+
+    signInAs(w.operator);
+    const answer = await history(mine);
+    expect(answer.status).toBe(200);
+    const body: { reports: { kind: string; fast: string; by: string; correction: boolean; withdrawn: boolean }[] } = await answer.json();
+    expect(body.reports.map((r) => [r.kind, r.fast, r.by, r.correction, r.withdrawn])).toEqual([
+      ['departed', '06:10', w.operator.name, false, false],
+      ['departed', '06:04', w.host.name, true, false],
+      ['departed', '06:10', w.host.name, true, true],
+    ]);
+    // Another operator's run: refused.
+    expect((await history(other)).status).toBe(403);
+    const audit = getDb().select().from(t.auditLog).all().filter((a) => a.entityId === mine);
+    expect(audit.map((a) => [a.action, a.userId])).toEqual([
+      ['report-correct', w.host.id],
+      ['report-withdraw', w.host.id],
+    ]);
   });
 });
 

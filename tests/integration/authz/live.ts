@@ -40,6 +40,17 @@ LIVE_CASES.push({
   expect: reported,
 });
 
+LIVE_CASES.push({
+  // A run's report history: runIds[0] is the world's operator's run (another's run: 403, live.test.ts).
+  target: 'app/api/sessions/[sessionId]/runs/[runId]/reports/route.ts#GET',
+  call: async (w) => {
+    const { session, runIds } = await startedSessionWorld(w);
+    const { GET } = await import('@/app/api/sessions/[sessionId]/runs/[runId]/reports/route');
+    return (await GET(new Request(url(`/api/sessions/${session.id}/runs/${runIds[0]}/reports`)), ctx({ sessionId: session.id, runId: runIds[0] }))).status;
+  },
+  expect: anyMember,
+});
+
 LIVE_CASES.push(
   {
     // The polling form; the stream form goes through the same gate (tests/integration/live.test.ts).

@@ -1,7 +1,7 @@
 import { parseOrThrow, readJson } from '@/lib/errors';
 import { handler } from '@/lib/http';
 import { publishLive } from '@/lib/live/hub';
-import { makeReport } from '@/lib/live/reports';
+import { makeReport, runReportHistory } from '@/lib/live/reports';
 import { liveStateJson } from '@/lib/live/state';
 import { requireSession } from '@/lib/sessions/access';
 import { assertTimetableEditable } from '@/lib/sessions/changes';
@@ -22,4 +22,11 @@ const report = handler<{ sessionId: string; runId: string }>(async (request, { p
   return new Response(`${head.slice(0, -1)},"state":${liveStateJson(session.id)}}`, { status: 201, headers: { 'content-type': 'application/json' } });
 });
 
-export { report as POST };
+/** Who reported what for the run, corrections included (the run's operator, a planner or the host). */
+const history = handler<{ sessionId: string; runId: string }>(async (_request, { params }) => {
+  const { sessionId, runId } = parseOrThrow(runParamsSchema, await params);
+  const { session, member } = await requireSession(sessionId, 'view');
+  return Response.json(runReportHistory(session, member, runId), { headers: { 'cache-control': 'no-store' } });
+});
+
+export { report as POST, history as GET };
