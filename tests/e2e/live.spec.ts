@@ -125,7 +125,11 @@ test('the session day: clock, reports from phones, the board follows, a delay ma
   await host.getByLabel('Least stand between runs (real s)').fill('90');
   await host.getByLabel('Punctual within (fast min)').fill('5');
   await host.getByRole('button', { name: 'Save settings' }).click();
-  await expect(host.getByText('Saved.')).toBeVisible();
+  // Saved, the form is drawn afresh at the new version (the refusal's message goes with it).
+  await expect(host.getByText('Use 0 to 3600.')).toHaveCount(0);
+  await host.reload();
+  await expect(host.getByLabel('Least stand between runs (real s)')).toHaveValue('90');
+  await expect(host.getByLabel('Punctual within (fast min)')).toHaveValue('5');
   await screenshotBoth(host, 'session-settings-day');
 
   await host.goto(`/railways/${demo.railway.id}/sessions/${demo.id}/report`);

@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import { loadLayoutRows } from '@/db/queries/plan-data';
 import { PrintButton } from '@/components/crew/print-button';
 import { SafetyCautions } from '@/components/layouts/safety-cautions';
-import { WiringForm } from '@/components/layouts/wiring-form';
+import { WiringEditor } from '@/components/layouts/wiring-editor';
 import { Card } from '@/components/ui/card';
 import { BOARDS, pinTitle } from '@/lib/control';
 import { layoutForPage } from '@/lib/layouts/layout-page';
@@ -83,12 +83,15 @@ export default async function WiringPage({ params }: { params: Promise<{ railway
       )}
       <SafetyCautions />
       {canEdit ? (
-        <Card title="Edit" className="no-print">
-          <p className="mb-2 text-sm text-muted">
-            Boards: {Object.values(BOARDS).map((b) => b.title).join(', ')}. Cab ids: {rows.cabs.map((c) => `${c.name} = ${c.id}`).join(', ')}. Block ids:{' '}
-            {rows.blocks.map((b) => `${b.name} = ${b.id}`).join(', ')}.
-          </p>
-          <WiringForm save={saveWiring.bind(null, railwayId, layout.id)} sheet={sheet ? JSON.stringify(sheet, null, 2) : ''} version={stored?.version ?? null} />
+        <Card title="Edit the wiring sheet" className="no-print">
+          {problem ? <p className="mb-2 text-sm text-signal">The stored sheet no longer passes its checks, so the form starts afresh.</p> : null}
+          <WiringEditor
+            save={saveWiring.bind(null, railwayId, layout.id)}
+            initial={sheet ?? null}
+            version={stored?.version ?? null}
+            cabs={rows.cabs.map((c) => ({ id: c.id, name: c.name }))}
+            blocks={rows.blocks.map((b) => ({ id: b.id, name: b.name }))}
+          />
         </Card>
       ) : null}
     </div>
