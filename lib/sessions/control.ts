@@ -40,16 +40,7 @@ export function layoutWiringSheet(layoutId: string): { sheet: WiringSheet; versi
  * the layout's wiring and each run's speed and each loco's top speed go into compileSchedule.
  */
 export function sessionControl(session: Session): SessionControl {
-  const { rows, plan } = loadSessionPlan(session.id);
-  const stored = layoutWiringSheet(session.layoutId);
-  if (!stored) throw new AppError('conflict', 'This layout has no wiring sheet yet: add one in the layout workspace.');
-  const wiring = stored.sheet;
-  const schedule = compileSchedule({
-    plan,
-    wiring,
-    runSpeedKmh: Object.fromEntries(rows.runs.map((r) => [r.id, r.speedKmh])),
-    locoTopSpeedKmh: Object.fromEntries(rows.locomotives.map((l) => [l.id, l.topSpeedKmh])),
-  });
+  const { plan, wiring, schedule } = scheduleOf(session);
   const boards = wiring.boards.map((b) => {
     const program = boardProgram(schedule, wiring, b.id);
     return {
@@ -62,6 +53,40 @@ export function sessionControl(session: Session): SessionControl {
     };
   });
   return { plan, wiring, schedule, boards };
+}
+
+function scheduleOf(session: Session): { plan: Plan; wiring: WiringSheet; schedule: ControlSchedule } {
+  const { rows, plan } = loadSessionPlan(session.id);
+  const stored = layoutWiringSheet(session.layoutId);
+  if (!stored) throw new AppError('conflict', 'This layout has no wiring sheet yet: add one in the layout workspace.');
+  const wiring = stored.sheet;
+  const schedule = compileSchedule({
+    plan,
+    wiring,
+    runSpeedKmh: Object.fromEntries(rows.runs.map((r) => [r.id, r.speedKmh])),
+    locoTopSpeedKmh: Object.fromEntries(rows.locomotives.map((l) => [l.id, l.topSpeedKmh])),
+  });
+  return { plan, wiring, schedule };
+}
+
+export type ControlFindingsAnswer =
+  | { wired: false; message: string }
+  | { wired: true; findings: ControlSchedule['findings']; errors: number; warnings: number };
+
+/**
+ * The control schedule's findings only (interlocks, runs left out), for the timetable's findings
+ * panel: no programs are generated. A layout without a wiring sheet answers `wired: false`.
+ */
+export function sessionControlFindings(session: Session): ControlFindingsAnswer {
+  let compiled;
+  try {
+    compiled = scheduleOf(session);
+  } catch (error) {
+    if (error instanceof AppError && error.status === 409) return { wired: false, message: error.message };
+    throw error;
+  }
+  const { findings } = compiled.schedule;
+  return { wired: true, findings, errors: findings.filter((f) => f.severity === 'error').length, warnings: findings.filter((f) => f.severity === 'warning').length };
 }
 
 /** The board a download is for: the `board` parameter, or the only board of the right kind. */

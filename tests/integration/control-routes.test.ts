@@ -5,6 +5,8 @@ import * as t from '@/db/schema';
 import { GET as getControl } from '@/app/api/sessions/[sessionId]/control/route';
 import { GET as getFirmware } from '@/app/api/sessions/[sessionId]/control/firmware.zip/route';
 import { GET as getPython } from '@/app/api/sessions/[sessionId]/control/controller.py/route';
+import { GET as getControlFindings } from '@/app/api/sessions/[sessionId]/control/findings/route';
+import { eq } from 'drizzle-orm';
 import { DEMO_USERS, hasDemoData, seedDemoRailway } from '@/lib/demo/demo-railway';
 import { SCHEDULE_FORMAT } from '@/lib/control';
 import { signInAs } from './caller';
@@ -63,5 +65,22 @@ describe('control exports of the demo session', () => {
     const text = await res.text();
     expect(text).toContain('from gpiozero import');
     expect(text).toContain('Yard and terminus board');
+  });
+
+  it('GET control/findings: the schedule’s findings for the timetable’s panel, the same as the full schedule’s; a layout with no wiring sheet says so', async () => {
+    const session = demo();
+    const full = await (await getControl(new Request(url(`/api/sessions/${session.id}/control`)), ctx(session.id))).json();
+    const res = await getControlFindings(new Request(url(`/api/sessions/${session.id}/control/findings`)), ctx(session.id));
+    expect(res.status).toBe(200);
+    const body = await res.json();
+    expect(body.wired).toBe(true);
+    expect(body.findings).toEqual(full.findings);
+    expect(body.errors + body.warnings).toBe(full.findings.length);
+    // The demo leaves some runs out (blocks not on the sheet); each is named with its time.
+    expect(body.findings.some((f: { kind: string }) => f.kind === 'control-left-out')).toBe(true);
+
+    getDb().delete(t.wiringSheets).where(eq(t.wiringSheets.layoutId, session.layoutId)).run();
+    const unwired = await (await getControlFindings(new Request(url(`/api/sessions/${session.id}/control/findings`)), ctx(session.id))).json();
+    expect(unwired).toEqual({ wired: false, message: expect.stringContaining('no wiring sheet') });
   });
 });

@@ -256,7 +256,7 @@ export const SESSION_CASES: AuthzCase[] = [
     },
     expect: plannerUp,
   },
-  ...(['control', 'control/firmware.zip', 'control/controller.py'] as const).map(
+  ...(['control', 'control/findings', 'control/firmware.zip', 'control/controller.py'] as const).map(
     (sub): AuthzCase => ({
       target: `app/api/sessions/[sessionId]/${sub}/route.ts#GET`,
       call: async (w) => {
@@ -264,9 +264,11 @@ export const SESSION_CASES: AuthzCase[] = [
         const mod =
           sub === 'control'
             ? await import('@/app/api/sessions/[sessionId]/control/route')
-            : sub === 'control/firmware.zip'
-              ? await import('@/app/api/sessions/[sessionId]/control/firmware.zip/route')
-              : await import('@/app/api/sessions/[sessionId]/control/controller.py/route');
+            : sub === 'control/findings'
+              ? await import('@/app/api/sessions/[sessionId]/control/findings/route')
+              : sub === 'control/firmware.zip'
+                ? await import('@/app/api/sessions/[sessionId]/control/firmware.zip/route')
+                : await import('@/app/api/sessions/[sessionId]/control/controller.py/route');
         // The test layout's only board is a 40-pin-header one: the firmware route answers 400 for it,
         // which still shows the caller got past the access check.
         const status = (await mod.GET(new Request(url(`/api/sessions/${session.id}/${sub}`)), ctx({ sessionId: session.id }))).status;
