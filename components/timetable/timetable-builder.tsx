@@ -247,6 +247,9 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
                   </li>
                 ))}
                 <li className="flex items-center gap-1"><span className="inline-block h-3 w-3 rounded-sm border-2 border-signal" /> clashing run</li>
+                {view === 'graph' ? (
+                  <li className="flex items-center gap-1"><span className="inline-block h-3 w-3 rounded-sm border-2 border-dashed border-signal" /> block held by a standing train</li>
+                ) : null}
               </ul>
             ) : null}
           </section>

@@ -308,7 +308,7 @@ export function TrainGraph(props: Props) {
               const w = Math.max(6, x(f.toS) - x0);
               return (
                 <g key={`${f.kind}:${f.ids.join()}:${f.fromS}`} data-testid="graph-clash" data-kind={f.kind} pointerEvents="none">
-                  <rect x={x0 - 3} y={TOP + row * ROW_H + 2} width={w + 6} height={ROW_H - 4} fill="none" className="stroke-signal" strokeWidth={2} rx={3} />
+                  <rect x={x0 - 3} y={TOP + row * ROW_H + 2} width={w + 6} height={ROW_H - 4} fill="none" className="stroke-signal" strokeWidth={2} rx={3} strokeDasharray={f.kind === 'block-occupied' ? '5 3' : undefined} />
                   <text x={x0 + w / 2} y={TOP + row * ROW_H + ROW_H / 2 + 4} textAnchor="middle" className="fill-signal text-[12px] font-bold">!</text>
                 </g>
               );
