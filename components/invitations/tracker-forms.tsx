@@ -3,8 +3,10 @@
 import { useActionState, useState } from 'react';
 import {
   inviteCrew,
+  remindCrew,
   resendInvitation,
   sendNotices,
+  setReplyDeadline,
 } from '@/app/(app)/railways/[railwayId]/sessions/[sessionId]/invitations/actions';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
@@ -176,6 +178,59 @@ export function NoticeActions({
       ) : null}
       {state ? <Notice tone={state.ok ? 'good' : 'bad'}>{state.ok ? state.message : state.error}</Notice> : null}
     </div>
+  );
+}
+
+/** Reminders to those who have not replied: one click for everyone due; says when the last went and when the next may. */
+export function RemindButton({
+  railwayId,
+  sessionId,
+  due,
+  waiting,
+  last,
+  next,
+}: {
+  railwayId: string;
+  sessionId: string;
+  /** Unanswered invitees who may be reminded now. */
+  due: number;
+  /** Unanswered invitees reminded within the last day. */
+  waiting: number;
+  last: string | null;
+  next: string | null;
+}) {
+  const [state, action, busy] = useActionState(remindCrew.bind(null, railwayId, sessionId), null);
+  if (!state && !due && !waiting) return null;
+  return (
+    <form action={action} className="space-y-1" data-testid="remind">
+      <div className="flex flex-wrap items-center gap-3">
+        <Button type="submit" variant="secondary" disabled={busy || due === 0}>
+          {due ? `Remind ${due} who ${due === 1 ? 'has' : 'have'} not replied` : 'Reminders sent'}
+        </Button>
+        <span className="text-xs text-muted">
+          {last ? `Last reminder ${last}.` : 'No reminder sent yet.'}
+          {waiting && next ? ` ${waiting} reminded in the last day; the next reminder to them is possible from ${next}.` : ''}
+        </span>
+      </div>
+      {state ? <Notice tone={state.ok ? 'good' : 'bad'}>{state.ok ? state.message : state.error}</Notice> : null}
+    </form>
+  );
+}
+
+/** The host's reply deadline, on the session's wall clock. */
+export function ReplyDeadlineForm({ railwayId, sessionId, value, timeZone }: { railwayId: string; sessionId: string; value: string; timeZone: string }) {
+  const [state, action, busy] = useActionState(setReplyDeadline.bind(null, railwayId, sessionId), null);
+  const error = state && !state.ok ? (state.fieldErrors?.replyBy ?? state.error) : null;
+  return (
+    <form action={action} className="space-y-2" data-testid="reply-deadline-form">
+      <Field label="Reply by" name="replyBy" error={error ?? undefined} hint={`In ${timeZone}. E-mails and the reply page say it; a later reply still counts and is marked late. Leave empty for none.`}>
+        <input id="replyBy" name="replyBy" type="datetime-local" defaultValue={value} className={inputClass} aria-invalid={error ? true : undefined} />
+      </Field>
+      <Button type="submit" variant="secondary" disabled={busy} className="w-full">
+        {busy ? 'Saving…' : 'Save deadline'}
+      </Button>
+      {state?.ok ? <Notice tone="good">{state.message}</Notice> : null}
+    </form>
   );
 }
 

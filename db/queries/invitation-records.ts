@@ -118,14 +118,15 @@ export function insertInvitations(sessionId: string, invitees: { userId: string;
 /**
  * Records an answer if the invitation's reply nonce is still `expectedNonce` (null: whatever it is,
  * for a signed-in member answering on their own page), raising the nonce in the same statement so
- * that two requests with one link cannot both count. Returns the updated row, or undefined.
+ * that two requests with one link cannot both count; `comment` replaces the note with the reply
+ * (undefined leaves it). Returns the updated row, or undefined.
  */
-export function recordAnswer(invitationId: string, expectedNonce: number | null, answer: RsvpState, now = new Date()) {
+export function recordAnswer(invitationId: string, expectedNonce: number | null, answer: RsvpState, now = new Date(), comment?: string) {
   const where = [eq(invitations.id, invitationId)];
   if (expectedNonce !== null) where.push(eq(invitations.replyNonce, expectedNonce));
   return getDb()
     .update(invitations)
-    .set({ rsvp: answer, respondedAt: now, replyNonce: sql`${invitations.replyNonce} + 1` })
+    .set({ rsvp: answer, respondedAt: now, replyNonce: sql`${invitations.replyNonce} + 1`, ...(comment === undefined ? {} : { comment }) })
     .where(and(...where))
     .returning()
     .get();

@@ -20,6 +20,11 @@ const REFUSED = {
   used: 'This reply link was already used. Your answer is recorded; sign in to change it, or use the buttons shown after your last answer.',
 } as const;
 
+/** A reply after the host's deadline still counts; it is marked late. */
+export function isLate(replyBy: Date | null, respondedAt: Date | null): boolean {
+  return replyBy !== null && respondedAt !== null && respondedAt.getTime() > replyBy.getTime();
+}
+
 /** What a reply link points at, for the page that asks "accept this?" (nothing is changed). */
 export function inspectReplyToken(token: string, now = Date.now()) {
   const check = verifyReplyToken(token, now);
@@ -36,14 +41,14 @@ export function inspectReplyToken(token: string, now = Date.now()) {
  * or whose invitation is not on the railway it names (400). An accepted guest becomes an operator
  * of the railway. Returns the answer and a fresh token for changing it again.
  */
-export function replyByToken(token: string, answer: Answer, now = new Date()) {
+export function replyByToken(token: string, answer: Answer, now = new Date(), comment = '') {
   const check = verifyReplyToken(token, now.getTime());
   if (!check.ok) throw new AppError('bad_request', REFUSED[check.reason]);
   return runInTransaction(() => {
     const found = getInvitationWithSession(check.claim.invitationId);
     if (!found || found.session.railwayId !== check.claim.railwayId) throw new AppError('bad_request', REFUSED.forged);
     if (found.session.status !== 'published') throw new AppError('bad_request', 'This session is not open for replies (it was cancelled or withdrawn).');
-    const updated = recordAnswer(found.invitation.id, check.claim.nonce, answer, now);
+    const updated = recordAnswer(found.invitation.id, check.claim.nonce, answer, now, comment);
     if (!updated) throw new AppError('conflict', REFUSED.used);
     let joined = false;
     if (answer === 'accepted' && !getMembership(found.session.railwayId, updated.userId)) {
@@ -55,7 +60,7 @@ export function replyByToken(token: string, answer: Answer, now = new Date()) {
       action: 'reply',
       entity: 'invitation',
       entityId: updated.id,
-      detail: { answer, via: 'link', joined },
+      detail: { answer, via: 'link', joined, late: isLate(found.session.replyBy, now), comment: comment.length > 0 },
     });
     const nextToken = signReplyToken({
       railwayId: found.session.railwayId,
@@ -63,7 +68,7 @@ export function replyByToken(token: string, answer: Answer, now = new Date()) {
       nonce: updated.replyNonce,
       expiresAt: replyExpiry(found.session.endsAt, now.getTime()),
     });
-    return { answer: updated.rsvp, sessionTitle: found.session.title, railwayName: found.railwayName, joined, nextToken };
+    return { answer: updated.rsvp, sessionTitle: found.session.title, railwayName: found.railwayName, joined, nextToken, late: isLate(found.session.replyBy, now) };
   });
 }
 

@@ -4,8 +4,10 @@ import {
   insertInvitations,
   listSessionInvitations,
   markInvitationsQueued,
+  markInvitationsReminded,
   requeueFailedInvitationMail,
   runInTransaction,
+  setSessionReplyBy,
 } from '@/db/queries/invitation-records';
 import { listCrewDuties } from '@/db/queries/crew';
 import { listMembers } from '@/db/queries/memberships';
@@ -21,7 +23,8 @@ import { assignmentSummary, buildInvitationBody, type InvitationContent } from '
 import { replyExpiry, signReplyToken } from '@/lib/invitations/reply-token';
 import { absoluteUrl } from '@/lib/mail/account-mail';
 import { enqueueMail } from '@/lib/mail/outbox';
-import type { NoticeKind } from '@/lib/validations/invitation';
+import { zonedToUtc } from '@/lib/time-zone';
+import { REMINDER_GAP_MS, type NoticeKind } from '@/lib/validations/invitation';
 
 export type Host = { id: string; name: string; email: string };
 type InvitationRow = ReturnType<typeof listSessionInvitations>[number];
@@ -65,6 +68,8 @@ export function sessionStandings(session: Session, invitations: InvitationRow[],
 
 /** The e-mail kind of an invitation message in the outbox. */
 export const INVITATION_MAIL_KIND = 'session-invitation';
+/** The e-mail kind of a reminder to reply (plain mail: no calendar part, so no SEQUENCE of its own). */
+export const REMINDER_MAIL_KIND = 'session-reminder';
 
 /** One key per (invitation, SEQUENCE, METHOD): queueing the same notice twice sends it once. */
 export function invitationDedupeKey(invitationId: string, sequence: number, method: string, resend?: number): string {
@@ -100,6 +105,8 @@ function queueNotices(input: {
   invitations: InvitationRow[];
   method: 'REQUEST' | 'CANCEL';
   resend?: boolean;
+  /** A reminder to reply: the invitation's text with the reply buttons, no calendar part, not counted as an invitation. */
+  reminder?: boolean;
   now: Date;
 }): { queued: number; skipped: number } {
   const { session, host, now } = input;
@@ -125,7 +132,7 @@ function queueNotices(input: {
       expiresAt: replyExpiry(session.endsAt, now.getTime()),
     });
     const invitee: Person = { name: inv.name, email: inv.email };
-    const isUpdate = input.method === 'REQUEST' && inv.mailCount > 0 && standing.affected;
+    const isUpdate = input.method === 'REQUEST' && inv.mailCount > 0 && standing.affected && !input.reminder;
     const content: InvitationContent = {
       method: input.method,
       isUpdate,
@@ -145,8 +152,28 @@ function queueNotices(input: {
       },
       changes: isUpdate ? standing.changes.map(describeChange) : undefined,
       replyBy: session.replyBy,
+      isReminder: input.reminder,
     };
     const body = buildInvitationBody(content);
+    if (input.reminder) {
+      const added = enqueueMail({
+        railwayId: session.railwayId,
+        invitationId: null,
+        dedupeKey: `reminder:${inv.id}:${inv.reminderCount + 1}`,
+        kind: REMINDER_MAIL_KIND,
+        toAddress: inv.email,
+        subject: body.subject,
+        text: body.text,
+        html: body.html,
+      });
+      if (added) {
+        queued += 1;
+        marks.push({ id: inv.id, sequence: inv.sentSequence ?? session.sequence, told: null });
+      } else {
+        skipped += 1;
+      }
+      continue;
+    }
     const calendar = buildInvitationCalendar({
       method: input.method,
       session,
@@ -178,7 +205,8 @@ function queueNotices(input: {
       skipped += 1;
     }
   }
-  markInvitationsQueued(marks);
+  if (input.reminder) markInvitationsReminded(marks.map((m) => m.id), now);
+  else markInvitationsQueued(marks);
   return { queued, skipped };
 }
 
@@ -277,5 +305,60 @@ export function resendInvitation(input: { railwayId: string; sessionId: string; 
     else if (invitation.mailCount === 0) throw new AppError('bad_request', 'Nothing was sent to this person, so there is nothing to cancel.');
     const result = queueNotices({ session, host: input.host, invitations: [invitation], method, resend: invitation.mailCount > 0, now });
     return { requeued: false, queued: result.queued };
+  });
+}
+
+/** When this invitee may be reminded again (null: now), by the one-a-day gap. */
+export function nextReminderAt(inv: { remindedAt: Date | null }): Date | null {
+  return inv.remindedAt ? new Date(inv.remindedAt.getTime() + REMINDER_GAP_MS) : null;
+}
+
+/** Invitees a reminder may go to now: sent an invitation, no answer yet, not reminded within the gap. */
+export function remindable<T extends { rsvp: string; mailCount: number; remindedAt: Date | null }>(invitations: T[], now: Date): T[] {
+  return invitations.filter((i) => i.rsvp === 'needs-action' && i.mailCount > 0 && (nextReminderAt(i)?.getTime() ?? 0) <= now.getTime());
+}
+
+/**
+ * Host: reminds everyone who was sent an invitation and has not answered, at most once per
+ * REMINDER_GAP_MS each (the rest are counted, not sent). A plain e-mail with their runs, the
+ * deadline if set and the reply buttons; the calendar event they hold is unchanged.
+ */
+export function remindUnanswered(input: { railwayId: string; sessionId: string; host: Host; now?: Date }) {
+  const now = input.now ?? new Date();
+  return runInTransaction(() => {
+    const session = loadSession(input.railwayId, input.sessionId);
+    requirePublished(session, now);
+    const all = listSessionInvitations(session.id);
+    const unanswered = all.filter((i) => i.rsvp === 'needs-action' && i.mailCount > 0);
+    const due = remindable(unanswered, now);
+    const result = queueNotices({ session, host: input.host, invitations: due, method: 'REQUEST', reminder: true, now });
+    const tooSoon = unanswered.length - due.length;
+    recordAudit({ railwayId: input.railwayId, userId: input.host.id, action: 'remind', entity: 'session', entityId: session.id, detail: { ...result, tooSoon } });
+    return { queued: result.queued, tooSoon };
+  });
+}
+
+/**
+ * Host: sets the reply deadline (a wall-clock date and time in the session's zone) or clears it
+ * (''). It must lie ahead and no later than the session's start. Replies after it are still taken,
+ * and marked late.
+ */
+export function setReplyDeadline(input: { railwayId: string; sessionId: string; host: Host; replyBy: string; now?: Date }) {
+  const now = input.now ?? new Date();
+  return runInTransaction(() => {
+    const session = loadSession(input.railwayId, input.sessionId);
+    requirePublished(session, now);
+    let replyBy: Date | null = null;
+    if (input.replyBy) {
+      const [date, time] = input.replyBy.split('T') as [string, string];
+      replyBy = zonedToUtc(date, time, session.timeZone);
+      const field = (message: string) => new AppError('bad_request', message, { issues: [{ path: 'replyBy', message }] });
+      if (!replyBy) throw field(`That time does not exist in ${session.timeZone} (the clocks skip it).`);
+      if (replyBy.getTime() <= now.getTime()) throw field('Choose a time that is still ahead.');
+      if (replyBy.getTime() > session.startsAt.getTime()) throw field('Choose a time no later than the session’s start.');
+    }
+    setSessionReplyBy(input.railwayId, session.id, replyBy);
+    recordAudit({ railwayId: input.railwayId, userId: input.host.id, action: 'reply-deadline', entity: 'session', entityId: session.id, detail: { replyBy: replyBy?.toISOString() ?? null } });
+    return { replyBy };
   });
 }

@@ -44,9 +44,32 @@ export const sendNoticesSchema = z.object({
 
 export const resendSchema = z.object({ invitationId: invitationIdSchema });
 
+/** A short note with a reply, for the host and planners only. */
+export const MAX_REPLY_COMMENT = 280;
+export const replyCommentSchema = z
+  .string()
+  .max(MAX_REPLY_COMMENT * 4, `Keep the note to ${MAX_REPLY_COMMENT} characters.`)
+  // Control characters (other than line breaks) have no place in a note; they are dropped, not refused.
+  // eslint-disable-next-line no-control-regex
+  .transform((s) => s.replace(/\r\n?/g, '\n').replace(/[\u0000-\u0009\u000b-\u001f\u007f]/g, '').trim())
+  .refine((s) => [...s].length <= MAX_REPLY_COMMENT, `Keep the note to ${MAX_REPLY_COMMENT} characters.`);
+
 export const replyByTokenSchema = z.object({
   token: z.string().min(20, 'This reply link is not valid.').max(1000, 'This reply link is not valid.'),
   answer: answerSchema,
+  comment: replyCommentSchema.default(''),
 });
+
+/** The host's reply deadline, as a date and time on the session's wall clock (datetime-local), or '' to clear it. */
+export const replyDeadlineSchema = z.object({
+  replyBy: z
+    .string()
+    .trim()
+    .max(20, 'Enter the date and time as YYYY-MM-DDTHH:MM.')
+    .regex(/^$|^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/, 'Enter the date and time as YYYY-MM-DDTHH:MM.'),
+});
+
+/** Reminders to those who have not replied: at most one per invitee in this time (common practice: once a day). */
+export const REMINDER_GAP_MS = 20 * 3600_000;
 
 export const answerInvitationSchema = z.object({ answer: answerSchema });

@@ -3,11 +3,13 @@ import ICAL from 'ical.js';
 import { simpleParser } from 'mailparser';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { PATCH } from '@/app/api/sessions/[sessionId]/runs/[runId]/route';
-import { sendNotices } from '@/app/(app)/railways/[railwayId]/sessions/[sessionId]/invitations/actions';
+import { remindCrew, sendNotices, setReplyDeadline } from '@/app/(app)/railways/[railwayId]/sessions/[sessionId]/invitations/actions';
 import { getDb } from '@/db';
 import { getRailwaySession, listSessionInvitations } from '@/db/queries/invitation-records';
 import * as t from '@/db/schema';
 import { resetEnvCache } from '@/lib/env';
+import { formatInZone } from '@/lib/format';
+import { isLate } from '@/lib/invitations/reply';
 import { sessionStandings } from '@/lib/invitations/send';
 import { startLocalMailServer } from '@/lib/mail/local-server';
 import { deliverDueMail } from '@/lib/mail/outbox';
@@ -172,5 +174,89 @@ describe('changes after the invitations', () => {
     expect(op.start.getTime()).toBe(startsAt.getTime()); // DTSTART moved (RFC 5545 3.8.2.4)
     expect(host.text).toMatch(/- The session's time changed: now .*; it was /);
     expect(host.text).not.toContain('Your run with');
+  });
+});
+
+describe('reminders, the reply deadline and notes with replies', () => {
+  it('reminds only those sent an invitation who have not replied, at most once a day, and records when', async () => {
+    const { w, session } = await invitedAndSent();
+    const inv = (email: string) => listSessionInvitations(session.id).find((i) => i.email === email)!;
+    // The operator answers through their link; the planner and host stay silent.
+    const { signReplyToken } = await import('@/lib/invitations/reply-token');
+    const { replyByToken } = await import('@/app/(public)/reply/actions');
+    const token = signReplyToken({ railwayId: w.railway.id, invitationId: inv(w.operator.email).id, nonce: 0, expiresAt: session.endsAt.getTime() });
+    expect(await replyByToken(null, formData({ token, answer: 'accepted' }))).toMatchObject({ ok: true });
+
+    expect(await remindCrew(w.railway.id, session.id, null, formData({}))).toMatchObject({ ok: true, message: '2 reminders queued.' });
+    expect(await remindCrew(w.railway.id, session.id, null, formData({}))).toMatchObject({ ok: true, message: 'No reminder sent. 2 people reminded in the last day left out.' });
+    expect(inv(w.planner.email).remindedAt).not.toBeNull();
+    expect(inv(w.planner.email).reminderCount).toBe(1);
+    expect(inv(w.operator.email).remindedAt).toBeNull();
+    await deliverAll();
+    const reminder = await simpleParser(caughtFor(w.planner.email).at(-1)!.raw);
+    expect(reminder.subject).toMatch(/^Reminder, please reply: Test running evening/);
+    expect(reminder.text).toMatch(/Accept: http:\/\/127\.0\.0\.1:3999\/reply\?token=/);
+    // No calendar part: the event the person holds is unchanged, so no new SEQUENCE (RFC 5546 2.1.4).
+    expect(reminder.attachments.filter((a) => a.contentType === 'text/calendar')).toHaveLength(0);
+    expect(caughtFor(w.operator.email)).toHaveLength(1);
+    // A day later the gap has passed: the two are due again (the service takes the time it is given).
+    const { remindUnanswered } = await import('@/lib/invitations/send');
+    const later = new Date(Date.now() + 21 * 3600_000);
+    expect(remindUnanswered({ railwayId: w.railway.id, sessionId: session.id, host: w.host, now: later })).toEqual({ queued: 2, tooSoon: 0 });
+    expect(inv(w.planner.email).reminderCount).toBe(2);
+  });
+
+  it('the deadline is set in the session’s zone, said in the e-mail, and a reply after it counts and is marked late', async () => {
+    const { w, session } = await invitedAndSent();
+    // Bad input changes nothing: a malformed value, a time past the start, a time already gone.
+    expect(await setReplyDeadline(w.railway.id, session.id, null, formData({ replyBy: 'tomorrow' }))).toMatchObject({ ok: false, status: 400 });
+    const afterStart = new Date(session.startsAt.getTime() + 3600_000).toISOString().slice(0, 16);
+    expect(await setReplyDeadline(w.railway.id, session.id, null, formData({ replyBy: afterStart }))).toMatchObject({ ok: false, status: 400, fieldErrors: { replyBy: expect.stringMatching(/start/) } });
+    expect(await setReplyDeadline(w.railway.id, session.id, null, formData({ replyBy: '2001-01-01T10:00' }))).toMatchObject({ ok: false, status: 400 });
+    expect(getRailwaySession(w.railway.id, session.id)!.replyBy).toBeNull();
+    // The world's session is in UTC: a day before the start on the wall clock is that instant.
+    const dayBefore = new Date(session.startsAt.getTime() - 86_400_000);
+    expect(await setReplyDeadline(w.railway.id, session.id, null, formData({ replyBy: dayBefore.toISOString().slice(0, 16) }))).toMatchObject({ ok: true });
+    expect(getRailwaySession(w.railway.id, session.id)!.replyBy!.getTime()).toBe(dayBefore.getTime());
+    await remindCrew(w.railway.id, session.id, null, formData({}));
+    await deliverAll();
+    const reminder = await simpleParser(caughtFor(w.operator.email).at(-1)!.raw);
+    expect(reminder.text).toContain(`Please reply by ${formatInZone(dayBefore, 'UTC')} (UTC).`);
+
+    const { replyByToken } = await import('@/lib/invitations/reply');
+    const { signReplyToken } = await import('@/lib/invitations/reply-token');
+    const inv = listSessionInvitations(session.id).find((i) => i.email === w.operator.email)!;
+    const token = signReplyToken({ railwayId: w.railway.id, invitationId: inv.id, nonce: inv.replyNonce, expiresAt: session.endsAt.getTime() });
+    const late = replyByToken(token, 'declined', new Date(dayBefore.getTime() + 60_000), 'Sorry, work trip.');
+    expect(late).toMatchObject({ answer: 'declined', late: true });
+    const after = listSessionInvitations(session.id).find((i) => i.id === inv.id)!;
+    expect(after.rsvp).toBe('declined');
+    expect(isLate(getRailwaySession(w.railway.id, session.id)!.replyBy, after.respondedAt)).toBe(true);
+    expect(after.comment).toBe('Sorry, work trip.');
+    // Clearing the deadline: nothing is late any more.
+    expect(await setReplyDeadline(w.railway.id, session.id, null, formData({ replyBy: '' }))).toMatchObject({ ok: true, message: 'Reply deadline removed.' });
+    expect(isLate(getRailwaySession(w.railway.id, session.id)!.replyBy, after.respondedAt)).toBe(false);
+  });
+
+  it('a note with a reply is bounded and cleaned, and stays out of what other operators read', async () => {
+    const { w, session } = await invitedAndSent();
+    const { replyByToken } = await import('@/app/(public)/reply/actions');
+    const { signReplyToken } = await import('@/lib/invitations/reply-token');
+    const inv = () => listSessionInvitations(session.id).find((i) => i.email === w.operator.email)!;
+    const tokenNow = () => signReplyToken({ railwayId: w.railway.id, invitationId: inv().id, nonce: inv().replyNonce, expiresAt: session.endsAt.getTime() });
+    expect(await replyByToken(null, formData({ token: tokenNow(), answer: 'tentative', comment: 'x'.repeat(281) }))).toMatchObject({ ok: false, status: 400 });
+    expect(inv().rsvp).toBe('needs-action'); // refused input changes nothing
+    expect(await replyByToken(null, formData({ token: tokenNow(), answer: 'tentative', comment: ' Late\u0007 train\r\nhome ' }))).toMatchObject({ ok: true });
+    expect(inv().comment).toBe('Late train\nhome');
+    // Another operator's view of the session (their runs page, the calendar file) never carries the note.
+    const other = w.makeUser('another-operator');
+    const { addMember } = await import('@/db/queries/memberships');
+    addMember(w.railway.id, other.id, 'operator');
+    db().insert(t.invitations).values({ sessionId: session.id, userId: other.id, email: other.email }).run();
+    signInAs(other);
+    const { loadMyRuns } = await import('@/lib/invitations/my-runs');
+    expect(JSON.stringify(await loadMyRuns(other.id))).not.toContain('Late train');
+    const { GET } = await import('@/app/api/sessions/[sessionId]/calendar.ics/route');
+    expect(await (await GET(new Request('http://test/api'), { params: Promise.resolve({ sessionId: session.id }) })).text()).not.toContain('Late train');
   });
 });

@@ -8,7 +8,7 @@ import { claimedInvitationId } from '@/lib/invitations/reply-token';
 import { rateLimit } from '@/lib/rate-limit';
 import { replyByTokenSchema } from '@/lib/validations/invitation';
 
-export type ReplyResult = { answer: string; sessionTitle: string; railwayName: string; joined: boolean; nextToken: string };
+export type ReplyResult = { answer: string; sessionTitle: string; railwayName: string; joined: boolean; nextToken: string; late: boolean };
 
 /**
  * Anyone holding a reply link: records accept, maybe or decline without signing in. The link's
@@ -18,9 +18,9 @@ export const replyByToken = action(['state', 'form'], async (_prev, formData): P
   const token = String(formData.get('token') ?? '');
   rateLimit(`rsvp-ip:${await clientAddress()}`, 60, 60_000);
   rateLimit(`rsvp:${claimedInvitationId(token)}`, 10, 60_000);
-  const input = parseOrThrow(replyByTokenSchema, { token, answer: formData.get('answer') });
+  const input = parseOrThrow(replyByTokenSchema, { token, answer: formData.get('answer'), comment: formData.get('comment') ?? '' });
   // No revalidatePath: re-rendering this page would re-read the now spent link and hide the answer;
   // the host's tracker is rendered fresh on every request and refreshes itself.
-  const result = recordReply(input.token, input.answer);
+  const result = recordReply(input.token, input.answer, new Date(), input.comment);
   return { ok: true, message: 'Thank you — your answer is recorded.', data: result };
 });

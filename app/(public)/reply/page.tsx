@@ -3,7 +3,7 @@ import { ReplyForm } from '@/components/invitations/reply-form';
 import { Card, Notice } from '@/components/ui/card';
 import { formatInZone } from '@/lib/format';
 import { ANSWER_LABELS, inspectReplyToken } from '@/lib/invitations/reply';
-import { ANSWERS, type Answer } from '@/lib/validations/invitation';
+import { ANSWERS, MAX_REPLY_COMMENT, type Answer } from '@/lib/validations/invitation';
 
 export const metadata: Metadata = { title: 'Reply to an invitation', robots: { index: false } };
 export const dynamic = 'force-dynamic';
@@ -34,9 +34,24 @@ export default async function ReplyPage({ searchParams }: { searchParams: Promis
               {inspected.found.session.place ? ` · ${inspected.found.session.place}` : ''}
             </p>
             <p className="text-sm">For {inspected.found.inviteeName}</p>
+            {inspected.found.session.replyBy ? (
+              <p className="text-sm" data-testid="reply-deadline">
+                {inspected.found.session.replyBy.getTime() < Date.now() ? (
+                  <>The reply deadline was {formatInZone(inspected.found.session.replyBy, inspected.found.session.timeZone)}. Your answer still counts; the host sees it marked late.</>
+                ) : (
+                  <>Please reply by <strong>{formatInZone(inspected.found.session.replyBy, inspected.found.session.timeZone)}</strong>.</>
+                )}
+              </p>
+            ) : null}
           </div>
           <div className="mt-4">
-            <ReplyForm token={token} chosen={chosen} currentLabel={ANSWER_LABELS[inspected.found.invitation.rsvp]} />
+            <ReplyForm
+              token={token}
+              chosen={chosen}
+              currentLabel={ANSWER_LABELS[inspected.found.invitation.rsvp]}
+              comment={inspected.found.invitation.comment}
+              maxComment={MAX_REPLY_COMMENT}
+            />
           </div>
         </Card>
       ) : null}

@@ -119,6 +119,24 @@ export const INVITATION_CASES: AuthzCase[] = [
     expect: hostOnly,
   },
   {
+    target: `${TRACKER}#remindCrew`,
+    call: async (w) => {
+      const { remindCrew } = await import('@/app/(app)/railways/[railwayId]/sessions/[sessionId]/invitations/actions');
+      const { session } = makeSessionWorld(w);
+      return actionStatus(() => remindCrew(w.railway.id, session.id, null, formData({})));
+    },
+    expect: hostOnly,
+  },
+  {
+    target: `${TRACKER}#setReplyDeadline`,
+    call: async (w) => {
+      const { setReplyDeadline } = await import('@/app/(app)/railways/[railwayId]/sessions/[sessionId]/invitations/actions');
+      const { session } = makeSessionWorld(w);
+      return actionStatus(() => setReplyDeadline(w.railway.id, session.id, null, formData({ replyBy: '' })));
+    },
+    expect: hostOnly,
+  },
+  {
     // Each member answers their own invitation; the outsider tries the operator's (404).
     target: `${MY_RUNS}#answerInvitation`,
     call: async (w) => {

@@ -1,4 +1,4 @@
-import { answerInvitationSchema, answerSchema, guestEmailsSchema, sendNoticesSchema } from '@/lib/validations/invitation';
+import { answerInvitationSchema, answerSchema, guestEmailsSchema, replyDeadlineSchema, sendNoticesSchema } from '@/lib/validations/invitation';
 import { inviteEveryone, makeSessionWorld } from '../authz/invitations';
 import { actionStatus, type World } from '../authz/shared';
 import { formData } from '../world';
@@ -54,6 +54,23 @@ export const INVITATION_HOSTILE: HostileTarget[] = [
     },
   },
   {
+    target: `${TRACKER}#remindCrew`,
+    kind: 'exempt',
+    why: 'takes no form input: the railway and session ids are bound on the server and checked (authz covers who may)',
+  },
+  {
+    // A date and time that parses would set a deadline: pinned to one the schema refuses.
+    target: `${TRACKER}#setReplyDeadline`,
+    kind: 'action',
+    fields: ['replyBy'],
+    setup: world,
+    send: async (w, f) => {
+      const { setReplyDeadline } = await import('@/app/(app)/railways/[railwayId]/sessions/[sessionId]/invitations/actions');
+      const fields = refused(f, (v) => replyDeadlineSchema.safeParse(v).success, { replyBy: 'soon' });
+      return actionStatus(() => setReplyDeadline(w.railway.id, world(w).session.id, null, formData(fields)));
+    },
+  },
+  {
     // The host's own invitation (a real id); the answer is hostile.
     target: `${MY_RUNS}#answerInvitation`,
     kind: 'action',
@@ -74,7 +91,7 @@ export const INVITATION_HOSTILE: HostileTarget[] = [
     // A hostile token is never signed by us; and a real reply link with a hostile answer.
     target: 'app/(public)/reply/actions.ts#replyByToken',
     kind: 'action',
-    fields: ['token', 'answer'],
+    fields: ['token', 'answer', 'comment'],
     setup: world,
     send: async (w, f) => {
       const { replyByToken } = await import('@/app/(public)/reply/actions');
@@ -87,7 +104,7 @@ export const INVITATION_HOSTILE: HostileTarget[] = [
           const state = await replyByToken(null, formData(fields));
           return state?.ok ? { ok: true } : state;
         });
-      return worst([await reply(f), await reply({ token, answer: answer! })]);
+      return worst([await reply(f), await reply({ token, answer: answer!, comment: f.comment ?? '' })]);
     },
   },
 ];

@@ -4,8 +4,21 @@ import { revalidatePath } from 'next/cache';
 import { requireMember } from '@/lib/auth';
 import { parseOrThrow, type ActionState } from '@/lib/errors';
 import { action } from '@/lib/http';
-import { inviteToSession, resendInvitation as resendOne, sendNotices as sendAll } from '@/lib/invitations/send';
-import { inviteCrewSchema, railwayIdSchema, resendSchema, sendNoticesSchema, sessionIdSchema } from '@/lib/validations/invitation';
+import {
+  inviteToSession,
+  remindUnanswered,
+  resendInvitation as resendOne,
+  sendNotices as sendAll,
+  setReplyDeadline as setDeadline,
+} from '@/lib/invitations/send';
+import {
+  inviteCrewSchema,
+  railwayIdSchema,
+  replyDeadlineSchema,
+  resendSchema,
+  sendNoticesSchema,
+  sessionIdSchema,
+} from '@/lib/validations/invitation';
 
 function trackerPath(railwayId: string, sessionId: string) {
   return `/railways/${railwayId}/sessions/${sessionId}/invitations`;
@@ -53,4 +66,24 @@ export const resendInvitation = action(['id', 'id', 'state', 'form'], async (rai
   const result = resendOne({ railwayId: host.railwayId, sessionId: id, host: host.user, invitationId });
   revalidatePath(trackerPath(host.railwayId, id));
   return { ok: true, message: result.requeued ? 'Retrying the failed e-mail now.' : result.queued ? 'Sent again.' : 'Already queued.' };
+});
+
+/** Host only: reminds those who were invited and have not replied (each at most once a day). */
+export const remindCrew = action(['id', 'id', 'state', 'form'], async (railwayId, sessionId): Promise<ActionState> => {
+  const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'send reminders');
+  const id = parseOrThrow(sessionIdSchema, sessionId);
+  const result = remindUnanswered({ railwayId: host.railwayId, sessionId: id, host: host.user });
+  revalidatePath(trackerPath(host.railwayId, id));
+  const later = result.tooSoon ? ` ${result.tooSoon === 1 ? '1 person' : `${result.tooSoon} people`} reminded in the last day left out.` : '';
+  return { ok: true, message: result.queued ? `${plural(result.queued, 'reminder')} queued.${later}` : `No reminder sent.${later}` };
+});
+
+/** Host only: sets or clears the reply deadline. */
+export const setReplyDeadline = action(['id', 'id', 'state', 'form'], async (railwayId, sessionId, _prev, formData): Promise<ActionState> => {
+  const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'set the reply deadline');
+  const id = parseOrThrow(sessionIdSchema, sessionId);
+  const { replyBy } = parseOrThrow(replyDeadlineSchema, { replyBy: formData.get('replyBy') ?? '' });
+  const result = setDeadline({ railwayId: host.railwayId, sessionId: id, host: host.user, replyBy });
+  revalidatePath(trackerPath(host.railwayId, id));
+  return { ok: true, message: result.replyBy ? 'Reply deadline saved. E-mails from now on say it.' : 'Reply deadline removed.' };
 });

@@ -5,12 +5,14 @@ import { getRailwaySession, listSessionInvitations } from '@/db/queries/invitati
 import { listMembers } from '@/db/queries/memberships';
 import { loadSessionRows } from '@/db/queries/plan-data';
 import { AutoRefresh } from '@/components/invitations/auto-refresh';
-import { InviteCrewForm, NoticeActions, ResendButton } from '@/components/invitations/tracker-forms';
+import { InviteCrewForm, NoticeActions, RemindButton, ReplyDeadlineForm, ResendButton } from '@/components/invitations/tracker-forms';
 import { NotAllowed } from '@/components/railway/not-allowed';
 import { Badge, Card, Notice } from '@/components/ui/card';
 import { formatInZone } from '@/lib/format';
 import { describeChange, summariseChanges } from '@/lib/invitations/changes';
-import { sessionStandings } from '@/lib/invitations/send';
+import { isLate } from '@/lib/invitations/reply';
+import { nextReminderAt, remindable, sessionStandings } from '@/lib/invitations/send';
+import { utcToZoned } from '@/lib/time-zone';
 import { countStates, DELIVERY_LABELS, deliveryOf, needsCancel, RSVP_LABELS, type Delivery } from '@/lib/invitations/tracker';
 import { memberForPage } from '@/lib/page-access';
 
@@ -54,8 +56,16 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
       return { id: i.id, name: i.name, lines: changes.length ? changes.map(describeChange) : ['The session changed since their last e-mail.'] };
     });
   const toCancel = invitations.filter((i) => needsCancel(i, session)).length;
-  const ended = session.endsAt.getTime() < Date.now();
+  const now = new Date();
+  const ended = session.endsAt.getTime() < now.getTime();
   const open = session.status === 'published' && !ended;
+  const unanswered = invitations.filter((i) => i.rsvp === 'needs-action' && i.mailCount > 0);
+  const due = remindable(unanswered, now);
+  const waiting = unanswered.filter((i) => !due.includes(i));
+  const lastReminded = invitations.reduce<Date | null>((max, i) => (i.remindedAt && (!max || i.remindedAt > max) ? i.remindedAt : max), null);
+  const nextReminder = waiting.map((i) => nextReminderAt(i)!).sort((a, b) => a.getTime() - b.getTime())[0] ?? null;
+  const short = (d: Date) => formatInZone(d, zone, { weekday: undefined, year: undefined });
+  const deadline = session.replyBy ? utcToZoned(session.replyBy, zone) : null;
 
   return (
     <div className="space-y-6">
@@ -111,6 +121,17 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
         toCancel={toCancel}
       />
 
+      {open ? (
+        <RemindButton
+          railwayId={railwayId}
+          sessionId={sessionId}
+          due={due.length}
+          waiting={waiting.length}
+          last={lastReminded ? short(lastReminded) : null}
+          next={nextReminder ? short(nextReminder) : null}
+        />
+      ) : null}
+
       <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
         <Card title={`Invitees (${invitations.length})`} className="min-w-0">
           {invitations.length === 0 ? (
@@ -157,8 +178,19 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
                               {runCount.get(inv.userId)} run{runCount.get(inv.userId) === 1 ? '' : 's'} to hand to someone else
                             </span>
                           ) : null}
+                          {isLate(session.replyBy, inv.respondedAt) ? <span className="ml-1"><Badge tone="warn">late</Badge></span> : null}
                           {inv.respondedAt ? (
                             <span className="block text-xs text-muted sm:hidden">{formatInZone(inv.respondedAt, zone, { weekday: undefined, year: undefined })}</span>
+                          ) : null}
+                          {inv.remindedAt ? (
+                            <span className="block text-xs text-muted" data-testid="reminded">
+                              reminded {short(inv.remindedAt)}{inv.reminderCount > 1 ? ` (${inv.reminderCount}×)` : ''}
+                            </span>
+                          ) : null}
+                          {inv.comment ? (
+                            <span className="block max-w-xs whitespace-pre-line break-words text-xs italic" data-testid="reply-comment">
+                              “{inv.comment}”
+                            </span>
                           ) : null}
                         </td>
                         <td className="hidden py-2 pr-3 text-muted sm:table-cell">{inv.respondedAt ? formatInZone(inv.respondedAt, zone) : '—'}</td>
@@ -180,11 +212,21 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
             </div>
           )}
           <p className="mt-3 text-xs text-muted">
-            “Not sent yet” means the person is on the list but no e-mail was written for them. Replies appear here as they
-            arrive; this page refreshes itself.
+            “Not sent yet” means the person is on the list but no e-mail was written for them. Replies and their notes appear
+            here as they arrive (notes are for the host and planners only); this page refreshes itself.
           </p>
         </Card>
-        <div>
+        <div className="space-y-6">
+          {open ? (
+            <Card title="Reply deadline">
+              {session.replyBy ? (
+                <p className="mb-2 text-sm" data-testid="deadline-now">
+                  Replies wanted by <strong>{formatInZone(session.replyBy, zone)}</strong>.
+                </p>
+              ) : null}
+              <ReplyDeadlineForm railwayId={railwayId} sessionId={sessionId} value={deadline ? `${deadline.date}T${deadline.time}` : ''} timeZone={zone} />
+            </Card>
+          ) : null}
           {open ? (
             <Card title="Invite crew">
               <InviteCrewForm railwayId={railwayId} sessionId={sessionId} members={pickable} />
