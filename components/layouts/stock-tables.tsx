@@ -31,6 +31,8 @@ export type TrainRow = {
   locomotiveIds: string[];
   lightingAmps: number;
   lengthMm: number;
+  accelKmhPerS: number | null;
+  brakingKmhPerS: number | null;
   version: number;
   runningAmps: number;
   surgeAmps: number;
@@ -95,7 +97,14 @@ export function LocomotivesTable({
   );
 }
 
-export function TrainsTable({ railwayId, layoutId, canEdit, trains, locomotives }: Ids & { trains: TrainRow[]; locomotives: { id: string; name: string }[] }) {
+export function TrainsTable({
+  railwayId,
+  layoutId,
+  canEdit,
+  trains,
+  locomotives,
+  ramps,
+}: Ids & { trains: TrainRow[]; locomotives: { id: string; name: string }[]; ramps: { accelKmhPerS: number; brakingKmhPerS: number } }) {
   const [unit, setUnit] = useLengthUnit();
   const options = useMemo(() => locomotives.map((l) => ({ value: l.id, label: l.name })), [locomotives]);
   const columns = useMemo<EntityColumn<TrainRow>[]>(
@@ -109,6 +118,8 @@ export function TrainsTable({ railwayId, layoutId, canEdit, trains, locomotives 
       },
       { id: 'lightingAmps', header: 'Lighting', sortValue: (r) => r.lightingAmps, field: { name: 'lightingAmps', kind: 'number', suffix: 'A', width: 'w-20', placeholder: '0', toInput: (r) => String(r.lightingAmps) } },
       { id: 'length', header: 'Length', sortValue: (r) => r.lengthMm, field: { name: 'length', kind: 'number', suffix: unit, width: 'w-24', toInput: (r) => String(fromMm(r.lengthMm, unit)) } },
+      rampColumn('accelKmhPerS', 'Acceleration', ramps.accelKmhPerS),
+      rampColumn('brakingKmhPerS', 'Braking', ramps.brakingKmhPerS),
       {
         id: 'current',
         header: 'Running / surge',
@@ -120,7 +131,7 @@ export function TrainsTable({ railwayId, layoutId, canEdit, trains, locomotives 
         ),
       },
     ],
-    [options, unit],
+    [options, unit, ramps],
   );
   const hidden = useMemo(() => ({ unit }), [unit]);
   return (
@@ -135,7 +146,7 @@ export function TrainsTable({ railwayId, layoutId, canEdit, trains, locomotives 
         createSchema={trainSchema}
         editSchema={trainEditSchema}
         hidden={hidden}
-        newDefaults={{ name: '', locomotiveIds: [], lightingAmps: '', length: '' }}
+        newDefaults={{ name: '', locomotiveIds: [], lightingAmps: '', length: '', accelKmhPerS: '', brakingKmhPerS: '' }}
         create={(fd) => createTrain(railwayId, layoutId, null, fd)}
         update={(fd) => updateTrain(railwayId, layoutId, null, fd)}
         remove={(fd) => deleteTrain(railwayId, layoutId, null, fd)}
@@ -144,4 +155,15 @@ export function TrainsTable({ railwayId, layoutId, canEdit, trains, locomotives 
       />
     </div>
   );
+}
+
+/** A ramp in scale km/h per second; blank takes the scale's common-practice figure, shown beside it. */
+function rampColumn(name: 'accelKmhPerS' | 'brakingKmhPerS', header: string, fallback: number): EntityColumn<TrainRow> {
+  return {
+    id: name,
+    header,
+    sortValue: (r) => r[name] ?? fallback,
+    field: { name, kind: 'number', suffix: 'km/h/s', width: 'w-20', placeholder: String(fallback), toInput: (r) => (r[name] === null ? '' : String(r[name])) },
+    render: (r) => (r[name] === null ? `${fallback} km/h/s, common practice` : `${r[name]} km/h/s`),
+  };
 }

@@ -5,7 +5,7 @@ import { locomotives, runs, trainLocomotives, trains } from '@/db/schema';
 import type { DbOrTx } from './layout-rows';
 
 export type LocomotiveValues = { name: string; runningAmps: number; stallAmps: number; ratedVolts: number; topSpeedKmh: number; startVolts?: number | null };
-export type TrainValues = { name: string; lightingAmps: number; lengthMm: number };
+export type TrainValues = { name: string; lightingAmps: number; lengthMm: number; accelKmhPerS?: number | null; brakingKmhPerS?: number | null };
 
 export function insertLocomotive(layoutId: string, values: LocomotiveValues, db: DbOrTx = getDb()) {
   return db.insert(locomotives).values({ ...values, layoutId }).returning().get();

@@ -59,6 +59,8 @@ export function exportCsv(table: CsvTable, rows: LayoutRows): string {
           lighting_amps: tr.lightingAmps,
           length: tr.lengthMm,
           unit: 'mm',
+          accel_kmh_per_s: tr.accelKmhPerS ?? '',
+          braking_kmh_per_s: tr.brakingKmhPerS ?? '',
         })),
       );
     }
@@ -213,7 +215,7 @@ export function planCsvImport(table: CsvTable, text: string, rows: LayoutRows): 
       const locoByName = new Map(rows.locomotives.map((l) => [lower(l.name), l]));
       const consist = new Map<string, string[]>();
       for (const c of rows.consists) consist.set(c.trainId, [...(consist.get(c.trainId) ?? []), c.locomotiveId]);
-      const list: CsvChange<{ name: string; lightingAmps: number; lengthMm: number; locomotiveIds: string[] }>[] = [];
+      const list: CsvChange<{ name: string; lightingAmps: number; lengthMm: number; accelKmhPerS: number | null; brakingKmhPerS: number | null; locomotiveIds: string[] }>[] = [];
       for (const { row, cells } of records) {
         const names = (cells.locomotives ?? '').split(CONSIST_SEPARATOR).map((n) => n.trim()).filter(Boolean);
         const unknown = names.filter((n) => !locoByName.has(lower(n)));
@@ -230,8 +232,12 @@ export function planCsvImport(table: CsvTable, text: string, rows: LayoutRows): 
           lightingAmps: cells.lighting_amps,
           length: cells.length,
           unit: cells.unit,
+          accelKmhPerS: cells.accel_kmh_per_s,
+          brakingKmhPerS: cells.braking_kmh_per_s,
         });
-        if (!parsed.success) issues.push(...cellIssues(row, parsed.error, { locomotiveIds: 'locomotives', lightingAmps: 'lighting_amps' }));
+        if (!parsed.success) {
+          issues.push(...cellIssues(row, parsed.error, { locomotiveIds: 'locomotives', lightingAmps: 'lighting_amps', accelKmhPerS: 'accel_kmh_per_s', brakingKmhPerS: 'braking_kmh_per_s' }));
+        }
         if (!parsed.success || unknown.length) {
           push(row, cells.name ?? '', 'error');
           continue;
@@ -245,6 +251,7 @@ export function planCsvImport(table: CsvTable, text: string, rows: LayoutRows): 
         const oldConsist = old ? (consist.get(old.id) ?? []) : [];
         const same =
           old && old.name === v.name && old.lightingAmps === v.lightingAmps && old.lengthMm === v.lengthMm &&
+          old.accelKmhPerS === v.accelKmhPerS && old.brakingKmhPerS === v.brakingKmhPerS &&
           oldConsist.length === v.locomotiveIds.length && oldConsist.every((id, i) => id === v.locomotiveIds[i]);
         if (!old) list.push({ action: 'create', values: v });
         else if (!same) list.push({ action: 'update', id: old.id, version: old.version, values: v });

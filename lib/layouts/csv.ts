@@ -28,6 +28,8 @@ export const CSV_COLUMNS: Record<CsvTable, { name: string; required: boolean; he
     { name: 'lighting_amps', required: false, help: 'A; blank is 0' },
     { name: 'length', required: true, help: 'in the unit of the row' },
     { name: 'unit', required: true, help: 'mm, cm, m, in or ft' },
+    { name: 'accel_kmh_per_s', required: false, help: 'scale km/h per second from a stand; blank is common practice for the scale' },
+    { name: 'braking_kmh_per_s', required: false, help: 'scale km/h per second when stopping; blank is common practice for the scale' },
   ],
 };
 

@@ -117,7 +117,11 @@ export function planToImport(input: unknown, name: string | undefined): { data: 
     return v && { ...v, key: l.id };
   });
   const trains = plan.trains.map((tr, i) => {
-    const v = check(trainSchema, { name: tr.name, locomotiveIds: tr.locoIds, lightingAmps: tr.lightingAmps, length: tr.lengthMm, unit: 'mm' }, `trains[${i}]`);
+    const v = check(
+      trainSchema,
+      { name: tr.name, locomotiveIds: tr.locoIds, lightingAmps: tr.lightingAmps, length: tr.lengthMm, unit: 'mm', accelKmhPerS: tr.accelKmhPerS ?? null, brakingKmhPerS: tr.brakingKmhPerS ?? null },
+      `trains[${i}]`,
+    );
     return v && { ...v, key: tr.id };
   });
   if (issues.length) fail(issues);

@@ -20,7 +20,7 @@ import {
   type TimedRun,
 } from '@/lib/planning';
 import { storedCheck } from '@/lib/sessions/stored-check';
-import { sessionToPlan } from '@/lib/sessions/to-plan';
+import { sessionToPlan, trainRamps } from '@/lib/sessions/to-plan';
 import type { BuilderLayout, BuilderRun, BuilderSession, BuilderSnapshot } from '@/lib/sessions/types';
 
 export type SessionRows = NonNullable<ReturnType<typeof loadSessionRows>>;
@@ -175,6 +175,7 @@ export function timeFromWaypoints(
     speedKmh: input.speedKmh,
     standBeforeS: input.standBeforeS,
     standAfterS: input.standAfterS,
+    ...trainRamps(train, rows.layout?.scaleRatio ?? 87),
   });
 }
 

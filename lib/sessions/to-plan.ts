@@ -1,5 +1,5 @@
 import { planDriverElectrics } from '@/lib/layouts/driver-electrics';
-import type { Plan } from '@/lib/planning';
+import { defaultRamps, type Plan, type Ramps } from '@/lib/planning';
 import type { loadLayoutRows, loadSessionRows } from '@/db/queries/plan-data';
 
 type LayoutRows = ReturnType<typeof loadLayoutRows>;
@@ -47,6 +47,7 @@ export function layoutToPlan(rows: LayoutRows, extra: Pick<Plan, 'clock' | 'rule
       locoIds: locosOf.get(tr.id) ?? [],
       lightingAmps: tr.lightingAmps,
       lengthMm: tr.lengthMm,
+      ...trainRamps(tr, layout.scaleRatio),
     })),
     operators: extra.operators ?? [],
     runs: [],
@@ -80,4 +81,10 @@ export function sessionToPlan(rows: SessionRows): Plan {
       steps: stepsOf.get(r.id) ?? [],
     })),
   };
+}
+
+/** A stored train's ramps: its own, or the common-practice default for the layout's scale where blank. */
+export function trainRamps(train: { accelKmhPerS: number | null; brakingKmhPerS: number | null }, scaleRatio: number): Ramps {
+  const fallback = defaultRamps(scaleRatio);
+  return { accelKmhPerS: train.accelKmhPerS ?? fallback.accelKmhPerS, brakingKmhPerS: train.brakingKmhPerS ?? fallback.brakingKmhPerS };
 }

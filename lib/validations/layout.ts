@@ -258,6 +258,9 @@ export const trainFields = z.object({
   lightingAmps: numberOr(0, { min: 0, max: 20, unit: 'A' }),
   length: number({ gt: 0, max: MAX_LENGTH_MM }),
   unit: lengthUnitSchema,
+  // Ramps in scale km/h per second; blank takes the scale's common-practice default (defaultRamps).
+  accelKmhPerS: numberOrNull({ gt: 0, max: 100, unit: 'km/h per second' }),
+  brakingKmhPerS: numberOrNull({ gt: 0, max: 100, unit: 'km/h per second' }),
 });
 
 const toTrain = (v: z.infer<typeof trainFields>, ctx: z.RefinementCtx) => ({
@@ -265,6 +268,8 @@ const toTrain = (v: z.infer<typeof trainFields>, ctx: z.RefinementCtx) => ({
   locomotiveIds: v.locomotiveIds,
   lightingAmps: v.lightingAmps,
   lengthMm: lengthIn(v.unit, v.length, ctx, 'length'),
+  accelKmhPerS: v.accelKmhPerS,
+  brakingKmhPerS: v.brakingKmhPerS,
 });
 
 export const trainSchema = trainFields.transform(toTrain);

@@ -4,7 +4,10 @@ import { POST as postSeries } from '@/app/api/sessions/[sessionId]/runs/[runId]/
 import { GET as listRuns, POST as createRun } from '@/app/api/sessions/[sessionId]/runs/route';
 import { GET as suggest, POST as applyRetime } from '@/app/api/sessions/[sessionId]/retime/route';
 import { POST as undoRetime } from '@/app/api/sessions/[sessionId]/retime/undo/route';
+import { eq } from 'drizzle-orm';
+import { getDb } from '@/db';
 import { getRun } from '@/db/queries/runs';
+import * as t from '@/db/schema';
 import type { BuilderChange, BuilderSnapshot, RetimeSuggestion } from '@/lib/sessions/types';
 import { makeSessionWorld } from './authz/sessions';
 import { signInAs } from './caller';
@@ -41,10 +44,27 @@ describe('runs', () => {
     // 09:00 fast with the clock starting at 06:00 and running 4:1 is 3 h × 3600 / 4 = 2700 s real.
     expect(answer.run?.departS).toBe(2700);
     expect(answer.run?.steps.map((st) => st.blockId)).toEqual(['A', 'B', 'C', 'D'].map((k) => s.layout.blocks[k]));
-    // 60 km/h in H0: 60 / 3.6 / 87 × 1000 = 191.57 mm/s; 500 mm train clears block A after 2.61 s.
-    expect(answer.run!.steps[0]!.exitS).toBeCloseTo(2700 + 500 / ((60 / 3.6 / 87) * 1000), 3);
+    // 60 km/h in H0: 60 / 3.6 / 87 × 1000 = 191.57 mm/s. The train has no ramps of its own, so it
+    // takes H0's common-practice 15 km/h per second (47.89 mm/s²): 60 / 15 = 4 s to reach speed over
+    // v² / 2a = 383.1 mm, then (500 − 383.1) / 191.57 = 0.61 s until the 500 mm train clears block A.
+    const v = (60 / 3.6 / 87) * 1000;
+    const a = (15 / 3.6 / 87) * 1000;
+    expect(answer.run!.steps[0]!.exitS).toBeCloseTo(2700 + v / a + (500 - (v * v) / (2 * a)) / v, 3);
+    expect(answer.run!.steps[0]!.exitS).toBeCloseTo(2704.61, 2);
     expect(answer.runs).toHaveLength(3);
     expect(answer.findings.some((f) => f.kind === 'block-overlap')).toBe(true);
+  });
+
+  it('times a run with the train’s own ramps when it has them', async () => {
+    const { s, sid } = setup();
+    getDb().update(t.trains).set({ accelKmhPerS: 30 }).where(eq(t.trains.id, s.layout.trains.t1)).run();
+    const body = { trainId: s.layout.trains.t1, cabId: s.layout.cabs.c1, depart: '09:00', waypoints: [s.layout.blocks.A, s.layout.blocks.D], speedKmh: 60, standBeforeS: 30, standAfterS: 30 };
+    const answer: BuilderChange = await (await createRun(json('POST', `/api/sessions/${sid}/runs`, body), ctx({ sessionId: sid }))).json();
+    // 30 km/h per second (95.79 mm/s²): 2 s to 60 km/h over 191.6 mm, then (500 − 191.6) / 191.57 = 1.61 s.
+    const v = (60 / 3.6 / 87) * 1000;
+    const a = (30 / 3.6 / 87) * 1000;
+    expect(answer.run!.steps[0]!.exitS).toBeCloseTo(2700 + v / a + (500 - (v * v) / (2 * a)) / v, 3);
+    expect(answer.run!.steps[0]!.exitS).toBeCloseTo(2703.61, 2);
   });
 
   it('refuses a bad run with 400 naming the field and adds nothing', async () => {

@@ -6,7 +6,7 @@ import { LocomotivesTable, TrainsTable } from '@/components/layouts/stock-tables
 import { Card } from '@/components/ui/card';
 import { budgetInputOf, layoutForPage } from '@/lib/layouts/layout-page';
 import { dutyTables, trainLoads } from '@/lib/layouts/power-budget';
-import { gaugeForScale, nominalTrackVolts } from '@/lib/planning';
+import { defaultRamps, gaugeForScale, nominalTrackVolts } from '@/lib/planning';
 
 // Common practice for a modern HO can motor (no formal source): plan on 0.5 A running, about 0.9 A stalled.
 const LOCOMOTIVE_DEFAULTS = { runningAmps: 0.5, stallAmps: 0.9 } as const;
@@ -22,6 +22,7 @@ export default async function StockPage({ params }: { params: Promise<{ railwayI
   const ids = { railwayId, layoutId: layout.id, canEdit };
   const gauge = gaugeForScale({ name: layout.scaleName, ratio: layout.scaleRatio });
   const ratedVolts = nominalTrackVolts(gauge ?? 16.5);
+  const ramps = defaultRamps(layout.scaleRatio);
   return (
     <div className="space-y-6">
       <Card title={`Locomotives (${rows.locomotives.length})`}>
@@ -46,15 +47,22 @@ export default async function StockPage({ params }: { params: Promise<{ railwayI
           Running = every locomotive&apos;s running current + lighting; surge = every locomotive&apos;s start current + lighting (its stall current × start volts / rated volts under a PWM ramp, the full stall current if no start voltage is entered). Lighting, common practice: about 50 mA per
           grain-of-wheat bulb, 30 mA grain-of-rice, 20 mA LED.
         </p>
+        <p className="mb-3 text-sm text-muted" data-testid="ramp-defaults">
+          Acceleration and braking in scale km/h per second set how a timed run starts and stops. Blank takes common practice for 1:{layout.scaleRatio}:{' '}
+          {ramps.accelKmhPerS} up and {ramps.brakingKmhPerS} down, several times the prototype&apos;s 1.8–3.6 km/h per second, since a layout compresses the line too.
+        </p>
         <TrainsTable
           {...ids}
           locomotives={rows.locomotives.map((l) => ({ id: l.id, name: l.name }))}
+          ramps={ramps}
           trains={input.trains.map((t) => ({
             id: t.id,
             name: t.name,
             locomotiveIds: t.locomotiveIds,
             lightingAmps: t.lightingAmps,
             lengthMm: t.lengthMm,
+            accelKmhPerS: rows.trains.find((r) => r.id === t.id)!.accelKmhPerS,
+            brakingKmhPerS: rows.trains.find((r) => r.id === t.id)!.brakingKmhPerS,
             version: rows.trains.find((r) => r.id === t.id)!.version,
             runningAmps: loads.get(t.id)?.runningAmps ?? 0,
             surgeAmps: loads.get(t.id)?.surgeAmps ?? 0,
