@@ -157,6 +157,14 @@ export const blocks = sqliteTable(
     lengthMm: real('length_mm').notNull(),
     /** Distance of the block's start along the line, for the train graph. */
     positionMm: real('position_mm').notNull().default(0),
+    /** Which rail the cab's positive output feeds looking towards the block's `b` end (NEM 631 2.3). */
+    positiveRail: text('positive_rail', { enum: ['right', 'left'] })
+      .notNull()
+      .default('right'),
+    /** A reversing section: the block has its own polarity switch. */
+    reversingSection: integer('reversing_section', { mode: 'boolean' }).notNull().default(false),
+    /** A reversing place: trains may change direction here in the middle of a run. */
+    reversingPlace: integer('reversing_place', { mode: 'boolean' }).notNull().default(false),
     version: version(),
   },
   (t) => [
@@ -178,10 +186,18 @@ export const links = sqliteTable(
     blockBId: text('block_b_id')
       .notNull()
       .references(() => blocks.id, { onDelete: 'cascade' }),
+    /** The rail joint: this end of block A meets `blockBEnd` of block B. */
+    blockAEnd: text('block_a_end', { enum: ['a', 'b'] })
+      .notNull()
+      .default('b'),
+    blockBEnd: text('block_b_end', { enum: ['a', 'b'] })
+      .notNull()
+      .default('a'),
   },
   (t) => [
     index('links_layout_idx').on(t.layoutId),
-    uniqueIndex('links_pair_idx').on(t.blockAId, t.blockBId),
+    // A balloon loop joins one end of the line to both ends of the loop block: pairs repeat, joints do not.
+    uniqueIndex('links_joint_idx').on(t.blockAId, t.blockAEnd, t.blockBId, t.blockBEnd),
   ],
 );
 
@@ -398,6 +414,9 @@ export const runSteps = sqliteTable(
       .references(() => blocks.id, { onDelete: 'restrict' }),
     enterS: real('enter_s').notNull(),
     exitS: real('exit_s').notNull(),
+    /** Direction of travel: in at this end, heading for `toEnd` (null: derived from the links). */
+    fromEnd: text('from_end', { enum: ['a', 'b'] }),
+    toEnd: text('to_end', { enum: ['a', 'b'] }),
   },
   (t) => [uniqueIndex('run_steps_run_position_idx').on(t.runId, t.position)],
 );
