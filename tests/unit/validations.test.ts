@@ -102,7 +102,7 @@ describe('layout and scale', () => {
     expect(parsed(layoutSchema, { ...own, customRatio: '1000' }).scaleRatio).toBe(1000);
     expect(parsed(layoutSchema, { ...own, customRatio: '1' }).scaleRatio).toBe(1);
     expect(refusedOn(layoutSchema, { ...own, customScaleName: '' }, 'customScaleName')).toBe('Name your scale.');
-    expect(refusedOn(layoutSchema, { ...own, customRatio: '' }, 'customRatio')).toMatch(SENTENCE);
+    expect(refusedOn(layoutSchema, { ...own, customRatio: '' }, 'customRatio')).toBe('Enter the ratio, e.g. 87 for 1:87.');
     expect(refusedOn(layoutSchema, { ...own, customRatio: '1001' }, 'customRatio')).toMatch(/1000/);
     expect(refusedOn(layoutSchema, { ...own, customRatio: '0.5' }, 'customRatio')).toMatch(/1000/);
     // A table scale ignores the own-scale fields.
@@ -156,6 +156,7 @@ describe('blocks, links and trains', () => {
     expect(parsed(trainSchema, { ...train, locomotiveIds: ['l1', 'l2'], lightingAmps: '0.2' })).toMatchObject({ locomotiveIds: ['l1', 'l2'], lightingAmps: 0.2 });
     expect(refusedOn(trainSchema, { ...train, locomotiveIds: ['l1', 'l1'] }, 'locomotiveIds')).toMatch(SENTENCE);
     expect(refusedOn(trainSchema, { ...train, locomotiveIds: '' }, 'locomotiveIds')).toMatch(SENTENCE);
+    expect(refusedOn(trainSchema, { ...train, locomotiveIds: 5 }, 'locomotiveIds')).toBe('A train needs at least one locomotive.');
   });
 });
 
