@@ -1,5 +1,18 @@
 // Mutation testing (npm run test:mutation, lib/cli/mutation.mjs runs it one folder of lib/ at a time).
 // Not part of npm test or CI: it takes long on a 2-core machine. Scores per folder are in the README.
+//
+// Surviving mutants argued equivalent (they change no result Fishplate can observe; they stay in the
+// score as survivors rather than being hidden with "Stryker disable" comments):
+// - lib/validations/layout.ts, `ctx.addIssue({ code: 'custom', … })` → `code: ""` (5 mutants): zod
+//   keeps the issue's path and message, and nothing in Fishplate reads a zod issue's code (forms and
+//   route handlers show path and message; lib/errors.ts has its own codes).
+// - lib/validations/invitation.ts, guest addresses: `split(/[\s,;]+/)` → `split(/[\s,;]/)` only
+//   adds empty strings, which `.filter(Boolean)` drops; `toLowerCase()` → `toUpperCase()` folds
+//   case the other way before the duplicates are removed, and every address is lower-cased by
+//   emailSchema after (an address whose upper case changes its length, such as one with ß, is not a
+//   valid address to z.email, so it never reaches the list).
+// - lib/calendar/ics.ts finish(): `text.endsWith('\r\n')` → `startsWith`: ical-generator 10 writes
+//   neither a leading CRLF nor a trailing one, so both forms add the one CRLF RFC 5545 3.1 wants.
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',
@@ -15,7 +28,9 @@ export default {
     '!lib/demo/**',
     '!lib/**/*.d.ts',
   ],
-  ignorePatterns: ['.next', '.next-*', 'data', 'uploads', 'test-results', 'playwright-report', 'reports', 'tests/e2e'],
+  // Anchored at the root (gitignore syntax): an unanchored 'reports' also left the live-report route
+  // (app/api/sessions/[sessionId]/runs/[runId]/reports) out of the sandbox.
+  ignorePatterns: ['/.next', '/.next-*', '/data', '/uploads', '/test-results', '/playwright-report', '/reports', '/tests/e2e'],
   // Two shared cores: one worker each; override with --concurrency.
   concurrency: 2,
   timeoutMS: 10_000,

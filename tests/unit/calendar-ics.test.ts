@@ -290,7 +290,8 @@ describe('run events and their text', () => {
         'Shunt at Y1',
       ].join('\n'),
     );
-    expect(describeRunForCalendar({ ...run('r1', 5), operatorName: null, after: { ...run('r1', 5).after!, operatorName: null } }).split('\n').slice(-1)).toEqual([
+    expect(describeRunForCalendar({ ...run('r1', 5), operatorName: null, after: { ...run('r1', 5).after!, operatorName: null } }).split('\n').slice(5)).toEqual([
+      'Stands 2 min real before departure and 3 min real after arrival',
       'Cab after: no one named with Express at 06:52',
     ]);
   });
@@ -308,6 +309,9 @@ describe('run events and their text', () => {
     expect(runEvent.getFirstPropertyValue('url')).toBe('https://x.example/s/1');
     expect(runEvent.getFirstPropertyValue('status')).toBe('TENTATIVE'); // RFC 5545 3.8.1.11: a draft is not confirmed
     expect(events[0]!.getFirstPropertyValue('url')).toBe('https://x.example/s/1');
+    expect(events[0]!.getFirstPropertyValue('location')).toBe('Hall');
+    expect((events[0]!.getFirstPropertyValue('dtstamp') as ICAL.Time).toJSDate()).toEqual(NOW);
+    expect(parse(text).root.getFirstPropertyValue('prodid')).toBe('-//Fishplate//Fishplate sessions//EN'); // RFC 5545 3.7.3
     expect(events[0]!.getFirstPropertyValue('description')).toBe(session().description);
     const bare = parse(buildCalendarFile({ name: 'Feed', entries: [{ session: session({ place: '', description: '' }), runs: [run('r1', 5)] }], now: NOW })).events;
     for (const e of bare) for (const p of ['location', 'url']) expect(e.hasProperty(p), p).toBe(false);
@@ -315,7 +319,20 @@ describe('run events and their text', () => {
     expect(bare[1]!.getFirstPropertyValue('sequence')).toBe(0);
   });
 
+  it('an invitation carries the timetable link; a cancellation is CANCELLED whatever the session says (RFC 5546 3.2.5)', () => {
+    const invite = parse(buildInvitationCalendar({ method: 'REQUEST', session: session(), sequence: 1, organizer: host, attendee: guest, description: 'x', url: 'https://x.example/s/1', now: NOW }));
+    expect(invite.event.getFirstPropertyValue('url')).toBe('https://x.example/s/1');
+    const cancel = parse(buildInvitationCalendar({ method: 'CANCEL', session: session({ status: 'published' }), sequence: 2, organizer: host, attendee: guest, description: 'x', now: NOW }));
+    expect(cancel.event.getFirstPropertyValue('status')).toBe('CANCELLED');
+    expect(cancel.event.hasProperty('url')).toBe(false);
+  });
+
   it('a session that starts and ends at local midnight on the same instant is not an all-day event', () => {
+    // Midnight to midnight is all-day only to the second (Europe/London is UTC+0 in December).
+    for (const start of ['2026-12-05T00:30:00Z', '2026-12-05T00:00:30Z']) {
+      expect(sessionTimes({ startsAt: new Date(start), endsAt: new Date('2026-12-06T00:00:00Z'), timeZone: 'Europe/London' }).allDay, start).toBe(false);
+    }
+    expect(sessionTimes({ startsAt: new Date('2026-12-05T00:00:00Z'), endsAt: new Date('2026-12-06T00:00:00Z'), timeZone: 'Europe/London' }).allDay).toBe(true);
     const midnight = new Date('2026-12-05T00:00:00Z');
     expect(sessionTimes({ startsAt: midnight, endsAt: midnight, timeZone: 'Europe/London' }).allDay).toBe(false);
     // Starts at midnight, ends in the evening: timed.
