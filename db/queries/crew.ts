@@ -16,6 +16,7 @@ export function listInvitedSessions(userId: string, from: Date, statuses: ('publ
       invitationId: invitations.id,
       rsvp: invitations.rsvp,
       respondedAt: invitations.respondedAt,
+      sentSequence: invitations.sentSequence,
     })
     .from(invitations)
     .innerJoin(sessions, eq(sessions.id, invitations.sessionId))

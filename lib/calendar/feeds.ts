@@ -41,9 +41,12 @@ export function sessionCalendarFor(member: Member, sessionId: string): { filenam
  */
 export function personalFeed(user: { id: string; name: string }, now = new Date()): string {
   const since = new Date(now.getTime() - 30 * 24 * 3600_000);
-  const entries = listInvitedSessions(user.id, since, ['published', 'cancelled']).map(({ session }) => {
+  const entries = listInvitedSessions(user.id, since, ['published', 'cancelled']).map(({ session, sentSequence }) => {
     const rows = session.status === 'published' ? loadSessionRows(session.id) : undefined;
-    return { session, runs: rows ? runsOf(rows, user.id) : [], url: timetableUrl(session.railwayId, session.id) };
+    // The same UID as this person's invitations: never a lower SEQUENCE than the last one e-mailed to them
+    // (updates raise it per person, RFC 5546 2.1.4), or their calendar would take the feed's copy as older.
+    const sequence = Math.max(session.sequence, sentSequence ?? 0);
+    return { session: { ...session, sequence }, runs: rows ? runsOf(rows, user.id) : [], url: timetableUrl(session.railwayId, session.id) };
   });
   return buildCalendarFile({ name: `Fishplate — ${user.name}`, entries, now });
 }

@@ -349,9 +349,9 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
           sessionId,
           userId: userIds[key],
           email: DEMO_USERS.find((u) => u.key === key)!.email,
-          rsvp: key === 'op2' || key === 'op3' ? 'accepted' : key === 'op5' ? 'tentative' : 'needs-action',
-          respondedAt: key === 'op2' || key === 'op3' || key === 'op5' ? new Date() : null,
-          sentSequence: 0,
+          // Invited but not e-mailed yet (the host's first step in the demo is to send them), so no
+          // one has replied: a reply without an invitation sent would contradict the tracker.
+          rsvp: 'needs-action',
         })
         .run();
     }

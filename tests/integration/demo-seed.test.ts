@@ -1,9 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { getDb } from '@/db';
+import { listSessionInvitations } from '@/db/queries/invitation-records';
 import { loadSessionRows } from '@/db/queries/plan-data';
 import { listRailwaySessions } from '@/db/queries/sessions';
 import * as t from '@/db/schema';
 import { DEMO_USERS, demoSessionStart, hasDemoData, seedDemoRailway } from '@/lib/demo/demo-railway';
+import { deliveryOf } from '@/lib/invitations/tracker';
 import { checkPlan, planSchema } from '@/lib/planning';
 import { sessionToPlan } from '@/lib/sessions/to-plan';
 
@@ -29,6 +31,17 @@ describe('demo railway seed', () => {
     expect(roles.filter((r) => r === 'operator').length).toBeGreaterThanOrEqual(6);
     const indoor = db.select().from(t.layouts).all().find((l) => l.setting === 'indoor')!;
     expect(db.select().from(t.blocks).all().filter((b) => b.layoutId === indoor.id).length).toBe(12);
+  });
+
+  it('the tracker’s states agree: no invitation was e-mailed, so no one has replied yet', () => {
+    const session = seeded();
+    const rows = listSessionInvitations(session.id);
+    expect(rows.length).toBe(6);
+    for (const row of rows) {
+      expect(deliveryOf(row)).toBe('not-sent');
+      expect(row.rsvp).toBe('needs-action'); // a reply needs an invitation to reply to
+      expect(row.respondedAt).toBeNull();
+    }
   });
 
   it('the session is published, upcoming, about twenty runs, and invites and assigns the demo operator', () => {

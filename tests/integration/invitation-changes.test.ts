@@ -7,6 +7,7 @@ import { remindCrew, sendNotices, setReplyDeadline } from '@/app/(app)/railways/
 import { getDb } from '@/db';
 import { getRailwaySession, listSessionInvitations } from '@/db/queries/invitation-records';
 import * as t from '@/db/schema';
+import { personalFeed } from '@/lib/calendar/feeds';
 import { resetEnvCache } from '@/lib/env';
 import { formatInZone } from '@/lib/format';
 import { isLate } from '@/lib/invitations/reply';
@@ -148,6 +149,11 @@ describe('changes after the invitations', () => {
     expect(planned[1]!.sequence).toBe(1);
     expect(planned[1]!.text).toMatch(/- Your run with Freight at 07:00 fast: cab now Cab B \(was Cab A\)\./);
     expect(planned[1]!.text).toMatch(/- New run for you: Local on Cab A, 07:40–07:44 fast/);
+    // The operator's calendar feed carries the same UID with the SEQUENCE they now hold, not the session's 0
+    // (RFC 5546 2.1.4: a lower SEQUENCE would read as an older copy of the event).
+    const feed = new ICAL.Component(ICAL.parse(personalFeed({ id: w.operator.id, name: w.operator.name })));
+    const feedEvent = feed.getAllSubcomponents('vevent').find((e) => String(e.getFirstPropertyValue('uid')) === opUpdate!.uid)!;
+    expect(Number(feedEvent.getFirstPropertyValue('sequence'))).toBe(1);
     // What the person now holds is the new baseline: nothing more to send.
     expect([...standings(w.railway.id, session.id).values()].some((s) => s.affected)).toBe(false);
   });

@@ -27,8 +27,8 @@ export default async function SessionSettingsPage({ params }: { params: Promise<
         <p className="mb-4 text-sm">
           <Link href={`/railways/${railwayId}/sessions/${session.id}`} className="text-verdigris hover:underline">← Back to the timetable</Link>
         </p>
+        {/* No key from the version: a new key after saving would mount a fresh form and drop its "Saved." notice. */}
         <SessionForm
-          key={session.version}
           railwayId={railwayId}
           timeZone={session.timeZone}
           session={{ id: session.id, version: session.version }}
