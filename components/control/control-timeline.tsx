@@ -1,33 +1,50 @@
 import type { ControlEntry, ControlSchedule } from '@/lib/control';
-import { formatFast } from '@/lib/planning';
+import { formatFast, realToFast } from '@/lib/planning';
 
 const LANE = 46;
 const LABEL = 150;
 const WIDTH = 1200;
 const CAB_COLOURS = ['#2f7d6d', '#b4602a', '#5b5fb0', '#a23b6b', '#6b8a1f', '#1f6f9a', '#8a5a1f', '#444'];
+/** Tick spacings in fast minutes; the first that gives at most 12 ticks across the window is used. */
+const TICK_FAST_MIN = [1, 2, 5, 10, 15, 30, 60, 120, 240];
 
 type Speed = Extract<ControlEntry, { kind: 'speed' }>;
 
+/** A stretch of the schedule in its own milliseconds (0 = the schedule's origin). */
+export type TimelineWindow = { fromMs: number; toMs: number };
+
 /**
- * The control schedule over fast-clock time, drawn on the server: per cab a band for the direction
- * and the PWM value as a line (ramps drawn as ramps), per block who feeds it, coloured by cab.
+ * The control schedule over fast-clock time, drawn on the server for one window of the session:
+ * per cab a band for the direction (F/R) and the PWM value as a line with each running value
+ * written beside it (ramps drawn as ramps), per block who feeds it, coloured by cab.
  */
-export function ControlTimeline({ schedule }: { schedule: ControlSchedule }) {
+export function ControlTimeline({ schedule, window }: { schedule: ControlSchedule; window?: TimelineWindow }) {
   const cabs = schedule.cabs;
   const blocks = schedule.blocks;
   const colour = new Map(cabs.map((c, i) => [c.cabId, CAB_COLOURS[i % CAB_COLOURS.length]!]));
   const end = Math.max(schedule.endMs, 1);
+  const from = window?.fromMs ?? 0;
+  const to = Math.max(window?.toMs ?? end, from + 1);
   const plotW = WIDTH - LABEL - 10;
-  const x = (ms: number) => LABEL + (ms / end) * plotW;
+  const x = (ms: number) => LABEL + ((ms - from) / (to - from)) * plotW;
   const sessionS = (ms: number) => ms / 1000 + schedule.originS;
   const height = 24 + (cabs.length + blocks.length) * LANE + 10;
-  const ticks = Array.from({ length: 9 }, (_, i) => (end * i) / 8);
+  const ratio = schedule.clock.ratio;
+  const fastMinAt = (ms: number) => realToFast(sessionS(ms), schedule.clock) / 60;
+  const msAtFastMin = (fastMin: number) => from + ((fastMin - fastMinAt(from)) * 60 * 1000) / ratio;
+  const spanFastMin = fastMinAt(to) - fastMinAt(from);
+  const step = TICK_FAST_MIN.find((m) => spanFastMin / m <= 12) ?? 480;
+  const ticks: number[] = [];
+  for (let m = Math.ceil(fastMinAt(from) / step) * step; m <= fastMinAt(to) && ticks.length < 20; m += step) ticks.push(msAtFastMin(m));
+  const inWindow = (ms: number) => ms >= from && ms <= to;
+  const clipId = 'control-plot';
 
   const cabLane = (cabId: string, row: number) => {
     const top = 24 + row * LANE;
     const bands: { from: number; to: number; direction: string }[] = [];
     let current: { from: number; direction: string } | null = null;
     const points: [number, number][] = [[0, 0]];
+    const values: { atMs: number; value: number }[] = [];
     let value = 0;
     for (const e of schedule.entries) {
       if (e.kind === 'direction' && e.cabId === cabId) {
@@ -36,6 +53,7 @@ export function ControlTimeline({ schedule }: { schedule: ControlSchedule }) {
       } else if (e.kind === 'speed' && e.cabId === cabId) {
         const s = e as Speed;
         points.push([s.atMs, value], [s.atMs, s.from], [s.atMs + s.rampMs, s.to]);
+        if (s.to > 0) values.push({ atMs: s.atMs + s.rampMs, value: s.to });
         value = s.to;
       }
     }
@@ -45,13 +63,22 @@ export function ControlTimeline({ schedule }: { schedule: ControlSchedule }) {
     return (
       <g key={cabId} data-testid="cab-lane">
         <text x={4} y={top + LANE / 2 + 4} className="fill-ink text-[12px]">{cabs[row]?.name}</text>
-        {bands.map((b, i) => (
-          <rect key={i} x={x(b.from)} y={top + 4} width={Math.max(x(b.to) - x(b.from), 1)} height={LANE - 8}
-            fill={b.direction === 'forward' ? '#cfe8df' : '#f4dcc8'}>
-            <title>{`${b.direction} ${formatFast(sessionS(b.from), schedule.clock)}–${formatFast(sessionS(b.to), schedule.clock)}`}</title>
-          </rect>
-        ))}
-        <polyline points={points.map(([ms, v]) => `${x(ms).toFixed(1)},${y(v).toFixed(1)}`).join(' ')} fill="none" stroke={colour.get(cabId)} strokeWidth={1.5} />
+        <g clipPath={`url(#${clipId})`}>
+          {bands.map((b, i) => (
+            <g key={i}>
+              <rect x={x(b.from)} y={top + 4} width={Math.max(x(b.to) - x(b.from), 1)} height={LANE - 8} fill={b.direction === 'forward' ? '#cfe8df' : '#f4dcc8'}>
+                <title>{`${b.direction} ${formatFast(sessionS(b.from), schedule.clock)}–${formatFast(sessionS(b.to), schedule.clock)}`}</title>
+              </rect>
+              {x(b.to) - x(b.from) > 14 ? (
+                <text x={Math.max(x(b.from), LABEL) + 3} y={top + 15} className="fill-ink text-[10px] font-semibold">{b.direction === 'forward' ? 'F' : 'R'}</text>
+              ) : null}
+            </g>
+          ))}
+          <polyline points={points.map(([ms, v]) => `${x(ms).toFixed(1)},${y(v).toFixed(1)}`).join(' ')} fill="none" stroke={colour.get(cabId)} strokeWidth={1.5} />
+          {values.filter((v) => inWindow(v.atMs)).map((v, i) => (
+            <text key={i} x={x(v.atMs) + 3} y={y(v.value) - 3} className="fill-ink text-[10px] tabular-nums" data-testid="pwm-value">{v.value}</text>
+          ))}
+        </g>
       </g>
     );
   };
@@ -70,6 +97,7 @@ export function ControlTimeline({ schedule }: { schedule: ControlSchedule }) {
     return (
       <g key={blockId} data-testid="block-lane">
         <text x={4} y={top + LANE / 2 + 4} className="fill-ink text-[12px]">{blocks[row]?.name.slice(0, 22)}</text>
+        <g clipPath={`url(#${clipId})`}>
         {spans.map((s, i) => (
           <rect key={i} x={x(s.from)} y={top + 12} width={Math.max(x(s.to) - x(s.from), 1)} height={LANE - 24} fill={colour.get(s.cabId) ?? '#888'}>
             <title>{`${cabs.find((c) => c.cabId === s.cabId)?.name ?? s.cabId} ${formatFast(sessionS(s.from), schedule.clock)}–${formatFast(sessionS(s.to), schedule.clock)}`}</title>
@@ -78,6 +106,7 @@ export function ControlTimeline({ schedule }: { schedule: ControlSchedule }) {
         {polarity.map((p, i) => (
           <text key={i} x={x(p.atMs)} y={top + 10} className="fill-ink text-[10px]">{p.kind === 'polarity' && p.polarity === 'swapped' ? '⇄' : '='}</text>
         ))}
+        </g>
       </g>
     );
   };
@@ -85,6 +114,11 @@ export function ControlTimeline({ schedule }: { schedule: ControlSchedule }) {
   return (
     <div className="overflow-x-auto" data-testid="control-timeline">
       <svg viewBox={`0 0 ${WIDTH} ${height}`} className="min-w-[900px]" role="img" aria-label="Control timeline: direction and PWM per cab, feed per block">
+        <defs>
+          <clipPath id={clipId}>
+            <rect x={LABEL} y={0} width={plotW} height={height} />
+          </clipPath>
+        </defs>
         {ticks.map((ms) => (
           <g key={ms}>
             <line x1={x(ms)} x2={x(ms)} y1={18} y2={height - 6} stroke="#ddd" />
@@ -95,14 +129,15 @@ export function ControlTimeline({ schedule }: { schedule: ControlSchedule }) {
         {blocks.map((b, i) => blockLane(b.blockId, i))}
       </svg>
       <p className="mt-2 text-xs text-muted">
-        Cab lanes: green band forward, orange band reverse, the line is the 8-bit PWM value (0–255), ramps drawn as ramps. Block lanes: coloured by the cab that feeds the block.
+        Cab lanes: green band (F) forward, orange band (R) reverse; the line is the 8-bit PWM value (0–255) with each running value written beside it, ramps drawn as
+        ramps. Block lanes: coloured by the cab that feeds the block; ⇄ marks a reversing section&apos;s polarity swapped.
       </p>
     </div>
   );
 }
 
 /** The same schedule as a list, for phones: one line per setting in fast-clock time. */
-export function ControlList({ schedule, limit = 300 }: { schedule: ControlSchedule; limit?: number }) {
+export function ControlList({ schedule, window, limit = 300 }: { schedule: ControlSchedule; window?: TimelineWindow; limit?: number }) {
   const cabName = new Map(schedule.cabs.map((c) => [c.cabId, c.name]));
   const blockName = new Map(schedule.blocks.map((b) => [b.blockId, b.name]));
   const line = (e: ControlEntry) => {
@@ -111,7 +146,8 @@ export function ControlList({ schedule, limit = 300 }: { schedule: ControlSchedu
     if (e.kind === 'feed') return `${blockName.get(e.blockId)}: ${e.cabId === null ? 'released' : `fed by ${cabName.get(e.cabId)}`}`;
     return `${blockName.get(e.blockId)}: polarity ${e.polarity}`;
   };
-  const shown = schedule.entries.slice(0, limit);
+  const inWindow = window ? schedule.entries.filter((e) => e.atMs >= window.fromMs && e.atMs <= window.toMs) : schedule.entries;
+  const shown = inWindow.slice(0, limit);
   return (
     <div data-testid="control-list">
       <ol className="divide-y divide-line text-sm">
@@ -122,8 +158,9 @@ export function ControlList({ schedule, limit = 300 }: { schedule: ControlSchedu
           </li>
         ))}
       </ol>
-      {schedule.entries.length > limit ? (
-        <p className="mt-2 text-xs text-muted">First {limit} of {schedule.entries.length} settings; the JSON download has them all.</p>
+      {shown.length === 0 ? <p className="text-sm text-muted">No settings change in this stretch.</p> : null}
+      {inWindow.length > limit ? (
+        <p className="mt-2 text-xs text-muted">First {limit} of {inWindow.length} settings; the JSON download has them all.</p>
       ) : null}
     </div>
   );

@@ -6,4 +6,6 @@ export const timetableKeys = {
   builder: (sessionId: string) => ['timetable', sessionId, 'builder'] as const,
   /** suggestRetime's proposal for the current runs. */
   retime: (sessionId: string) => ['timetable', sessionId, 'retime'] as const,
+  /** The control schedule's findings after the builder's `revision`-th change. */
+  control: (sessionId: string, revision: number) => ['timetable', sessionId, 'control', revision] as const,
 };

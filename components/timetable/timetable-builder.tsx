@@ -12,6 +12,7 @@ import { CheckSummary, StatusForm } from '@/components/sessions/session-form';
 import { Button } from '@/components/ui/button';
 import { Card, Notice } from '@/components/ui/card';
 import { CrewLoad } from './crew-load';
+import { ControlFindings } from '@/components/control/control-findings';
 import { FindingsPanel, findingKey } from './findings-panel';
 import { GRAPH_HEIGHT, GraphResizeHandle } from './graph-resize-handle';
 import { LoadCharts } from './load-charts';
@@ -320,6 +321,11 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
             </button>
             <div id="findings-sheet" className={sheetOpen ? 'max-lg:max-h-[70dvh] max-lg:overflow-y-auto max-lg:px-2 max-lg:pb-2' : 'max-lg:hidden'}>
               {findingsPanel}
+              {canEdit && status ? (
+                <div className="mt-4">
+                  <ControlFindings sessionId={sessionId} revision={t.revision} clock={clock} controlHref={`/railways/${status.railwayId}/sessions/${sessionId}/control`} />
+                </div>
+              ) : null}
             </div>
           </div>
           <div className="hidden lg:block">

@@ -6,10 +6,22 @@ test('a planner opens the demo session’s Control view: cab and block timelines
   const { railwayId, sessionId } = demoSessionIds();
   await signInAs('planner');
   await page.goto(`/railways/${railwayId}/sessions/${sessionId}`);
+  // The control schedule's findings stand beside the timetable's.
+  const controlFindings = page.getByTestId('control-findings-panel');
+  await expect(controlFindings.getByTestId('control-finding').first()).toContainText('left out of the control schedule');
   await page.getByRole('link', { name: 'Control', exact: true }).click();
   await expect(page.getByTestId('control-view')).toBeVisible();
   await expect(page.getByTestId('cab-lane')).toHaveCount(4);
   await expect(page.getByTestId('block-lane')).toHaveCount(12);
+  // One stretch at a time, readable: the first hour from the first setting (the stopper leaves at
+  // 06:20 in the demo), the running PWM values written on the cab lanes, and a step later.
+  const range = page.getByTestId('control-window-range').first();
+  await expect(range).toHaveText('06:10–07:10');
+  expect(await page.getByTestId('pwm-value').count()).toBeGreaterThan(0);
+  await page.getByRole('link', { name: 'Later →' }).first().click();
+  await expect(range).toHaveText('07:10–08:10');
+  await page.getByRole('link', { name: '← Earlier' }).first().click();
+  await expect(range).toHaveText('06:10–07:10');
   await expect(page.getByTestId('control-findings')).toContainText('left out of the control schedule');
   await expect(page.getByTestId('control-downloads')).toContainText('fits the ATmega328P board');
   const zip = page.getByRole('link', { name: 'Firmware (C, Makefile)' }).first();

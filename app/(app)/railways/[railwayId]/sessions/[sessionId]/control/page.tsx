@@ -6,7 +6,9 @@ import { ControlList, ControlTimeline } from '@/components/control/control-timel
 import { SafetyCautions } from '@/components/layouts/safety-cautions';
 import { Card } from '@/components/ui/card';
 import { AppError } from '@/lib/errors';
-import { formatFast } from '@/lib/planning';
+import { z } from 'zod';
+import { formatFast, HH_MM_PATTERN, realToFast } from '@/lib/planning';
+import { fastTextToReal } from '@/lib/sessions/time-labels';
 import { memberForPage } from '@/lib/page-access';
 import { sessionControl } from '@/lib/sessions/control';
 import { sessionForPage } from '@/lib/sessions/page-session';
@@ -14,8 +16,22 @@ import { sessionForPage } from '@/lib/sessions/page-session';
 export const metadata: Metadata = { title: 'Control' };
 export const dynamic = 'force-dynamic';
 
-export default async function SessionControlPage({ params }: { params: Promise<{ railwayId: string; sessionId: string }> }) {
+/** Which stretch of the schedule the timeline shows: from a fast time, for a number of fast minutes (or all of it). */
+const windowSchema = z.object({
+  from: z.string().trim().regex(HH_MM_PATTERN).optional().catch(undefined),
+  span: z.enum(['15', '30', '60', '120', 'all']).default('60').catch('60'),
+});
+const SPANS = ['15', '30', '60', '120', 'all'] as const;
+
+export default async function SessionControlPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ railwayId: string; sessionId: string }>;
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const { railwayId, sessionId } = await params;
+  const query = windowSchema.parse(await searchParams);
   const page = await memberForPage(railwayId, 'planner', `/railways/${railwayId}/sessions/${sessionId}/control`);
   if (page.denied) return <NotAllowed needs="planner" />;
   const session = sessionForPage(page.member, sessionId);
@@ -39,6 +55,36 @@ export default async function SessionControlPage({ params }: { params: Promise<{
   if (!control) notFound();
   const { schedule, boards } = control;
   const api = `/api/sessions/${session.id}/control`;
+  // The window: from the asked fast time, or from the first setting rounded down to 10 fast minutes.
+  const fastMinOf = (ms: number) => realToFast(ms / 1000 + schedule.originS, schedule.clock) / 60;
+  const firstMs = schedule.entries[0]?.atMs ?? 0;
+  const askedS = query.from ? fastTextToReal(query.from, schedule.clock) : null;
+  const fromMs = askedS !== null ? (askedS - schedule.originS) * 1000 : firstMs - ((fastMinOf(firstMs) % 10) * 60_000) / schedule.clock.ratio;
+  const spanMs = query.span === 'all' ? null : (Number(query.span) * 60_000) / schedule.clock.ratio;
+  const window = spanMs === null ? undefined : { fromMs, toMs: fromMs + spanMs };
+  const at = (ms: number) => formatFast(ms / 1000 + schedule.originS, schedule.clock);
+  const href = (fromAtMs: number, span: string) => `?from=${encodeURIComponent(at(fromAtMs))}&span=${span}`;
+  const windowNav = (
+    <nav aria-label="Timeline window" className="mb-3 flex flex-wrap items-center gap-x-4 gap-y-2 text-sm" data-testid="control-window">
+      {window ? (
+        <>
+          <a href={href(window.fromMs - spanMs!, query.span)} className="font-semibold text-verdigris hover:underline">← Earlier</a>
+          <span className="font-semibold tabular-nums" data-testid="control-window-range">{at(window.fromMs)}–{at(window.toMs)}</span>
+          <a href={href(window.toMs, query.span)} className="font-semibold text-verdigris hover:underline">Later →</a>
+        </>
+      ) : (
+        <span className="font-semibold">The whole session</span>
+      )}
+      <span className="text-muted">Show</span>
+      {SPANS.map((span) =>
+        span === query.span ? (
+          <span key={span} className="font-semibold" aria-current="true">{span === 'all' ? 'all' : `${span} fast min`}</span>
+        ) : (
+          <a key={span} href={href(fromMs, span)} className="text-verdigris hover:underline">{span === 'all' ? 'all' : `${span} fast min`}</a>
+        ),
+      )}
+    </nav>
+  );
   return (
     <div className="space-y-4" data-testid="control-view">
       <nav aria-label="Session" className="flex flex-wrap gap-4 text-sm font-semibold">
@@ -80,10 +126,12 @@ export default async function SessionControlPage({ params }: { params: Promise<{
         </ul>
       </Card>
       <Card title="Timeline" className="hidden sm:block">
-        <ControlTimeline schedule={schedule} />
+        {windowNav}
+        <ControlTimeline schedule={schedule} window={window} />
       </Card>
       <Card title="Settings in order" className="sm:hidden">
-        <ControlList schedule={schedule} />
+        {windowNav}
+        <ControlList schedule={schedule} window={window} />
       </Card>
       <SafetyCautions />
     </div>
