@@ -1,4 +1,5 @@
-import { formatFast, type FastClock } from '@/lib/planning';
+import type { FastClock } from '@/lib/planning';
+import { formatFast } from '@/lib/planning/clock';
 import { blockAtTime } from '@/lib/live/blocks';
 import type { LiveRun, LiveState } from '@/lib/live/types';
 

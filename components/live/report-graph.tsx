@@ -1,4 +1,5 @@
-import { formatFast, type FastClock } from '@/lib/planning';
+import type { FastClock } from '@/lib/planning';
+import { formatFast } from '@/lib/planning/clock';
 import type { SessionReport } from '@/lib/live/report';
 
 const W = 1000;

@@ -1,7 +1,8 @@
 'use client';
 
 import { useCallback, useEffect, useRef, useState } from 'react';
-import { readSessionClock, type ClockReading } from '@/lib/planning';
+import type { ClockReading } from '@/lib/planning';
+import { readSessionClock } from '@/lib/planning/session-clock';
 import type { LiveMessage, LiveState } from '@/lib/live/types';
 
 export type LiveMode = 'connecting' | 'live' | 'polling';

@@ -7,7 +7,7 @@ import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Notice } from '@/components/ui/card';
 import { Field, Select, TextInput, inputClass } from '@/components/ui/field';
 import type { SessionStatus } from '@/lib/sessions/types';
-import { SESSION_DEFAULTS, STATUS_MOVES } from '@/lib/validations/session';
+import { SESSION_DEFAULTS, STATUS_MOVES } from '@/lib/validations/session-constants';
 
 export type SessionFormValues = {
   title: string;

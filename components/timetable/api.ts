@@ -1,4 +1,5 @@
 // The builder's calls to its route handlers. Errors come back as ApiError with the JSON answer.
+import type { CompactLoad } from '@/lib/sessions/compact';
 import type { BuilderChange, BuilderRun, BuilderSnapshot, RetimeSuggestion } from '@/lib/sessions/types';
 
 export type ApiErrorBody = { error: string; code?: string; issues?: { path: string; message: string }[]; current?: unknown };
@@ -12,12 +13,12 @@ export class ApiError extends Error {
   }
 }
 
-async function call<T>(method: string, path: string, body?: unknown): Promise<T> {
+async function call<T>(method: string, path: string, body?: unknown, cache: RequestCache = 'no-store'): Promise<T> {
   const response = await fetch(path, {
     method,
     headers: body === undefined ? {} : { 'content-type': 'application/json' },
     body: body === undefined ? undefined : JSON.stringify(body),
-    cache: 'no-store',
+    cache,
   });
   const data = await response.json().catch(() => ({ error: `The server answered ${response.status}.` }));
   if (!response.ok) throw new ApiError(response.status, data as ApiErrorBody);
@@ -55,6 +56,8 @@ const base = (sessionId: string) => `/api/sessions/${encodeURIComponent(sessionI
 
 export const timetableApi = {
   snapshot: (sessionId: string) => call<BuilderSnapshot>('GET', `${base(sessionId)}/runs`),
+  // 'no-cache': the browser revalidates its copy with the ETag, and an unchanged profile answers 304.
+  load: (sessionId: string) => call<{ load: CompactLoad }>('GET', `${base(sessionId)}/check?only=load`, undefined, 'no-cache'),
   createRun: (sessionId: string, body: NewRunBody) => call<BuilderChange>('POST', `${base(sessionId)}/runs`, body),
   patchRun: (sessionId: string, runId: string, body: RunPatchBody) =>
     call<BuilderChange>('PATCH', `${base(sessionId)}/runs/${encodeURIComponent(runId)}`, body),

@@ -1,7 +1,7 @@
 'use client';
 
 import { useState, type ReactNode } from 'react';
-import { FINDING_KINDS, type Finding, type FindingKind } from '@/lib/planning';
+import { FINDING_KINDS, type Finding, type FindingKind } from '@/lib/planning/finding';
 import { FINDING_LABELS, TIMING_KINDS } from '@/lib/sessions/highlight';
 import { spanLabel, type SessionClock } from '@/lib/sessions/time-labels';
 import { Button } from '@/components/ui/button';

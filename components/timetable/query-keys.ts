@@ -2,8 +2,10 @@
 export const timetableKeys = {
   all: ['timetable'] as const,
   session: (sessionId: string) => ['timetable', sessionId] as const,
-  /** The stored runs with findings and load: BuilderSnapshot. */
+  /** The stored runs with findings: BuilderSnapshot. */
   builder: (sessionId: string) => ['timetable', sessionId, 'builder'] as const,
+  /** The load profile (GET …/check?only=load), fetched when the Load view is opened. */
+  load: (sessionId: string) => ['timetable', sessionId, 'load'] as const,
   /** suggestRetime's proposal for the current runs. */
   retime: (sessionId: string) => ['timetable', sessionId, 'retime'] as const,
   /** The control schedule's findings after the builder's `revision`-th change. */

@@ -1,7 +1,9 @@
 'use client';
 
 import { useMemo, useState } from 'react';
-import { findRoute, HH_MM_PATTERN, type FastClock } from '@/lib/planning';
+import type { FastClock } from '@/lib/planning';
+import { HH_MM_PATTERN } from '@/lib/planning/clock';
+import { findRoute } from '@/lib/planning/route';
 import { carryOnFrom } from '@/lib/sessions/carry-on';
 import type { BuilderLayout, BuilderRun } from '@/lib/sessions/types';
 import { Button } from '@/components/ui/button';

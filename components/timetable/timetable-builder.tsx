@@ -3,20 +3,20 @@
 import * as Tabs from '@radix-ui/react-tabs';
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import dynamic from 'next/dynamic';
-import { useCallback, useEffect, useMemo, useState } from 'react';
+import { useCallback, useEffect, useMemo, useState, useSyncExternalStore } from 'react';
 import type { Finding } from '@/lib/planning';
 import { clashingRuns, highlightOf, type Highlight } from '@/lib/sessions/highlight';
 import { fastLabel, viewLengthS, type SessionClock } from '@/lib/sessions/time-labels';
-import type { BuilderLayout, BuilderRun, BuilderSnapshot, SessionStatus } from '@/lib/sessions/types';
+import { expandSnapshot, type CompactSnapshot } from '@/lib/sessions/compact';
+import type { BuilderLayout, BuilderRun, SessionStatus } from '@/lib/sessions/types';
 import { CheckSummary, StatusForm } from '@/components/sessions/session-form';
 import { Button } from '@/components/ui/button';
-import { Card, Notice } from '@/components/ui/card';
+import { Card, CardSkeleton, Notice } from '@/components/ui/card';
 import { CrewLoad } from './crew-load';
 import { ControlFindings } from '@/components/control/control-findings';
 import { FindingsPanel, findingKey } from './findings-panel';
 import { GRAPH_HEIGHT, GraphResizeHandle } from './graph-resize-handle';
-import { LoadCharts } from './load-charts';
-import { PrintView } from './print-view';
+import { LoadView } from './load-view';
 import { RetimeDialog } from './retime-dialog';
 import { RunForm } from './run-form';
 import { PALETTE } from './run-names';
@@ -24,11 +24,27 @@ import { RunTable } from './run-table';
 import { TrainGraph } from './train-graph';
 import { useTimetable } from './use-timetable';
 
-// FullCalendar measures the page as it renders, so it is drawn in the browser only.
+// Views other than the train graph load their code when first opened (the calendar and chart
+// libraries never reach a builder that does not open them). FullCalendar measures the page as it
+// renders, so it is drawn in the browser only.
 const CalendarView = dynamic(() => import('./calendar-view').then((m) => m.CalendarView), {
   ssr: false,
   loading: () => <p className="p-4 text-sm text-muted">Loading the calendar…</p>,
 });
+const PrintView = dynamic(() => import('./print-view').then((m) => m.PrintView), {
+  loading: () => <p className="p-4 text-sm text-muted">Loading the printable timetable…</p>,
+});
+
+const noSubscription = () => () => {};
+
+/**
+ * False while the server renders and during hydration, true after: the page's HTML carries the frame
+ * and the first view (the train graph), and the run list, the findings list and the crew load are
+ * drawn in the browser from the same props, which keeps the page's HTML small.
+ */
+function useDrawnInBrowser(): boolean {
+  return useSyncExternalStore(noSubscription, () => true, () => false);
+}
 
 type View = 'graph' | 'calendar' | 'load' | 'print';
 const VIEWS: { id: View; label: string }[] = [
@@ -40,7 +56,8 @@ const VIEWS: { id: View; label: string }[] = [
 
 type Props = {
   sessionId: string;
-  initial: BuilderSnapshot;
+  /** The session's runs and findings, compact (the page sends them once; see lib/sessions/compact.ts). */
+  initial: CompactSnapshot;
   layout: BuilderLayout;
   canEdit: boolean;
   dateLabel: string;
@@ -58,9 +75,11 @@ export function TimetableBuilder(props: Props) {
 }
 
 function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Props) {
-  const t = useTimetable(sessionId, initial);
+  const [expanded] = useState(() => expandSnapshot(initial, layout));
+  const t = useTimetable(sessionId, expanded);
+  const drawn = useDrawnInBrowser();
   const { snapshot } = t;
-  const { session, runs, findings, load } = snapshot;
+  const { session, runs, findings } = snapshot;
   const clock: SessionClock = useMemo(
     () => ({ ratio: session.clockRatio, fastStart: session.fastStart, startsAtMs: session.startsAtMs, timeZone: session.timeZone }),
     [session.clockRatio, session.fastStart, session.startsAtMs, session.timeZone],
@@ -121,7 +140,7 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
   const suggestedDepart = fastLabel(Number.isFinite(lastDepart) ? lastDepart + 600 / session.clockRatio : 0, clock);
   const colors = colorBy === 'cab' ? layout.cabs : layout.operators.filter((o) => runs.some((r) => r.operatorId === o.id));
 
-  const findingsPanel = (
+  const findingsPanel = drawn ? (
     <FindingsPanel
       findings={findings}
       counts={snapshot.counts}
@@ -156,6 +175,14 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
       roundTripMs={t.lastRoundTripMs}
       revision={t.revision}
     />
+  ) : (
+    <section className="rounded-plate border border-line bg-surface p-4 shadow-sm" aria-busy="true" aria-label="Findings">
+      <h2 className="mb-2 font-display text-lg font-bold">Findings</h2>
+      <p className="text-sm">
+        {snapshot.totals.errors} error{snapshot.totals.errors === 1 ? '' : 's'}, {snapshot.totals.warnings} warning{snapshot.totals.warnings === 1 ? '' : 's'}
+      </p>
+      <CardSkeleton lines={3} />
+    </section>
   );
   const total = snapshot.totals ?? counts;
 
@@ -234,7 +261,7 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
               />
             </Tabs.Content>
             <Tabs.Content value="load" className="focus-visible:outline-none">
-              <LoadCharts load={load} findings={findings} clock={clock} lengthS={lengthS} highlight={highlight} derate={session.derate} />
+              <LoadView sessionId={sessionId} revision={t.revision} layout={layout} findings={findings} clock={clock} lengthS={lengthS} highlight={highlight} derate={session.derate} />
             </Tabs.Content>
             <Tabs.Content value="print" className="focus-visible:outline-none">
               <PrintView title={session.title} dateLabel={dateLabel} runs={runs} layout={layout} clock={clock} clashing={clashing} />
@@ -273,24 +300,30 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
               </Card>
             ) : null}
             <Card title={`Runs (${runs.length})`}>
-              <RunTable
-                runs={runs}
-                layout={layout}
-                clock={clock}
-                clashing={clashing}
-                highlighted={highlight?.runIds ?? new Set()}
-                canEdit={editable}
-                actions={{
-                  onPatch: (run, body) => void t.change({ type: 'patch', run, body: { ...body, version: run.version }, label: runLabel(run.id) }),
-                  onDelete: (run) => void t.change({ type: 'delete', run, label: runLabel(run.id) }),
-                  onSeries: (run, everyFastMin, count) => void t.change({ type: 'series', run, everyFastMin, count, label: runLabel(run.id) }),
-                  onSelect: selectRun,
-                }}
-              />
+              {drawn ? (
+                <RunTable
+                  runs={runs}
+                  layout={layout}
+                  clock={clock}
+                  clashing={clashing}
+                  highlighted={highlight?.runIds ?? new Set()}
+                  canEdit={editable}
+                  actions={{
+                    onPatch: (run, body) => void t.change({ type: 'patch', run, body: { ...body, version: run.version }, label: runLabel(run.id) }),
+                    onDelete: (run) => void t.change({ type: 'delete', run, label: runLabel(run.id) }),
+                    onSeries: (run, everyFastMin, count) => void t.change({ type: 'series', run, everyFastMin, count, label: runLabel(run.id) }),
+                    onSelect: selectRun,
+                  }}
+                />
+              ) : (
+                <p className="text-sm text-muted" aria-busy="true">Loading the runs…</p>
+              )}
             </Card>
-            <div className="lg:hidden">
-              <CrewLoad runs={runs} layout={layout} ratio={session.clockRatio} />
-            </div>
+            {drawn ? (
+              <div className="lg:hidden">
+                <CrewLoad runs={runs} layout={layout} ratio={session.clockRatio} />
+              </div>
+            ) : null}
           </div>
         </div>
 
@@ -328,9 +361,11 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
               ) : null}
             </div>
           </div>
-          <div className="hidden lg:block">
-            <CrewLoad runs={runs} layout={layout} ratio={session.clockRatio} />
-          </div>
+          {drawn ? (
+            <div className="hidden lg:block">
+              <CrewLoad runs={runs} layout={layout} ratio={session.clockRatio} />
+            </div>
+          ) : null}
         </aside>
       </div>
 

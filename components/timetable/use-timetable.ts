@@ -26,7 +26,6 @@ function snapshotPart(change: BuilderChange): BuilderSnapshot {
     counts: change.counts,
     totals: change.totals,
     truncated: change.truncated,
-    load: change.load,
     checkMs: change.checkMs,
   };
 }

@@ -1,4 +1,7 @@
-import { HH_MM_PATTERN, type FastClock } from './schema';
+import type { FastClock } from './schema';
+
+/** A time of day written HH:MM (24-hour). */
+export const HH_MM_PATTERN = /^([01]\d|2[0-3]):([0-5]\d)$/;
 
 const DAY_S = 24 * 3600;
 

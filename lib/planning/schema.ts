@@ -1,7 +1,10 @@
 import { z } from 'zod';
 
 /** Fast-clock time of day, two-digit hours and minutes. */
-export const HH_MM_PATTERN = /^([01]\d|2[0-3]):([0-5]\d)$/;
+import { HH_MM_PATTERN } from './clock';
+
+// Lives in clock.ts, which has no zod, so client code can read fast times without the schemas.
+export { HH_MM_PATTERN };
 
 /**
  * What an id in a plan may look like: a letter or digit, then up to 63 letters, digits, `.`, `_`,

@@ -19,6 +19,7 @@ import {
   type Plan,
   type TimedRun,
 } from '@/lib/planning';
+import { compactSnapshot, type CompactSnapshot } from '@/lib/sessions/compact';
 import { storedCheck } from '@/lib/sessions/stored-check';
 import { sessionToPlan, trainRamps } from '@/lib/sessions/to-plan';
 import type { BuilderLayout, BuilderRun, BuilderSession, BuilderSnapshot } from '@/lib/sessions/types';
@@ -80,7 +81,7 @@ export function runsOf(rows: SessionRows): BuilderRun[] {
 }
 
 /** The load profile for charts: milliseconds and tenths of a milliamp are plenty, and the answer is smaller. */
-function chartLoad(load: LoadProfile): LoadProfile {
+export function chartLoad(load: LoadProfile): LoadProfile {
   const series = (list: LoadSeries[]) =>
     list.map((s) => ({
       ...s,
@@ -90,7 +91,10 @@ function chartLoad(load: LoadProfile): LoadProfile {
   return { supplies: series(load.supplies), drivers: series(load.drivers), cabs: series(load.cabs) };
 }
 
-/** The session as stored, checked now: what every builder handler answers with. */
+/**
+ * The session as stored, checked now: what every builder handler answers with. The load profile is
+ * not in it: the Load view asks `GET …/check?only=load` when it is opened.
+ */
 export function snapshotOf(sessionId: string, loaded?: { rows: SessionRows; plan: Plan }): BuilderSnapshot {
   const started = performance.now();
   const { rows, plan } = loaded ?? loadSessionPlan(sessionId);
@@ -102,7 +106,6 @@ export function snapshotOf(sessionId: string, loaded?: { rows: SessionRows; plan
     counts: check.counts,
     totals: check.totals,
     truncated: check.truncated,
-    load: chartLoad(check.load),
     checkMs: Math.round((performance.now() - started) * 10) / 10,
   };
 }
@@ -127,6 +130,15 @@ export function builderLayout(rows: SessionRows): BuilderLayout {
     }),
     operators: rows.operators.map((o) => ({ id: o.id, name: o.name, rsvp: rsvp.get(o.id) ?? null })),
   };
+}
+
+/**
+ * What the builder page hands the builder: the layout and crew, and the session's runs and findings
+ * compact (runs refer to the layout's lists by place), so the page's payload carries them once and small.
+ */
+export function builderPageProps(sessionId: string, loaded: { rows: SessionRows; plan: Plan }): { initial: CompactSnapshot; layout: BuilderLayout } {
+  const layout = builderLayout(loaded.rows);
+  return { layout, initial: compactSnapshot(snapshotOf(sessionId, loaded), layout) };
 }
 
 /**

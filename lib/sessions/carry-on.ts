@@ -1,6 +1,7 @@
 // Where the add-run form carries on from: a train's next run starts where its last one left it.
 // Client-safe (no server imports).
-import { formatTimeOfDay, realToFast, type FastClock } from '@/lib/planning';
+import type { FastClock } from '@/lib/planning';
+import { formatTimeOfDay, realToFast } from '@/lib/planning/clock';
 
 type RunLike = { trainId: string; departS: number; arriveS: number; steps: readonly { blockId: string; exitS: number }[] };
 

@@ -1,6 +1,7 @@
 // Session times for people: the fast clock's face and the real wall clock in the session's zone.
 // Client-safe (no server imports).
-import { formatFast, formatTimeOfDay, parseFastTime, realToFast, type FastClock } from '@/lib/planning';
+import type { FastClock } from '@/lib/planning';
+import { formatFast, formatTimeOfDay, parseFastTime, realToFast } from '@/lib/planning/clock';
 import { formatTimeInZone } from '@/lib/format';
 
 export type SessionClock = FastClock & { startsAtMs: number; timeZone: string };

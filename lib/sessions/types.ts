@@ -1,6 +1,6 @@
 // Shapes the builder's route handlers answer with and its client components read. Plain types
 // only, so client code can import them without pulling in anything from the server.
-import type { Finding, FindingKind, LoadProfile } from '@/lib/planning';
+import type { Finding, FindingKind } from '@/lib/planning';
 import type { SessionStatus } from '@/db/enums';
 
 export type { SessionStatus };
@@ -38,7 +38,7 @@ export type BuilderSession = {
   derate: number;
 };
 
-/** The session as stored, with the engine's findings and load profile for it. */
+/** The session as stored, with the engine's findings for it (its load profile: `GET …/check?only=load`). */
 export type BuilderSnapshot = {
   session: BuilderSession;
   runs: BuilderRun[];
@@ -50,7 +50,6 @@ export type BuilderSnapshot = {
   totals: { errors: number; warnings: number };
   /** Some findings are not listed (more than the engine's caps). */
   truncated: boolean;
-  load: LoadProfile;
   /** How long the server took to load and check the plan, ms. */
   checkMs: number;
 };

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { SESSION_STATUSES } from '@/db/enums';
-import { HH_MM_PATTERN, defaultRules } from '@/lib/planning';
+import { HH_MM_PATTERN } from '@/lib/planning';
 
 const id = z.string().trim().min(1, 'Choose one.').max(100, 'That id is too long.');
 
@@ -22,19 +22,7 @@ const timeOfDay = (what: string) =>
 /** Fast-clock ratio: 3:1 to 12:1 is seen on layouts, 4:1 to 6:1 typical (common practice); 1 is real time. */
 export const CLOCK_RATIO_RANGE = { min: 1, max: 24 } as const;
 
-export const SESSION_DEFAULTS = {
-  clockRatio: 4,
-  fastStart: '06:00',
-  headwayS: defaultRules.headwayS,
-  surgeS: defaultRules.surgeS,
-  deratePercent: Math.round(defaultRules.derate * 100),
-  startTime: '18:30',
-  endTime: '21:30',
-  /** Session day: least real seconds between two runs of one train, cab or operator when delays propagate. */
-  standS: 60,
-  /** Session day: a departure within this many fast minutes of its time is punctual in the report. */
-  punctualFastMin: 3,
-} as const;
+export { SESSION_DEFAULTS, STATUS_MOVES } from './session-constants';
 
 /** Bounds of the session-day settings (also the report route's `punctualMin`). */
 export const SESSION_DAY_RANGE = { standS: { min: 0, max: 3600 }, punctualFastMin: { min: 0, max: 120 } } as const;
@@ -68,12 +56,6 @@ export const updateSessionSchema = sessionSettingsSchema.extend({
   version: numberField('the version', 1, Number.MAX_SAFE_INTEGER),
 });
 
-/** Which status a session may move to from each: draft → published → cancelled, and a cancelled one may be reopened as a draft. */
-export const STATUS_MOVES: Record<(typeof SESSION_STATUSES)[number], readonly (typeof SESSION_STATUSES)[number][]> = {
-  draft: ['published', 'cancelled'],
-  published: ['cancelled'],
-  cancelled: ['draft'],
-};
 
 export const sessionStatusSchema = z.object({
   sessionId: id,

@@ -242,6 +242,33 @@ describe('sessions', () => {
     expect(afterBlock.headers.get('etag')).not.toBe(runTag);
   });
 
+  it('GET /check?only=load answers the load profile alone, by id, with its own ETag; an unknown part is 400 (RFC 9110 8.8.3)', async () => {
+    const w = makeWorld();
+    const { session } = makeSessionWorld(w);
+    signInAs(w.operator);
+    const get = (query: string, etag?: string) =>
+      getCheck(new Request(url(`/api/sessions/${session.id}/check${query}`), { headers: etag ? { 'If-None-Match': etag } : {} }), ctx({ sessionId: session.id }));
+    const whole = await get('');
+    const wholeBody = await whole.json();
+    const part = await get('?only=load');
+    expect(part.status).toBe(200);
+    const body = await part.json();
+    expect(Object.keys(body).sort()).toEqual(['load', 'sessionId']);
+    // The same series as the whole answer's, in the same order, without the names (the builder has them in its layout).
+    for (const group of ['cabs', 'drivers', 'supplies'] as const) {
+      expect(body.load[group]).toEqual(wholeBody.load[group].map(({ name: _name, ...rest }: { name: string }) => rest));
+    }
+    expect(body.load.cabs).toHaveLength(2);
+    const partTag = part.headers.get('etag')!;
+    expect(partTag).not.toBe(whole.headers.get('etag'));
+    expect((await get('?only=load', partTag)).status).toBe(304);
+    // A representation's tag does not validate the other one.
+    expect((await get('', partTag)).status).toBe(200);
+    const bad = await get('?only=findings');
+    expect(bad.status).toBe(400);
+    expect((await get('?only=load&extra=1')).status).toBe(400);
+  });
+
   it('POST /api/plans/check checks a posted plan for planners, refuses bad ones, and is rate-limited', async () => {
     const w = makeWorld();
     const { session } = makeSessionWorld(w);

@@ -48,7 +48,8 @@ function SessionBlock({ entry, first, viewerId }: { entry: MyRunsSession; first:
           <RsvpButtons invitationId={entry.invitationId} current={entry.rsvp} />
         </div>
         <div className="mt-4 flex flex-wrap gap-x-4 gap-y-2 text-sm font-semibold">
-          <Link href={`/railways/${s.railwayId}/sessions/${s.id}`} className="text-verdigris hover:underline">
+          {/* Not prefetched: the builder's code is for those who open it, not for every phone that shows My runs. */}
+          <Link href={`/railways/${s.railwayId}/sessions/${s.id}`} prefetch={false} className="text-verdigris hover:underline">
             Published timetable
           </Link>
           <Link href={`/my-runs/${s.id}/card`} className="text-verdigris hover:underline">

@@ -1,9 +1,10 @@
 import { parseOrThrow } from '@/lib/errors';
 import { handler } from '@/lib/http';
-import { loadSessionPlan, snapshotOf } from '@/lib/sessions/builder';
+import { chartLoad, loadSessionPlan, snapshotOf } from '@/lib/sessions/builder';
+import { compactLoad } from '@/lib/sessions/compact';
 import { storedCheck } from '@/lib/sessions/stored-check';
 import { requireSession } from '@/lib/sessions/access';
-import { sessionParamsSchema } from './schema';
+import { checkQuerySchema, sessionParamsSchema } from './schema';
 
 export const dynamic = 'force-dynamic';
 
@@ -19,15 +20,20 @@ function matches(ifNoneMatch: string | null, etag: string): boolean {
 /**
  * The engine's findings and load profile for the stored session. The check is kept per state of the
  * plan, and the answer carries that state as its ETag: a client that has it gets 304 Not Modified.
+ * `?only=load` answers the load profile alone, each series by id (its name is in the layout), for the
+ * builder's Load view, which asks for it when it is opened and after each change.
  */
 const getCheck = handler<{ sessionId: string }>(async (request, { params }) => {
   const { sessionId } = parseOrThrow(sessionParamsSchema, await params);
+  const { only } = parseOrThrow(checkQuerySchema, Object.fromEntries(new URL(request.url).searchParams));
   const { session } = await requireSession(sessionId, 'view');
   const loaded = loadSessionPlan(session.id);
-  const etag = `"${storedCheck(loaded.plan).tag}"`;
+  const { tag, check } = storedCheck(loaded.plan);
+  const etag = only ? `"${tag}-${only}"` : `"${tag}"`;
   const headers = { ETag: etag, 'Cache-Control': 'private, no-cache' };
   if (matches(request.headers.get('if-none-match'), etag)) return new Response(null, { status: 304, headers });
-  const { findings, counts, totals, truncated, load, checkMs, runs } = snapshotOf(session.id, loaded);
+  if (only === 'load') return Response.json({ sessionId: session.id, load: compactLoad(chartLoad(check.load)) }, { headers });
+  const { findings, counts, totals, truncated, checkMs, runs } = snapshotOf(session.id, loaded);
   const { errors, warnings } = totals;
   return Response.json(
     {
@@ -38,7 +44,7 @@ const getCheck = handler<{ sessionId: string }>(async (request, { params }) => {
       counts,
       truncated,
       findings,
-      load,
+      load: chartLoad(check.load),
       checkMs,
     },
     { headers },

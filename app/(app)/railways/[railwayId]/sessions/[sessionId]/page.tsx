@@ -6,7 +6,7 @@ import { Badge } from '@/components/ui/card';
 import { formatInZone, formatTimeInZone } from '@/lib/format';
 import { memberForPage } from '@/lib/page-access';
 import { roleAtLeast } from '@/lib/roles';
-import { builderLayout, loadSessionPlan, snapshotOf } from '@/lib/sessions/builder';
+import { builderPageProps, loadSessionPlan } from '@/lib/sessions/builder';
 import { sessionForPage } from '@/lib/sessions/page-session';
 
 export const metadata: Metadata = { title: 'Timetable' };
@@ -21,8 +21,7 @@ export default async function SessionBuilderPage({ params }: { params: Promise<{
   const canEdit = roleAtLeast(member.role, 'planner');
   const loaded = loadSessionPlan(session.id);
   const { rows } = loaded;
-  const initial = snapshotOf(session.id, loaded);
-  const layout = builderLayout(rows);
+  const { initial, layout } = builderPageProps(session.id, loaded);
   const dateLabel = `${formatInZone(session.startsAt, session.timeZone)}–${formatTimeInZone(session.endsAt, session.timeZone)} (${session.timeZone})`;
   const base = `/railways/${railwayId}/sessions/${session.id}`;
   return (
