@@ -171,4 +171,32 @@ describe('invitation e-mail', () => {
     const quote = buildInvitationBody(content({ invitee: { name: "O'Neil", email: 'o@example.org' } })).html;
     expect(quote).toContain('<p>Hello O&#39;Neil,</p>');
   });
+
+  it('an update lists what changed for this person; a reminder asks for an answer and lists no changes', () => {
+    const changes = ['Goods now departs 06:50 fast', 'Cab <2> instead of Cab 1'];
+    const update = buildInvitationBody(content({ isUpdate: true, changes }));
+    expect(update.text).toContain('\n\nWhat changed for you:\n- Goods now departs 06:50 fast\n- Cab <2> instead of Cab 1\n\nWinter running');
+    expect(update.html).toContain('<h3>What changed for you</h3><ul><li>Goods now departs 06:50 fast</li><li>Cab &#60;2&#62; instead of Cab 1</li></ul>');
+    const reminder = buildInvitationBody(content({ isUpdate: true, isReminder: true, changes }));
+    expect(norm(reminder.subject)).toBe('Reminder, please reply: Winter running <evening> (Sat 12 Dec 2026)');
+    expect(reminder.text).toContain('\nHal has not had your answer yet for this operating session.\n');
+    for (const part of [reminder.text, reminder.html, buildInvitationBody(content({ changes })).text]) expect(part).not.toContain('What changed');
+    expect(buildInvitationBody(content({ method: 'CANCEL', isUpdate: true, changes })).text).not.toContain('What changed');
+  });
+
+  it('a reply-by time is given in the session zone, in text and HTML, and never on a cancellation', () => {
+    // 2026-12-10T18:00Z is 19:00 in Berlin (CET, UTC+1).
+    const replyBy = new Date('2026-12-10T18:00:00Z');
+    const body = buildInvitationBody(content({ replyBy }));
+    expect(norm(body.text)).toContain('Will you come? Reply without signing in:\nPlease reply by Thu 10 Dec 2026, 19:00 (Europe/Berlin).\nAccept:');
+    expect(norm(body.html)).toContain('Reply without signing in:<br><strong>Please reply by Thu 10 Dec 2026, 19:00 (Europe/Berlin).</strong></p>');
+    expect(buildInvitationBody(content({ replyBy: null })).text).not.toContain('Please reply by');
+    expect(buildInvitationBody(content({ method: 'CANCEL', replyBy })).text).not.toContain('Please reply by');
+  });
+
+  it('the HTML has no empty sections when nothing changed and no deadline was set', () => {
+    const { html } = buildInvitationBody(content());
+    expect(html).toContain('<p>Hal invites you to an operating session.</p>\n<h2>');
+    expect(html).toContain('Reply without signing in:</p><p><a href');
+  });
 });

@@ -152,7 +152,7 @@ describe('blocks, links and trains', () => {
 
   it('a train: one locomotive id from a form, a consist once each, lighting blank is 0', () => {
     const train = { name: 'Goods', locomotiveIds: 'l1', lightingAmps: '', length: '50', unit: 'cm' };
-    expect(parsed(trainSchema, train)).toEqual({ name: 'Goods', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 500 });
+    expect(parsed(trainSchema, train)).toEqual({ name: 'Goods', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 500, accelKmhPerS: null, brakingKmhPerS: null });
     expect(parsed(trainSchema, { ...train, locomotiveIds: ['l1', 'l2'], lightingAmps: '0.2' })).toMatchObject({ locomotiveIds: ['l1', 'l2'], lightingAmps: 0.2 });
     expect(refusedOn(trainSchema, { ...train, locomotiveIds: ['l1', 'l1'] }, 'locomotiveIds')).toMatch(SENTENCE);
     expect(refusedOn(trainSchema, { ...train, locomotiveIds: '' }, 'locomotiveIds')).toMatch(SENTENCE);
@@ -361,7 +361,7 @@ describe('invitations', () => {
 
   it('a reply link carries a token and one of the three answers (RFC 5545 3.2.12 PARTSTAT)', () => {
     const reply = { token: 't'.repeat(40), answer: 'tentative' };
-    expect(parsed(replyByTokenSchema, reply)).toEqual(reply);
+    expect(parsed(replyByTokenSchema, reply)).toEqual({ ...reply, comment: '' });
     expect(refusedOn(replyByTokenSchema, { ...reply, answer: 'needs-action' }, 'answer')).toMatch(SENTENCE);
   });
 });
