@@ -3,7 +3,7 @@
 import { useMemo, useState } from 'react';
 import type { FastClock } from '@/lib/planning';
 import { HH_MM_PATTERN } from '@/lib/planning/clock';
-import { findRoute } from '@/lib/planning/route';
+import { routeThrough } from '@/lib/planning/route';
 import { carryOnFrom } from '@/lib/sessions/carry-on';
 import type { BuilderLayout, BuilderRun } from '@/lib/sessions/types';
 import { Button } from '@/components/ui/button';
@@ -68,17 +68,14 @@ export function RunForm({
 
   const train = layout.trains.find((t) => t.id === trainId);
   const blockName = useMemo(() => new Map(layout.blocks.map((b) => [b.id, b.name])), [layout.blocks]);
-  const route = useMemo(() => {
-    if (waypoints.length < 2) return waypoints;
-    const track = { blocks: layout.blocks, links: layout.links };
-    const out: string[] = [waypoints[0]!];
-    for (let i = 1; i < waypoints.length; i++) {
-      const leg = findRoute(track, waypoints[i - 1]!, waypoints[i]!);
-      if (!leg) return null;
-      out.push(...leg.slice(1));
-    }
-    return out;
+  // The route a train can take without reversing (it may turn only at the ends or in a reversing place).
+  const routed = useMemo(() => {
+    const picked = waypoints.filter((id, i) => i === 0 || id !== waypoints[i - 1]);
+    if (picked.length < 2) return { route: picked, reason: null };
+    const found = routeThrough({ blocks: layout.blocks, links: layout.links }, picked);
+    return found.ok ? { route: found.steps.map((s) => s.blockId), reason: null } : { route: null, reason: found.reason };
   }, [waypoints, layout.blocks, layout.links]);
+  const route = routed.route;
 
   const submit = async () => {
     const next: Record<string, string> = {};
@@ -93,7 +90,7 @@ export function RunForm({
     if (!(before >= 0 && before <= 3600)) next.standBeforeS = 'Use 0 to 3600 s.';
     if (!(after >= 0 && after <= 3600)) next.standAfterS = 'Use 0 to 3600 s.';
     if (waypoints.length < 2) next.waypoints = 'Click at least the first and the last block.';
-    else if (route === null) next.waypoints = 'No track joins the blocks you picked.';
+    else if (route === null) next.waypoints = `No route: ${routed.reason ?? 'no track joins the blocks you picked'}.`;
     else if (new Set(route).size < 2) next.waypoints = 'Pick two different blocks: a run has to go somewhere.';
     setErrors(next);
     if (Object.keys(next).length) return;

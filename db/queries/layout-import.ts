@@ -9,8 +9,8 @@ import type { LocomotiveValues, TrainValues } from './layout-stock';
 /** A whole layout keyed by the ids of the file it came from; references use those ids. */
 export type LayoutImport = {
   layout: LayoutValues;
-  blocks: (BlockValues & { key: string })[];
-  links: { a: string; b: string }[];
+  blocks: (BlockValues & { key: string; positiveRail: 'right' | 'left'; reversingSection: boolean; reversingPlace: boolean })[];
+  links: { a: string; b: string; aEnd: 'a' | 'b'; bEnd: 'a' | 'b' }[];
   supplies: (SupplyValues & { key: string })[];
   drivers: (DriverValues & { key: string })[];
   cabs: (CabValues & { key: string })[];
@@ -31,7 +31,9 @@ export function insertLayoutFromImport(railwayId: string, data: LayoutImport) {
       return id;
     };
     for (const { key, ...b } of data.blocks) keep('block', key, tx.insert(t.blocks).values({ ...b, layoutId }).returning({ id: t.blocks.id }).get().id);
-    for (const l of data.links) tx.insert(t.links).values({ layoutId, blockAId: idOf('block', l.a), blockBId: idOf('block', l.b) }).run();
+    for (const l of data.links) {
+      tx.insert(t.links).values({ layoutId, blockAId: idOf('block', l.a), blockBId: idOf('block', l.b), blockAEnd: l.aEnd, blockBEnd: l.bEnd }).run();
+    }
     for (const { key, ...s } of data.supplies) keep('supply', key, tx.insert(t.supplies).values({ ...s, layoutId }).returning({ id: t.supplies.id }).get().id);
     for (const { key, ...d } of data.drivers) {
       keep('driver', key, tx.insert(t.drivers).values({ ...d, supplyId: idOf('supply', d.supplyId), layoutId }).returning({ id: t.drivers.id }).get().id);

@@ -3,7 +3,8 @@ import { and, asc, eq, inArray } from 'drizzle-orm';
 import { getDb, type Db, writeTransaction } from '@/db';
 import { runs, runSteps } from '@/db/schema';
 
-export type StepValues = { blockId: string; enterS: number; exitS: number };
+/** A step as stored; fromEnd/toEnd: the direction of travel, when the route finder recorded it. */
+export type StepValues = { blockId: string; enterS: number; exitS: number; fromEnd?: 'a' | 'b'; toEnd?: 'a' | 'b' };
 
 /** A run as the builder sees it: its row and its steps in order. */
 export type StoredRun = {
@@ -28,7 +29,11 @@ const STEP_CHUNK = 1000;
 function writeSteps(tx: Tx, runId: string, steps: readonly StepValues[]) {
   for (let i = 0; i < steps.length; i += STEP_CHUNK) {
     tx.insert(runSteps)
-      .values(steps.slice(i, i + STEP_CHUNK).map((s, j) => ({ runId, position: i + j, blockId: s.blockId, enterS: s.enterS, exitS: s.exitS })))
+      .values(
+        steps
+          .slice(i, i + STEP_CHUNK)
+          .map((s, j) => ({ runId, position: i + j, blockId: s.blockId, enterS: s.enterS, exitS: s.exitS, fromEnd: s.fromEnd ?? null, toEnd: s.toEnd ?? null })),
+      )
       .run();
   }
 }
@@ -41,11 +46,12 @@ function readRun(tx: Tx | Db, sessionId: string, runId: string): StoredRun | und
     .get();
   if (!row) return undefined;
   const steps = tx
-    .select({ blockId: runSteps.blockId, enterS: runSteps.enterS, exitS: runSteps.exitS })
+    .select({ blockId: runSteps.blockId, enterS: runSteps.enterS, exitS: runSteps.exitS, fromEnd: runSteps.fromEnd, toEnd: runSteps.toEnd })
     .from(runSteps)
     .where(eq(runSteps.runId, runId))
     .orderBy(asc(runSteps.position))
-    .all();
+    .all()
+    .map(({ fromEnd, toEnd, ...step }): StepValues => ({ ...step, ...(fromEnd ? { fromEnd } : {}), ...(toEnd ? { toEnd } : {}) }));
   const { sessionId: _s, ...rest } = row;
   return { ...rest, steps };
 }

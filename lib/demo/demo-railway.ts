@@ -33,6 +33,8 @@ const INDOOR_BLOCKS = [
   // key, name, length mm, position along the line mm
   ['Y1', 'Larkholm yard road 1', 1400, 0],
   ['Y2', 'Larkholm yard road 2', 1400, 0],
+  // Deliberate polarity clash: the new road's feeders went in the other way round (see BLOCK_WIRING).
+  ['Y3', 'Larkholm yard road 3', 1400, 0],
   ['YL', 'Larkholm yard lead', 800, 1200],
   ['M1', 'Wrenhollow east', 2000, 2000],
   ['M2', 'Mossgate approach', 1500, 4000],
@@ -45,7 +47,7 @@ const INDOOR_BLOCKS = [
   ['T2', 'Fernwick platform 2', 1400, 12500],
 ] as const;
 const INDOOR_LINKS = [
-  ['Y1', 'YL'], ['Y2', 'YL'], ['YL', 'M1'], ['M1', 'M2'], ['M2', 'L1'], ['M2', 'L2'],
+  ['Y1', 'YL'], ['Y2', 'YL'], ['Y3', 'YL'], ['YL', 'M1'], ['M1', 'M2'], ['M2', 'L1'], ['M2', 'L2'],
   ['L1', 'M3'], ['L2', 'M3'], ['M3', 'M4'], ['M4', 'M5'], ['M5', 'T1'], ['M5', 'T2'],
 ] as const;
 
@@ -55,8 +57,22 @@ const GARDEN_BLOCKS = [
   ['G3', 'Pond viaduct', 5000, 9000],
   ['G4', 'Orchard loop', 4000, 14000],
   ['G5', 'Shed siding', 2500, 18000],
+  // A balloon loop beyond the orchard: both its ends meet the orchard loop's far end, so it turns
+  // trains round and is wired as a reversing section with its own polarity relay, longer than the
+  // longest garden train (2.6 m).
+  ['G6', 'Orchard balloon', 7000, 18000],
 ] as const;
-const GARDEN_LINKS = [['G1', 'G2'], ['G2', 'G3'], ['G3', 'G4'], ['G4', 'G5']] as const;
+// Rail joints, end to end: [block, its end, block, its end]. Unlisted ends run b → a along the line.
+const GARDEN_LINKS = [
+  ['G1', 'G2'], ['G2', 'G3'], ['G3', 'G4'], ['G4', 'G5'],
+  ['G4', 'G6', 'b', 'a'], ['G4', 'G6', 'b', 'b'],
+] as const;
+
+/** Blocks wired or used unlike the rest: which rail the positive feeder goes to, and polarity switches. */
+const BLOCK_WIRING: Record<string, { positiveRail?: 'left'; reversingSection?: true }> = {
+  Y3: { positiveRail: 'left' },
+  G6: { reversingSection: true },
+};
 
 const INDOOR_LOCOS = [
   // key, name, running A, stall A, rated V, top scale km/h at rated V, start V (common practice: 1.5–3 V on small can motors)
@@ -117,8 +133,9 @@ const RUNS: RunSpec[] = [
   { train: 'shuttle', cab: 'cab4', operator: 'op5', from: 'T1', to: 'M4', departMin: 66, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
   { train: 'goods', cab: 'cab3', operator: 'op3', from: 'T2', to: 'Y1', via: 'L2', departMin: 75, speedKmh: 40, standBeforeS: 60, standAfterS: 300 },
   { train: 'stopper', cab: 'cab1', operator: 'operator', from: 'Y1', to: 'T1', via: 'L1', departMin: 88, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
-  // Clash: two motors on one 1 A-class channel (0.45 A + 0.6 A running, more at start-up).
-  { train: 'heavy', cab: 'cab1', operator: 'op6', from: 'Y2', to: 'M4', via: 'L2', departMin: 100, speedKmh: 35, standBeforeS: 120, standAfterS: 300 },
+  // Clash: two motors on one 1 A-class channel (0.45 A + 0.6 A running, more at start-up). It
+  // also leaves from yard road 3, whose feeders are the wrong way round: a short at its rail gap.
+  { train: 'heavy', cab: 'cab1', operator: 'op6', from: 'Y3', to: 'M4', via: 'L2', departMin: 100, speedKmh: 35, standBeforeS: 120, standAfterS: 300 },
   { train: 'shuttle', cab: 'cab4', operator: 'op4', from: 'M4', to: 'T1', departMin: 108, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
   { train: 'express', cab: 'cab2', operator: 'op2', from: 'T2', to: 'Y2', via: 'L1', departMin: 118, speedKmh: 90, standBeforeS: 120, standAfterS: 300 },
   { train: 'stopper', cab: 'cab3', operator: 'operator', from: 'T1', to: 'Y1', via: 'L2', departMin: 130, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
@@ -210,14 +227,20 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
     const insertLayout = (
       values: Omit<typeof t.layouts.$inferInsert, 'railwayId'>,
       blockRows: readonly (readonly [string, string, number, number])[],
-      linkRows: readonly (readonly [string, string])[],
+      linkRows: readonly (readonly [string, string, ('a' | 'b')?, ('a' | 'b')?])[],
     ) => {
       const layoutId = tx.insert(t.layouts).values({ ...values, railwayId }).returning({ id: t.layouts.id }).get().id;
       const blockIds: Record<string, string> = {};
       for (const [key, name, lengthMm, positionMm] of blockRows) {
-        blockIds[key] = tx.insert(t.blocks).values({ layoutId, name, lengthMm, positionMm }).returning({ id: t.blocks.id }).get().id;
+        blockIds[key] = tx
+          .insert(t.blocks)
+          .values({ layoutId, name, lengthMm, positionMm, ...BLOCK_WIRING[key] })
+          .returning({ id: t.blocks.id })
+          .get().id;
       }
-      for (const [a, b] of linkRows) tx.insert(t.links).values({ layoutId, blockAId: blockIds[a]!, blockBId: blockIds[b]! }).run();
+      for (const [a, b, aEnd = 'b', bEnd = 'a'] of linkRows) {
+        tx.insert(t.links).values({ layoutId, blockAId: blockIds[a]!, blockBId: blockIds[b]!, blockAEnd: aEnd, blockBEnd: bEnd }).run();
+      }
       return { layoutId, blockIds };
     };
 
@@ -227,7 +250,7 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
         scaleName: 'H0',
         scaleRatio: 87,
         setting: 'indoor',
-        notes: 'Single-track branch from Larkholm yard through the Mossgate passing loop to the Fernwick terminus. Twelve blocks, four cabs.',
+        notes: 'Single-track branch from Larkholm yard through the Mossgate passing loop to the Fernwick terminus. Thirteen blocks, four cabs.',
       },
       INDOOR_BLOCKS,
       INDOOR_LINKS,

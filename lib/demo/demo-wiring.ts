@@ -19,6 +19,8 @@ const LINE_BOARD_BLOCKS: [string, CabKey[], string[]][] = [
   ['L2', ['cab1', 'cab2', 'cab3', 'cab4'], ['M3']],
   ['M3', ['cab1', 'cab2', 'cab3', 'cab4'], ['M4']],
   ['M4', ['cab1', 'cab2', 'cab3', 'cab4'], ['M5']],
+  // Yard road 3 was added later and wired to the main line board's spare outputs.
+  ['Y3', ['cab1', 'cab3'], ['YL']],
 ];
 // Free GPIOs of the 40-pin header after the stop (GPIO4) and start (GPIO17) inputs, serial 14/15 left free.
 const YARD_GPIO = [2, 3, 5, 6, 7, 8, 9, 10, 11, 12, 13, 16, 18, 19, 20, 21, 22, 23, 24, 25, 26, 27];

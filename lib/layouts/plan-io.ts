@@ -3,7 +3,7 @@ import { z } from 'zod';
 import type { LayoutImport } from '@/db/queries/layout-import';
 import type { loadLayoutRows } from '@/db/queries/plan-data';
 import { AppError, type Issue } from '@/lib/errors';
-import { defaultRules, formatIssuePath, planSchema, type Plan } from '@/lib/planning';
+import { defaultRules, formatIssuePath, linkEnds, planSchema, type Plan } from '@/lib/planning';
 import { storedDriverElectrics } from '@/lib/layouts/driver-electrics';
 import { layoutToPlan } from '@/lib/sessions/to-plan';
 import { blockSchema, cabSchema, driverSchema, inScaleRange, locomotiveSchema, SCALE_RATIO_MESSAGE, supplySchema, trainSchema } from '@/lib/validations/layout';
@@ -85,14 +85,17 @@ export function planToImport(input: unknown, name: string | undefined): { data: 
 
   const blocks = plan.blocks.map((b, i) => {
     const v = check(blockSchema, { name: b.name, length: b.lengthMm, unit: 'mm', position: ext.blocks[i]?.positionMm ?? 0 }, `blocks[${i}]`);
-    return v && { ...v, key: b.id };
+    // Wiring and reversing flags come from the plan itself (absent: the defaults).
+    return v && { ...v, positiveRail: b.positiveRail ?? 'right', reversingSection: b.reversingSection ?? false, reversingPlace: b.reversingPlace ?? false, key: b.id };
   });
-  const seenPairs = new Set<string>();
+  // One link per rail joint: a balloon loop joins one end to both ends of a block, so pairs may repeat.
+  const seenJoints = new Set<string>();
   plan.links.forEach((l, i) => {
-    const key = [l.a, l.b].sort().join('\u0000');
+    const { aEnd, bEnd } = linkEnds(l);
+    const key = [`${l.a}\u0000${aEnd}`, `${l.b}\u0000${bEnd}`].sort().join('\u0001');
     if (l.a === l.b) issues.push({ path: `links[${i}]`, message: 'a block cannot link to itself' });
-    else if (seenPairs.has(key)) issues.push({ path: `links[${i}]`, message: 'these two blocks are already linked' });
-    seenPairs.add(key);
+    else if (seenJoints.has(key)) issues.push({ path: `links[${i}]`, message: 'these two block ends are already linked' });
+    seenJoints.add(key);
   });
   const supplies = plan.supplies.map((s, i) => {
     const v = check(supplySchema, { name: s.name, volts: s.volts, amps: s.amps }, `supplies[${i}]`);
@@ -137,7 +140,7 @@ export function planToImport(input: unknown, name: string | undefined): { data: 
         notes: (ext.layout?.notes ?? '').slice(0, 4000),
       },
       blocks: blocks.filter((b) => b !== null),
-      links: plan.links.map((l) => ({ a: l.a, b: l.b })),
+      links: plan.links.map((l) => ({ a: l.a, b: l.b, ...linkEnds(l) })),
       supplies: supplies.filter((s) => s !== null),
       drivers: drivers.filter((d) => d !== null),
       cabs: cabs.filter((c) => c !== null),

@@ -6,10 +6,10 @@ import type { Session } from '@/db/schema';
 import { AppError, notFound, type Issue } from '@/lib/errors';
 import {
   fastToReal,
-  findRoute,
   formatIssuePath,
   parseFastTime,
   planSchema,
+  routeThrough,
   timeRun,
   type FastClock,
   type LoadPoint,
@@ -19,6 +19,7 @@ import {
   type Plan,
   type TimedRun,
 } from '@/lib/planning';
+import { planBlockOf, planLinkOf } from '@/lib/layouts/track-rows';
 import { compactSnapshot, type CompactSnapshot } from '@/lib/sessions/compact';
 import { storedCheck } from '@/lib/sessions/stored-check';
 import { sessionToPlan, trainRamps } from '@/lib/sessions/to-plan';
@@ -118,8 +119,8 @@ export function builderLayout(rows: SessionRows): BuilderLayout {
   const rsvp = rsvpByUser(rows.session.id);
   return {
     scaleRatio: rows.layout?.scaleRatio ?? 87,
-    blocks: rows.blocks.map((b) => ({ id: b.id, name: b.name, lengthMm: b.lengthMm, positionMm: b.positionMm })),
-    links: rows.links.map((l) => ({ a: l.blockAId, b: l.blockBId })),
+    blocks: rows.blocks.map((b) => ({ id: b.id, name: b.name, lengthMm: b.lengthMm, positionMm: b.positionMm, ...(b.reversingPlace ? { reversingPlace: true } : {}) })),
+    links: rows.links.map((l) => ({ a: l.blockAId, b: l.blockBId, aEnd: l.blockAEnd, bEnd: l.blockBEnd })),
     cabs: rows.cabs.map((c) => ({ id: c.id, name: c.name, driverId: c.driverId, channel: c.channel })),
     drivers: rows.drivers.map((d) => ({ id: d.id, name: d.name, supplyId: d.supplyId })),
     supplies: rows.supplies.map((s) => ({ id: s.id, name: s.name })),
@@ -154,31 +155,30 @@ export function departureFromFastTime(text: string, clock: FastClock): number {
 }
 
 /**
- * Times a run with timeRun over the route through the waypoints (each pair joined by findRoute's
- * shortest route). Bad references answer 400 naming the field.
+ * Times a run with timeRun over the shortest route through the waypoints that a train can take
+ * without reversing (routeThrough), and records the direction of travel on each step. Bad
+ * references, and waypoints no such route joins, answer 400 naming the field.
  */
 export function timeFromWaypoints(
   rows: SessionRows,
   input: { trainId: string; waypoints: string[]; speedKmh: number; standBeforeS: number; standAfterS: number; departS: number },
-): TimedRun {
+): TimedRun & { steps: { fromEnd?: 'a' | 'b'; toEnd?: 'a' | 'b' }[] } {
   const train = rows.trains.find((t) => t.id === input.trainId);
   if (!train) throw fieldError('trainId', 'That train is not on this session’s layout.');
   const blockName = new Map(rows.blocks.map((b) => [b.id, b.name]));
   input.waypoints.forEach((blockId, i) => {
     if (!blockName.has(blockId)) throw fieldError(`waypoints[${i}]`, 'That block is not on this session’s layout.');
   });
-  const track = { blocks: rows.blocks, links: rows.links.map((l) => ({ a: l.blockAId, b: l.blockBId })) };
-  const route: string[] = [input.waypoints[0]!];
-  for (let i = 1; i < input.waypoints.length; i++) {
-    const from = input.waypoints[i - 1]!;
-    const to = input.waypoints[i]!;
-    if (from === to) continue;
-    const leg = findRoute(track, from, to);
-    if (!leg) throw fieldError(`waypoints[${i}]`, `No track joins ${blockName.get(from)} and ${blockName.get(to)}.`);
-    route.push(...leg.slice(1));
+  const track = { blocks: rows.blocks.map((b) => ({ ...planBlockOf(b), name: b.name })), links: rows.links.map(planLinkOf) };
+  const picked = input.waypoints.filter((id, i) => i === 0 || id !== input.waypoints[i - 1]);
+  const found = routeThrough(track, picked);
+  if (!found.ok) {
+    const message = found.reason.charAt(0).toUpperCase() + found.reason.slice(1);
+    throw fieldError('waypoints', `${message}.`);
   }
+  const route = found.steps.map((s) => s.blockId);
   if (route.length < 2) throw fieldError('waypoints', 'Pick two different blocks: a run has to go somewhere.');
-  return timeRun({
+  const timed = timeRun({
     blocks: rows.blocks,
     scaleRatio: rows.layout?.scaleRatio ?? 87,
     trainLengthMm: train.lengthMm,
@@ -189,6 +189,9 @@ export function timeFromWaypoints(
     standAfterS: input.standAfterS,
     ...trainRamps(train, rows.layout?.scaleRatio ?? 87),
   });
+  // One step per block of the route: each keeps the direction the route finder found.
+  if (timed.steps.length !== found.steps.length) return timed;
+  return { ...timed, steps: timed.steps.map((step, i) => ({ ...step, fromEnd: found.steps[i]!.fromEnd, toEnd: found.steps[i]!.toEnd })) };
 }
 
 function fieldError(path: string, message: string): AppError {

@@ -1,4 +1,5 @@
 import { planDriverElectrics } from '@/lib/layouts/driver-electrics';
+import { planBlockOf, planLinkOf, stepEndsOf } from '@/lib/layouts/track-rows';
 import { defaultRamps, type Plan, type Ramps } from '@/lib/planning';
 import type { loadLayoutRows, loadSessionRows } from '@/db/queries/plan-data';
 
@@ -28,8 +29,8 @@ export function layoutToPlan(rows: LayoutRows, extra: Pick<Plan, 'clock' | 'rule
       ...planDriverElectrics(d),
     })),
     cabs: rows.cabs.map((c) => ({ id: c.id, name: c.name, driverId: c.driverId, channel: c.channel })),
-    blocks: rows.blocks.map((b) => ({ id: b.id, name: b.name, lengthMm: b.lengthMm })),
-    links: rows.links.map((l) => ({ a: l.blockAId, b: l.blockBId })),
+    blocks: rows.blocks.map(planBlockOf),
+    links: rows.links.map(planLinkOf),
     locos: rows.locomotives.map((l) => ({
       id: l.id,
       name: l.name,
@@ -59,7 +60,7 @@ export function sessionToPlan(rows: SessionRows): Plan {
   const stepsOf = new Map<string, Plan['runs'][number]['steps']>();
   for (const s of rows.steps) {
     const list = stepsOf.get(s.runId) ?? [];
-    list.push({ blockId: s.blockId, enterS: s.enterS, exitS: s.exitS });
+    list.push({ blockId: s.blockId, enterS: s.enterS, exitS: s.exitS, ...stepEndsOf(s) });
     stepsOf.set(s.runId, list);
   }
   const base = layoutToPlan(rows, {

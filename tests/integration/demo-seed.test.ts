@@ -1,13 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { getDb } from '@/db';
 import { listSessionInvitations } from '@/db/queries/invitation-records';
-import { loadSessionRows } from '@/db/queries/plan-data';
+import { loadLayoutRows, loadSessionRows } from '@/db/queries/plan-data';
 import { listRailwaySessions } from '@/db/queries/sessions';
 import * as t from '@/db/schema';
 import { DEMO_USERS, demoSessionStart, hasDemoData, seedDemoRailway } from '@/lib/demo/demo-railway';
 import { deliveryOf } from '@/lib/invitations/tracker';
 import { checkPlan, planSchema } from '@/lib/planning';
-import { sessionToPlan } from '@/lib/sessions/to-plan';
+import { layoutToPlan, sessionToPlan } from '@/lib/sessions/to-plan';
 
 describe('demo railway seed', () => {
   const now = new Date('2026-12-01T12:00:00Z');
@@ -30,7 +30,7 @@ describe('demo railway seed', () => {
     const roles = db.select().from(t.memberships).all().map((m) => m.role);
     expect(roles.filter((r) => r === 'operator').length).toBeGreaterThanOrEqual(6);
     const indoor = db.select().from(t.layouts).all().find((l) => l.setting === 'indoor')!;
-    expect(db.select().from(t.blocks).all().filter((b) => b.layoutId === indoor.id).length).toBe(12);
+    expect(db.select().from(t.blocks).all().filter((b) => b.layoutId === indoor.id).length).toBe(13);
   });
 
   it('the tracker’s states agree: no invitation was e-mailed, so no one has replied yet', () => {
@@ -72,8 +72,30 @@ describe('demo railway seed', () => {
       new Set(['block-overlap', 'block-occupied', 'loco-in-two-trains', 'cab-double-booked', 'channel-overload', 'channel-peak-overload', 'joint-short']),
     );
     const shorts = findings.filter((f) => f.kind === 'joint-short');
-    expect(shorts.every((f) => /two cabs meet across the gap/.test(f.message) && /Pick-up goods|Fernwick express/.test(f.message))).toBe(true);
-    expect(new Set(shorts.map((f) => f.fromS < 40 * 60 && f.fromS > 30 * 60))).toEqual(new Set([true]));
+    const twoCabs = shorts.filter((f) => /two cabs meet across the gap/.test(f.message));
+    expect(twoCabs.every((f) => /Pick-up goods|Fernwick express/.test(f.message) && f.fromS < 40 * 60 && f.fromS > 30 * 60)).toBe(true);
+    // The deliberate polarity clash: yard road 3's feeders are the wrong way round, so the stone
+    // train leaving it bridges a rail gap with opposite polarity either side (NEM 631 2.3).
+    const polarity = shorts.filter((f) => !twoCabs.includes(f));
+    expect(polarity).toHaveLength(1);
+    expect(polarity[0]!.message).toMatch(/^Double-headed stone train .* from block Larkholm yard road 3 into block Larkholm yard lead .*NEM 631 2\.3/);
+    const wiring = findings.filter((f) => f.kind === 'joint-wiring');
+    expect(wiring.map((f) => f.severity)).toEqual(['warning']);
+    expect(wiring[0]!.message).toMatch(/Larkholm yard road 3/);
+  });
+
+  it('the garden line has a balloon loop wired as a reversing section: no reversing-loop finding, and one without the section', () => {
+    seeded();
+    const garden = getDb().select().from(t.layouts).all().find((l) => l.setting === 'outdoor')!;
+    const plan = layoutToPlan(loadLayoutRows(garden.id), { clock: { ratio: 1, fastStart: '00:00' }, rules: { headwayS: 0, surgeS: 0, derate: 1 } });
+    const loop = plan.blocks.find((b) => b.name === 'Orchard balloon')!;
+    expect(loop.reversingSection).toBe(true);
+    // Longer than the longest garden train, so a train can be wholly inside while it flips.
+    expect(loop.lengthMm).toBeGreaterThan(Math.max(...plan.trains.map((tr) => tr.lengthMm)));
+    expect(plan.links.filter((l) => l.b === loop.id).map((l) => l.bEnd).sort()).toEqual(['a', 'b']);
+    expect(checkPlan(plan).findings.filter((f) => f.kind === 'reversing-loop' || f.kind === 'joint-wiring')).toEqual([]);
+    const unswitched = { ...plan, blocks: plan.blocks.map((b) => (b.id === loop.id ? { ...b, reversingSection: false } : b)) };
+    expect(checkPlan(unswitched).findings.filter((f) => f.kind === 'reversing-loop')).toHaveLength(1);
   });
 
   it('demo sessions always start on a Saturday at least two days ahead', () => {
