@@ -11,7 +11,7 @@ const layout: BuilderLayout = {
     { id: 'block-aaaaaaaa-1', name: 'Yard', lengthMm: 1200, positionMm: 0 },
     { id: 'block-aaaaaaaa-2', name: 'Main', lengthMm: 2400, positionMm: 1200 },
   ],
-  links: [{ a: 'block-aaaaaaaa-1', b: 'block-aaaaaaaa-2' }],
+  links: [{ a: 'block-aaaaaaaa-1', b: 'block-aaaaaaaa-2', aEnd: 'b', bEnd: 'a' }],
   cabs: [{ id: 'cab-1', name: 'Cab 1', driverId: 'drv-1', channel: 0 }],
   drivers: [{ id: 'drv-1', name: 'Driver A', supplyId: 'sup-1' }],
   supplies: [{ id: 'sup-1', name: 'Bench supply' }],
