@@ -76,7 +76,7 @@ export function ControlTimeline({ schedule, window }: { schedule: ControlSchedul
           ))}
           <polyline points={points.map(([ms, v]) => `${x(ms).toFixed(1)},${y(v).toFixed(1)}`).join(' ')} fill="none" stroke={colour.get(cabId)} strokeWidth={1.5} />
           {values.filter((v) => inWindow(v.atMs)).map((v, i) => (
-            <text key={i} x={x(v.atMs) + 3} y={y(v.value) - 3} className="fill-ink text-[10px] tabular-nums" data-testid="pwm-value">{v.value}</text>
+            <text key={i} x={x(v.atMs) + 14} y={y(v.value) - 3} className="fill-ink text-[10px] tabular-nums" data-testid="pwm-value">{v.value}</text>
           ))}
         </g>
       </g>

@@ -38,8 +38,8 @@ export function ReportGraph({ report, clock }: { report: SessionReport; clock: F
       ))}
       {report.graph.map((g, i) => (
         <g key={g.runId}>
-          <path d={path(g.planned)} fill="none" stroke={hue(i)} strokeWidth="1.5" strokeDasharray="5 4" opacity="0.7" />
-          {g.actual ? <path d={path(g.actual)} fill="none" stroke={hue(i)} strokeWidth="3" /> : null}
+          <path d={path(g.planned)} data-testid="planned-line" fill="none" stroke={hue(i)} strokeWidth="1.5" strokeDasharray="5 4" opacity="0.7" />
+          {g.actual ? <path d={path(g.actual)} data-testid="actual-line" fill="none" stroke={hue(i)} strokeWidth="3" /> : null}
         </g>
       ))}
     </svg>

@@ -9,6 +9,8 @@ test('a planner opens the demo session’s Control view: cab and block timelines
   // The control schedule's findings stand beside the timetable's.
   const controlFindings = page.getByTestId('control-findings-panel');
   await expect(controlFindings.getByTestId('control-finding').first()).toContainText('left out of the control schedule');
+  await controlFindings.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: 'tests/e2e/screenshots/timetable-control-findings-laptop.png' });
   await page.getByRole('link', { name: 'Control', exact: true }).click();
   await expect(page.getByTestId('control-view')).toBeVisible();
   await expect(page.getByTestId('cab-lane')).toHaveCount(4);

@@ -134,6 +134,9 @@ test('the session day: clock, reports from phones, the board follows, a delay ma
 
   await host.goto(`/railways/${demo.railway.id}/sessions/${demo.id}/report`);
   await expect(host.getByTestId('punctuality')).toContainText('within 5 fast minutes');
+  // The train graph puts planned (every run) and actual (the runs that ran) over each other.
+  expect(await host.getByTestId('planned-line').count()).toBeGreaterThan(await host.getByTestId('actual-line').count());
+  expect(await host.getByTestId('actual-line').count()).toBeGreaterThan(0);
   await expect(host.getByTestId('punctuality')).toContainText('departed runs');
   await expect(host.getByTestId('delays-began')).toContainText('fast min');
   await screenshotBoth(host, 'live-report');
