@@ -15,7 +15,7 @@ export {
   checkInterlocks,
   compareEntries,
   pwmAt,
-  speedFromSteps,
+  cabDirections,
   travelDirections,
   SCHEDULE_FORMAT,
   SCHEDULE_VERSION,

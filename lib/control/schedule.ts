@@ -1,4 +1,4 @@
-import { dropAt, driverDrop, dutyFor, formatFast, type Plan, type Run } from '@/lib/planning';
+import { defaultRamps, dropAt, driverDrop, dutyFor, formatFast, indexPlan, neededOutput, plannedSpeedKmh, travelOfPlan, type Plan, type Travel } from '@/lib/planning';
 import type { BlockWiring, ControlTiming, WiringSheet } from './wiring';
 
 /** Format name and version of the control schedule (documented in the README). */
@@ -89,27 +89,11 @@ interface Window {
   runId: string;
 }
 
-/** Scale km/h a run's steps imply: the fastest intermediate block (its length plus the train's, over the time held). */
-export function speedFromSteps(run: Run, blockLengthMm: (id: string) => number, trainLengthMm: number, scaleRatio: number): number {
-  let best = 0;
-  for (let i = 1; i < run.steps.length - 1; i++) {
-    const step = run.steps[i]!;
-    const mmPerS = (blockLengthMm(step.blockId) + trainLengthMm) / (step.exitS - step.enterS);
-    best = Math.max(best, mmPerS);
-  }
-  if (best === 0) {
-    const first = run.steps[0]!;
-    best = trainLengthMm / Math.max(first.exitS - run.departS, 0.001);
-  }
-  // mm/s in the model × scale ratio = prototype mm/s; ÷ 1000 × 3.6 = km/h.
-  return (best * scaleRatio * 3.6) / 1000;
-}
-
 /**
- * The direction of travel through each block of a route, as the cab must drive it: forward when the
- * next block is one the block's wiring names in `forwardTowards`; in the last block, forward when the
- * train came from a block that is not ahead of it (NEM 631 2.3: right-hand rail positive in the
- * direction of travel, for the cab's forward output as wired).
+ * Sheets written before the track had ends: the direction through each block of a route from the
+ * wiring sheet's `forwardTowards` — forward when the next block is one the block names; in the last
+ * block, forward when the train came from a block that is not ahead of it. Used only for a layout
+ * whose links and steps carry no ends (see `cabDirections`); otherwise the engine's ends decide.
  */
 export function travelDirections(route: readonly string[], wiringOf: (blockId: string) => BlockWiring | undefined): Direction[] {
   return route.map((blockId, i) => {
@@ -131,6 +115,30 @@ export function travelDirections(route: readonly string[], wiringOf: (blockId: s
  * reversing section is left out with a finding, so the schedule itself is always safe. The result is
  * then replayed by `checkInterlocks`, whose findings are added (none, unless this function is wrong).
  */
+/** Whether a plan's track records ends anywhere (then the engine's direction of travel is the one to use). */
+function trackHasEnds(plan: Plan): boolean {
+  return (
+    plan.links.some((l) => l.aEnd !== undefined || l.bEnd !== undefined) ||
+    plan.runs.some((r) => r.steps.some((s) => s.fromEnd !== undefined || s.toEnd !== undefined))
+  );
+}
+
+/**
+ * The cab direction each step of a run needs, from the engine's direction of travel (travelOfPlan:
+ * the steps' ends, else the links') and the block's wiring (`positiveRail`): `neededOutput`, NEM 631
+ * 2.3 (right-hand rail positive in the direction of travel). An old sheet's `forwardTowards` is read
+ * only when the layout records no ends at all and the sheet names some block ahead on the route.
+ */
+export function cabDirections(
+  route: readonly string[],
+  travel: Travel,
+  positiveRail: (blockId: string) => 'right' | 'left' | undefined,
+  legacy: ((route: readonly string[]) => Direction[]) | null,
+): Direction[] {
+  if (legacy) return legacy(route);
+  return route.map((blockId, i) => (neededOutput(travel.toEnd[i]!, positiveRail(blockId)) === 1 ? 'forward' : 'reverse'));
+}
+
 export function compileSchedule(input: ControlInput): ControlSchedule {
   const { plan, wiring } = input;
   const timing = wiring.timing;
@@ -147,6 +155,13 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
   const blockName = (id: string) => blockById.get(id)?.name ?? id;
   const cabName = (id: string) => cabById.get(id)?.name ?? id;
   const fast = (s: number) => formatFast(s, plan.clock);
+  const blockLength = new Map(plan.blocks.map((b) => [b.id, b.lengthMm]));
+  const travels = travelOfPlan(plan, indexPlan(plan));
+  const planOrder = new Map(plan.runs.map((r, i) => [r, i]));
+  const hasEnds = trackHasEnds(plan);
+  const sheetNamesAhead = wiring.blocks.some((b) => b.forwardTowards.length > 0);
+  const legacy = !hasEnds && sheetNamesAhead ? (route: readonly string[]) => travelDirections(route, (b) => blockWiring.get(b)) : null;
+  const rampDefault = defaultRamps(plan.scale.ratio);
 
   const findings: ControlFinding[] = [];
   const cabWindows = new Map<string, Window[]>();
@@ -190,7 +205,16 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
     }
 
     // Direction per step, with the flips a reversing section allows.
-    const travel = travelDirections(route, (b) => blockWiring.get(b));
+    const r = planOrder.get(run)!;
+    if (!legacy) {
+      const t = travels[r]!;
+      const turn = route.findIndex((_, i) => i > 0 && i < route.length - 1 && t.fromEnd[i] === t.toEnd[i] && route[i + 1] !== route[i]);
+      if (turn !== -1) {
+        leaveOut(`it changes direction in ${blockName(route[turn]!)}: the cab would have to stop and reverse there; make it two runs`, [route[turn]!]);
+        continue;
+      }
+    }
+    const travel = cabDirections(route, travels[r]!, (b) => blockById.get(b)?.positiveRail, legacy);
     const reversing = route.map((b) => blockWiring.get(b)!.polarityPin !== null);
     const firstFixed = travel.findIndex((_, i) => !reversing[i]);
     let cabDir: Direction = travel[firstFixed === -1 ? 0 : firstFixed]!;
@@ -219,9 +243,16 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
     // PWM from the driver model: the loco that needs the most duty sets the cab's value.
     const driver = driverById.get(cabById.get(run.cabId)?.driverId ?? '');
     const supply = supplyById.get(driver?.supplyId ?? '');
-    const speedKmh =
-      input.runSpeedKmh[run.id] ?? speedFromSteps(run, (b) => blockById.get(b)?.lengthMm ?? 0, train.lengthMm, plan.scale.ratio);
+    // The train's ramps (scale km/h per second), the scale's common practice where it has none.
+    const accelKmhPerS = train.accelKmhPerS ?? rampDefault.accelKmhPerS;
+    const brakingKmhPerS = train.brakingKmhPerS ?? rampDefault.brakingKmhPerS;
+    const speedKmh = input.runSpeedKmh[run.id] ?? plannedSpeedKmh(plan, run, blockLength, { accelKmhPerS, brakingKmhPerS });
+    if (speedKmh === null) {
+      leaveOut('it does not leave its block');
+      continue;
+    }
     let pwm = 0;
+    let stillPwm = 0;
     let pwmProblem: string | null = null;
     // The bridge's greatest drop at the train's running current, so the duty is enough (see dutyFor).
     const trainAmps = train.locoIds.reduce((sum, id) => sum + (locoById.get(id)?.runningAmps ?? 0), train.lightingAmps);
@@ -232,18 +263,23 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
         pwmProblem = 'its locos, driver or supply are missing';
         break;
       }
-      const duty = dutyFor({
-        supplyVolts: supply.volts,
-        dropVolts: dropAt(driverDrop(driver).max, trainAmps),
-        ratedVolts: loco.ratedVolts,
-        topSpeedKmh: top,
-        startVolts: loco.startVolts ?? 0,
-        targetSpeedKmh: Math.round(speedKmh * 10) / 10,
-      });
-      if (!duty.ok) {
-        pwmProblem = `${loco.name}: ${duty.reason}`;
+      // The duty at each end of the ramps: at the cruise, and standing (dutyFor gives 0 at 0 km/h).
+      const dutyAt = (targetSpeedKmh: number) =>
+        dutyFor({
+          supplyVolts: supply.volts,
+          dropVolts: dropAt(driverDrop(driver).max, trainAmps),
+          ratedVolts: loco.ratedVolts,
+          topSpeedKmh: top,
+          startVolts: loco.startVolts ?? 0,
+          targetSpeedKmh,
+        });
+      const duty = dutyAt(Math.round(speedKmh * 10) / 10);
+      const still = dutyAt(0);
+      if (!duty.ok || !still.ok) {
+        pwmProblem = `${loco.name}: ${duty.ok ? (still.ok ? '' : still.reason) : duty.reason}`;
         break;
       }
+      stillPwm = Math.max(stillPwm, still.pwm8);
       pwm = Math.max(pwm, duty.pwm8);
     }
     if (pwmProblem !== null || pwm === 0) {
@@ -291,6 +327,10 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
       continue;
     }
 
+    // Ramps: a speed change over the train's rate (0 → cruise at its acceleration, cruise → 0 at its braking).
+    const accelS = speedKmh / accelKmhPerS;
+    const brakeS = speedKmh / brakingKmhPerS;
+
     // Moving legs: from departure to each flip, and from each flip to arrival.
     const legs: { fromS: number; toS: number; direction: Direction }[] = [];
     let legStart = run.departS;
@@ -304,12 +344,12 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
       const windowStart = Math.max(prev.exitS, here.enterS, legStart + 0.001);
       const windowEnd = Math.min(next.enterS, here.exitS, run.arriveS);
       const stopS = windowStart;
-      const flipS = stopS + timing.brakeS + deadS;
+      const flipS = stopS + brakeS + deadS;
       if (!(flipS < windowEnd)) {
-        broken = `the train is not wholly inside the reversing section ${blockName(route[flip.step]!)} long enough to stop (${timing.brakeS} s) and change direction`;
+        broken = `the train is not wholly inside the reversing section ${blockName(route[flip.step]!)} long enough to stop (${Math.round(brakeS * 10) / 10} s) and change direction`;
         break;
       }
-      legs.push({ fromS: legStart, toS: stopS + timing.brakeS, direction: legDir });
+      legs.push({ fromS: legStart, toS: stopS + brakeS, direction: legDir });
       stops.push({ stopS, flipS, blockId: route[flip.step]!, direction: flip.to });
       legStart = flipS;
       legDir = flip.to;
@@ -344,12 +384,14 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
 
     pending.push({ at: run.departS - timing.leadS, entry: { kind: 'direction', cabId: run.cabId, direction: directions[0]! } });
     for (const leg of legs) {
+      // A leg too short for both ramps at the train's rates (the engine's triangle, see Movement)
+      // shortens both in proportion, so the train still stands at the leg's end.
       const span = Math.max(leg.toS - leg.fromS, 0);
-      const scale = Math.min(1, (span * 0.8) / Math.max(timing.accelerateS + timing.brakeS, 0.001));
-      const upS = timing.accelerateS * scale;
-      const downS = timing.brakeS * scale;
-      pending.push({ at: leg.fromS, entry: { kind: 'speed', cabId: run.cabId, from: 0, to: pwm, rampMs: Math.round(upS * 1000) } });
-      pending.push({ at: leg.toS - downS, entry: { kind: 'speed', cabId: run.cabId, from: pwm, to: 0, rampMs: Math.round(downS * 1000) } });
+      const scale = Math.min(1, span / Math.max(accelS + brakeS, 0.001));
+      const upS = accelS * scale;
+      const downS = brakeS * scale;
+      pending.push({ at: leg.fromS, entry: { kind: 'speed', cabId: run.cabId, from: stillPwm, to: pwm, rampMs: Math.round(upS * 1000) } });
+      pending.push({ at: leg.toS - downS, entry: { kind: 'speed', cabId: run.cabId, from: pwm, to: stillPwm, rampMs: Math.round(downS * 1000) } });
     }
     for (const stop of stops) {
       pending.push({ at: stop.flipS, entry: { kind: 'direction', cabId: run.cabId, direction: stop.direction } });

@@ -9,6 +9,7 @@ import { GET as getControlFindings } from '@/app/api/sessions/[sessionId]/contro
 import { eq } from 'drizzle-orm';
 import { DEMO_USERS, hasDemoData, seedDemoRailway } from '@/lib/demo/demo-railway';
 import { SCHEDULE_FORMAT } from '@/lib/control';
+import { trainRamps } from '@/lib/sessions/to-plan';
 import { signInAs } from './caller';
 
 const ctx = (sessionId: string) => ({ params: Promise.resolve({ sessionId }) });
@@ -31,8 +32,18 @@ describe('control exports of the demo session', () => {
     const body = await res.json();
     expect([body.format, body.version]).toEqual([SCHEDULE_FORMAT, 1]);
     expect(body.entries.length).toBeGreaterThan(100);
-    // A ramp is one entry with start value, end value and duration.
-    expect(body.entries.find((e: { kind: string }) => e.kind === 'speed')).toMatchObject({ from: 0, rampMs: 3000 });
+    // A ramp is one entry with start value, end value and duration: the first run's start, from 0 to its
+    // PWM value over its speed ÷ the train's acceleration (its own, or H0's common practice, 15 km/h per s).
+    const firstRun = body.runs[0];
+    const train = getDb().select().from(t.trains).where(eq(t.trains.id, firstRun.trainId)).get()!;
+    const layout = getDb().select().from(t.layouts).where(eq(t.layouts.id, session.layoutId)).get()!;
+    const accel = trainRamps(train, layout.scaleRatio).accelKmhPerS;
+    expect(body.entries.find((e: { kind: string }) => e.kind === 'speed')).toMatchObject({
+      cabId: firstRun.cabId,
+      from: 0,
+      to: firstRun.pwm,
+      rampMs: Math.round((firstRun.speedKmh / accel) * 1000),
+    });
     const cabBoard = body.boards.find((b: { id: string }) => b.id === 'cab-board');
     // The demo's firmware fits an ATmega328P board (issue: 32 KB flash less the boot loader, 2 KB RAM).
     expect(cabBoard.size.fits).toBe(true);

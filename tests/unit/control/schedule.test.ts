@@ -7,8 +7,11 @@ import { changeTimes, stateAt } from './replay';
 
 const TIMING = { leadS: 1, releaseS: 0.5, deadTimeMs: 300, breakMs: 50, accelerateS: 2, brakeS: 2 };
 
-/** A wiring that feeds every block from every cab; `towards` and `reversing` come from the generator. */
-function wiringFor(plan: Plan, towards: number[], reversing: boolean[]): WiringSheet {
+/**
+ * A wiring that feeds every block from every cab; `towards` and `reversing` come from the generator.
+ * `engine`: a sheet with no `forwardTowards` (the engine's ends and the blocks' wiring decide).
+ */
+function wiringFor(plan: Plan, towards: number[], reversing: boolean[], engine: boolean): WiringSheet {
   return {
     version: 1,
     boards: [{ id: 'board', kind: 'header40', name: 'Board', emergencyStopPin: 'GPIO4', startPin: null }],
@@ -19,7 +22,7 @@ function wiringFor(plan: Plan, towards: number[], reversing: boolean[]): WiringS
       feeds: plan.cabs.map((c) => ({ cabId: c.id, pin: `${b.id}-${c.id}` })),
       polarityPin: reversing[i % reversing.length] ? `${b.id}-pol` : null,
       // Each block points forward at some of the others (a bit mask), so directions vary.
-      forwardTowards: plan.blocks.filter((_, j) => j !== i && ((towards[i % towards.length] ?? 0) >> j) & 1).map((o) => o.id),
+      forwardTowards: engine ? [] : plan.blocks.filter((_, j) => j !== i && ((towards[i % towards.length] ?? 0) >> j) & 1).map((o) => o.id),
     })),
     timing: TIMING,
   };
@@ -31,9 +34,13 @@ const controlCase = fc
     towards: fc.array(fc.nat({ max: 63 }), { minLength: 1, maxLength: 6 }),
     reversing: fc.array(fc.boolean(), { minLength: 1, maxLength: 6 }),
     speeds: fc.array(fc.option(fc.integer({ min: 10, max: 90 }), { nil: null }), { minLength: 1, maxLength: 8 }),
+    engine: fc.boolean(),
+    rails: fc.array(fc.constantFrom('right' as const, 'left' as const, undefined), { minLength: 1, maxLength: 6 }),
   })
-  .map(({ plan, towards, reversing, speeds }) => {
-    const wiring = wiringFor(plan, towards, reversing);
+  .map(({ plan: generated, towards, reversing, speeds, engine, rails }) => {
+    // The engine's way: each block's positive rail varies, so cab directions vary through the ends.
+    const plan = engine ? { ...generated, blocks: generated.blocks.map((b, i) => ({ ...b, positiveRail: rails[i % rails.length] })) } : generated;
+    const wiring = wiringFor(plan, towards, reversing, engine);
     const runSpeedKmh = Object.fromEntries(plan.runs.map((r, i) => [r.id, speeds[i % speeds.length] ?? null]));
     const locoTopSpeedKmh = Object.fromEntries(plan.locos.map((l) => [l.id, 120]));
     return { plan, wiring, schedule: compileSchedule({ plan, wiring, runSpeedKmh, locoTopSpeedKmh }) };
