@@ -1,0 +1,78 @@
+import { DEMO, expect, screenshotBoth, test } from './fixtures';
+import { demoSessionIds, InvitationTrackerPage } from './pages/invitation-tracker-page';
+
+type Snapshot = { runs: { id: string; version: number; operatorId: string | null; departS: number }[]; layout: { operators: { id: string; name: string }[] } };
+
+test('after a run moves, the host sees who is affected, previews the update and sends it; reminders and the reply deadline', async ({ page, signInAs }) => {
+  const { railwayId, sessionId } = demoSessionIds();
+  const tracker = new InvitationTrackerPage(page);
+  await signInAs('host');
+  await tracker.goto(railwayId, sessionId);
+  // The demo's invitations are not sent yet (another test may have sent them already).
+  const sendPending = page.getByRole('button', { name: /^Send \d+ invitations? not sent yet$/ });
+  if (await sendPending.isVisible()) {
+    await sendPending.click();
+    await expect(page.getByText(/invitations? queued\./)).toBeVisible();
+  }
+  await expect(tracker.count('not-sent-yet')).toHaveText('0');
+
+  // Juno (the demo operator) has runs; move the first of them ten real minutes later through the timetable API.
+  const snapshot: Snapshot = await (await page.request.get(`/api/sessions/${sessionId}/runs`)).json();
+  const juno = snapshot.layout.operators.find((o) => o.name === 'Juno Carraway')!;
+  const run = snapshot.runs.filter((r) => r.operatorId === juno.id).sort((a, b) => a.departS - b.departS)[0]!;
+  const moved = await page.request.patch(`/api/sessions/${sessionId}/runs/${run.id}`, { data: { version: run.version, departS: run.departS + 600 } });
+  expect(moved.status()).toBe(200);
+
+  await tracker.goto(railwayId, sessionId);
+  await expect(tracker.row(DEMO.operator).getByTestId('changed-since')).toContainText('1 run moved');
+  await expect(page.getByTestId('affected-count')).toContainText('Juno Carraway');
+  await screenshotBoth(page, 'invitations-tracker-changed');
+
+  await page.getByRole('button', { name: /^Review and send update to \d+$/ }).click();
+  const dialog = page.getByRole('alertdialog');
+  await expect(dialog.getByTestId('update-preview')).toContainText(/Your run with .* fast: now .* fast \(.* real\), was .* fast\./);
+  await screenshotBoth(page, 'invitations-update-dialog');
+  await dialog.getByRole('button', { name: /^Send update to \d+$/ }).click();
+  await expect(page.getByText(/^\d+ updates? queued\.$/)).toBeVisible();
+  await expect(tracker.row(DEMO.operator).getByTestId('changed-since')).toHaveCount(0);
+
+  // Reminders go to those who have not replied, once a day each; the tracker says when.
+  const remind = page.getByTestId('remind');
+  await remind.getByRole('button', { name: /^Remind \d+ who ha(s|ve) not replied$/ }).click();
+  await expect(remind.getByText(/^\d+ reminders? queued\./)).toBeVisible();
+  await expect(tracker.row(DEMO.operator).getByTestId('reminded')).toContainText('reminded');
+  await expect(remind.getByRole('button', { name: 'Reminders sent' })).toBeDisabled();
+
+  // A deadline after the session's start is refused; one before it is saved and shown.
+  const deadline = page.getByTestId('reply-deadline-form');
+  await deadline.getByLabel('Reply by').fill('2099-01-01T10:00');
+  await deadline.getByRole('button', { name: 'Save deadline' }).click();
+  await expect(deadline.getByText('Choose a time no later than the session’s start.')).toBeVisible();
+  const tomorrow = new Date(Date.now() + 86_400_000);
+  const local = `${tomorrow.toISOString().slice(0, 10)}T12:00`;
+  await deadline.getByLabel('Reply by').fill(local);
+  await deadline.getByRole('button', { name: 'Save deadline' }).click();
+  await expect(deadline.getByText('Reply deadline saved. E-mails from now on say it.')).toBeVisible();
+  await expect(page.getByTestId('deadline-now')).toContainText('Replies wanted by');
+  await screenshotBoth(page, 'invitations-tracker-reminded');
+
+  // Put the run back where the demo has it, so that later tests see the demo's findings.
+  const now: Snapshot = await (await page.request.get(`/api/sessions/${sessionId}/runs`)).json();
+  const back = await page.request.patch(`/api/sessions/${sessionId}/runs/${run.id}`, { data: { version: now.runs.find((r) => r.id === run.id)!.version, departS: run.departS } });
+  expect(back.status()).toBe(200);
+});
+
+test('session settings say "Saved." after saving', async ({ page, signInAs }) => {
+  const { railwayId, sessionId } = demoSessionIds();
+  await signInAs('host');
+  await page.goto(`/railways/${railwayId}/sessions/${sessionId}/settings`);
+  const form = page.getByTestId('session-form');
+  const place = await form.getByLabel('Place').inputValue();
+  await form.getByRole('button', { name: 'Save settings' }).click();
+  await expect(form.getByText(/^Saved\./)).toBeVisible();
+  // A second save works too: the form sends the session's new version (a stale one would answer "changed by someone else").
+  await Promise.all([page.waitForResponse((r) => r.request().method() === 'POST'), form.getByRole('button', { name: 'Save settings' }).click()]);
+  await expect(form.getByText(/^Saved\./)).toBeVisible();
+  await page.reload();
+  await expect(page.getByTestId('session-form').getByLabel('Place')).toHaveValue(place);
+});
