@@ -9,7 +9,25 @@ import { EntityTable, type EntityColumn, type FormValues } from './entity-table'
 import { UnitPicker } from './unit-picker';
 import { useLengthUnit } from './use-length-unit';
 
-export type BlockRow = { id: string; name: string; lengthMm: number; positionMm: number; version: number };
+export type BlockRow = {
+  id: string;
+  name: string;
+  lengthMm: number;
+  positionMm: number;
+  positiveRail: 'right' | 'left';
+  reversingSection: boolean;
+  reversingPlace: boolean;
+  version: number;
+};
+
+const RAIL_OPTIONS = [
+  { value: 'right', label: 'Right rail' },
+  { value: 'left', label: 'Left rail' },
+];
+const YES_NO = [
+  { value: 'no', label: 'No' },
+  { value: 'yes', label: 'Yes' },
+];
 
 export function BlocksTable({
   railwayId,
@@ -41,6 +59,25 @@ export function BlocksTable({
         field: { name: 'position', kind: 'number', suffix: unit, toInput: (b) => String(fromMm(b.positionMm, unit)) },
       },
       {
+        id: 'positiveRail',
+        // NEM 631 2.3: the right-hand rail is positive in the direction of travel.
+        header: 'Cab + feeds (looking to end b)',
+        sortValue: (b) => b.positiveRail,
+        field: { name: 'positiveRail', kind: 'select', options: RAIL_OPTIONS, toInput: (b) => b.positiveRail },
+      },
+      {
+        id: 'reversingSection',
+        header: 'Reversing section',
+        sortValue: (b) => (b.reversingSection ? 1 : 0),
+        field: { name: 'reversingSection', kind: 'select', options: YES_NO, toInput: (b) => (b.reversingSection ? 'yes' : 'no') },
+      },
+      {
+        id: 'reversingPlace',
+        header: 'Trains may reverse here',
+        sortValue: (b) => (b.reversingPlace ? 1 : 0),
+        field: { name: 'reversingPlace', kind: 'select', options: YES_NO, toInput: (b) => (b.reversingPlace ? 'yes' : 'no') },
+      },
+      {
         id: 'neighbours',
         header: 'Linked to',
         sortValue: (b) => (neighbours[b.id] ?? []).join(', '),
@@ -58,7 +95,7 @@ export function BlocksTable({
     const end = blocks.reduce((m, b) => Math.max(m, b.positionMm + b.lengthMm), 0);
     return String(fromMm(end, unit));
   }, [blocks, unit]);
-  const newDefaults = useMemo<FormValues>(() => ({ name: '', length: '', position: nextPosition }), [nextPosition]);
+  const newDefaults = useMemo<FormValues>(() => ({ name: '', length: '', position: nextPosition, positiveRail: 'right', reversingSection: 'no', reversingPlace: 'no' }), [nextPosition]);
   const hidden = useMemo(() => ({ unit }), [unit]);
   return (
     <div className="space-y-3">
@@ -76,7 +113,14 @@ export function BlocksTable({
         nextDefaults={(added) => {
           const position = Number(String(added.position).replace(',', '.')) || 0;
           const length = Number(String(added.length).replace(',', '.')) || 0;
-          return { name: '', length: String(added.length), position: String(Math.round((position + length) * 1e6) / 1e6) };
+          return {
+            name: '',
+            length: String(added.length),
+            position: String(Math.round((position + length) * 1e6) / 1e6),
+            positiveRail: String(added.positiveRail ?? 'right'),
+            reversingSection: 'no',
+            reversingPlace: 'no',
+          };
         }}
         create={(fd) => createBlock(railwayId, layoutId, null, fd)}
         update={(fd) => updateBlock(railwayId, layoutId, null, fd)}

@@ -11,7 +11,12 @@ import { Field, Select } from '@/components/ui/field';
 import { linkSchema } from '@/lib/validations/layout';
 import { DataTable } from './data-table';
 
-type LinkRow = { id: string; a: string; b: string };
+type LinkRow = { id: string; a: string; b: string; aEnd: 'a' | 'b'; bEnd: 'a' | 'b' };
+type End = 'a' | 'b';
+const END_OPTIONS: { value: End; label: string }[] = [
+  { value: 'a', label: 'end a' },
+  { value: 'b', label: 'end b' },
+];
 
 /** Links between blocks: pick two blocks to join them; each block's neighbours show in the block table. */
 export function LinksPanel({
@@ -31,9 +36,9 @@ export function LinksPanel({
   const [pending, startTransition] = useTransition();
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const [hiddenIds, setHiddenIds] = useState<Set<string>>(new Set());
-  const form = useForm<{ blockAId: string; blockBId: string }>({
+  const form = useForm<{ blockAId: string; blockBId: string; blockAEnd: End; blockBEnd: End }>({
     resolver: zodResolver(linkSchema as never, undefined, { raw: true }) as never,
-    defaultValues: { blockAId: '', blockBId: '' },
+    defaultValues: { blockAId: '', blockBId: '', blockAEnd: 'b', blockBEnd: 'a' },
   });
   const errors = form.formState.errors;
   const add = form.handleSubmit((values) =>
@@ -41,11 +46,13 @@ export function LinksPanel({
       const data = new FormData();
       data.set('blockAId', values.blockAId);
       data.set('blockBId', values.blockBId);
+      data.set('blockAEnd', values.blockAEnd);
+      data.set('blockBEnd', values.blockBEnd);
       const state = await createLink(railwayId, layoutId, null, data);
       if (state?.ok) {
         setMessage({ ok: true, text: state.message ?? 'Linked.' });
         // Keep the second block as the next link's first: lines are usually entered in order.
-        form.reset({ blockAId: values.blockBId, blockBId: '' });
+        form.reset({ blockAId: values.blockBId, blockBId: '', blockAEnd: 'b', blockBEnd: 'a' });
         router.refresh();
       } else if (state) {
         for (const [k, v] of Object.entries(state.fieldErrors ?? {})) form.setError(k as 'blockAId', { message: v });
@@ -72,7 +79,7 @@ export function LinksPanel({
   return (
     <div className="space-y-4">
       {canEdit ? (
-        <form onSubmit={add} className="grid gap-3 sm:grid-cols-[1fr_1fr_auto] sm:items-end" noValidate>
+        <form onSubmit={add} className="grid gap-3 sm:grid-cols-[1fr_auto_1fr_auto_auto] sm:items-end" noValidate>
           <Field label="From block" name="blockAId" error={errors.blockAId?.message}>
             <Select {...form.register('blockAId')} error={errors.blockAId?.message}>
               <option value="">Choose…</option>
@@ -83,12 +90,30 @@ export function LinksPanel({
               ))}
             </Select>
           </Field>
+          <Field label="Its end" name="blockAEnd" error={errors.blockAEnd?.message}>
+            <Select {...form.register('blockAEnd')} error={errors.blockAEnd?.message}>
+              {END_OPTIONS.map((o) => (
+                <option key={o.value} value={o.value}>
+                  {o.label}
+                </option>
+              ))}
+            </Select>
+          </Field>
           <Field label="To block" name="blockBId" error={errors.blockBId?.message}>
             <Select {...form.register('blockBId')} error={errors.blockBId?.message}>
               <option value="">Choose…</option>
               {blocks.map((b) => (
                 <option key={b.id} value={b.id}>
                   {b.name}
+                </option>
+              ))}
+            </Select>
+          </Field>
+          <Field label="At its end" name="blockBEnd" error={errors.blockBEnd?.message}>
+            <Select {...form.register('blockBEnd')} error={errors.blockBEnd?.message}>
+              {END_OPTIONS.map((o) => (
+                <option key={o.value} value={o.value}>
+                  {o.label}
                 </option>
               ))}
             </Select>
@@ -105,8 +130,8 @@ export function LinksPanel({
         testId="links-table"
         empty="No links yet."
         columns={[
-          { id: 'a', header: 'Block', accessorFn: (l) => l.a },
-          { id: 'b', header: 'Joins', accessorFn: (l) => l.b },
+          { id: 'a', header: 'Block', accessorFn: (l) => `${l.a} (end ${l.aEnd})` },
+          { id: 'b', header: 'Joins', accessorFn: (l) => `${l.b} (end ${l.bEnd})` },
           ...(canEdit
             ? [
                 {

@@ -4,7 +4,14 @@ import { getDb } from '@/db';
 import { blocks, links, runSteps } from '@/db/schema';
 import type { DbOrTx } from './layout-rows';
 
-export type BlockValues = { name: string; lengthMm: number; positionMm: number };
+export type BlockValues = {
+  name: string;
+  lengthMm: number;
+  positionMm: number;
+  positiveRail?: 'right' | 'left';
+  reversingSection?: boolean;
+  reversingPlace?: boolean;
+};
 
 export function insertBlock(layoutId: string, values: BlockValues, db: DbOrTx = getDb()) {
   return db.insert(blocks).values({ ...values, layoutId }).returning().get();
@@ -15,22 +22,27 @@ export function countBlockSteps(blockId: string): number {
   return getDb().select({ n: count() }).from(runSteps).where(eq(runSteps.blockId, blockId)).get()?.n ?? 0;
 }
 
-/** The link between two blocks in either direction, if there is one. */
-export function findLink(layoutId: string, a: string, b: string, db: DbOrTx = getDb()) {
+type End = 'a' | 'b';
+
+/** The link joining end aEnd of block a to end bEnd of block b, written either way round, if there is one. */
+export function findLink(layoutId: string, a: string, b: string, ends: { aEnd: End; bEnd: End } = { aEnd: 'b', bEnd: 'a' }, db: DbOrTx = getDb()) {
   return db
     .select()
     .from(links)
     .where(
       and(
         eq(links.layoutId, layoutId),
-        or(and(eq(links.blockAId, a), eq(links.blockBId, b)), and(eq(links.blockAId, b), eq(links.blockBId, a))),
+        or(
+          and(eq(links.blockAId, a), eq(links.blockAEnd, ends.aEnd), eq(links.blockBId, b), eq(links.blockBEnd, ends.bEnd)),
+          and(eq(links.blockAId, b), eq(links.blockAEnd, ends.bEnd), eq(links.blockBId, a), eq(links.blockBEnd, ends.aEnd)),
+        ),
       ),
     )
     .get();
 }
 
-export function insertLink(layoutId: string, blockAId: string, blockBId: string, db: DbOrTx = getDb()) {
-  return db.insert(links).values({ layoutId, blockAId, blockBId }).returning().get();
+export function insertLink(layoutId: string, blockAId: string, blockBId: string, ends: { aEnd: End; bEnd: End } = { aEnd: 'b', bEnd: 'a' }, db: DbOrTx = getDb()) {
+  return db.insert(links).values({ layoutId, blockAId, blockBId, blockAEnd: ends.aEnd, blockBEnd: ends.bEnd }).returning().get();
 }
 
 /** Deletes a link of this layout; false when there was none. */

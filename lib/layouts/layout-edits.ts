@@ -120,14 +120,15 @@ export function removeBlock({ layout }: LayoutContext, input: { id: string; vers
   return { message: `Block “${row.name}” deleted.`, entity: 'block', entityId: row.id, action: 'delete' };
 }
 
-export function addLink({ layout }: LayoutContext, input: { blockAId: string; blockBId: string }) {
+export function addLink({ layout }: LayoutContext, input: { blockAId: string; blockBId: string; blockAEnd: 'a' | 'b'; blockBEnd: 'a' | 'b' }) {
   const a = getLayoutRow(t.blocks, layout.id, input.blockAId);
   const b = getLayoutRow(t.blocks, layout.id, input.blockBId);
   if (!a) throw fieldError('blockAId', 'Choose a block of this layout.');
   if (!b) throw fieldError('blockBId', 'Choose a block of this layout.');
-  if (findLink(layout.id, a.id, b.id)) throw fieldError('blockBId', `“${a.name}” and “${b.name}” are already linked.`);
-  const row = insertLink(layout.id, a.id, b.id);
-  return { message: `Linked “${a.name}” and “${b.name}”.`, entity: 'link', entityId: row.id, action: 'create' };
+  const ends = { aEnd: input.blockAEnd, bEnd: input.blockBEnd };
+  if (findLink(layout.id, a.id, b.id, ends)) throw fieldError('blockBId', `The ${ends.aEnd} end of “${a.name}” and the ${ends.bEnd} end of “${b.name}” are already linked.`);
+  const row = insertLink(layout.id, a.id, b.id, ends);
+  return { message: `Linked the ${ends.aEnd} end of “${a.name}” to the ${ends.bEnd} end of “${b.name}”.`, entity: 'link', entityId: row.id, action: 'create' };
 }
 
 export function removeLink({ layout }: LayoutContext, input: { id: string }) {

@@ -130,17 +130,28 @@ export function scaleIdOf(layout: { scaleName: string; scaleRatio: number }): st
 
 // ---- Blocks and links ---------------------------------------------------------------------------
 
+const yesNo = z.enum(['no', 'yes'], 'must be yes or no');
+
 export const blockFields = z.object({
   name: entityName,
   length: number({ gt: 0, max: MAX_LENGTH_MM }),
   position: numberOr(0, { min: 0, max: MAX_LENGTH_MM * 10 }),
   unit: lengthUnitSchema,
+  /** Which rail the cab's positive feeder goes to, looking towards the block's b end (NEM 631 2.3). Absent: unchanged. */
+  positiveRail: z.enum(['right', 'left'], 'must be right or left').optional(),
+  /** Has its own polarity switch (a reversing section). Absent: unchanged. */
+  reversingSection: yesNo.optional(),
+  /** Trains may turn round here in the middle of a run. Absent: unchanged. */
+  reversingPlace: yesNo.optional(),
 });
 
 const toBlock = (v: z.infer<typeof blockFields>, ctx: z.RefinementCtx) => ({
   name: v.name,
   lengthMm: lengthIn(v.unit, v.length, ctx, 'length'),
   positionMm: toMm(v.position, v.unit),
+  ...(v.positiveRail !== undefined ? { positiveRail: v.positiveRail } : {}),
+  ...(v.reversingSection !== undefined ? { reversingSection: v.reversingSection === 'yes' } : {}),
+  ...(v.reversingPlace !== undefined ? { reversingPlace: v.reversingPlace === 'yes' } : {}),
 });
 
 /** A block as typed: name, length and position along the line in one unit; stored in mm. */
@@ -149,8 +160,11 @@ export const blockEditSchema = blockFields
   .extend({ id: rowId, version })
   .transform((v, ctx) => ({ id: v.id, version: v.version, ...toBlock(v, ctx) }));
 
+const blockEnd = z.enum(['a', 'b'], 'must be the a end or the b end');
+
+/** A rail joint: an end of one block meets an end of another (absent ends: the first's b end to the second's a end). */
 export const linkSchema = z
-  .object({ blockAId: rowId, blockBId: rowId })
+  .object({ blockAId: rowId, blockBId: rowId, blockAEnd: blockEnd.default('b'), blockBEnd: blockEnd.default('a') })
   .refine((v) => v.blockAId !== v.blockBId, { path: ['blockBId'], message: 'A block cannot link to itself.' });
 
 export const linkDeleteSchema = z.object({ id: rowId });

@@ -3,7 +3,7 @@ import { createLayout, deleteLayout, updateLayout } from '@/app/(app)/railways/[
 import * as actions from '@/app/(app)/railways/[railwayId]/layouts/[layoutId]/actions';
 import { getLayout } from '@/db/queries/layouts';
 import { loadLayoutRows } from '@/db/queries/plan-data';
-import { defaultRules } from '@/lib/planning';
+import { checkPlan, defaultRules } from '@/lib/planning';
 import { layoutToPlan } from '@/lib/sessions/to-plan';
 import { signInAs } from './caller';
 import { seedLayout } from './authz/layouts';
@@ -103,10 +103,12 @@ describe('blocks and links', () => {
     expect(await actions.deleteBlock(r, l, null, form({ id: seed.blockA.id, version: '1' }))).toMatchObject({ ok: false, status: 409 });
   });
 
-  it('links two blocks once; self links and blocks of another layout are refused; deleting a block drops its links', async () => {
+  it('links two block ends once; self links and blocks of another layout are refused; deleting a block drops its links', async () => {
     const { w, r, l, seed } = setup();
     const other = seedLayout(w.railway.id);
-    expect(await actions.createLink(r, l, null, form({ blockAId: seed.blockB.id, blockBId: seed.blockA.id }))).toMatchObject({ ok: false, status: 400 });
+    // The seeded joint (A's b end to B's a end), written the other way round, is the same joint.
+    expect(await actions.createLink(r, l, null, form({ blockAId: seed.blockB.id, blockAEnd: 'a', blockBId: seed.blockA.id, blockBEnd: 'b' }))).toMatchObject({ ok: false, status: 400 });
+    expect(await actions.createLink(r, l, null, form({ blockAId: seed.blockB.id, blockAEnd: 'c', blockBId: seed.blockA.id }))).toMatchObject({ ok: false, status: 400 });
     expect(await actions.createLink(r, l, null, form({ blockAId: seed.blockB.id, blockBId: seed.blockB.id }))).toMatchObject({ ok: false, fieldErrors: { blockBId: 'A block cannot link to itself.' } });
     expect(await actions.createLink(r, l, null, form({ blockAId: seed.blockB.id, blockBId: other.blockC.id }))).toMatchObject({ ok: false, status: 400 });
     expect(await actions.createLink(r, l, null, form({ blockAId: seed.blockB.id, blockBId: seed.blockC.id }))).toMatchObject({ ok: true });
@@ -114,6 +116,29 @@ describe('blocks and links', () => {
     expect(await actions.deleteBlock(r, l, null, form({ id: seed.blockB.id, version: '1' }))).toMatchObject({ ok: true });
     expect(loadLayoutRows(l).links).toHaveLength(0);
     expect(await actions.deleteLink(r, l, null, form({ id: other.link.id }))).toMatchObject({ ok: false, status: 404 });
+  });
+});
+
+describe('track ends, wiring and reversing sections', () => {
+  it('a balloon loop: one block end linked to both ends of a loop block wired as a reversing section; the checker sees no reversing loop', async () => {
+    const { r, l, seed } = setup();
+    expect(
+      await actions.createBlock(r, l, null, form({ name: 'Balloon', length: '5', unit: 'm', position: '9', positiveRail: 'right', reversingSection: 'yes', reversingPlace: 'no' })),
+    ).toMatchObject({ ok: true });
+    expect(await actions.createBlock(r, l, null, form({ name: 'Bad wiring', length: '1', unit: 'm', position: '0', positiveRail: 'up' }))).toMatchObject({ ok: false, status: 400 });
+    const balloon = loadLayoutRows(l).blocks.find((b) => b.name === 'Balloon')!;
+    expect(balloon).toMatchObject({ positiveRail: 'right', reversingSection: true, reversingPlace: false });
+    for (const end of ['a', 'b']) {
+      expect(await actions.createLink(r, l, null, form({ blockAId: seed.blockB.id, blockAEnd: 'b', blockBId: balloon.id, blockBEnd: end }))).toMatchObject({ ok: true });
+    }
+    const rows = loadLayoutRows(l);
+    expect(rows.links.filter((k) => k.blockBId === balloon.id).map((k) => k.blockBEnd).sort()).toEqual(['a', 'b']);
+    const plan = layoutToPlan(rows, { clock: { ratio: 1, fastStart: '00:00' }, rules: { headwayS: 0, surgeS: 0, derate: 1 } });
+    expect(checkPlan(plan).findings.filter((f) => f.kind === 'reversing-loop')).toEqual([]);
+    // An edit that only renames keeps the wiring (the form always sends it; CSV edits do not).
+    expect(await actions.updateBlock(r, l, null, form({ id: balloon.id, version: '1', name: 'Balloon loop', length: '5', unit: 'm', position: '9', reversingSection: 'no' }))).toMatchObject({ ok: true });
+    const unswitched = layoutToPlan(loadLayoutRows(l), { clock: { ratio: 1, fastStart: '00:00' }, rules: { headwayS: 0, surgeS: 0, derate: 1 } });
+    expect(checkPlan(unswitched).findings.filter((f) => f.kind === 'reversing-loop')).toHaveLength(1);
   });
 });
 

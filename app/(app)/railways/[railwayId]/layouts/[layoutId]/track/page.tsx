@@ -35,7 +35,16 @@ export default async function TrackPage({ params }: { params: Promise<{ railwayI
           layoutId={layout.id}
           canEdit={canEdit}
           neighbours={neighbours}
-          blocks={rows.blocks.map((b) => ({ id: b.id, name: b.name, lengthMm: b.lengthMm, positionMm: b.positionMm, version: b.version }))}
+          blocks={rows.blocks.map((b) => ({
+            id: b.id,
+            name: b.name,
+            lengthMm: b.lengthMm,
+            positionMm: b.positionMm,
+            positiveRail: b.positiveRail,
+            reversingSection: b.reversingSection,
+            reversingPlace: b.reversingPlace,
+            version: b.version,
+          }))}
         />
         <div className="mt-4">
           <CsvPanel layoutId={layout.id} table="blocks" canEdit={canEdit} />
@@ -47,7 +56,7 @@ export default async function TrackPage({ params }: { params: Promise<{ railwayI
           layoutId={layout.id}
           canEdit={canEdit}
           blocks={rows.blocks.map((b) => ({ id: b.id, name: b.name }))}
-          links={rows.links.map((l) => ({ id: l.id, a: name.get(l.blockAId) ?? '?', b: name.get(l.blockBId) ?? '?' }))}
+          links={rows.links.map((l) => ({ id: l.id, a: name.get(l.blockAId) ?? '?', b: name.get(l.blockBId) ?? '?', aEnd: l.blockAEnd, bEnd: l.blockBEnd }))}
         />
         <div className="mt-4">
           <CsvPanel layoutId={layout.id} table="links" canEdit={canEdit} />
