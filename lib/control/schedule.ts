@@ -229,7 +229,12 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
           directions[previous] = travel[i]!;
           cabDir = travel[i]!;
         } else {
-          broken = `the cab would have to drive ${blockName(route[i - 1] ?? route[i]!)} and ${blockName(route[i]!)} in opposite directions with no reversing section between: the train would short the gap`;
+          // The layout may call the block before a reversing section (the engine's model) while the sheet gives it no relay.
+          const unswitched = previous >= 0 && blockById.get(route[previous]!)?.reversingSection ? route[previous]! : null;
+          broken =
+            unswitched !== null
+              ? `${blockName(unswitched)} is a reversing section on the layout but the wiring sheet gives it no polarity relay`
+              : `the cab would have to drive ${blockName(route[i - 1] ?? route[i]!)} and ${blockName(route[i]!)} in opposite directions with no reversing section between: the train would short the gap`;
           break;
         }
       }

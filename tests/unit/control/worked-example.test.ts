@@ -108,4 +108,21 @@ describe('control schedule worked example (H0, common-practice ramps, NEM 631 2.
     // The sheet says forward towards b2 and b3: out is forward, back is reverse.
     expect(legacy.runs.map((r) => r.directions[0])).toEqual(['forward', 'reverse']);
   });
+
+  it('flips a reversing section with the engine: polarity normal while the cab drives what the section needs, swapped after the cab reverses', () => {
+    // b3 wired the other way (+ on the right looking to b): heading for b it needs forward, b1 and b2 reverse
+    // (NEM 631 2.3), so the cab must change direction while the train is wholly inside b2.
+    const loop = plan();
+    loop.blocks = loop.blocks.map((b) => (b.id === 'b3' ? { ...b, positiveRail: 'right' } : b.id === 'b2' ? { ...b, reversingSection: true } : b));
+    loop.runs = [loop.runs[0]!];
+    const noRelay = compileSchedule({ plan: loop, wiring, runSpeedKmh: { out: null }, locoTopSpeedKmh: { l: 120 } });
+    expect(noRelay.findings.map((f) => f.message)).toEqual([expect.stringContaining('B2 is a reversing section on the layout but the wiring sheet gives it no polarity relay')]);
+    const relay = { ...wiring, blocks: wiring.blocks.map((b) => (b.blockId === 'b2' ? { ...b, polarityPin: 'GPIO19' } : b)) };
+    const flipped = compileSchedule({ plan: loop, wiring: relay, runSpeedKmh: { out: null }, locoTopSpeedKmh: { l: 120 } });
+    expect(flipped.runs[0]!.directions).toEqual(['reverse', 'forward', 'forward']);
+    const polarity = flipped.entries.filter((e) => e.kind === 'polarity').map((e) => (e.kind === 'polarity' ? e.polarity : ''));
+    // b2 needs reverse heading for b: the cab gives reverse on entry (normal), forward after the flip (swapped).
+    expect(polarity).toEqual(['normal', 'swapped']);
+    expect(flipped.findings.map((f) => f.kind)).toEqual(['control-reversing-stop']);
+  });
 });
