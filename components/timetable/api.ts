@@ -1,6 +1,7 @@
 // The builder's calls to its route handlers. Errors come back as ApiError with the JSON answer.
 import type { CompactLoad } from '@/lib/sessions/compact';
-import type { BuilderChange, BuilderRun, BuilderSnapshot, RetimeSuggestion } from '@/lib/sessions/types';
+import type { BuilderChange, BuilderSnapshot, RetimeSuggestion } from '@/lib/sessions/types';
+import type { CreateRunBody, Move, SeriesBody, UpdateRunBody } from '@/lib/runs/schema';
 
 export type ApiErrorBody = { error: string; code?: string; issues?: { path: string; message: string }[]; current?: unknown };
 
@@ -25,45 +26,18 @@ async function call<T>(method: string, path: string, body?: unknown, cache: Requ
   return data as T;
 }
 
-export type NewRunBody =
-  | {
-      trainId: string;
-      cabId: string;
-      operatorId: string | null;
-      depart: string;
-      waypoints: string[];
-      speedKmh: number;
-      standBeforeS: number;
-      standAfterS: number;
-      note?: string;
-    }
-  | (Omit<BuilderRun, 'id' | 'version'>);
-
-export type RunPatchBody = {
-  version: number;
-  trainId?: string;
-  cabId?: string;
-  operatorId?: string | null;
-  note?: string;
-  depart?: string;
-  departS?: number;
-  steps?: { departS: number; arriveS: number; steps: BuilderRun['steps'] };
-};
-
-export type Move = { runId: string; version: number; delayS: number };
-
 const base = (sessionId: string) => `/api/sessions/${encodeURIComponent(sessionId)}`;
 
 export const timetableApi = {
   snapshot: (sessionId: string) => call<BuilderSnapshot>('GET', `${base(sessionId)}/runs`),
   // 'no-cache': the browser revalidates its copy with the ETag, and an unchanged profile answers 304.
   load: (sessionId: string) => call<{ load: CompactLoad }>('GET', `${base(sessionId)}/check?only=load`, undefined, 'no-cache'),
-  createRun: (sessionId: string, body: NewRunBody) => call<BuilderChange>('POST', `${base(sessionId)}/runs`, body),
-  patchRun: (sessionId: string, runId: string, body: RunPatchBody) =>
+  createRun: (sessionId: string, body: CreateRunBody) => call<BuilderChange>('POST', `${base(sessionId)}/runs`, body),
+  patchRun: (sessionId: string, runId: string, body: UpdateRunBody) =>
     call<BuilderChange>('PATCH', `${base(sessionId)}/runs/${encodeURIComponent(runId)}`, body),
   deleteRun: (sessionId: string, runId: string, version: number) =>
     call<BuilderChange>('DELETE', `${base(sessionId)}/runs/${encodeURIComponent(runId)}?version=${version}`),
-  series: (sessionId: string, runId: string, body: { everyFastMin: number; count: number }) =>
+  series: (sessionId: string, runId: string, body: SeriesBody) =>
     call<BuilderChange>('POST', `${base(sessionId)}/runs/${encodeURIComponent(runId)}/series`, body),
   suggestRetime: (sessionId: string) => call<{ moves: RetimeSuggestion[] }>('GET', `${base(sessionId)}/retime`),
   applyRetime: (sessionId: string, moves: Move[]) => call<BuilderChange>('POST', `${base(sessionId)}/retime`, { moves }),

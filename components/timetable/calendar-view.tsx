@@ -8,7 +8,7 @@ import { useMemo } from 'react';
 import type { Highlight } from '@/lib/sessions/highlight';
 import { fastLabel, MAX_VIEW_S, type SessionClock } from '@/lib/sessions/time-labels';
 import { floatingIso } from '@/lib/time-zone';
-import type { BuilderRun } from '@/lib/sessions/types';
+import type { Run } from '@/lib/runs/schema';
 
 const pad = (n: number) => String(n).padStart(2, '0');
 /** `HH:MM:SS` for a number of seconds after the session day's midnight (may pass 24 h). */
@@ -31,16 +31,16 @@ export function CalendarView({
   onSelectRun,
   onMoveRun,
 }: {
-  runs: BuilderRun[];
+  runs: Run[];
   clock: SessionClock;
   endsAtMs: number;
   clashing: Set<string>;
   highlight?: Highlight;
-  colorOf: (run: BuilderRun) => string;
-  label: (run: BuilderRun) => string;
+  colorOf: (run: Run) => string;
+  label: (run: Run) => string;
   canEdit: boolean;
   onSelectRun: (runId: string) => void;
-  onMoveRun: (run: BuilderRun, departS: number) => void;
+  onMoveRun: (run: Run, departS: number) => void;
 }) {
   const startIso = floatingIso(clock.startsAtMs, clock.timeZone);
   const day = startIso.slice(0, 10);

@@ -1,7 +1,8 @@
 'use client';
 
 import { fastLabel, realLabel, type SessionClock } from '@/lib/sessions/time-labels';
-import type { BuilderLayout, BuilderRun } from '@/lib/sessions/types';
+import type { BuilderLayout } from '@/lib/sessions/types';
+import type { Run } from '@/lib/runs/schema';
 import { Button } from '@/components/ui/button';
 import { routeSummary } from './run-names';
 
@@ -16,7 +17,7 @@ export function PrintView({
 }: {
   title: string;
   dateLabel: string;
-  runs: BuilderRun[];
+  runs: Run[];
   layout: BuilderLayout;
   clock: SessionClock;
   clashing: Set<string>;

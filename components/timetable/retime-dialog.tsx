@@ -7,7 +7,8 @@ import { fastLabel, fastMinutes, realLabel, type SessionClock } from '@/lib/sess
 import type { RetimeSuggestion } from '@/lib/sessions/types';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
-import { timetableApi, type Move } from './api';
+import type { Move } from '@/lib/runs/schema';
+import { timetableApi } from './api';
 import { timetableKeys } from './query-keys';
 import { describeError } from './use-timetable';
 

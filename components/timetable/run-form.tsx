@@ -5,10 +5,10 @@ import type { FastClock } from '@/lib/planning';
 import { HH_MM_PATTERN } from '@/lib/planning/clock';
 import { routeThrough } from '@/lib/planning/route';
 import { carryOnFrom } from '@/lib/sessions/carry-on';
-import type { BuilderLayout, BuilderRun } from '@/lib/sessions/types';
+import type { BuilderLayout } from '@/lib/sessions/types';
+import type { CreateRunBody, Run } from '@/lib/runs/schema';
 import { Button } from '@/components/ui/button';
 import { Field, Select, TextInput } from '@/components/ui/field';
-import type { NewRunBody } from './api';
 
 const STAND_BEFORE_S = '60';
 
@@ -29,12 +29,12 @@ export function RunForm({
 }: {
   layout: BuilderLayout;
   /** The session's runs, to carry on from. */
-  runs: readonly BuilderRun[];
+  runs: readonly Run[];
   clock: FastClock;
   /** The departure offered for a train with no runs yet. */
   suggestedDepart: string;
   /** Adds the run; the run made, or null when it was not added. */
-  onSubmit: (body: NewRunBody, label: string) => Promise<BuilderRun | null>;
+  onSubmit: (body: CreateRunBody, label: string) => Promise<Run | null>;
   pending: boolean;
 }) {
   const firstTrain = layout.trains[0]?.id ?? '';
@@ -53,7 +53,7 @@ export function RunForm({
   const [errors, setErrors] = useState<Record<string, string>>({});
 
   /** Departure and route start carried on from a train's last run (or the plain suggestion). */
-  const carryOn = (forTrain: string, among: readonly BuilderRun[]) => {
+  const carryOn = (forTrain: string, among: readonly Run[]) => {
     const next = carryOnFrom(among, forTrain, clock, Number(standBefore) >= 0 ? Number(standBefore) : 0);
     setDepart(next?.depart ?? suggestedDepart);
     setWaypoints(next ? [next.fromBlockId] : []);

@@ -2,7 +2,8 @@
 
 import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import { fastLabel, fastLabelSeconds, fastTextToReal, realLabel, type SessionClock } from '@/lib/sessions/time-labels';
-import type { BuilderLayout, BuilderRun } from '@/lib/sessions/types';
+import type { BuilderLayout } from '@/lib/sessions/types';
+import type { Run } from '@/lib/runs/schema';
 import { Button } from '@/components/ui/button';
 import { Badge } from '@/components/ui/card';
 import { inputClass } from '@/components/ui/field';
@@ -10,16 +11,16 @@ import { inputClass } from '@/components/ui/field';
 // The form input look without its full width, for inputs that sit in a row.
 const compact = inputClass.replace('w-full', '').replace('px-3 py-2', 'px-2 py-1');
 import { routeSummary } from './run-names';
-import type { RunPatchBody } from './api';
+import type { UpdateRunBody } from '@/lib/runs/schema';
 
 type Actions = {
-  onPatch: (run: BuilderRun, body: Omit<RunPatchBody, 'version'>) => void;
-  onDelete: (run: BuilderRun) => void;
-  onSeries: (run: BuilderRun, everyFastMin: number, count: number) => void;
+  onPatch: (run: Run, body: Omit<UpdateRunBody, 'version'>) => void;
+  onDelete: (run: Run) => void;
+  onSeries: (run: Run, everyFastMin: number, count: number) => void;
   onSelect: (runId: string) => void;
 };
 
-function DepartureInput({ run, clock, onPatch, label }: { run: BuilderRun; clock: SessionClock; onPatch: Actions['onPatch']; label: string }) {
+function DepartureInput({ run, clock, onPatch, label }: { run: Run; clock: SessionClock; onPatch: Actions['onPatch']; label: string }) {
   const shown = fastLabel(run.departS, clock);
   const [value, setValue] = useState(shown);
   const [error, setError] = useState(false);
@@ -52,7 +53,7 @@ function DepartureInput({ run, clock, onPatch, label }: { run: BuilderRun; clock
   );
 }
 
-function StepsEditor({ run, layout, clock, onPatch }: { run: BuilderRun; layout: BuilderLayout; clock: SessionClock; onPatch: Actions['onPatch'] }) {
+function StepsEditor({ run, layout, clock, onPatch }: { run: Run; layout: BuilderLayout; clock: SessionClock; onPatch: Actions['onPatch'] }) {
   const [rows, setRows] = useState(() => run.steps.map((s) => ({ blockId: s.blockId, enter: fastLabelSeconds(s.enterS, clock), exit: fastLabelSeconds(s.exitS, clock) })));
   const [error, setError] = useState<string>();
   const save = () => {
@@ -111,7 +112,7 @@ function StepsEditor({ run, layout, clock, onPatch }: { run: BuilderRun; layout:
   );
 }
 
-function SeriesForm({ run, onSeries }: { run: BuilderRun; onSeries: Actions['onSeries'] }) {
+function SeriesForm({ run, onSeries }: { run: Run; onSeries: Actions['onSeries'] }) {
   const [every, setEvery] = useState('30');
   const [count, setCount] = useState('3');
   const [error, setError] = useState<string>();
@@ -144,7 +145,7 @@ function SeriesForm({ run, onSeries }: { run: BuilderRun; onSeries: Actions['onS
 }
 
 type RowProps = {
-  run: BuilderRun;
+  run: Run;
   layout: BuilderLayout;
   clock: SessionClock;
   clash: boolean;
@@ -262,7 +263,7 @@ export function RunTable({
   canEdit,
   actions,
 }: {
-  runs: BuilderRun[];
+  runs: Run[];
   layout: BuilderLayout;
   clock: SessionClock;
   clashing: Set<string>;

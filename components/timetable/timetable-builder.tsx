@@ -8,7 +8,8 @@ import type { Finding } from '@/lib/planning';
 import { clashingRuns, highlightOf, type Highlight } from '@/lib/sessions/highlight';
 import { fastLabel, viewLengthS, type SessionClock } from '@/lib/sessions/time-labels';
 import { expandSnapshot, type CompactSnapshot } from '@/lib/sessions/compact';
-import type { BuilderLayout, BuilderRun, SessionStatus } from '@/lib/sessions/types';
+import type { BuilderLayout, SessionStatus } from '@/lib/sessions/types';
+import type { Run } from '@/lib/runs/schema';
 import { CheckSummary, StatusForm } from '@/components/sessions/session-form';
 import { Button } from '@/components/ui/button';
 import { Card, CardSkeleton, Notice } from '@/components/ui/card';
@@ -104,7 +105,7 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
     [runs, trainName, clock],
   );
   const colorOf = useCallback(
-    (run: BuilderRun) => {
+    (run: Run) => {
       const list = colorBy === 'cab' ? layout.cabs.map((c) => c.id) : layout.operators.map((o) => o.id);
       const key = colorBy === 'cab' ? run.cabId : run.operatorId;
       const i = key ? list.indexOf(key) : -1;
@@ -113,7 +114,7 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
     [colorBy, layout.cabs, layout.operators],
   );
   const calendarLabel = useCallback(
-    (run: BuilderRun) => {
+    (run: Run) => {
       const who = colorBy === 'cab' ? layout.cabs.find((c) => c.id === run.cabId)?.name : layout.operators.find((o) => o.id === run.operatorId)?.name ?? 'no operator';
       return `${trainName(run.trainId)} · ${who}`;
     },
@@ -132,7 +133,7 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
     return { runIds: new Set([run.id]), blockIds: new Set(), cabIds: new Set([run.cabId]), fromS: run.departS, toS: run.arriveS };
   }, [selected, runs, layout]);
 
-  const move = (run: BuilderRun, departS: number) =>
+  const move = (run: Run, departS: number) =>
     void t.change({ type: 'patch', run, body: { version: run.version, departS }, label: runLabel(run.id) });
   const selectRun = (runId: string) => setSelected((s) => (s.runId === runId && !s.finding ? {} : { runId }));
 

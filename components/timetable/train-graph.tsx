@@ -4,22 +4,23 @@ import { memo, useEffect, useMemo, useRef, useState, type PointerEvent as ReactP
 import type { Finding } from '@/lib/planning';
 import type { Highlight } from '@/lib/sessions/highlight';
 import { fastLabel, realLabel, type SessionClock } from '@/lib/sessions/time-labels';
-import type { BuilderLayout, BuilderRun } from '@/lib/sessions/types';
+import type { BuilderLayout } from '@/lib/sessions/types';
+import type { Run } from '@/lib/runs/schema';
 import { Button } from '@/components/ui/button';
 
 type Props = {
   layout: BuilderLayout;
-  runs: BuilderRun[];
+  runs: Run[];
   findings: Finding[];
   clock: SessionClock;
   sessionLengthS: number;
   clashing: Set<string>;
   highlight?: Highlight;
-  colorOf: (run: BuilderRun) => string;
+  colorOf: (run: Run) => string;
   trainName: (id: string) => string;
   canEdit: boolean;
   onSelectRun: (runId: string) => void;
-  onMoveRun: (run: BuilderRun, departS: number) => void;
+  onMoveRun: (run: Run, departS: number) => void;
   /** The drawing's height in px (the planner resizes it); without it each stretch of line gets ROW px. */
   height?: number;
 };
@@ -142,7 +143,7 @@ export function TrainGraph(props: Props) {
   const secondsPerPx = (t1 - t0) / plotWidth;
 
   /** Points of one run: the head's position along the line over time. */
-  const pathOf = (run: BuilderRun, shiftS = 0) => {
+  const pathOf = (run: Run, shiftS = 0) => {
     const pts: [number, number][] = [];
     const steps = run.steps;
     const pos = (id: string) => blockById.get(id);

@@ -2,19 +2,20 @@
 
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useCallback, useRef, useState } from 'react';
-import type { BuilderChange, BuilderRun, BuilderSnapshot } from '@/lib/sessions/types';
-import { ApiError, timetableApi, type Move, type NewRunBody, type RunPatchBody } from './api';
+import type { BuilderChange, BuilderSnapshot } from '@/lib/sessions/types';
+import { restoreEdit, runFieldsOf, shiftTiming, type CreateRunBody, type Move, type Run, type UpdateRunBody } from '@/lib/runs/schema';
+import { ApiError, timetableApi } from './api';
 import { timetableKeys } from './query-keys';
 
 /** One change the builder can make; each knows how to take itself back. */
 export type TimetableAction =
-  | { type: 'create'; body: NewRunBody; label: string }
-  | { type: 'patch'; run: BuilderRun; body: RunPatchBody; label: string }
-  | { type: 'delete'; run: BuilderRun; label: string }
-  | { type: 'series'; run: BuilderRun; everyFastMin: number; count: number; label: string }
+  | { type: 'create'; body: CreateRunBody; label: string }
+  | { type: 'patch'; run: Run; body: UpdateRunBody; label: string }
+  | { type: 'delete'; run: Run; label: string }
+  | { type: 'series'; run: Run; everyFastMin: number; count: number; label: string }
   | { type: 'retime'; moves: Move[]; label: string }
   | { type: 'undo-retime'; moves: Move[]; label: string }
-  | { type: 'delete-many'; runs: BuilderRun[]; label: string };
+  | { type: 'delete-many'; runs: Run[]; label: string };
 
 export type Undoable = { label: string; action: TimetableAction };
 
@@ -27,19 +28,6 @@ function snapshotPart(change: BuilderChange): BuilderSnapshot {
     totals: change.totals,
     truncated: change.truncated,
     checkMs: change.checkMs,
-  };
-}
-
-function restoreBody(run: BuilderRun): NewRunBody {
-  return {
-    trainId: run.trainId,
-    cabId: run.cabId,
-    operatorId: run.operatorId,
-    departS: run.departS,
-    arriveS: run.arriveS,
-    speedKmh: run.speedKmh,
-    note: run.note,
-    steps: run.steps,
   };
 }
 
@@ -80,21 +68,14 @@ function undoOf(action: TimetableAction, change: BuilderChange): Undoable | unde
           type: 'patch',
           run: now,
           label: action.label,
-          body: {
-            version: now.version,
-            trainId: before.trainId,
-            cabId: before.cabId,
-            operatorId: before.operatorId,
-            note: before.note,
-            steps: { departS: before.departS, arriveS: before.arriveS, steps: before.steps },
-          },
+          body: restoreEdit(before, now.version),
         },
       };
     }
     case 'delete':
-      return { label: `Deleted ${action.label}`, action: { type: 'create', body: restoreBody(action.run), label: action.label } };
+      return { label: `Deleted ${action.label}`, action: { type: 'create', body: runFieldsOf(action.run), label: action.label } };
     case 'series': {
-      const made = (change.createdIds ?? []).map((id) => change.runs.find((r) => r.id === id)).filter((r): r is BuilderRun => Boolean(r));
+      const made = (change.createdIds ?? []).map((id) => change.runs.find((r) => r.id === id)).filter((r): r is Run => Boolean(r));
       return { label: `Added ${made.length} copies of ${action.label}`, action: { type: 'delete-many', runs: made, label: action.label } };
     }
     case 'retime':
@@ -109,16 +90,12 @@ function undoOf(action: TimetableAction, change: BuilderChange): Undoable | unde
 function optimistic(snapshot: BuilderSnapshot, action: TimetableAction): BuilderSnapshot | undefined {
   if (action.type === 'delete') return { ...snapshot, runs: snapshot.runs.filter((r) => r.id !== action.run.id) };
   if (action.type === 'patch') {
-    const { body, run } = action;
-    const delta = body.departS !== undefined ? body.departS - run.departS : 0;
-    const edited: BuilderRun = {
+    const { run } = action;
+    const { version: _version, depart: _depart, departS, timing: _timing, steps, ...attributes } = action.body;
+    const edited: Run = {
       ...run,
-      ...(body.cabId !== undefined ? { cabId: body.cabId } : {}),
-      ...(body.operatorId !== undefined ? { operatorId: body.operatorId } : {}),
-      ...(body.trainId !== undefined ? { trainId: body.trainId } : {}),
-      departS: run.departS + delta,
-      arriveS: run.arriveS + delta,
-      steps: body.steps ? body.steps.steps : run.steps.map((s) => ({ ...s, enterS: s.enterS + delta, exitS: s.exitS + delta })),
+      ...Object.fromEntries(Object.entries(attributes).filter(([, v]) => v !== undefined)),
+      ...(steps ?? shiftTiming(run, departS !== undefined ? departS - run.departS : 0)),
     };
     return { ...snapshot, runs: snapshot.runs.map((r) => (r.id === run.id ? edited : r)) };
   }

@@ -6,21 +6,16 @@ import { runs, runSteps } from '@/db/schema';
 /** A step as stored; fromEnd/toEnd: the direction of travel, when the route finder recorded it. */
 export type StepValues = { blockId: string; enterS: number; exitS: number; fromEnd?: 'a' | 'b'; toEnd?: 'a' | 'b' };
 
-/** A run as the builder sees it: its row and its steps in order. */
-export type StoredRun = {
-  id: string;
-  version: number;
-  trainId: string;
-  cabId: string;
-  operatorId: string | null;
-  departS: number;
-  arriveS: number;
-  speedKmh: number | null;
-  note: string;
-  steps: StepValues[];
-};
+/** A run as stored: its row (without the session it belongs to) and its steps in order. */
+export type StoredRun = Omit<typeof runs.$inferSelect, 'sessionId'> & { steps: StepValues[] };
 
 export type RunValues = Omit<StoredRun, 'id' | 'version'> & { id?: string };
+
+/**
+ * What every versioned write answers: done, or the runs as they are now when a version named was
+ * stale (nothing changed), or the ids that are not this session's runs.
+ */
+export type VersionedWrite<T> = { done: T } | { stale: StoredRun[] } | { missing: string[] };
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
@@ -61,16 +56,17 @@ export function getRun(sessionId: string, runId: string): StoredRun | undefined 
   return readRun(getDb(), sessionId, runId);
 }
 
+/** Writes one run and its steps inside a transaction (the seed uses it too); returns its id. */
+export function writeRun(tx: Tx, sessionId: string, values: RunValues): string {
+  const { steps, ...row } = values;
+  const id = tx.insert(runs).values({ ...row, sessionId }).returning({ id: runs.id }).get().id;
+  writeSteps(tx, id, steps);
+  return id;
+}
+
 /** Inserts runs with their steps in one transaction; returns their ids in order. */
 export function insertRuns(sessionId: string, values: readonly RunValues[]): string[] {
-  return writeTransaction((tx) =>
-    values.map((v) => {
-      const { steps, ...row } = v;
-      const id = tx.insert(runs).values({ ...row, sessionId }).returning({ id: runs.id }).get().id;
-      writeSteps(tx, id, steps);
-      return id;
-    }),
-  );
+  return writeTransaction((tx) => values.map((v) => writeRun(tx, sessionId, v)));
 }
 
 export type RunPatch = Partial<Omit<StoredRun, 'id' | 'version' | 'steps'>> & { steps?: StepValues[] };
@@ -84,11 +80,11 @@ export function updateRun(
   runId: string,
   version: number,
   patch: RunPatch,
-): { run: StoredRun } | { stale: StoredRun } | { missing: true } {
+): VersionedWrite<StoredRun> {
   return writeTransaction((tx) => {
     const current = readRun(tx, sessionId, runId);
-    if (!current) return { missing: true as const };
-    if (current.version !== version) return { stale: current };
+    if (!current) return { missing: [runId] };
+    if (current.version !== version) return { stale: [current] };
     const { steps, ...row } = patch;
     tx.update(runs)
       .set({ ...row, version: current.version + 1 })
@@ -98,7 +94,7 @@ export function updateRun(
       tx.delete(runSteps).where(eq(runSteps.runId, runId)).run();
       writeSteps(tx, runId, steps);
     }
-    return { run: readRun(tx, sessionId, runId)! };
+    return { done: readRun(tx, sessionId, runId)! };
   });
 }
 
@@ -107,13 +103,13 @@ export function deleteRun(
   sessionId: string,
   runId: string,
   version: number,
-): { deleted: StoredRun } | { stale: StoredRun } | { missing: true } {
+): VersionedWrite<StoredRun> {
   return writeTransaction((tx) => {
     const current = readRun(tx, sessionId, runId);
-    if (!current) return { missing: true as const };
-    if (current.version !== version) return { stale: current };
+    if (!current) return { missing: [runId] };
+    if (current.version !== version) return { stale: [current] };
     tx.delete(runs).where(eq(runs.id, runId)).run();
-    return { deleted: current };
+    return { done: current };
   });
 }
 
@@ -124,7 +120,7 @@ export function deleteRun(
 export function shiftRuns(
   sessionId: string,
   moves: readonly { runId: string; version: number; delayS: number }[],
-): { shifted: StoredRun[] } | { stale: StoredRun[] } | { missing: string[] } {
+): VersionedWrite<StoredRun[]> {
   return writeTransaction((tx) => {
     const ids = moves.map((m) => m.runId);
     const rows = tx
@@ -153,7 +149,7 @@ export function shiftRuns(
       );
       shifted.push(readRun(tx, sessionId, move.runId)!);
     }
-    return { shifted };
+    return { done: shifted };
   });
 }
 
@@ -167,15 +163,10 @@ export function replaceSessionRuns(sessionId: string, values: readonly RunValues
     tx.delete(runs).where(eq(runs.sessionId, sessionId)).run();
     const used = new Set<string>();
     for (const v of values) {
-      const { steps, id, ...row } = v;
+      const { id, ...fields } = v;
       const keep = id && own.has(id) && !used.has(id) ? id : undefined;
       if (keep) used.add(keep);
-      const runId = tx
-        .insert(runs)
-        .values({ ...row, ...(keep ? { id: keep } : {}), sessionId })
-        .returning({ id: runs.id })
-        .get().id;
-      writeSteps(tx, runId, steps);
+      writeRun(tx, sessionId, { ...fields, ...(keep ? { id: keep } : {}) });
     }
     return values.length;
   });

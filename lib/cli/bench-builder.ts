@@ -34,7 +34,9 @@ async function main() {
   (globalThis as unknown as { fishplateDb?: typeof db }).fishplateDb = db;
   const { sessionId } = seedDemoRailway(db, { passwordHash: 'not-used' });
 
-  const { snapshotOf, loadSessionPlan, assertRunsValid } = await import('@/lib/sessions/builder');
+  const { snapshotOf, loadSessionPlan } = await import('@/lib/sessions/builder');
+  const { assertRunsValid } = await import('@/lib/runs/rules');
+  const { shiftTiming } = await import('@/lib/runs/schema');
   const { copySession } = await import('@/db/queries/session-records');
   const { replaceSessionRuns, updateRun, getRun } = await import('@/db/queries/runs');
 
@@ -45,16 +47,7 @@ async function main() {
   const values = Array.from({ length: RUNS }, (_, i) => {
     const run = demo[i % demo.length]!;
     const shift = Math.floor(i / demo.length) * 1020;
-    return {
-      trainId: run.trainId,
-      cabId: run.cabId,
-      operatorId: run.operatorId,
-      departS: run.departS + shift,
-      arriveS: run.arriveS + shift,
-      speedKmh: null,
-      note: '',
-      steps: run.steps.map((s) => ({ blockId: s.blockId, enterS: s.enterS + shift, exitS: s.exitS + shift })),
-    };
+    return { trainId: run.trainId, cabId: run.cabId, operatorId: run.operatorId, speedKmh: null, note: '', ...shiftTiming(run, shift) };
   });
   replaceSessionRuns(big.id, values);
 

@@ -5,6 +5,7 @@ import * as t from '@/db/schema';
 import { demoWiringSheet } from './demo-wiring';
 import { presetDriverValues } from '@/lib/layouts/driver-electrics';
 import { DRIVER_PRESETS, findRoute, timeRun, type DriverPreset } from '@/lib/planning';
+import type { RunFields } from '@/lib/runs/schema';
 
 // The demo railway is a scenario of our own invention: the club, its places and its people are
 // made up. Currents are the common-practice figures of the reference notes (an HO can motor runs
@@ -172,22 +173,24 @@ function insertDemoRun(
     standBeforeS: spec.standBeforeS,
     standAfterS: spec.standAfterS,
   });
+  // The same record every other path writes (lib/runs/schema.ts), so a new run field shows here too.
+  const run: RunFields = {
+    trainId: ids.trainId,
+    cabId: ids.cabId,
+    operatorId: ids.operatorId,
+    departS: timed.departS,
+    arriveS: timed.arriveS,
+    speedKmh: spec.speedKmh,
+    note: '',
+    steps: timed.steps.map((step) => ({ ...step, blockId: ids.blockId(step.blockId) })),
+  };
+  const { steps, ...row } = run;
   const runId = tx
     .insert(t.runs)
-    .values({
-      sessionId: ids.sessionId,
-      trainId: ids.trainId,
-      cabId: ids.cabId,
-      operatorId: ids.operatorId,
-      departS: timed.departS,
-      arriveS: timed.arriveS,
-      speedKmh: spec.speedKmh,
-    })
+    .values({ ...row, sessionId: ids.sessionId })
     .returning({ id: t.runs.id })
     .get().id;
-  timed.steps.forEach((step, position) =>
-    tx.insert(t.runSteps).values({ runId, position, blockId: ids.blockId(step.blockId), enterS: step.enterS, exitS: step.exitS }).run(),
-  );
+  steps.forEach((step, position) => tx.insert(t.runSteps).values({ runId, position, ...step }).run());
 }
 
 /** Next Saturday (at least two days ahead) at 18:30 UTC — always in the future when seeded. */

@@ -4,7 +4,8 @@ import type { Session } from '@/db/schema';
 import type { Member } from '@/lib/auth';
 import { AppError } from '@/lib/errors';
 import { snapshotOf } from '@/lib/sessions/builder';
-import type { BuilderChange, BuilderRun } from '@/lib/sessions/types';
+import type { BuilderChange } from '@/lib/sessions/types';
+import type { Run } from '@/lib/runs/schema';
 
 /** Timetables of cancelled sessions stay as they were; reopen the session as a draft to change it. */
 export function assertTimetableEditable(session: Session): void {
@@ -17,7 +18,7 @@ export function assertTimetableEditable(session: Session): void {
 export function changeAnswer(sessionId: string, extra: Omit<Partial<BuilderChange>, 'runs'> & { runId?: string } = {}): BuilderChange {
   const snapshot = snapshotOf(sessionId);
   const { runId, ...rest } = extra;
-  const run: BuilderRun | undefined = runId ? snapshot.runs.find((r) => r.id === runId) : undefined;
+  const run: Run | undefined = runId ? snapshot.runs.find((r) => r.id === runId) : undefined;
   return { ...snapshot, ...rest, ...(run ? { run } : {}) };
 }
 

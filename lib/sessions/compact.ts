@@ -3,7 +3,8 @@
 // and blocks by their place in the layout the page also sends (ids once), and its steps are one flat
 // array. Plain functions, no server imports: the page encodes, the builder decodes in the browser.
 import type { LoadProfile, LoadSeries } from '@/lib/planning';
-import type { BuilderLayout, BuilderRun, BuilderSnapshot } from '@/lib/sessions/types';
+import type { BuilderLayout, BuilderSnapshot } from '@/lib/sessions/types';
+import type { Run } from '@/lib/runs/schema';
 
 /** An id as its place in a layout list, or the id itself when the list does not hold it. */
 type Ref = number | string;
@@ -49,8 +50,8 @@ export function expandSnapshot(compact: CompactSnapshot, layout: BuilderLayout):
   const cab = resolver(layout.cabs);
   const operator = resolver(layout.operators);
   const block = resolver(layout.blocks);
-  const runs: BuilderRun[] = compact.runs.map(([id, version, trainRef, cabRef, operatorRef, departS, arriveS, speedKmh, note, flat]) => {
-    const steps: BuilderRun['steps'] = [];
+  const runs: Run[] = compact.runs.map(([id, version, trainRef, cabRef, operatorRef, departS, arriveS, speedKmh, note, flat]) => {
+    const steps: Run['steps'] = [];
     for (let i = 0; i + 2 < flat.length; i += 3) {
       steps.push({ blockId: block(flat[i]!), enterS: Number(flat[i + 1]), exitS: Number(flat[i + 2]) });
     }

@@ -2,24 +2,9 @@
 // only, so client code can import them without pulling in anything from the server.
 import type { Finding, FindingKind } from '@/lib/planning';
 import type { SessionStatus } from '@/db/enums';
+import type { Move, Run } from '@/lib/runs/schema';
 
 export type { SessionStatus };
-
-export type BuilderStep = { blockId: string; enterS: number; exitS: number };
-
-export type BuilderRun = {
-  id: string;
-  version: number;
-  trainId: string;
-  cabId: string;
-  operatorId: string | null;
-  /** Real seconds from the session's start. */
-  departS: number;
-  arriveS: number;
-  speedKmh: number | null;
-  note: string;
-  steps: BuilderStep[];
-};
 
 export type BuilderSession = {
   id: string;
@@ -41,7 +26,7 @@ export type BuilderSession = {
 /** The session as stored, with the engine's findings for it (its load profile: `GET …/check?only=load`). */
 export type BuilderSnapshot = {
   session: BuilderSession;
-  runs: BuilderRun[];
+  runs: Run[];
   /** The findings listed (capped: see `counts`). */
   findings: Finding[];
   /** How many findings of each kind there are, listed or not. */
@@ -56,14 +41,14 @@ export type BuilderSnapshot = {
 
 /** What a change answers: the new snapshot, and what to send to take the change back. */
 export type BuilderChange = BuilderSnapshot & {
-  run?: BuilderRun;
-  runs: BuilderRun[];
+  run?: Run;
+  runs: Run[];
   /** Runs created by the change (a series). */
   createdIds?: string[];
   /** A deleted run, as the body that puts it back. */
-  deleted?: BuilderRun;
+  deleted?: Run;
   /** Moves that undo a retime. */
-  undo?: { runId: string; version: number; delayS: number }[];
+  undo?: Move[];
 };
 
 /** The layout and crew the builder draws with; loaded once with the page. */

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { driverSchema, locomotiveSchema, supplySchema } from '@/lib/validations/layout';
-import { createRunSchema, seriesSchema, sessionSettingsSchema } from '@/lib/validations/session';
+import { createRunSchema, seriesSchema } from '@/lib/runs/schema';
+import { sessionSettingsSchema } from '@/lib/validations/session';
 import {
   DRIVER_BOUNDS,
   LOCOMOTIVE_BOUNDS,

@@ -15,14 +15,8 @@ import {
   trainSchema,
 } from '@/lib/validations/layout';
 import { clockActionSchema, livePollSchema, repairSchema, reportQuerySchema, reportSchema } from '@/lib/validations/live';
-import {
-  createRunSchema,
-  duplicateSessionSchema,
-  retimeMovesSchema,
-  sessionSettingsSchema,
-  sessionStatusSchema,
-  updateRunSchema,
-} from '@/lib/validations/session';
+import { createRunSchema, retimeMovesSchema, updateRunSchema } from '@/lib/runs/schema';
+import { duplicateSessionSchema, sessionSettingsSchema, sessionStatusSchema } from '@/lib/validations/session';
 
 // Each refusal here has exactly one bad field in an otherwise valid input, and names that field alone
 // (the limits themselves are probed against the tests' own table in validation-bounds.test.ts).

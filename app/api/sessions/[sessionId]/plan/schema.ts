@@ -1,4 +1,4 @@
-export { planSchema as postPlanSchema } from '@/lib/planning';
+export { postedPlanSchema as postPlanSchema } from '@/lib/runs/schema';
 export { sessionParamsSchema } from '@/lib/validations/session';
 
 /** A plan of a few thousand runs fits well inside this. */

@@ -1,8 +1,7 @@
 import { parseOrThrow, readJson } from '@/lib/errors';
 import { handler } from '@/lib/http';
 import { requireSession } from '@/lib/sessions/access';
-import { assertTimetableEditable } from '@/lib/sessions/changes';
-import { applyMoves, retimeSuggestions } from '@/lib/sessions/retime';
+import { applyMoves, retimeSuggestions } from '@/lib/runs/retime';
 import { retimeMovesSchema, sessionParamsSchema } from './schema';
 
 export const dynamic = 'force-dynamic';
@@ -19,10 +18,8 @@ const suggest = handler<Params>(async (_request, { params }) => {
 /** Applies delays (usually the suggested ones) in one transaction; answers with the moves that undo them. */
 const apply = handler<Params>(async (request, { params }) => {
   const { sessionId } = parseOrThrow(sessionParamsSchema, await params);
-  const { session, member } = await requireSession(sessionId, 'edit');
-  assertTimetableEditable(session);
   const { moves } = parseOrThrow(retimeMovesSchema, await readJson(request));
-  return Response.json(applyMoves(session, member, moves, 'retime'));
+  return Response.json(await applyMoves(sessionId, moves, 'retime'));
 });
 
 export { suggest as GET, apply as POST };

@@ -1,1 +1,2 @@
-export { retimeMovesSchema, sessionParamsSchema } from '@/lib/validations/session';
+export { retimeMovesSchema } from '@/lib/runs/schema';
+export { sessionParamsSchema } from '@/lib/validations/session';

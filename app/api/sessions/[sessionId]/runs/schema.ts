@@ -1,1 +1,2 @@
-export { createRunSchema, sessionParamsSchema } from '@/lib/validations/session';
+export { createRunSchema } from '@/lib/runs/schema';
+export { sessionParamsSchema } from '@/lib/validations/session';

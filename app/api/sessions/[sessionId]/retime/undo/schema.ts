@@ -1,1 +1,2 @@
-export { retimeMovesSchema as undoRetimeSchema, sessionParamsSchema } from '@/lib/validations/session';
+export { retimeMovesSchema as undoRetimeSchema } from '@/lib/runs/schema';
+export { sessionParamsSchema } from '@/lib/validations/session';

@@ -1,1 +1,2 @@
-export { runParamsSchema, seriesSchema } from '@/lib/validations/session';
+export { seriesSchema } from '@/lib/runs/schema';
+export { runParamsSchema } from '@/lib/validations/session';

@@ -1,13 +1,13 @@
 import 'server-only';
 import { shiftRuns } from '@/db/queries/runs';
 import type { Session } from '@/db/schema';
-import type { Member } from '@/lib/auth';
-import { AppError, conflict, notFound } from '@/lib/errors';
+import { AppError } from '@/lib/errors';
 import { suggestRetime } from '@/lib/planning';
 import { loadSessionPlan, sessionLengthS } from '@/lib/sessions/builder';
 import { auditRunChange, changeAnswer } from '@/lib/sessions/changes';
 import type { BuilderChange, RetimeSuggestion } from '@/lib/sessions/types';
-import type { RetimeMoves } from '@/lib/validations/session';
+import type { RetimeMoves } from '@/lib/runs/schema';
+import { editableTimetable, settle } from '@/lib/runs/service';
 
 /** suggestRetime's delays for the stored session, as a diff of departures with the versions they apply to. */
 export function retimeSuggestions(sessionId: string): RetimeSuggestion[] {
@@ -42,15 +42,14 @@ function assertMovesInWindow(session: Session, moves: RetimeMoves): void {
  * Shifts runs by the given delays in one transaction (all or nothing: a stale version answers 409
  * with the runs as they are now). The answer carries the moves that take it back.
  */
-export function applyMoves(session: Session, member: Member, moves: RetimeMoves, action: 'retime' | 'undo-retime'): BuilderChange {
+export async function applyMoves(sessionId: string, moves: RetimeMoves, action: 'retime' | 'undo-retime'): Promise<BuilderChange> {
+  const { session, member } = await editableTimetable(sessionId);
   if (new Set(moves.map((m) => m.runId)).size !== moves.length) {
     throw new AppError('bad_request', 'Each run may be moved once per request.');
   }
   assertMovesInWindow(session, moves);
-  const result = shiftRuns(session.id, moves);
-  if ('missing' in result) throw notFound(`Run ${result.missing[0]}`);
-  if ('stale' in result) throw conflict(result.stale);
+  const shifted = settle(shiftRuns(session.id, moves));
   auditRunChange(member, action, null, { sessionId: session.id, runs: moves.length });
-  const undo = result.shifted.map((r) => ({ runId: r.id, version: r.version, delayS: -moves.find((m) => m.runId === r.id)!.delayS }));
+  const undo = shifted.map((r) => ({ runId: r.id, version: r.version, delayS: -moves.find((m) => m.runId === r.id)!.delayS }));
   return changeAnswer(session.id, { undo });
 }
