@@ -47,7 +47,7 @@ export function ReplyForm({
       <form action={action} className="space-y-3">
         <input type="hidden" name="token" value={activeToken} />
         <label className="block text-sm">
-          <span className="font-semibold">A note for the host</span> <span className="text-muted">(optional, up to {maxComment} characters; only the host and planners see it)</span>
+          <span className="font-semibold">A note for the host</span> <span className="text-muted">(optional, up to {maxComment} characters; only the host sees it)</span>
           <textarea name="comment" rows={2} maxLength={maxComment} defaultValue={comment} className={`${inputClass} mt-1`} placeholder="e.g. I can come after 19:00" />
         </label>
         <div className="flex flex-col gap-2 sm:flex-row">

@@ -183,7 +183,7 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
                             <span className="block text-xs text-muted sm:hidden">{formatInZone(inv.respondedAt, zone, { weekday: undefined, year: undefined })}</span>
                           ) : null}
                           {inv.remindedAt ? (
-                            <span className="block text-xs text-muted" data-testid="reminded">
+                            <span className="block whitespace-normal text-xs text-muted" data-testid="reminded">
                               reminded {short(inv.remindedAt)}{inv.reminderCount > 1 ? ` (${inv.reminderCount}×)` : ''}
                             </span>
                           ) : null}
@@ -213,7 +213,7 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
           )}
           <p className="mt-3 text-xs text-muted">
             “Not sent yet” means the person is on the list but no e-mail was written for them. Replies and their notes appear
-            here as they arrive (notes are for the host and planners only); this page refreshes itself.
+            here as they arrive (notes are for the host only); this page refreshes itself.
           </p>
         </Card>
         <div className="space-y-6">
