@@ -2,7 +2,7 @@
 
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useRouter } from 'next/navigation';
-import { useState, useTransition } from 'react';
+import { Fragment, useState, useTransition } from 'react';
 import { useForm } from 'react-hook-form';
 import { createLink, deleteLink } from '@/app/(app)/railways/[railwayId]/layouts/[layoutId]/actions';
 import { Button } from '@/components/ui/button';
@@ -80,44 +80,34 @@ export function LinksPanel({
     <div className="space-y-4">
       {canEdit ? (
         <form onSubmit={add} className="grid gap-3 sm:grid-cols-[1fr_auto_1fr_auto_auto] sm:items-end" noValidate>
-          <Field label="From block" name="blockAId" error={errors.blockAId?.message}>
-            <Select {...form.register('blockAId')} error={errors.blockAId?.message}>
-              <option value="">Choose…</option>
-              {blocks.map((b) => (
-                <option key={b.id} value={b.id}>
-                  {b.name}
-                </option>
-              ))}
-            </Select>
-          </Field>
-          <Field label="Its end" name="blockAEnd" error={errors.blockAEnd?.message}>
-            <Select {...form.register('blockAEnd')} error={errors.blockAEnd?.message}>
-              {END_OPTIONS.map((o) => (
-                <option key={o.value} value={o.value}>
-                  {o.label}
-                </option>
-              ))}
-            </Select>
-          </Field>
-          <Field label="To block" name="blockBId" error={errors.blockBId?.message}>
-            <Select {...form.register('blockBId')} error={errors.blockBId?.message}>
-              <option value="">Choose…</option>
-              {blocks.map((b) => (
-                <option key={b.id} value={b.id}>
-                  {b.name}
-                </option>
-              ))}
-            </Select>
-          </Field>
-          <Field label="At its end" name="blockBEnd" error={errors.blockBEnd?.message}>
-            <Select {...form.register('blockBEnd')} error={errors.blockBEnd?.message}>
-              {END_OPTIONS.map((o) => (
-                <option key={o.value} value={o.value}>
-                  {o.label}
-                </option>
-              ))}
-            </Select>
-          </Field>
+          {(
+            [
+              ['blockAId', 'From block', 'blockAEnd', 'Its end'],
+              ['blockBId', 'To block', 'blockBEnd', 'At its end'],
+            ] as const
+          ).map(([blockField, blockLabel, endField, endLabel]) => (
+            <Fragment key={blockField}>
+              <Field label={blockLabel} name={blockField} error={errors[blockField]?.message}>
+                <Select {...form.register(blockField)} error={errors[blockField]?.message}>
+                  <option value="">Choose…</option>
+                  {blocks.map((b) => (
+                    <option key={b.id} value={b.id}>
+                      {b.name}
+                    </option>
+                  ))}
+                </Select>
+              </Field>
+              <Field label={endLabel} name={endField} error={errors[endField]?.message}>
+                <Select {...form.register(endField)} error={errors[endField]?.message}>
+                  {END_OPTIONS.map((o) => (
+                    <option key={o.value} value={o.value}>
+                      {o.label}
+                    </option>
+                  ))}
+                </Select>
+              </Field>
+            </Fragment>
+          ))}
           <Button type="submit" disabled={pending}>
             {pending ? 'Linking…' : 'Link'}
           </Button>
