@@ -34,6 +34,8 @@ export default {
   // Two shared cores: one worker each; override with --concurrency.
   concurrency: 2,
   timeoutMS: 10_000,
+  // The first (coverage) run of the engine's tests outlasts Stryker's 5 min default on a loaded machine.
+  dryRunTimeoutMinutes: 20,
   // A static mutant (a module-level value, computed once at import) needs every test re-run in a
   // fresh module graph; on the first run of lib/ they were 17 % of the mutants and 53 % of the time.
   // They are left out of the score; `--ignoreStatic false` tests them too.
