@@ -257,12 +257,6 @@ export function WiringEditor({
                     );
                   })}
                   {pinSelect({ label: 'Polarity relay', boardId: wired.boardId, value: wired.polarityPin, path: `blocks.${i}.polarityPin`, none: 'None (not a reversing section)', onChange: (pin) => setBlock(block.id, { polarityPin: pin }) })}
-                  <TowardsPicker
-                    blocks={blocks.filter((b) => b.id !== block.id && sheet.blocks.some((w) => w.blockId === b.id))}
-                    value={wired.forwardTowards}
-                    error={[...errors].find(([k]) => k.startsWith(`blocks.${i}.forwardTowards`))?.[1]}
-                    onChange={(forwardTowards) => setBlock(block.id, { forwardTowards })}
-                  />
                 </div>
               ) : null}
             </div>
@@ -278,8 +272,6 @@ export function WiringEditor({
             ['releaseS', 'Release after the tail clears (s)', '0.1'],
             ['deadTimeMs', 'PWM at 0 before a direction change (ms)', '1'],
             ['breakMs', 'Between one relay opening and another closing (ms)', '1'],
-            ['accelerateS', 'Ramp up (s)', '0.1'],
-            ['brakeS', 'Ramp down (s)', '0.1'],
           ] as const
         ).map(([key, label, step]) => (
           <Labelled key={key} label={label} error={errors.get(`timing.${key}`)}>
@@ -295,6 +287,9 @@ export function WiringEditor({
             )}
           </Labelled>
         ))}
+        <p className="text-sm text-muted sm:col-span-3">
+          Each cab&apos;s direction comes from the layout: the train&apos;s direction of travel through each block&apos;s ends and the block&apos;s wiring (which rail gets the +), so that the right-hand rail is positive (NEM 631 2.3). Speed ramps follow each train&apos;s acceleration and braking.
+        </p>
       </fieldset>
 
       <div className="space-y-2">
@@ -383,23 +378,5 @@ function PinSelect({
         </select>
       )}
     </Labelled>
-  );
-}
-
-function TowardsPicker({ blocks, value, error, onChange }: { blocks: Named[]; value: string[]; error?: string; onChange: (ids: string[]) => void }) {
-  return (
-    <fieldset className="space-y-1 sm:col-span-2 lg:col-span-4">
-      <legend className="text-sm font-semibold">Forward leads towards</legend>
-      <div className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
-        {blocks.map((b) => (
-          <label key={b.id} className="flex items-center gap-1">
-            <input type="checkbox" checked={value.includes(b.id)} onChange={(e) => onChange(e.target.checked ? [...value, b.id] : value.filter((x) => x !== b.id))} />
-            {b.name}
-          </label>
-        ))}
-        {blocks.length === 0 ? <span className="text-muted">Wire the neighbouring blocks first.</span> : null}
-      </div>
-      {error ? <p className="text-sm text-signal" data-testid="wiring-error">{error}</p> : null}
-    </fieldset>
   );
 }

@@ -72,8 +72,7 @@ export default async function WiringPage({ params }: { params: Promise<{ railway
             </table>
             <p className="text-muted">
               Timing: blocks connect {sheet.timing.leadS} s before the head enters and release {sheet.timing.releaseS} s after the tail clears; PWM at 0 for{' '}
-              {sheet.timing.deadTimeMs} ms before a direction change; {sheet.timing.breakMs} ms between one relay opening and another closing; ramps{' '}
-              {sheet.timing.accelerateS} s up, {sheet.timing.brakeS} s down.
+              {sheet.timing.deadTimeMs} ms before a direction change; {sheet.timing.breakMs} ms between one relay opening and another closing. Speed ramps follow each train&apos;s acceleration and braking.
             </p>
             <p>Relays driven from a board pin need a driver transistor and a flyback diode (or a relay module that has them); a board pin sources only a few tens of mA (40 mA absolute maximum per pin, ATmega328P datasheet).</p>
           </div>
