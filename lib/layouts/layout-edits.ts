@@ -1,7 +1,6 @@
 import 'server-only';
 import { revalidatePath } from 'next/cache';
-import { z } from 'zod';
-import { getLayout, getLayoutRailwayId, type VersionedResult } from '@/db/queries/layouts';
+import type { VersionedResult } from '@/db/queries/layouts';
 import { countBlockSteps, deleteLink, findLink, insertBlock, insertLink, type BlockValues } from '@/db/queries/layout-blocks';
 import {
   cabOnChannel,
@@ -29,24 +28,8 @@ import {
 import { recordAudit } from '@/db/queries/railways';
 import { writeTransaction } from '@/db';
 import * as t from '@/db/schema';
-import type { Layout, Role } from '@/db/schema';
-import { requireMember, requireUser, type Member } from '@/lib/auth';
-import { AppError, conflict, notFound, parseOrThrow, toActionState, type ActionState } from '@/lib/errors';
-
-export type LayoutContext = { member: Member; layout: Layout };
-
-const idSchema = z.string().min(1).max(100);
-
-/**
- * The gate for everything inside a layout: the caller's role on the railway (401/404/403), then
- * the layout looked up within that railway, so another railway's layout id is a 404.
- */
-export async function requireLayout(railwayId: string, layoutId: string, minimumRole: Role, what?: string): Promise<LayoutContext> {
-  const member = await requireMember(parseOrThrow(idSchema, railwayId), minimumRole, what);
-  const layout = getLayout(member.railwayId, parseOrThrow(idSchema, layoutId));
-  if (!layout) throw notFound('That layout');
-  return { member, layout };
-}
+import { requireLayout, type LayoutContext } from '@/lib/auth/layouts';
+import { AppError, conflict, notFound, toActionState, type ActionState } from '@/lib/errors';
 
 /** A versioned write's row, or the 404 / 409 it deserves. */
 export function rowOrThrow<R>(result: VersionedResult<R>, what: string): R {
@@ -280,13 +263,3 @@ export function removeTrain({ layout }: LayoutContext, input: { id: string; vers
   return { message: `Train “${row.name}” deleted.`, entity: 'train', entityId: row.id, action: 'delete' };
 }
 
-/**
- * For route handlers, which name a layout without its railway: 401 without a session, 404 for a
- * layout that does not exist or whose railway the caller is not a member of, 403 below `minimumRole`.
- */
-export async function requireLayoutById(layoutId: string, minimumRole: Role, what?: string): Promise<LayoutContext> {
-  await requireUser();
-  const railwayId = getLayoutRailwayId(parseOrThrow(idSchema, layoutId));
-  if (!railwayId) throw notFound('That layout');
-  return requireLayout(railwayId, layoutId, minimumRole, what);
-}

@@ -2,7 +2,7 @@ import 'server-only';
 import { notFound } from 'next/navigation';
 import { getLayout } from '@/db/queries/layouts';
 import type { loadLayoutRows } from '@/db/queries/plan-data';
-import { memberForPage } from '@/lib/page-access';
+import { memberForPage } from '@/lib/auth/pages';
 import { roleAtLeast } from '@/lib/roles';
 import type { BudgetInput } from '@/lib/layouts/power-budget';
 

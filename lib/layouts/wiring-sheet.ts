@@ -4,7 +4,7 @@ import { loadLayoutRows } from '@/db/queries/plan-data';
 import { saveWiringSheetRow } from '@/db/queries/wiring-sheets';
 import { wiringSheetSchema } from '@/lib/control';
 import { AppError, conflict, parseOrThrow } from '@/lib/errors';
-import type { LayoutContext } from './layout-edits';
+import type { LayoutContext } from '@/lib/auth/layouts';
 
 /** What the wiring form posts: the sheet as JSON text (at most 200 KB) and the version it saw (empty: a new sheet). */
 export const wiringFormSchema = z.object({

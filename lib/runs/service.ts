@@ -17,7 +17,7 @@ import {
   type SeriesBody,
   type UpdateRunInput,
 } from '@/lib/runs/schema';
-import { requireSession } from '@/lib/sessions/access';
+import { requireSession } from '@/lib/auth/sessions';
 import { departureFromFastTime, loadSessionPlan } from '@/lib/sessions/builder';
 import { assertTimetableEditable, auditRunChange, changeAnswer } from '@/lib/sessions/changes';
 import type { BuilderChange } from '@/lib/sessions/types';

@@ -1,7 +1,7 @@
 import { getRailway } from '@/db/queries/railways';
 import { RailwayNav } from '@/components/railway/railway-nav';
 import { ROLE_LABELS } from '@/lib/roles';
-import { memberForPage } from '@/lib/page-access';
+import { memberForPage } from '@/lib/auth/pages';
 import { notFound } from 'next/navigation';
 
 export default async function RailwayLayout({

@@ -6,7 +6,7 @@ import { currentUser } from '@/lib/current-user';
 import { formatInZone } from '@/lib/format';
 import { formatStand } from '@/lib/invitations/assignments';
 import { loadMyRuns } from '@/lib/invitations/my-runs';
-import { requireSession } from '@/lib/sessions/access';
+import { requireSession } from '@/lib/auth/sessions';
 
 export const metadata: Metadata = { title: 'Crew card' };
 export const dynamic = 'force-dynamic';

@@ -7,7 +7,7 @@ import { listRailwaySessions } from '@/db/queries/sessions';
 import { Badge, Card } from '@/components/ui/card';
 import { formatDateInZone, formatInZone } from '@/lib/format';
 import { crewStatus } from '@/lib/invitations/crew-status';
-import { memberForPage } from '@/lib/page-access';
+import { memberForPage } from '@/lib/auth/pages';
 import { roleAtLeast } from '@/lib/roles';
 import { errorCounts } from '@/lib/sessions/error-counts';
 import Link from 'next/link';

@@ -6,7 +6,8 @@ import { recordAudit } from '@/db/queries/railways';
 import { requireMember } from '@/lib/auth';
 import { AppError, parseOrThrow, type ActionState } from '@/lib/errors';
 import { action } from '@/lib/http';
-import { requireLayout, revalidateLayout, rowOrThrow } from '@/lib/layouts/layout-edits';
+import { requireLayout } from '@/lib/auth/layouts';
+import { revalidateLayout, rowOrThrow } from '@/lib/layouts/layout-edits';
 import { formToObject, layoutEditSchema, layoutSchema, rowDeleteSchema } from '@/lib/validations/layout';
 
 const railwayIdSchema = z.string().min(1).max(100);

@@ -3,7 +3,7 @@ import Link from 'next/link';
 import { listLayoutsWithCounts } from '@/db/queries/layouts';
 import { LayoutForm, PlanImportForm } from '@/components/layouts/layout-forms';
 import { Card } from '@/components/ui/card';
-import { memberForPage } from '@/lib/page-access';
+import { memberForPage } from '@/lib/auth/pages';
 import { roleAtLeast } from '@/lib/roles';
 import { notFound } from 'next/navigation';
 

@@ -7,7 +7,7 @@ import { Badge, Card, Notice } from '@/components/ui/card';
 import { env } from '@/lib/env';
 import { formatInZone } from '@/lib/format';
 import { maskPersonalLinks } from '@/lib/mail/personal-links';
-import { memberForPage } from '@/lib/page-access';
+import { memberForPage } from '@/lib/auth/pages';
 import { getRailway } from '@/db/queries/railways';
 
 export const metadata: Metadata = { title: 'Mail outbox' };

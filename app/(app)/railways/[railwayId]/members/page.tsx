@@ -4,7 +4,7 @@ import { listMemberInvitations } from '@/db/queries/member-invitations';
 import { listMembers } from '@/db/queries/memberships';
 import { InviteMemberForm, MemberRow, PendingOfferRow } from '@/components/members/member-forms';
 import { Card } from '@/components/ui/card';
-import { memberForPage } from '@/lib/page-access';
+import { memberForPage } from '@/lib/auth/pages';
 import { ROLE_LABELS, ROLE_SUMMARIES, ROLES } from '@/lib/roles';
 
 export const metadata: Metadata = { title: 'Members' };

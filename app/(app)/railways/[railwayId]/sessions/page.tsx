@@ -7,7 +7,7 @@ import { listRailwaySessions } from '@/db/queries/sessions';
 import { DuplicateForm, SessionForm } from '@/components/sessions/session-form';
 import { Badge, Card } from '@/components/ui/card';
 import { formatInZone } from '@/lib/format';
-import { memberForPage } from '@/lib/page-access';
+import { memberForPage } from '@/lib/auth/pages';
 import { roleAtLeast } from '@/lib/roles';
 import { errorCounts } from '@/lib/sessions/error-counts';
 

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { loadLayoutRows } from '@/db/queries/plan-data';
 import { parseOrThrow } from '@/lib/errors';
 import { handler } from '@/lib/http';
-import { requireLayoutById } from '@/lib/layouts/layout-edits';
+import { requireLayoutById } from '@/lib/auth/layouts';
 import { exportPlan } from '@/lib/layouts/plan-io';
 
 const paramsSchema = z.object({ layoutId: z.string().min(1).max(100) });

@@ -3,7 +3,7 @@ import { handler } from '@/lib/http';
 import { chartLoad, loadSessionPlan, snapshotOf } from '@/lib/sessions/builder';
 import { compactLoad } from '@/lib/sessions/compact';
 import { storedCheck } from '@/lib/sessions/stored-check';
-import { requireSession } from '@/lib/sessions/access';
+import { requireSession } from '@/lib/auth/sessions';
 import { checkQuerySchema, sessionParamsSchema } from './schema';
 
 export const dynamic = 'force-dynamic';

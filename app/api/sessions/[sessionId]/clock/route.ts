@@ -3,7 +3,7 @@ import { parseOrThrow, readJson } from '@/lib/errors';
 import { handler } from '@/lib/http';
 import { applyClockAction, clockView } from '@/lib/live/clock';
 import { publishLive } from '@/lib/live/hub';
-import { requireSession } from '@/lib/sessions/access';
+import { requireSession } from '@/lib/auth/sessions';
 import { assertTimetableEditable } from '@/lib/sessions/changes';
 import { clockActionSchema, sessionParamsSchema } from './schema';
 

@@ -1,6 +1,6 @@
 import { parseOrThrow } from '@/lib/errors';
 import { handler } from '@/lib/http';
-import { requireSession } from '@/lib/sessions/access';
+import { requireSession } from '@/lib/auth/sessions';
 import { sessionControl } from '@/lib/sessions/control';
 import { sessionParamsSchema } from './schema';
 

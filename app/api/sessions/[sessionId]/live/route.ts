@@ -1,7 +1,7 @@
 import { parseOrThrow } from '@/lib/errors';
 import { handler } from '@/lib/http';
 import { livePoll, liveStream } from '@/lib/live/stream';
-import { requireSession } from '@/lib/sessions/access';
+import { requireSession } from '@/lib/auth/sessions';
 import { livePollSchema, sessionParamsSchema } from './schema';
 
 export const dynamic = 'force-dynamic';

@@ -3,7 +3,7 @@ import { handler } from '@/lib/http';
 import { publishLive } from '@/lib/live/hub';
 import { applyRepair, assertHost } from '@/lib/live/repair';
 import { buildLiveState } from '@/lib/live/state';
-import { requireSession } from '@/lib/sessions/access';
+import { requireSession } from '@/lib/auth/sessions';
 import { assertTimetableEditable } from '@/lib/sessions/changes';
 import { repairSchema, sessionParamsSchema } from './schema';
 

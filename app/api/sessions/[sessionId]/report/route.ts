@@ -1,7 +1,7 @@
 import { parseOrThrow } from '@/lib/errors';
 import { handler } from '@/lib/http';
 import { buildSessionReport, reportCsv } from '@/lib/live/report';
-import { requireSession } from '@/lib/sessions/access';
+import { requireSession } from '@/lib/auth/sessions';
 import { reportQuerySchema, sessionParamsSchema } from './schema';
 
 export const dynamic = 'force-dynamic';

@@ -1,6 +1,6 @@
 import { parseOrThrow, readJson } from '@/lib/errors';
 import { handler } from '@/lib/http';
-import { requireSession } from '@/lib/sessions/access';
+import { requireSession } from '@/lib/auth/sessions';
 import { applyMoves, retimeSuggestions } from '@/lib/runs/retime';
 import { retimeMovesSchema, sessionParamsSchema } from './schema';
 

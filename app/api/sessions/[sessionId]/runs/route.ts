@@ -1,7 +1,7 @@
 import { parseOrThrow, readJson } from '@/lib/errors';
 import { handler } from '@/lib/http';
 import { addRun } from '@/lib/runs/service';
-import { requireSession } from '@/lib/sessions/access';
+import { requireSession } from '@/lib/auth/sessions';
 import { snapshotOf } from '@/lib/sessions/builder';
 import { createRunSchema, sessionParamsSchema } from './schema';
 

@@ -1,6 +1,6 @@
 import { notFound } from 'next/navigation';
-import { memberForPage } from '@/lib/page-access';
-import { sessionForPage } from '@/lib/sessions/page-session';
+import { memberForPage } from '@/lib/auth/pages';
+import { sessionForPage } from '@/lib/auth/pages';
 
 /**
  * Every session page: another railway's session, a made-up id, or one the member may not see is a

@@ -4,10 +4,10 @@ import { notFound } from 'next/navigation';
 import { TimetableBuilder } from '@/components/timetable/timetable-builder';
 import { Badge } from '@/components/ui/card';
 import { formatInZone, formatTimeInZone } from '@/lib/format';
-import { memberForPage } from '@/lib/page-access';
+import { memberForPage } from '@/lib/auth/pages';
 import { roleAtLeast } from '@/lib/roles';
 import { builderPageProps, loadSessionPlan } from '@/lib/sessions/builder';
-import { sessionForPage } from '@/lib/sessions/page-session';
+import { sessionForPage } from '@/lib/auth/pages';
 
 export const metadata: Metadata = { title: 'Timetable' };
 

@@ -3,7 +3,8 @@ import { recordAudit } from '@/db/queries/railways';
 import { AppError, parseOrThrow, readText } from '@/lib/errors';
 import { handler } from '@/lib/http';
 import { commitCsvImport, exportCsv, planCsvImport } from '@/lib/layouts/csv-import';
-import { requireLayoutById, revalidateLayout } from '@/lib/layouts/layout-edits';
+import { requireLayoutById } from '@/lib/auth/layouts';
+import { revalidateLayout } from '@/lib/layouts/layout-edits';
 import { CSV_MAX_BYTES } from '@/lib/validations/layout';
 import { csvImportQuerySchema, csvParamsSchema } from './schema';
 

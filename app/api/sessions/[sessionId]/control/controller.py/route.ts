@@ -1,6 +1,6 @@
 import { badRequest, parseOrThrow } from '@/lib/errors';
 import { handler } from '@/lib/http';
-import { requireSession } from '@/lib/sessions/access';
+import { requireSession } from '@/lib/auth/sessions';
 import { controllerPy, sessionControl } from '@/lib/sessions/control';
 import { controlQuerySchema, sessionParamsSchema } from '../schema';
 

@@ -9,9 +9,9 @@ import { AppError } from '@/lib/errors';
 import { z } from 'zod';
 import { formatFast, HH_MM_PATTERN, realToFast } from '@/lib/planning';
 import { fastTextToReal } from '@/lib/sessions/time-labels';
-import { memberForPage } from '@/lib/page-access';
+import { memberForPage } from '@/lib/auth/pages';
 import { sessionControl } from '@/lib/sessions/control';
-import { sessionForPage } from '@/lib/sessions/page-session';
+import { sessionForPage } from '@/lib/auth/pages';
 
 export const metadata: Metadata = { title: 'Control' };
 export const dynamic = 'force-dynamic';

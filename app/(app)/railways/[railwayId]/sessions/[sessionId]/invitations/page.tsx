@@ -14,7 +14,7 @@ import { isLate } from '@/lib/invitations/reply';
 import { nextReminderAt, remindable, sessionStandings } from '@/lib/invitations/send';
 import { utcToZoned } from '@/lib/time-zone';
 import { countStates, DELIVERY_LABELS, deliveryOf, needsCancel, RSVP_LABELS, type Delivery } from '@/lib/invitations/tracker';
-import { memberForPage } from '@/lib/page-access';
+import { memberForPage } from '@/lib/auth/pages';
 
 export const metadata: Metadata = { title: 'Invitations' };
 export const dynamic = 'force-dynamic';

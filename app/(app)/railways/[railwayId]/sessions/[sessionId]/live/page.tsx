@@ -3,9 +3,9 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { LiveBoard } from '@/components/live/live-board';
 import { buildLiveState } from '@/lib/live/state';
-import { memberForPage } from '@/lib/page-access';
+import { memberForPage } from '@/lib/auth/pages';
 import { roleAtLeast } from '@/lib/roles';
-import { sessionForPage } from '@/lib/sessions/page-session';
+import { sessionForPage } from '@/lib/auth/pages';
 
 export const metadata: Metadata = { title: 'Live board' };
 export const dynamic = 'force-dynamic';

@@ -4,8 +4,8 @@ import { notFound } from 'next/navigation';
 import { ReportGraph } from '@/components/live/report-graph';
 import { Card } from '@/components/ui/card';
 import { buildSessionReport } from '@/lib/live/report';
-import { memberForPage } from '@/lib/page-access';
-import { sessionForPage } from '@/lib/sessions/page-session';
+import { memberForPage } from '@/lib/auth/pages';
+import { sessionForPage } from '@/lib/auth/pages';
 
 export const metadata: Metadata = { title: 'Session report' };
 export const dynamic = 'force-dynamic';

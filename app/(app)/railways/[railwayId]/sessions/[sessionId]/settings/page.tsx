@@ -4,9 +4,9 @@ import { notFound } from 'next/navigation';
 import { NotAllowed } from '@/components/railway/not-allowed';
 import { CheckSummary, SessionForm, StatusForm } from '@/components/sessions/session-form';
 import { Badge, Card } from '@/components/ui/card';
-import { memberForPage } from '@/lib/page-access';
+import { memberForPage } from '@/lib/auth/pages';
 import { checkCounts } from '@/lib/sessions/error-counts';
-import { sessionForPage } from '@/lib/sessions/page-session';
+import { sessionForPage } from '@/lib/auth/pages';
 import { utcToZoned } from '@/lib/time-zone';
 
 export const metadata: Metadata = { title: 'Session settings' };

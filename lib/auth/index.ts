@@ -1,4 +1,7 @@
 import 'server-only';
+// Who is asking, and what they may see or change. The rules live in this folder and nowhere else:
+// railway membership and roles here; pages (pages.ts: redirects and 404 pages); sessions (sessions.ts,
+// with the operator-visibility rule); layouts (layouts.ts).
 import { getMembership } from '@/db/queries/memberships';
 import type { Role } from '@/db/schema';
 import { currentUser, type CurrentUser } from '@/lib/current-user';

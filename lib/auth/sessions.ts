@@ -27,7 +27,8 @@ export async function requireSession(sessionId: string, need: 'view' | 'edit'): 
   return { member, session };
 }
 
-function operatorMaySee(session: Session, userId: string): boolean {
+/** The one rule for operators: they see a session only when it is published and they are invited to it. */
+export function operatorMaySee(session: Pick<Session, 'id' | 'status'>, userId: string): boolean {
   return session.status === 'published' && isInvited(session.id, userId);
 }
 
