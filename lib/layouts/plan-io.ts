@@ -3,7 +3,7 @@ import { z } from 'zod';
 import type { LayoutImport } from '@/db/queries/layout-import';
 import type { loadLayoutRows } from '@/db/queries/plan-data';
 import { AppError, type Issue } from '@/lib/errors';
-import { defaultRules, formatIssuePath, linkEnds, planSchema, type Plan } from '@/lib/planning';
+import { defaultRules, formatIssuePath, linkEnds, planSchema, toPlanJson, type PlanJson } from '@/lib/planning';
 import { storedDriverElectrics } from '@/lib/layouts/driver-electrics';
 import { layoutToPlan } from '@/lib/sessions/to-plan';
 import { blockSchema, cabSchema, driverSchema, inScaleRange, locomotiveSchema, SCALE_RATIO_MESSAGE, supplySchema, trainSchema } from '@/lib/validations/layout';
@@ -18,21 +18,23 @@ export const EXPORT_CLOCK = { ratio: 1, fastStart: '00:00' } as const;
 
 /**
  * Fields Fishplate keeps beside the interchange's own: the engine's schema ignores keys it does not
- * know, so a plan with them is still a valid version-1 plan, and an export imports back whole.
+ * know, so a plan with them is still a valid plan, and an export imports back whole. `locos` is
+ * version 1's name for version 2's `locomotives`.
  */
 const extras = z.object({
   layout: z.object({ name: z.string().optional(), setting: z.enum(['indoor', 'outdoor']).optional(), notes: z.string().optional() }).optional(),
   blocks: z.array(z.object({ positionMm: z.number().min(0).optional() })),
   drivers: z.array(z.object({ presetId: z.string().nullable().optional(), partNumber: z.string().nullable().optional() })),
   // Older exports carried the top speed here; the plan's locos now carry it themselves.
-  locos: z.array(z.object({ topSpeedKmh: z.number().nullable().optional() })),
+  locos: z.array(z.object({ topSpeedKmh: z.number().nullable().optional() })).optional(),
+  locomotives: z.array(z.object({ topSpeedKmh: z.number().nullable().optional() })).optional(),
 });
 
-/** The layout as the engine's plan interchange, version 1, without runs, with Fishplate's extras. */
-export function exportPlan(rows: LayoutRows): Plan & Record<string, unknown> {
+/** The layout as the engine's plan interchange, version 2, without runs, with Fishplate's extras. */
+export function exportPlan(rows: LayoutRows): PlanJson & Record<string, unknown> {
   const layout = rows.layout;
   if (!layout) throw new Error('exportPlan: no layout');
-  const plan = layoutToPlan(rows, { clock: { ...EXPORT_CLOCK }, rules: { ...defaultRules } });
+  const plan = toPlanJson(layoutToPlan(rows, { clock: { ...EXPORT_CLOCK }, rules: { ...defaultRules } }));
   const block = new Map(rows.blocks.map((b) => [b.id, b]));
   const driver = new Map(rows.drivers.map((d) => [d.id, d]));
   return {
@@ -111,12 +113,12 @@ export function planToImport(input: unknown, name: string | undefined): { data: 
     return v && { ...v, key: c.id };
   });
   const locomotives = plan.locos.map((l, i) => {
-    const top = l.topSpeedKmh ?? ext.locos[i]?.topSpeedKmh ?? undefined;
+    const top = l.topSpeedKmh ?? (ext.locomotives ?? ext.locos)?.[i]?.topSpeedKmh ?? undefined;
     if (top === undefined) {
-      issues.push({ path: `locos[${i}].topSpeedKmh`, message: 'missing: Fishplate needs each locomotive’s top scale speed (km/h) to work out PWM duty' });
+      issues.push({ path: `${plan.version === 2 ? 'locomotives' : 'locos'}[${i}].topSpeedKmh`, message: 'missing: Fishplate needs each locomotive’s top scale speed (km/h) to work out PWM duty' });
       return null;
     }
-    const v = check(locomotiveSchema, { name: l.name, runningAmps: l.runningAmps, stallAmps: l.stallAmps, ratedVolts: l.ratedVolts, topSpeedKmh: top, startVolts: l.startVolts ?? null }, `locos[${i}]`);
+    const v = check(locomotiveSchema, { name: l.name, runningAmps: l.runningAmps, stallAmps: l.stallAmps, ratedVolts: l.ratedVolts, topSpeedKmh: top, startVolts: l.startVolts ?? null }, `${plan.version === 2 ? 'locomotives' : 'locos'}[${i}]`);
     return v && { ...v, key: l.id };
   });
   const trains = plan.trains.map((tr, i) => {

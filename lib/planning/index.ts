@@ -1,5 +1,7 @@
 export {
   planSchema,
+  toPlanJson,
+  trainSchemaV2,
   scaleSchema,
   clockSchema,
   rulesSchema,
@@ -24,6 +26,7 @@ export {
 } from './schema';
 export type {
   Plan,
+  PlanJson,
   Scale,
   FastClock,
   Rules,

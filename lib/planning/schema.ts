@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { defaultRamps } from './motion';
 
 /** Fast-clock time of day, two-digit hours and minutes. */
 import { HH_MM_PATTERN } from './clock';
@@ -172,8 +173,7 @@ export const runSchema = z.object({
     .max(PLAN_LIMITS.stepsPerRun, `a run has at most ${PLAN_LIMITS.stepsPerRun} steps`),
 });
 
-const planShape = z.object({
-  version: z.literal(1),
+const planFields = {
   scale: scaleSchema,
   clock: clockSchema,
   rules: rulesSchema,
@@ -182,8 +182,6 @@ const planShape = z.object({
   cabs: listOf(cabSchema),
   blocks: listOf(blockSchema),
   links: listOf(linkSchema, 2 * PLAN_LIMITS.things),
-  locos: listOf(locoSchema),
-  trains: listOf(trainSchema),
   operators: listOf(operatorSchema),
   runs: listOf(runSchema, PLAN_LIMITS.runs),
   /**
@@ -191,27 +189,94 @@ const planShape = z.object({
    * stopped in until then. Absent: the latest time in the plan.
    */
   sessionEndS: seconds.optional(),
-});
+};
 
-type PlanShape = z.infer<typeof planShape>;
-type IssuePath = (string | number)[];
+/** Version 1 of the interchange (still read): `locos`, trains' `locoIds`, ramps optional. */
+const planShapeV1 = z.object({ version: z.literal(1), ...planFields, locos: listOf(locoSchema), trains: listOf(trainSchema) });
+
+/** Version 2: one name per concept (`locomotives`, `locomotiveIds`), and every train's ramps. */
+export const trainSchemaV2 = trainSchema.omit({ locoIds: true, accelKmhPerS: true, brakingKmhPerS: true }).extend({
+  locomotiveIds: trainSchema.shape.locoIds,
+  accelKmhPerS: upTo(1000),
+  brakingKmhPerS: upTo(1000),
+});
+const planShapeV2 = z.object({ version: z.literal(2), ...planFields, locomotives: listOf(locoSchema), trains: listOf(trainSchemaV2) });
 
 /**
- * The plan interchange, version 1. The object shape checks each field on its own; the refinement
- * checks what needs the whole plan: unique ids, references that resolve, channel numbers, and the
- * time order inside each run.
+ * The engine's model of a plan: version 1's field names (`locos`, `locoIds`), and `version` saying
+ * which interchange version it was read from. Plans built in code may leave a train's ramps out
+ * (it reaches its speed at once); plans read by planSchema always carry them.
  */
-export const planSchema = planShape.superRefine((plan, ctx) => {
-  const report = (path: IssuePath, message: string) => ctx.addIssue({ code: 'custom', path, message });
-  const steps = plan.runs.reduce((sum, run) => sum + run.steps.length, 0);
-  if (steps > PLAN_LIMITS.steps) {
-    report(['runs'], `the runs have ${steps} steps in all; a plan holds at most ${PLAN_LIMITS.steps}`);
-    return;
-  }
-  checkPlanReferences(plan, report);
-});
+type PlanShape = Omit<z.infer<typeof planShapeV1>, 'version'> & { version: 1 | 2 };
+type IssuePath = (string | number)[];
+/** The interchange as written, version 2. */
+export type PlanJson = z.infer<typeof planShapeV2>;
 
-export type Plan = z.infer<typeof planSchema>;
+/**
+ * Version 1 read as the model: every train without ramps gets the common-practice figures for
+ * the plan's scale (defaultRamps): version 1 plans were timed at constant speed, but the trains
+ * they describe do not stop at once.
+ */
+function upgradeV1(plan: z.infer<typeof planShapeV1>): PlanShape {
+  const ramps = defaultRamps(plan.scale.ratio);
+  return {
+    ...plan,
+    trains: plan.trains.map((train) => ({
+      ...train,
+      accelKmhPerS: train.accelKmhPerS ?? ramps.accelKmhPerS,
+      brakingKmhPerS: train.brakingKmhPerS ?? ramps.brakingKmhPerS,
+    })),
+  };
+}
+
+function fromV2(plan: PlanJson): PlanShape {
+  const { locomotives, trains, ...rest } = plan;
+  return { ...rest, locos: locomotives, trains: trains.map(({ locomotiveIds, ...train }) => ({ ...train, locoIds: locomotiveIds })) };
+}
+
+/** The model as interchange version 2 (what every export writes); trains without ramps get defaultRamps. */
+export function toPlanJson(plan: PlanShape): PlanJson {
+  const { locos, trains, version: _version, ...rest } = plan;
+  const ramps = defaultRamps(plan.scale.ratio);
+  return {
+    version: 2,
+    ...rest,
+    locomotives: locos,
+    trains: trains.map(({ locoIds, ...train }) => ({
+      ...train,
+      locomotiveIds: locoIds,
+      accelKmhPerS: train.accelKmhPerS ?? ramps.accelKmhPerS,
+      brakingKmhPerS: train.brakingKmhPerS ?? ramps.brakingKmhPerS,
+    })),
+  };
+}
+
+/** A version-2 plan's issues name its own fields: `locomotives[0]`, `trains[1].locomotiveIds[0]`. */
+function v2Path(path: IssuePath): IssuePath {
+  return path.map((key) => (key === 'locos' ? 'locomotives' : key === 'locoIds' ? 'locomotiveIds' : key));
+}
+
+/**
+ * The plan interchange: version 2, or version 1 (upgraded, see upgradeV1), told apart by
+ * `version`. The object shape checks each field on its own; the refinement checks what needs the
+ * whole plan: unique ids, references that resolve, channel numbers, and the time order inside
+ * each run. The result is the engine's model (PlanShape): version 1's field names, either version.
+ */
+export const planSchema = z
+  .discriminatedUnion('version', [planShapeV1, planShapeV2], { error: 'version must be 1 or 2' })
+  .transform((plan): PlanShape => (plan.version === 2 ? fromV2(plan) : upgradeV1(plan)))
+  .superRefine((plan, ctx) => {
+    const report = (path: IssuePath, message: string) =>
+      ctx.addIssue({ code: 'custom', path: plan.version === 2 ? v2Path(path) : path, message: plan.version === 2 ? message.replace(/\bloco\b/g, 'locomotive') : message });
+    const steps = plan.runs.reduce((sum, run) => sum + run.steps.length, 0);
+    if (steps > PLAN_LIMITS.steps) {
+      report(['runs'], `the runs have ${steps} steps in all; a plan holds at most ${PLAN_LIMITS.steps}`);
+      return;
+    }
+    checkPlanReferences(plan, report);
+  });
+
+export type Plan = PlanShape;
 export type Scale = Plan['scale'];
 export type FastClock = Plan['clock'];
 export type Rules = Plan['rules'];

@@ -3,6 +3,7 @@ import { deleteRun, getRun, insertRuns, replaceSessionRuns, updateRun, type RunP
 import type { Session } from '@/db/schema';
 import type { Member } from '@/lib/auth';
 import { AppError, conflict, notFound } from '@/lib/errors';
+import { toPlanJson } from '@/lib/planning';
 import { assertRunsValid, timeFromWaypoints } from '@/lib/runs/rules';
 import {
   RUN_FIELDS_OUTSIDE_PLAN,
@@ -162,5 +163,6 @@ export async function exportPlan(sessionId: string) {
     const row = rowOf.get(r.id);
     return { ...r, ...(row ? Object.fromEntries(RUN_FIELDS_OUTSIDE_PLAN.map((key) => [key, row[key]])) : {}) };
   });
-  return { session, plan: { ...plan, runs } };
+  // Every export writes interchange version 2 (POST takes version 1 too).
+  return { session, plan: { ...toPlanJson(plan), runs } };
 }

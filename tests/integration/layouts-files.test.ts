@@ -212,7 +212,8 @@ describe('plan files', () => {
     signInAs(w.planner);
     const plan = await (await getPlan(new Request('http://t/api'), ctx({ layoutId: seed.layout.id }))).json();
     plan.cabs[0].driverId = 'nope';
-    delete plan.locos[1].topSpeedKmh;
+    expect(plan.version).toBe(2); // every export writes version 2
+    delete plan.locomotives[1].topSpeedKmh;
     const res = await importPlan(new Request('http://t/api', { method: 'POST', body: JSON.stringify({ railwayId: w.railway.id, plan }), headers: JSON_TYPE }), ctx({}));
     expect(res.status).toBe(400);
     const body = await res.json();
@@ -220,7 +221,7 @@ describe('plan files', () => {
     plan.cabs[0].driverId = plan.drivers[0].id;
     const res2 = await importPlan(new Request('http://t/api', { method: 'POST', body: JSON.stringify({ railwayId: w.railway.id, plan }), headers: JSON_TYPE }), ctx({}));
     expect(res2.status).toBe(400);
-    expect((await res2.json()).issues[0].path).toBe('locos[1].topSpeedKmh');
+    expect((await res2.json()).issues[0].path).toBe('locomotives[1].topSpeedKmh');
     const { listLayoutsWithCounts } = await import('@/db/queries/layouts');
     expect(listLayoutsWithCounts(w.railway.id)).toHaveLength(1);
     // Not JSON at all.

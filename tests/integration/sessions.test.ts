@@ -172,7 +172,7 @@ describe('sessions', () => {
     signInAs(w.planner);
     const read = async () => (await getPlan(new Request(url(`/api/sessions/${session.id}/plan`)), ctx({ sessionId: session.id }))).json();
     const before = await read();
-    expect(before.version).toBe(1);
+    expect(before.version).toBe(2); // every export writes version 2
     const res = await postPlan(json('POST', `/api/sessions/${session.id}/plan`, before), ctx({ sessionId: session.id }));
     expect(res.status).toBe(200);
     expect(await read()).toEqual(before);
@@ -190,7 +190,11 @@ describe('sessions', () => {
     expect(res.status).toBe(400);
     expect((await res.json()).issues).toEqual([{ path: 'runs[1].cabId', message: 'unknown cab "no-such-cab"' }]);
     // Valid on its own, but the train belongs to another railway's layout.
-    const foreign = { ...plan, trains: [...plan.trains, { id: other.layout.trains.t1, name: 'X', locoIds: [plan.locos[0].id], lightingAmps: 0, lengthMm: 500 }], runs: [{ ...plan.runs[0], trainId: other.layout.trains.t1 }] };
+    const foreign = {
+      ...plan,
+      trains: [...plan.trains, { id: other.layout.trains.t1, name: 'X', locomotiveIds: [plan.locomotives[0].id], lightingAmps: 0, lengthMm: 500, accelKmhPerS: 15, brakingKmhPerS: 20 }],
+      runs: [{ ...plan.runs[0], trainId: other.layout.trains.t1 }],
+    };
     const res2 = await post(foreign);
     expect(res2.status).toBe(400);
     expect((await res2.json()).issues[0].path).toBe('trainId');
@@ -285,6 +289,28 @@ describe('sessions', () => {
     let last = 200;
     for (let i = 0; i < 40 && last !== 429; i++) last = (await checkPosted(json('POST', '/api/plans/check', plan), ctx({}))).status;
     expect(last).toBe(429);
+    resetRateLimits();
+  });
+
+  it('POST /api/plans/check takes version 1 too, upgraded with the scale’s common-practice ramps', async () => {
+    const w = makeWorld();
+    const { session } = makeSessionWorld(w);
+    signInAs(w.planner);
+    resetRateLimits();
+    const v2 = await (await getPlan(new Request(url(`/api/sessions/${session.id}/plan`)), ctx({ sessionId: session.id }))).json();
+    const { locomotives, trains, ...rest } = v2;
+    const v1 = {
+      ...rest,
+      version: 1,
+      locos: locomotives,
+      trains: trains.map(({ locomotiveIds, accelKmhPerS: _a, brakingKmhPerS: _b, ...train }: { locomotiveIds: string[]; accelKmhPerS: number; brakingKmhPerS: number }) => ({ ...train, locoIds: locomotiveIds })),
+    };
+    const [a, b] = await Promise.all([v2, v1].map(async (plan) => (await checkPosted(json('POST', '/api/plans/check', plan), ctx({}))).json()));
+    expect(b.errors).toBe(a.errors);
+    expect(b.findings.map((f: { kind: string }) => f.kind)).toEqual(a.findings.map((f: { kind: string }) => f.kind));
+    // The stored trains have no ramps of their own, so both read as H0's 15 up and 20 down.
+    expect(trains[0]).toMatchObject({ accelKmhPerS: 15, brakingKmhPerS: 20 });
+    expect((await checkPosted(json('POST', '/api/plans/check', { ...v1, version: 3 }), ctx({}))).status).toBe(400);
     resetRateLimits();
   });
 });

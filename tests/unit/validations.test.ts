@@ -146,7 +146,11 @@ describe('blocks, links and trains', () => {
 
   it('a train: one locomotive id from a form, a consist once each, lighting blank is 0', () => {
     const train = { name: 'Goods', locomotiveIds: 'l1', lightingAmps: '', length: '50', unit: 'cm' };
+    // Ramps left blank: null, so the scale's common-practice figures apply (defaultRamps).
     expect(parsed(trainSchema, train)).toEqual({ name: 'Goods', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 500, accelKmhPerS: null, brakingKmhPerS: null });
+    expect(parsed(trainSchema, { ...train, accelKmhPerS: '12,5', brakingKmhPerS: '20' })).toMatchObject({ accelKmhPerS: 12.5, brakingKmhPerS: 20 });
+    expect(refusedOn(trainSchema, { ...train, accelKmhPerS: '0' }, 'accelKmhPerS')).toMatch(SENTENCE);
+    expect(refusedOn(trainSchema, { ...train, brakingKmhPerS: '101' }, 'brakingKmhPerS')).toMatch(SENTENCE);
     expect(parsed(trainSchema, { ...train, locomotiveIds: ['l1', 'l2'], lightingAmps: '0.2' })).toMatchObject({ locomotiveIds: ['l1', 'l2'], lightingAmps: 0.2 });
     expect(refusedOn(trainSchema, { ...train, locomotiveIds: ['l1', 'l1'] }, 'locomotiveIds')).toMatch(SENTENCE);
     expect(refusedOn(trainSchema, { ...train, locomotiveIds: '' }, 'locomotiveIds')).toMatch(SENTENCE);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatIssuePath, formatPlanIssues, planSchema, type Plan } from '@/lib/planning';
+import { formatIssuePath, formatPlanIssues, planSchema, toPlanJson, type Plan } from '@/lib/planning';
 
 function goodPlan(): Plan {
   return {
@@ -109,7 +109,58 @@ describe('planSchema', () => {
   }
 
   it('refuses another version and infinite times', () => {
-    expect(refusal((p) => void ((p as { version: number }).version = 2))[0]).toMatch(/^version: /);
+    expect(refusal((p) => void ((p as { version: number }).version = 3))[0]).toMatch(/^version: /);
     expect(refusal((p) => void (p.runs[0]!.departS = Infinity))[0]).toMatch(/^runs\[0\]\.departS: /);
+  });
+});
+
+describe('plan interchange version 2', () => {
+  const asV2 = (plan: Plan) => {
+    const { locos, trains, ...rest } = plan;
+    return {
+      ...rest,
+      version: 2,
+      locomotives: locos,
+      trains: trains.map(({ locoIds, ...train }) => ({ ...train, locomotiveIds: locoIds, accelKmhPerS: 12, brakingKmhPerS: 18 })),
+    };
+  };
+
+  it('reads version 1 upgraded: a train without ramps gets the common-practice figures for its scale (H0: 15 up, 20 down)', () => {
+    const parsed = planSchema.parse(goodPlan());
+    expect(parsed.version).toBe(1);
+    expect(parsed.trains[0]).toMatchObject({ locoIds: ['l1'], accelKmhPerS: 15, brakingKmhPerS: 20 });
+    const n = { ...goodPlan(), scale: { name: 'N', ratio: 160 } };
+    expect(planSchema.parse(n).trains[0]).toMatchObject({ accelKmhPerS: 20, brakingKmhPerS: 25 });
+  });
+
+  it('reads version 2 with one name per concept, and toPlanJson writes it back unchanged', () => {
+    const json = asV2(goodPlan());
+    const parsed = planSchema.parse(json);
+    expect(parsed.locos).toEqual(json.locomotives);
+    expect(parsed.trains[0]).toMatchObject({ locoIds: ['l1'], accelKmhPerS: 12, brakingKmhPerS: 18 });
+    expect(toPlanJson(parsed)).toEqual(json);
+  });
+
+  it('writes every plan as version 2: a version-1 plan comes out with its upgraded ramps and reads back the same', () => {
+    const written = toPlanJson(planSchema.parse(goodPlan()));
+    expect(written.version).toBe(2);
+    expect(written).not.toHaveProperty('locos');
+    expect(written.trains[0]).toMatchObject({ locomotiveIds: ['l1'], accelKmhPerS: 15, brakingKmhPerS: 20 });
+    expect(toPlanJson(planSchema.parse(written))).toEqual(written);
+  });
+
+  it('refuses a version-2 plan with version 1 names or without ramps, naming its own fields', () => {
+    const issues = (plan: unknown) => {
+      const result = planSchema.safeParse(plan);
+      return result.success ? [] : formatPlanIssues(result.error);
+    };
+    const json = asV2(goodPlan());
+    const { locomotives, ...withoutLocomotives } = json;
+    expect(issues({ ...withoutLocomotives, locos: locomotives })[0]).toMatch(/^locomotives: /);
+    const { accelKmhPerS: _accel, ...noAccel } = json.trains[0]!;
+    expect(issues({ ...json, trains: [noAccel] })).toEqual([expect.stringMatching(/^trains\[0\]\.accelKmhPerS: /)]);
+    expect(issues({ ...json, trains: [{ ...json.trains[0]!, locomotiveIds: ['l9'] }] })).toEqual(['trains[0].locomotiveIds[0]: unknown locomotive "l9"']);
+    // Version 1 keeps its own names.
+    expect(issues({ ...goodPlan(), trains: [{ ...goodPlan().trains[0]!, locoIds: ['l9'] }] })).toEqual(['trains[0].locoIds[0]: unknown loco "l9"']);
   });
 });

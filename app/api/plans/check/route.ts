@@ -10,7 +10,7 @@ import { CHECK_MAX_BYTES, CHECKS_PER_MINUTE, checkPlanBodySchema } from './schem
 export const dynamic = 'force-dynamic';
 
 /**
- * checkPlan on a posted plan interchange (version 1), for planners' outside tools. Stores nothing.
+ * checkPlan on a posted plan interchange (version 2, or version 1 upgraded as lib/planning/README.md says), for planners' outside tools. Stores nothing.
  * The findings are capped (`counts` has them all, `truncated` says when some are not listed) and
  * the check runs within a time budget (413 past it), so one request cannot stall the server.
  */

@@ -7,7 +7,7 @@ export const dynamic = 'force-dynamic';
 
 type Params = { sessionId: string };
 
-/** The session as the engine's plan interchange, version 1 (each run with its speed and note beside it). */
+/** The session as the engine's plan interchange, version 2 (each run with its speed and note beside it). */
 const getPlan = handler<Params>(async (_request, { params }) => {
   const { sessionId } = parseOrThrow(sessionParamsSchema, await params);
   const { session, plan } = await exportPlan(sessionId);
