@@ -141,7 +141,9 @@ describe('blocks, links and trains', () => {
 
   it('a block cannot link to itself', () => {
     expect(refusedOn(linkSchema, { blockAId: 'a', blockBId: 'a' }, 'blockBId')).toMatch(SENTENCE);
-    expect(parsed(linkSchema, { blockAId: 'a', blockBId: 'b' })).toEqual({ blockAId: 'a', blockBId: 'b' });
+    // Without ends a link joins A's b end to B's a end (the upgrade's default along the line).
+    expect(parsed(linkSchema, { blockAId: 'a', blockBId: 'b' })).toEqual({ blockAId: 'a', blockBId: 'b', blockAEnd: 'b', blockBEnd: 'a' });
+    expect(parsed(linkSchema, { blockAId: 'a', blockBId: 'b', blockAEnd: 'a', blockBEnd: 'a' })).toMatchObject({ blockAEnd: 'a', blockBEnd: 'a' });
   });
 
   it('a train: one locomotive id from a form, a consist once each, lighting blank is 0', () => {
