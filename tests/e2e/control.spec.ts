@@ -14,7 +14,7 @@ test('a planner opens the demo session’s Control view: cab and block timelines
   await page.getByRole('link', { name: 'Control', exact: true }).click();
   await expect(page.getByTestId('control-view')).toBeVisible();
   await expect(page.getByTestId('cab-lane')).toHaveCount(4);
-  await expect(page.getByTestId('block-lane')).toHaveCount(12);
+  await expect(page.getByTestId('block-lane')).toHaveCount(13);
   // One stretch at a time, readable: the first hour from the first setting (the stopper leaves at
   // 06:20 in the demo), the running PWM values written on the cab lanes, and a step later.
   const range = page.getByTestId('control-window-range').first();
