@@ -9,7 +9,7 @@ import { POST as createRun } from '@/app/api/sessions/[sessionId]/runs/route';
 import { GET as getPlan, POST as postPlan } from '@/app/api/sessions/[sessionId]/plan/route';
 import { getRun } from '@/db/queries/runs';
 import { RUN_FIELD_NAMES, restoreEdit, runFieldsOf, runFieldsSchema, shiftTiming, type RunFields } from '@/lib/runs/schema';
-import { planSchema } from '@/lib/planning';
+import { planSchema, toPlanJson } from '@/lib/planning';
 import type { BuilderChange } from '@/lib/sessions/types';
 import { makeSessionWorld, timedSteps } from './authz/sessions';
 import { signInAs } from './caller';
@@ -98,8 +98,8 @@ describe('every field of a run travels through each copy path', () => {
     const { sid, sample } = setup();
     const source = await addSample(sid, sample);
     const exported = await ok<unknown>(await getPlan(json('GET', `/api/sessions/${sid}/plan`), ctx({ sessionId: sid })));
-    // The engine's own schema drops what the interchange does not define.
-    const bare = planSchema.parse(exported);
+    // The engine's own schema drops what the interchange does not define; written back as version 2.
+    const bare = toPlanJson(planSchema.parse(exported));
     expect(Object.keys(bare.runs.find((r) => r.id === source.id)!)).not.toContain('note');
     await ok(await postPlan(json('POST', `/api/sessions/${sid}/plan`, bare), ctx({ sessionId: sid })));
     expectSameFields(getRun(sid, source.id)!, sample);
