@@ -69,7 +69,10 @@ test('Needs attention names each session by title and date, links to it, and lea
   await expect(page.getByTestId('status-form').getByRole('button', { name: 'Reopen as draft' })).toBeVisible();
   await page.goto(railwayUrl);
   await expect(page.getByTestId('attention')).not.toContainText('8 Mar 2031');
-  await expect(page.getByTestId('upcoming-sessions').getByRole('listitem')).toHaveCount(1);
+  // Other tests leave sessions of their own in the shared database: the cancelled copy is gone from Upcoming,
+  // and the demo session is there once.
+  await expect(page.getByTestId('upcoming-sessions')).not.toContainText('8 Mar 2031');
+  await expect(page.getByTestId('upcoming-sessions').getByRole('listitem').filter({ hasText: SESSION })).toHaveCount(1);
   await page.goto(`${railwayUrl}/sessions`);
   await expect(page.getByRole('heading', { name: 'Cancelled' })).toBeVisible();
 });
