@@ -6,7 +6,7 @@ import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
 import http from 'node:http';
 import Database from 'better-sqlite3';
-import { signIn as signInAt, waitFor } from './bench-server';
+import { benchServerEnv, signIn as signInAt, waitFor } from './bench-server';
 
 const smoke = process.argv.includes('--smoke');
 const DURATION_S = Number(process.env.BENCH_LIVE_SECONDS ?? (smoke ? 20 : 300));
@@ -17,15 +17,7 @@ const PORT = Number(process.env.BENCH_PORT ?? 3610);
 const BASE = `http://127.0.0.1:${PORT}`;
 const DB = `data/bench-live-${PORT}.db`;
 const distDir = process.env.NEXT_DIST_DIR ?? '.next';
-const env = {
-  ...process.env,
-  DATABASE_URL: DB,
-  NEXTAUTH_URL: BASE,
-  NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? 'bench-secret-not-for-production-0123456789',
-  LOCAL_SMTP_PORT: String(PORT + 1),
-  NEXT_TELEMETRY_DISABLED: '1',
-  FISHPLATE_OUTBOX_WORKER: 'off',
-};
+const env = benchServerEnv(PORT, DB);
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 const signIn = (email: string) => signInAt(BASE, email);

@@ -32,6 +32,19 @@ export async function waitFor(url: string, timeoutMs = 60_000) {
   }
 }
 
+/** The environment of a benchmark's production server on 127.0.0.1:PORT with its own database. */
+export function benchServerEnv(port: number, db: string) {
+  return {
+    ...process.env,
+    DATABASE_URL: db,
+    NEXTAUTH_URL: `http://127.0.0.1:${port}`,
+    NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? 'bench-secret-not-for-production-0123456789',
+    LOCAL_SMTP_PORT: String(port + 1),
+    NEXT_TELEMETRY_DISABLED: '1',
+    FISHPLATE_OUTBOX_WORKER: 'off',
+  };
+}
+
 /**
  * Seeds `data/bench-PORT.db` afresh (demo railway and the 200-run session), builds when there is no
  * build in NEXT_DIST_DIR, and starts `next start` on 127.0.0.1:PORT.
@@ -40,15 +53,7 @@ export async function startBenchServer(port: number): Promise<BenchServer> {
   const base = `http://127.0.0.1:${port}`;
   const db = `data/bench-${port}.db`;
   const distDir = process.env.NEXT_DIST_DIR ?? '.next';
-  const env = {
-    ...process.env,
-    DATABASE_URL: db,
-    NEXTAUTH_URL: base,
-    NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? 'bench-secret-not-for-production-0123456789',
-    LOCAL_SMTP_PORT: String(port + 1),
-    NEXT_TELEMETRY_DISABLED: '1',
-    FISHPLATE_OUTBOX_WORKER: 'off',
-  };
+  const env = benchServerEnv(port, db);
   try {
     await fetch(`${base}/api/health`);
     throw new Error(`Something already answers on port ${port}: stop it first.`);
