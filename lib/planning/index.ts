@@ -62,6 +62,8 @@ export type { TrackGraph, RouteStep, RouteResult } from './route';
 export { travelOfRun, neededOutput, jointAgrees, linkEnds, otherEnd, checkJointParity, endAdjacency } from './track';
 export type { End, Travel } from './track';
 export { travelOfPlan } from './polarity';
+export { trainPositionsAt } from './positions';
+export type { PositionRun, TrainPosition } from './positions';
 export { dutyFor, pwm8Of } from './duty';
 export type { DutyInput, DutyResult } from './duty';
 export { realToFast, fastToReal, formatFast, parseFastTime, formatTimeOfDay, formatSessionTime } from './clock';
