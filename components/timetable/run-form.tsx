@@ -2,7 +2,7 @@
 
 import { useMemo, useState } from 'react';
 import type { FastClock } from '@/lib/planning';
-import { HH_MM_PATTERN } from '@/lib/planning/clock';
+import { parseTimeOfDay } from '@/lib/planning/time-of-day';
 import { routeThrough } from '@/lib/planning/route';
 import { carryOnFrom } from '@/lib/sessions/carry-on';
 import type { BuilderLayout } from '@/lib/sessions/types';
@@ -81,7 +81,7 @@ export function RunForm({
     const next: Record<string, string> = {};
     if (!trainId) next.trainId = 'Choose a train.';
     if (!cabId) next.cabId = 'Choose a cab.';
-    if (!HH_MM_PATTERN.test(depart.trim())) next.depart = 'Enter the departure as HH:MM on the fast clock, e.g. 06:45.';
+    if (parseTimeOfDay(depart, { seconds: true }) === null) next.depart = 'Enter the departure as HH:MM on the fast clock, e.g. 06:45.';
     const speedKmh = Number(speed);
     if (!(speedKmh > 0 && speedKmh <= 500)) next.speedKmh = 'Enter a scale speed above 0 km/h.';
     else if (train?.topSpeedKmh && speedKmh > train.topSpeedKmh) next.speedKmh = `This train’s top speed is ${train.topSpeedKmh} km/h.`;

@@ -1,7 +1,8 @@
 'use client';
 
 import { memo, useEffect, useMemo, useRef, useState } from 'react';
-import { fastLabel, fastLabelSeconds, fastTextToReal, realLabel, type SessionClock } from '@/lib/sessions/time-labels';
+import { fastLabel, fastLabelSeconds, realLabel, type SessionClock } from '@/lib/sessions/time-labels';
+import { fastTimeToReal } from '@/lib/planning/clock';
 import type { BuilderLayout } from '@/lib/sessions/types';
 import type { Run } from '@/lib/runs/schema';
 import { Button } from '@/components/ui/button';
@@ -59,8 +60,8 @@ function StepsEditor({ run, layout, clock, onPatch }: { run: Run; layout: Builde
   const save = () => {
     const steps = [];
     for (const [i, row] of rows.entries()) {
-      const enterS = fastTextToReal(row.enter, clock, run.steps[i]!.enterS);
-      const exitS = fastTextToReal(row.exit, clock, run.steps[i]!.exitS);
+      const enterS = fastTimeToReal(row.enter, clock, run.steps[i]!.enterS);
+      const exitS = fastTimeToReal(row.exit, clock, run.steps[i]!.exitS);
       if (enterS === null || exitS === null) return setError(`Step ${i + 1}: write times as HH:MM:SS on the fast clock.`);
       if (!(enterS < exitS)) return setError(`Step ${i + 1}: the train must leave the block after it enters it.`);
       if (i > 0 && enterS < steps[i - 1]!.enterS) return setError(`Step ${i + 1} enters before step ${i}.`);

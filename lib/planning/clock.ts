@@ -1,16 +1,5 @@
 import type { FastClock } from './schema';
-
-/** A time of day written HH:MM (24-hour). */
-export const HH_MM_PATTERN = /^([01]\d|2[0-3]):([0-5]\d)$/;
-
-const DAY_S = 24 * 3600;
-
-/** Seconds after midnight for a `HH:MM` time of day, or null when the text is not one. */
-export function parseFastTime(text: string): number | null {
-  const match = HH_MM_PATTERN.exec(text.trim());
-  if (match === null) return null;
-  return Number(match[1]) * 3600 + Number(match[2]) * 60;
-}
+import { DAY_S, parseTimeOfDay } from './time-of-day';
 
 /** Writes seconds after midnight as `HH:MM`, wrapping past 24 h (and before 0) onto the clock face. */
 export function formatTimeOfDay(seconds: number): string {
@@ -22,7 +11,7 @@ export function formatTimeOfDay(seconds: number): string {
 
 function fastStartS(clock: FastClock): number {
   // The schema guarantees the pattern; midnight is the safe reading of anything else.
-  return parseFastTime(clock.fastStart) ?? 0;
+  return parseTimeOfDay(clock.fastStart) ?? 0;
 }
 
 /**
@@ -36,6 +25,27 @@ export function realToFast(realS: number, clock: FastClock): number {
 /** Real session seconds at a fast-clock time given in seconds after fast midnight (unwrapped). */
 export function fastToReal(fastS: number, clock: FastClock): number {
   return (fastS - fastStartS(clock)) / clock.ratio;
+}
+
+/**
+ * Real session seconds (to the millisecond) for a fast time of day `HH:MM` or `HH:MM:SS`, or null
+ * when the text is not one. A time before the fast start reads as the next fast day, so a session
+ * that runs past fast midnight can be typed; `nearS` (a real time) picks the fast day nearest to it
+ * instead, for step times of a run that crosses fast midnight.
+ */
+export function fastTimeToReal(text: string, clock: FastClock, nearS?: number): number | null {
+  const fastS = parseTimeOfDay(text, { seconds: true });
+  if (fastS === null) return null;
+  const start = fastStartS(clock);
+  let unwrapped = fastS < start ? fastS + DAY_S : fastS;
+  if (nearS !== undefined) {
+    const near = realToFast(nearS, clock);
+    // The fast day nearest to `near`, by arithmetic rather than a day-by-day loop (`near` may be any number).
+    const ahead = unwrapped - near;
+    if (ahead > DAY_S / 2) unwrapped -= Math.ceil(ahead / DAY_S - 0.5) * DAY_S;
+    else if (-ahead > DAY_S / 2) unwrapped += Math.ceil(-ahead / DAY_S - 0.5) * DAY_S;
+  }
+  return Math.round(fastToReal(unwrapped, clock) * 1000) / 1000;
 }
 
 /** The fast clock's face, `HH:MM`, at a real session time; wraps at 24 h. */

@@ -20,7 +20,6 @@ export {
   dropLineSchema,
   formatPlanIssues,
   formatIssuePath,
-  HH_MM_PATTERN,
   PLAN_ID_PATTERN,
   PLAN_LIMITS,
 } from './schema';
@@ -66,7 +65,9 @@ export { trainPositionsAt } from './positions';
 export type { PositionRun, TrainPosition } from './positions';
 export { dutyFor, pwm8Of } from './duty';
 export type { DutyInput, DutyResult } from './duty';
-export { realToFast, fastToReal, formatFast, parseFastTime, formatTimeOfDay, formatSessionTime } from './clock';
+export { realToFast, fastToReal, fastTimeToReal, formatFast, formatTimeOfDay, formatSessionTime } from './clock';
+export { parseTimeOfDay, timeOfDaySchema, DAY_S } from './time-of-day';
+export type { TimeOfDayOptions } from './time-of-day';
 export { readSessionClock, clockActionRefusal } from './session-clock';
 export type { ClockRecord, ClockReading, ClockState, ClockActionName } from './session-clock';
 export { propagateDelays } from './propagate';

@@ -1,11 +1,6 @@
 import { z } from 'zod';
 import { defaultRamps } from './motion';
-
-/** Fast-clock time of day, two-digit hours and minutes. */
-import { HH_MM_PATTERN } from './clock';
-
-// Lives in clock.ts, which has no zod, so client code can read fast times without the schemas.
-export { HH_MM_PATTERN };
+import { timeOfDaySchema } from './time-of-day';
 
 /**
  * What an id in a plan may look like: a letter or digit, then up to 63 letters, digits, `.`, `_`,
@@ -53,7 +48,7 @@ export const scaleSchema = z.object({ name, ratio: z.number().min(1, 'must be 1 
 export const clockSchema = z.object({
   // 3:1 to 12:1 is what sessions use (common practice); 60:1 leaves room.
   ratio: z.number().min(1, 'must be 1 or more').max(60, 'must be 60 or less'),
-  fastStart: z.string().regex(HH_MM_PATTERN, 'must be a time of day written HH:MM'),
+  fastStart: timeOfDaySchema({ invalid: 'must be a time of day written HH:MM' }),
 });
 
 export const rulesSchema = z.object({

@@ -3,7 +3,7 @@
 // the inferred types, so a field added here reaches every copy path (series, plan import, undo)
 // and the compiler points at each place that must show it. Pure: zod and types only.
 import { z } from 'zod';
-import { PLAN_LIMITS, planSchema, type Plan } from '@/lib/planning';
+import { PLAN_LIMITS, planSchema, timeOfDaySchema, type Plan } from '@/lib/planning';
 
 const id = z.string().trim().min(1, 'Choose one.').max(100, 'That id is too long.');
 const seconds = z.number({ error: 'Enter a time in seconds.' });
@@ -118,10 +118,10 @@ export function toPlanRun(run: Omit<RunFields, (typeof RUN_FIELDS_OUTSIDE_PLAN)[
 
 // ---- Request bodies of the builder's route handlers ----
 
-export const fastTimeSchema = z
-  .string({ error: 'Enter the departure on the fast clock.' })
-  .trim()
-  .regex(/^([01]\d|2[0-3]):([0-5]\d)(:([0-5]\d))?$/, 'Enter the departure as HH:MM on the fast clock, e.g. 06:45.');
+export const fastTimeSchema = timeOfDaySchema(
+  { missing: 'Enter the departure on the fast clock.', invalid: 'Enter the departure as HH:MM on the fast clock, e.g. 06:45.' },
+  { seconds: true },
+);
 
 /** How a run's steps are timed from a route and a speed (timeRun). */
 const timingShape = {

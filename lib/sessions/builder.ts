@@ -2,10 +2,9 @@ import 'server-only';
 import { loadSessionRows } from '@/db/queries/plan-data';
 import { rsvpByUser } from '@/db/queries/session-records';
 import type { Session } from '@/db/schema';
-import { notFound } from '@/lib/errors';
+import { AppError, notFound } from '@/lib/errors';
 import {
-  fastToReal,
-  parseFastTime,
+  fastTimeToReal,
   type FastClock,
   type LoadPoint,
   type LoadProfile,
@@ -137,15 +136,13 @@ export function builderPageProps(sessionId: string, loaded: { rows: SessionRows;
 }
 
 /**
- * Real session seconds for a fast-clock time of day (`HH:MM` or `HH:MM:SS`). A time before the
- * fast start is read as the next fast day, so a session that runs past fast midnight can be typed.
+ * Real session seconds for a fast-clock time of day a request schema has already checked
+ * (`fastTimeToReal`: a time before the fast start is the next fast day); a 400 should it not read.
  */
 export function departureFromFastTime(text: string, clock: FastClock): number {
-  const [h, m, s] = text.split(':').map(Number);
-  const fastS = (h ?? 0) * 3600 + (m ?? 0) * 60 + (s ?? 0);
-  const startS = parseFastTime(clock.fastStart) ?? 0;
-  const realS = fastToReal(fastS < startS ? fastS + 86_400 : fastS, clock);
-  return Math.round(realS * 1000) / 1000;
+  const realS = fastTimeToReal(text, clock);
+  if (realS === null) throw new AppError('bad_request', 'Enter the fast-clock time as HH:MM or HH:MM:SS.');
+  return realS;
 }
 
 /** How long the session lasts in real seconds: every time of its runs lies in [0, this]. */

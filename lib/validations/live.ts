@@ -1,12 +1,9 @@
 import { z } from 'zod';
 import { CLOCK_ACTIONS, REPORT_KINDS, STOP_REASONS } from '@/db/enums';
-import { HH_MM_PATTERN } from '@/lib/planning';
+import { timeOfDaySchema } from '@/lib/planning';
 import { SESSION_DAY_RANGE } from '@/lib/validations/session';
 
-const fastTime = z
-  .string({ error: 'Enter a fast-clock time as HH:MM.' })
-  .trim()
-  .regex(HH_MM_PATTERN, 'Enter the fast-clock time as HH:MM, e.g. 06:45.');
+const fastTime = timeOfDaySchema({ missing: 'Enter a fast-clock time as HH:MM.', invalid: 'Enter the fast-clock time as HH:MM, e.g. 06:45.' });
 
 /** `POST /api/sessions/{id}/clock`: start (optionally from a fast time), pause, resume, or set to a fast time. */
 export const clockActionSchema = z

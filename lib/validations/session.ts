@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { SESSION_STATUSES } from '@/db/enums';
-import { HH_MM_PATTERN } from '@/lib/planning';
+import { timeOfDaySchema } from '@/lib/planning';
 
 const id = z.string().trim().min(1, 'Choose one.').max(100, 'That id is too long.');
 
@@ -16,8 +16,7 @@ function numberField(label: string, min: number, max: number) {
     .refine((v) => v >= min && v <= max, `Use ${min} to ${max}.`);
 }
 
-const timeOfDay = (what: string) =>
-  z.string({ error: `Enter ${what}.` }).trim().regex(HH_MM_PATTERN, `Enter ${what} as HH:MM, e.g. 18:30.`);
+const timeOfDay = (what: string) => timeOfDaySchema({ missing: `Enter ${what}.`, invalid: `Enter ${what} as HH:MM, e.g. 18:30.` });
 
 /** Fast-clock ratio: 3:1 to 12:1 is seen on layouts, 4:1 to 6:1 typical (common practice); 1 is real time. */
 export const CLOCK_RATIO_RANGE = { min: 1, max: 24 } as const;

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { checkPlan, type Plan } from '@/lib/planning';
+import { checkPlan, fastTimeToReal, type Plan } from '@/lib/planning';
 import { planNames, withNoun } from '@/lib/planning/names';
 import { clashingRuns, highlightOf } from '@/lib/sessions/highlight';
-import { fastLabelSeconds, fastTextToReal, spanLabel } from '@/lib/sessions/time-labels';
+import { fastLabelSeconds, spanLabel } from '@/lib/sessions/time-labels';
 import { floatingIso, utcToZoned, zonedToUtc } from '@/lib/time-zone';
 
 describe('wall clock in a zone ⇄ UTC', () => {
@@ -31,12 +31,14 @@ describe('wall clock in a zone ⇄ UTC', () => {
 describe('fast clock text', () => {
   const clock = { ratio: 4, fastStart: '06:00' };
   it('turns a fast time into real session seconds: (fast − start) ÷ ratio (common practice for fast clocks)', () => {
-    expect(fastTextToReal('09:00', clock)).toBe(2700);
-    expect(fastTextToReal('06:00:20', clock)).toBe(5);
+    expect(fastTimeToReal('09:00', clock)).toBe(2700);
+    expect(fastTimeToReal('06:00:20', clock)).toBe(5);
     // Before the fast start reads as after fast midnight.
-    expect(fastTextToReal('01:00', clock)).toBe(((25 - 6) * 3600) / 4);
-    expect(fastTextToReal('9:00', clock)).toBeNull();
-    expect(fastTextToReal('06:00:75', clock)).toBeNull();
+    expect(fastTimeToReal('01:00', clock)).toBe(((25 - 6) * 3600) / 4);
+    expect(fastTimeToReal('9:00', clock)).toBeNull();
+    expect(fastTimeToReal('06:00:75', clock)).toBeNull();
+    // Near a real time, the nearest fast day wins: one fast minute before the start is 15 real s before it at 4:1.
+    expect(fastTimeToReal('05:59', clock, 0)).toBe(-15);
   });
 
   it('writes seconds and spans in fast and real time', () => {

@@ -11,7 +11,8 @@ import {
   gaugeForScale,
   modelSpeedMmPerS,
   nominalTrackVolts,
-  parseFastTime,
+  parseTimeOfDay,
+  timeOfDaySchema,
   realToFast,
   SCALES,
 } from '@/lib/planning';
@@ -89,11 +90,26 @@ describe('fast clock', () => {
   });
 
   it('parses HH:MM and refuses anything else', () => {
-    expect(parseFastTime('07:30')).toBe(7 * 3600 + 30 * 60);
-    expect(parseFastTime('23:59')).toBe(86_340);
-    expect(parseFastTime('24:00')).toBeNull();
-    expect(parseFastTime('7:30')).toBeNull();
-    expect(parseFastTime('07:60')).toBeNull();
+    expect(parseTimeOfDay('07:30')).toBe(7 * 3600 + 30 * 60);
+    expect(parseTimeOfDay('23:59')).toBe(86_340);
+    expect(parseTimeOfDay('24:00')).toBeNull();
+    expect(parseTimeOfDay('7:30')).toBeNull();
+    expect(parseTimeOfDay('07:60')).toBeNull();
+  });
+
+  // ISO 8601 extended time of day: hh:mm or hh:mm:ss, 24-hour, two digits each (24:00 end-of-day not used here).
+  it('reads seconds only where they are allowed, and the zod schema agrees with the parser', () => {
+    expect(parseTimeOfDay('07:30:15')).toBeNull();
+    expect(parseTimeOfDay('07:30:15', { seconds: true })).toBe(7 * 3600 + 30 * 60 + 15);
+    expect(parseTimeOfDay(' 23:59:59 ', { seconds: true })).toBe(86_399);
+    expect(parseTimeOfDay('07:30:60', { seconds: true })).toBeNull();
+    expect(parseTimeOfDay('07:30:5', { seconds: true })).toBeNull();
+    for (const seconds of [false, true]) {
+      const schema = timeOfDaySchema({ invalid: 'bad' }, { seconds });
+      for (const text of ['00:00', '07:30', '23:59', '07:30:15', '24:00', '7:30', '07:60', '07:30:60', '', 'noon']) {
+        expect(schema.safeParse(text).success, `${text} seconds=${seconds}`).toBe(parseTimeOfDay(text, { seconds }) !== null);
+      }
+    }
   });
 });
 

@@ -7,8 +7,7 @@ import { SafetyCautions } from '@/components/layouts/safety-cautions';
 import { Card } from '@/components/ui/card';
 import { AppError } from '@/lib/errors';
 import { z } from 'zod';
-import { formatFast, HH_MM_PATTERN, realToFast } from '@/lib/planning';
-import { fastTextToReal } from '@/lib/sessions/time-labels';
+import { fastTimeToReal, formatFast, realToFast, timeOfDaySchema } from '@/lib/planning';
 import { memberForPage } from '@/lib/auth/pages';
 import { sessionControl } from '@/lib/sessions/control';
 import { sessionForPage } from '@/lib/auth/pages';
@@ -18,7 +17,7 @@ export const dynamic = 'force-dynamic';
 
 /** Which stretch of the schedule the timeline shows: from a fast time, for a number of fast minutes (or all of it). */
 const windowSchema = z.object({
-  from: z.string().trim().regex(HH_MM_PATTERN).optional().catch(undefined),
+  from: timeOfDaySchema({ invalid: 'not a fast time' }).optional().catch(undefined),
   span: z.enum(['15', '30', '60', '120', 'all']).default('60').catch('60'),
 });
 const SPANS = ['15', '30', '60', '120', 'all'] as const;
@@ -58,7 +57,7 @@ export default async function SessionControlPage({
   // The window: from the asked fast time, or from the first setting rounded down to 10 fast minutes.
   const fastMinOf = (ms: number) => realToFast(ms / 1000 + schedule.originS, schedule.clock) / 60;
   const firstMs = schedule.entries[0]?.atMs ?? 0;
-  const askedS = query.from ? fastTextToReal(query.from, schedule.clock) : null;
+  const askedS = query.from ? fastTimeToReal(query.from, schedule.clock) : null;
   const fromMs = askedS !== null ? (askedS - schedule.originS) * 1000 : firstMs - ((fastMinOf(firstMs) % 10) * 60_000) / schedule.clock.ratio;
   const spanMs = query.span === 'all' ? null : (Number(query.span) * 60_000) / schedule.clock.ratio;
   const window = spanMs === null ? undefined : { fromMs, toMs: fromMs + spanMs };
