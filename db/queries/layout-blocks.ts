@@ -46,6 +46,6 @@ export function insertLink(layoutId: string, blockAId: string, blockBId: string,
 }
 
 /** Deletes a link of this layout; false when there was none. */
-export function deleteLink(layoutId: string, linkId: string): boolean {
+export function deleteLinkById(layoutId: string, linkId: string): boolean {
   return getDb().delete(links).where(and(eq(links.id, linkId), eq(links.layoutId, layoutId))).run().changes > 0;
 }

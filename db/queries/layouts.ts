@@ -53,7 +53,7 @@ export function insertLayout(railwayId: string, values: LayoutValues) {
 export type VersionedResult<R> = { ok: true; row: R } | { ok: false; reason: 'missing' } | { ok: false; reason: 'stale'; current: R };
 
 /** Changes a layout's own fields if `version` is still current; raises the version. */
-export function updateLayout(
+export function updateLayoutById(
   railwayId: string,
   layoutId: string,
   version: number,
@@ -77,7 +77,7 @@ export function countLayoutSessions(layoutId: string): number {
 }
 
 /** Deletes a layout and everything in it, if `version` is still current. */
-export function deleteLayout(railwayId: string, layoutId: string, version: number): VersionedResult<typeof layouts.$inferSelect> {
+export function deleteLayoutById(railwayId: string, layoutId: string, version: number): VersionedResult<typeof layouts.$inferSelect> {
   return writeTransaction((tx) => {
     const current = tx.select().from(layouts).where(and(eq(layouts.id, layoutId), eq(layouts.railwayId, railwayId))).get();
     if (!current) return { ok: false, reason: 'missing' } as const;

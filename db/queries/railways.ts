@@ -9,7 +9,7 @@ export function getRailway(railwayId: string) {
 }
 
 /** Creates a railway with its creator as host, in one transaction. */
-export function createRailway(input: { name: string; timeZone: string; hostUserId: string }) {
+export function insertRailway(input: { name: string; timeZone: string; hostUserId: string }) {
   return writeTransaction((tx) => {
     const railway = tx.insert(railways).values({ name: input.name, timeZone: input.timeZone }).returning().get();
     tx.insert(memberships).values({ railwayId: railway.id, userId: input.hostUserId, role: 'host' }).run();

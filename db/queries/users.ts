@@ -14,7 +14,7 @@ export function getUserById(id: string): User | undefined {
 }
 
 /** Creates a user; the e-mail must not be taken (callers check first). */
-export function createUser(input: { email: string; name: string; passwordHash: string | null }): User {
+export function insertUser(input: { email: string; name: string; passwordHash: string | null }): User {
   return getDb()
     .insert(users)
     .values({ email: input.email.toLowerCase(), name: input.name, passwordHash: input.passwordHash })

@@ -5,7 +5,7 @@ import { loadSessionRows } from '@/db/queries/plan-data';
 import type { Member } from '@/lib/auth';
 import { buildCalendarFile } from '@/lib/calendar/ics';
 import { notFound } from '@/lib/errors';
-import { describeRuns, runsOf } from '@/lib/invitations/assignments';
+import { describeRuns, runsAssignedTo } from '@/lib/invitations/assignments';
 import { absoluteUrl } from '@/lib/mail/account-mail';
 
 function timetableUrl(railwayId: string, sessionId: string) {
@@ -25,7 +25,7 @@ export function sessionCalendarFor(member: Member, sessionId: string): { filenam
   }
   const rows = loadSessionRows(sessionId);
   if (!rows) throw notFound('That session');
-  const runs = member.role === 'operator' ? runsOf(rows, member.user.id) : describeRuns(rows);
+  const runs = member.role === 'operator' ? runsAssignedTo(rows, member.user.id) : describeRuns(rows);
   const body = buildCalendarFile({
     name: session.title,
     entries: [{ session, runs, url: timetableUrl(session.railwayId, session.id) }],
@@ -46,7 +46,7 @@ export function personalFeed(user: { id: string; name: string }, now = new Date(
     // The same UID as this person's invitations: never a lower SEQUENCE than the last one e-mailed to them
     // (updates raise it per person, RFC 5546 2.1.4), or their calendar would take the feed's copy as older.
     const sequence = Math.max(session.sequence, sentSequence ?? 0);
-    return { session: { ...session, sequence }, runs: rows ? runsOf(rows, user.id) : [], url: timetableUrl(session.railwayId, session.id) };
+    return { session: { ...session, sequence }, runs: rows ? runsAssignedTo(rows, user.id) : [], url: timetableUrl(session.railwayId, session.id) };
   });
   return buildCalendarFile({ name: `Fishplate — ${user.name}`, entries, now });
 }

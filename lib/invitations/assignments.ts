@@ -92,7 +92,7 @@ export function describeRuns(rows: SessionRows): RunAssignment[] {
 }
 
 /** The runs one person drives, in order. */
-export function runsOf(rows: SessionRows, userId: string): RunAssignment[] {
+export function runsAssignedTo(rows: SessionRows, userId: string): RunAssignment[] {
   return describeRuns(rows).filter((r) => r.operatorId === userId);
 }
 

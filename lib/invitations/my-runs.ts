@@ -3,7 +3,7 @@ import { listCrewDuties, listInvitedSessions } from '@/db/queries/crew';
 import { loadSessionRows } from '@/db/queries/plan-data';
 import { requireMember } from '@/lib/auth';
 import { AppError } from '@/lib/errors';
-import { runsOf } from '@/lib/invitations/assignments';
+import { runsAssignedTo } from '@/lib/invitations/assignments';
 
 /**
  * The signed-in person's upcoming published sessions (those they are invited to on railways they
@@ -24,7 +24,7 @@ export async function loadMyRuns(userId: string, now = new Date()) {
     if (!rows) continue;
     out.push({
       ...entry,
-      runs: runsOf(rows, userId),
+      runs: runsAssignedTo(rows, userId),
       duties: listCrewDuties(entry.session.id, userId),
       clock: { ratio: entry.session.clockRatio, fastStart: entry.session.fastStart },
     });

@@ -41,7 +41,7 @@ export function inspectReplyToken(token: string, now = Date.now()) {
  * or whose invitation is not on the railway it names (400). An accepted guest becomes an operator
  * of the railway. Returns the answer and a fresh token for changing it again.
  */
-export function replyByToken(token: string, answer: Answer, now = new Date(), comment = '') {
+export function recordReply(token: string, answer: Answer, now = new Date(), comment = '') {
   const check = verifyReplyToken(token, now.getTime());
   if (!check.ok) throw new AppError('bad_request', REFUSED[check.reason]);
   return runInTransaction(() => {

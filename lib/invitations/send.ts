@@ -13,7 +13,7 @@ import { listCrewDuties } from '@/db/queries/crew';
 import { listMembers } from '@/db/queries/memberships';
 import { loadSessionRows } from '@/db/queries/plan-data';
 import { getRailway, recordAudit } from '@/db/queries/railways';
-import { createUser, getUserByEmail } from '@/db/queries/users';
+import { insertUser, getUserByEmail } from '@/db/queries/users';
 import type { Session } from '@/db/schema';
 import { buildInvitationCalendar, type Person } from '@/lib/calendar/ics';
 import { AppError, notFound } from '@/lib/errors';
@@ -241,7 +241,7 @@ export function inviteToSession(input: {
     for (const email of input.guestEmails) {
       const member = byEmail.get(email);
       const user =
-        member ? { id: member.userId, email: member.email } : (getUserByEmail(email) ?? (newAccounts++, createUser({ email, name: email.split('@')[0] ?? email, passwordHash: null })));
+        member ? { id: member.userId, email: member.email } : (getUserByEmail(email) ?? (newAccounts++, insertUser({ email, name: email.split('@')[0] ?? email, passwordHash: null })));
       invitees.set(user.id, { userId: user.id, email: user.email });
     }
     const already = new Set(listSessionInvitations(session.id).map((i) => i.userId));
@@ -266,7 +266,7 @@ export function inviteToSession(input: {
  * who has had no e-mail yet; "update": to everyone whose session or runs changed since their last
  * e-mail, with a higher SEQUENCE and what changed for them (RFC 5546 2.1.4); "cancel": METHOD:CANCEL to everyone who was sent anything (RFC 5546 3.2.5).
  */
-export function sendNotices(input: { railwayId: string; sessionId: string; host: Host; kind: NoticeKind; now?: Date }) {
+export function queueSessionNotices(input: { railwayId: string; sessionId: string; host: Host; kind: NoticeKind; now?: Date }) {
   const now = input.now ?? new Date();
   return runInTransaction(() => {
     const session = loadSession(input.railwayId, input.sessionId);
@@ -291,7 +291,7 @@ export function sendNotices(input: { railwayId: string; sessionId: string; host:
  * Host: sends one invitation again. A failed e-mail goes back in the queue as it was; otherwise a
  * fresh copy (current SEQUENCE, current reply links) is queued.
  */
-export function resendInvitation(input: { railwayId: string; sessionId: string; host: Host; invitationId: string; now?: Date }) {
+export function queueInvitationAgain(input: { railwayId: string; sessionId: string; host: Host; invitationId: string; now?: Date }) {
   const now = input.now ?? new Date();
   return runInTransaction(() => {
     const session = loadSession(input.railwayId, input.sessionId);
@@ -343,7 +343,7 @@ export function remindUnanswered(input: { railwayId: string; sessionId: string; 
  * (''). It must lie ahead and no later than the session's start. Replies after it are still taken,
  * and marked late.
  */
-export function setReplyDeadline(input: { railwayId: string; sessionId: string; host: Host; replyBy: string; now?: Date }) {
+export function saveReplyDeadline(input: { railwayId: string; sessionId: string; host: Host; replyBy: string; now?: Date }) {
   const now = input.now ?? new Date();
   return runInTransaction(() => {
     const session = loadSession(input.railwayId, input.sessionId);

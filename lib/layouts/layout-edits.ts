@@ -1,7 +1,7 @@
 import 'server-only';
 import { revalidatePath } from 'next/cache';
 import type { VersionedResult } from '@/db/queries/layouts';
-import { countBlockSteps, deleteLink, findLink, insertBlock, insertLink, type BlockValues } from '@/db/queries/layout-blocks';
+import { countBlockSteps, deleteLinkById, findLink, insertBlock, insertLink, type BlockValues } from '@/db/queries/layout-blocks';
 import {
   cabOnChannel,
   cabsOfDriver,
@@ -115,7 +115,7 @@ export function addLink({ layout }: LayoutContext, input: { blockAId: string; bl
 }
 
 export function removeLink({ layout }: LayoutContext, input: { id: string }) {
-  if (!deleteLink(layout.id, input.id)) throw notFound('That link');
+  if (!deleteLinkById(layout.id, input.id)) throw notFound('That link');
   return { message: 'Link deleted.', entity: 'link', entityId: input.id, action: 'delete' };
 }
 

@@ -31,9 +31,9 @@ const extras = z.object({
 });
 
 /** The layout as the engine's plan interchange, version 2, without runs, with Fishplate's extras. */
-export function exportPlan(rows: LayoutRows): PlanJson & Record<string, unknown> {
+export function exportLayoutPlan(rows: LayoutRows): PlanJson & Record<string, unknown> {
   const layout = rows.layout;
-  if (!layout) throw new Error('exportPlan: no layout');
+  if (!layout) throw new Error('exportLayoutPlan: no layout');
   const plan = toPlanJson(layoutToPlan(rows, { clock: { ...EXPORT_CLOCK }, rules: { ...defaultRules } }));
   const block = new Map(rows.blocks.map((b) => [b.id, b]));
   const driver = new Map(rows.drivers.map((d) => [d.id, d]));

@@ -155,7 +155,7 @@ export async function replaceRunsFromPlan(sessionId: string, posted: PostedPlan)
 }
 
 /** The session as the plan interchange, each run with the fields the plan does not carry beside it (a plan posted back keeps them). */
-export async function exportPlan(sessionId: string) {
+export async function exportSessionPlan(sessionId: string) {
   const { session } = await requireSession(sessionId, 'view');
   const { rows, plan } = loadSessionPlan(session.id);
   const rowOf = new Map(rows.runs.map((r) => [r.id, r]));

@@ -20,7 +20,7 @@ import { startLocalMailServer } from '@/lib/mail/local-server';
 import { deliverDueMail, enqueueMail } from '@/lib/mail/outbox';
 import { maskPersonalLinks, PERSONAL_LINK_MASK } from '@/lib/mail/personal-links';
 import { closeTransport } from '@/lib/mail/transport';
-import { sendNotices } from '@/lib/invitations/send';
+import { queueSessionNotices } from '@/lib/invitations/send';
 import { signReplyToken } from '@/lib/invitations/reply-token';
 import { makeSessionWorld } from './authz/invitations';
 import { signInAs } from './caller';
@@ -122,7 +122,7 @@ describe('finding 4: removing a member does not stick', () => {
     addMember(w.railway.id, crew.id, 'operator');
     const invitation = getDb().insert(t.invitations).values({ sessionId: s.session.id, userId: crew.id, email: crew.email }).returning().get();
     const host = { id: w.host.id, name: w.host.name, email: w.host.email };
-    sendNotices({ railwayId: w.railway.id, sessionId: s.session.id, host, kind: 'pending' });
+    queueSessionNotices({ railwayId: w.railway.id, sessionId: s.session.id, host, kind: 'pending' });
     expect(allMailTo(crew.email)).toHaveLength(1);
     const token = signReplyToken({ railwayId: w.railway.id, invitationId: invitation.id, nonce: 0, expiresAt: s.session.endsAt.getTime() });
 
@@ -137,7 +137,7 @@ describe('finding 4: removing a member does not stick', () => {
 
     // The session changes; the update goes to those still invited, not to the removed member.
     getDb().update(t.sessions).set({ sequence: s.session.sequence + 1 }).where(eq(t.sessions.id, s.session.id)).run();
-    const update = sendNotices({ railwayId: w.railway.id, sessionId: s.session.id, host, kind: 'update' });
+    const update = queueSessionNotices({ railwayId: w.railway.id, sessionId: s.session.id, host, kind: 'update' });
     expect(update.queued).toBeGreaterThan(0); // the operator, still invited
     expect(allMailTo(crew.email)).toHaveLength(1);
     expect(getMembership(w.railway.id, crew.id)).toBeUndefined();

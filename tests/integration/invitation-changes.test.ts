@@ -229,11 +229,11 @@ describe('reminders, the reply deadline and notes with replies', () => {
     const reminder = await simpleParser(caughtFor(w.operator.email).at(-1)!.raw);
     expect(reminder.text).toContain(`Please reply by ${formatInZone(dayBefore, 'UTC')} (UTC).`);
 
-    const { replyByToken } = await import('@/lib/invitations/reply');
+    const { recordReply } = await import('@/lib/invitations/reply');
     const { signReplyToken } = await import('@/lib/invitations/reply-token');
     const inv = listSessionInvitations(session.id).find((i) => i.email === w.operator.email)!;
     const token = signReplyToken({ railwayId: w.railway.id, invitationId: inv.id, nonce: inv.replyNonce, expiresAt: session.endsAt.getTime() });
-    const late = replyByToken(token, 'declined', new Date(dayBefore.getTime() + 60_000), 'Sorry, work trip.');
+    const late = recordReply(token, 'declined', new Date(dayBefore.getTime() + 60_000), 'Sorry, work trip.');
     expect(late).toMatchObject({ answer: 'declined', late: true });
     const after = listSessionInvitations(session.id).find((i) => i.id === inv.id)!;
     expect(after.rsvp).toBe('declined');

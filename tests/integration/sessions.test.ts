@@ -6,7 +6,7 @@ import { GET as getCheck } from '@/app/api/sessions/[sessionId]/check/route';
 import { GET as getPlan, POST as postPlan } from '@/app/api/sessions/[sessionId]/plan/route';
 import { getDb } from '@/db';
 import { addMember } from '@/db/queries/memberships';
-import { createRailway } from '@/db/queries/railways';
+import { insertRailway } from '@/db/queries/railways';
 import { getSessionById } from '@/db/queries/session-records';
 import { blocks, runs, sessions } from '@/db/schema';
 import { resetRateLimits } from '@/lib/rate-limit';
@@ -49,7 +49,7 @@ async function redirectTarget(run: () => Promise<unknown>): Promise<string> {
 describe('sessions', () => {
   it('creates a draft with start and end read in the railway’s zone, and opens its builder', async () => {
     const w = makeWorld();
-    const railway = createRailway({ name: 'London club', timeZone: 'Europe/London', hostUserId: w.host.id });
+    const railway = insertRailway({ name: 'London club', timeZone: 'Europe/London', hostUserId: w.host.id });
     addMember(railway.id, w.planner.id, 'planner');
     const layout = makeLayout(railway.id);
     signInAs(w.planner);
@@ -67,7 +67,7 @@ describe('sessions', () => {
 
   it('refuses bad settings field by field and writes nothing; a time the clocks skip is refused', async () => {
     const w = makeWorld();
-    const railway = createRailway({ name: 'London club', timeZone: 'Europe/London', hostUserId: w.host.id });
+    const railway = insertRailway({ name: 'London club', timeZone: 'Europe/London', hostUserId: w.host.id });
     const layout = makeLayout(railway.id);
     signInAs(w.host);
     const count = () => getDb().select().from(sessions).where(eq(sessions.railwayId, railway.id)).all().length;

@@ -1,6 +1,6 @@
 import { addMember } from '@/db/queries/memberships';
-import { createRailway } from '@/db/queries/railways';
-import { createUser } from '@/db/queries/users';
+import { insertRailway } from '@/db/queries/railways';
+import { insertUser } from '@/db/queries/users';
 import type { CurrentUser } from '@/lib/current-user';
 
 export type RoleKey = 'anon' | 'outsider' | 'operator' | 'planner' | 'host';
@@ -11,7 +11,7 @@ let counter = 0;
 function makeUser(label: string): CurrentUser {
   counter += 1;
   const email = `${label}-${counter}@test.example`;
-  const user = createUser({ email, name: `${label} ${counter}`, passwordHash: null });
+  const user = insertUser({ email, name: `${label} ${counter}`, passwordHash: null });
   return { id: user.id, email: user.email, name: user.name };
 }
 
@@ -24,10 +24,10 @@ export function makeWorld() {
   const planner = makeUser('planner');
   const operator = makeUser('operator');
   const outsider = makeUser('outsider');
-  const railway = createRailway({ name: 'Test railway', timeZone: 'UTC', hostUserId: host.id });
+  const railway = insertRailway({ name: 'Test railway', timeZone: 'UTC', hostUserId: host.id });
   addMember(railway.id, planner.id, 'planner');
   addMember(railway.id, operator.id, 'operator');
-  const otherRailway = createRailway({ name: 'Other railway', timeZone: 'UTC', hostUserId: outsider.id });
+  const otherRailway = insertRailway({ name: 'Other railway', timeZone: 'UTC', hostUserId: outsider.id });
   const users: Record<RoleKey, CurrentUser | null> = { anon: null, outsider, operator, planner, host };
   return { railway, otherRailway, users, host, planner, operator, outsider, makeUser };
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { loadSessionRows } from '@/db/queries/plan-data';
-import { describeRuns, formatStand, runsOf } from '@/lib/invitations/assignments';
+import { describeRuns, formatStand, runsAssignedTo } from '@/lib/invitations/assignments';
 
 type Rows = NonNullable<ReturnType<typeof loadSessionRows>>;
 
@@ -41,7 +41,7 @@ describe('a person’s runs, as the e-mail, My runs and the calendar describe th
   const winter = rows(new Date('2026-12-05T18:30:00Z'), 'Europe/London');
 
   it('gives fast and real departure times', () => {
-    const [first] = runsOf(winter, 'u1');
+    const [first] = runsAssignedTo(winter, 'u1');
     // Fast clock 4:1 from 06:00: 300 real s × 4 = 1200 fast s = 20 min, so 06:20 (derived; DOMAIN.md fast clock).
     expect(first!.fastDepart).toBe('06:20');
     // 360 s × 4 = 24 min → 06:24.
@@ -53,11 +53,11 @@ describe('a person’s runs, as the e-mail, My runs and the calendar describe th
 
   it('in British Summer Time the same run reads an hour later on the clock', () => {
     const summer = rows(new Date('2026-07-04T17:30:00Z'), 'Europe/London');
-    expect(runsOf(summer, 'u1')[0]!.realDepart).toBe('18:35'); // UTC+1 in summer (IANA tz database)
+    expect(runsAssignedTo(summer, 'u1')[0]!.realDepart).toBe('18:35'); // UTC+1 in summer (IANA tz database)
   });
 
   it('lists the route in block order and the stand times from the first and last steps', () => {
-    const [first, second] = runsOf(winter, 'u1');
+    const [first, second] = runsAssignedTo(winter, 'u1');
     expect(first!.route).toEqual(['Yard', 'Main', 'Terminus']);
     expect(first!.standBeforeS).toBe(120); // departS − first step's enterS
     expect(first!.standAfterS).toBe(180); // last step's exitS − arriveS
@@ -69,7 +69,7 @@ describe('a person’s runs, as the e-mail, My runs and the calendar describe th
   });
 
   it('names who runs before and after on the same cab, by departure, and ignores other cabs', () => {
-    const mine = runsOf(winter, 'u1');
+    const mine = runsAssignedTo(winter, 'u1');
     expect(mine.map((r) => r.runId)).toEqual(['r1', 'r3']);
     expect(mine[0]!.before).toBeNull();
     expect(mine[0]!.after).toMatchObject({ runId: 'r2', operatorName: 'Ben', trainName: 'Stopper', fastDepart: '07:00' });

@@ -5,7 +5,7 @@ import { redirect } from 'next/navigation';
 import { z } from 'zod';
 import { listMemberInvitationsFor, takeMemberInvitation } from '@/db/queries/member-invitations';
 import { addMember } from '@/db/queries/memberships';
-import { createRailway as insertRailway, recordAudit } from '@/db/queries/railways';
+import { insertRailway, recordAudit } from '@/db/queries/railways';
 import { endAllSessions, getUserById } from '@/db/queries/users';
 import { requireUser } from '@/lib/auth';
 import { AppError, notFound, type ActionState, parseOrThrow } from '@/lib/errors';

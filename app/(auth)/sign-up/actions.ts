@@ -1,7 +1,7 @@
 'use server';
 
 import bcrypt from 'bcryptjs';
-import { createUser, getUserByEmail } from '@/db/queries/users';
+import { insertUser, getUserByEmail } from '@/db/queries/users';
 import { type ActionState, parseOrThrow } from '@/lib/errors';
 import { action } from '@/lib/http';
 import { clientAddress } from '@/lib/client-key';
@@ -29,7 +29,7 @@ export const signUp = action(['state', 'form'], async (_prev, formData): Promise
     queueAccountExistsMail(existing.email);
   } else {
     // A host may have invited this address already (an account with no password yet).
-    const user = existing ?? createUser({ email: input.email, name: input.name, passwordHash: null });
+    const user = existing ?? insertUser({ email: input.email, name: input.name, passwordHash: null });
     queueConfirmSignUpMail(user.email, issueSignUpToken(user.id, passwordHash, input.name));
   }
   return { ok: true, message: `Check ${input.email}: we sent a link there to finish creating your account.` };

@@ -3,7 +3,7 @@
 import { clientAddress } from '@/lib/client-key';
 import { parseOrThrow, type ActionState } from '@/lib/errors';
 import { action } from '@/lib/http';
-import { replyByToken as recordReply } from '@/lib/invitations/reply';
+import { recordReply } from '@/lib/invitations/reply';
 import { claimedInvitationId } from '@/lib/invitations/reply-token';
 import { rateLimit } from '@/lib/rate-limit';
 import { replyByTokenSchema } from '@/lib/validations/invitation';

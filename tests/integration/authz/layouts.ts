@@ -167,10 +167,10 @@ export const LAYOUT_CASES: AuthzCase[] = [
     target: 'app/api/layouts/import/route.ts#POST',
     call: async (w) => {
       const { POST } = await import('@/app/api/layouts/import/route');
-      const { exportPlan } = await import('@/lib/layouts/plan-io');
+      const { exportLayoutPlan } = await import('@/lib/layouts/plan-io');
       const { loadLayoutRows } = await import('@/db/queries/plan-data');
       const { layout } = seedLayout(w.railway.id);
-      const plan = exportPlan(loadLayoutRows(layout.id));
+      const plan = exportLayoutPlan(loadLayoutRows(layout.id));
       const body = JSON.stringify({ railwayId: w.railway.id, name: 'Imported', plan });
       return (await POST(new Request('http://t/api', { method: 'POST', body, headers: { 'content-type': 'application/json' } }), ctx({}))).status;
     },
@@ -181,9 +181,9 @@ export const LAYOUT_CASES: AuthzCase[] = [
     call: async (w) => {
       const { GET } = await import('@/app/api/layouts/[layoutId]/track-plan/route');
       const { storeTrackPlan } = await import('@/lib/layouts/track-plan-store');
-      const { updateLayout } = await import('@/db/queries/layouts');
+      const { updateLayoutById } = await import('@/db/queries/layouts');
       const { layout } = seedLayout(w.railway.id);
-      updateLayout(w.railway.id, layout.id, 1, { trackPlanFile: storeTrackPlan(TINY_PNG, 'image/png'), trackPlanType: 'image/png' });
+      updateLayoutById(w.railway.id, layout.id, 1, { trackPlanFile: storeTrackPlan(TINY_PNG, 'image/png'), trackPlanType: 'image/png' });
       return (await GET(new Request('http://t/api'), ctx({ layoutId: layout.id }))).status;
     },
     expect: anyMember,
@@ -205,9 +205,9 @@ export const LAYOUT_CASES: AuthzCase[] = [
     call: async (w) => {
       const { DELETE } = await import('@/app/api/layouts/[layoutId]/track-plan/route');
       const { storeTrackPlan } = await import('@/lib/layouts/track-plan-store');
-      const { updateLayout } = await import('@/db/queries/layouts');
+      const { updateLayoutById } = await import('@/db/queries/layouts');
       const { layout } = seedLayout(w.railway.id);
-      updateLayout(w.railway.id, layout.id, 1, { trackPlanFile: storeTrackPlan(TINY_PNG, 'image/png'), trackPlanType: 'image/png' });
+      updateLayoutById(w.railway.id, layout.id, 1, { trackPlanFile: storeTrackPlan(TINY_PNG, 'image/png'), trackPlanType: 'image/png' });
       return (await DELETE(new Request('http://t/api?version=2', { method: 'DELETE' }), ctx({ layoutId: layout.id }))).status;
     },
     expect: plannerUp,

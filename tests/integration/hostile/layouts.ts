@@ -68,8 +68,8 @@ const seedWithPlan = perWorld((w: World) => {
   const s = seed(w);
   return (async () => {
     const { storeTrackPlan } = await import('@/lib/layouts/track-plan-store');
-    const { updateLayout } = await import('@/db/queries/layouts');
-    const saved = updateLayout(w.railway.id, s.layout.id, s.layout.version, { trackPlanFile: storeTrackPlan(TINY_PNG, 'image/png'), trackPlanType: 'image/png' });
+    const { updateLayoutById } = await import('@/db/queries/layouts');
+    const saved = updateLayoutById(w.railway.id, s.layout.id, s.layout.version, { trackPlanFile: storeTrackPlan(TINY_PNG, 'image/png'), trackPlanType: 'image/png' });
     if (!saved.ok) throw new Error('could not store the seed track plan');
     return { ...s, version: saved.row.version };
   })();

@@ -1,7 +1,7 @@
 'use server';
 
 import { z } from 'zod';
-import { countLayoutSessions, deleteLayout as removeLayout, insertLayout, updateLayout as saveLayout } from '@/db/queries/layouts';
+import { countLayoutSessions, deleteLayoutById, insertLayout, updateLayoutById } from '@/db/queries/layouts';
 import { recordAudit } from '@/db/queries/railways';
 import { requireMember } from '@/lib/auth';
 import { AppError, parseOrThrow, type ActionState } from '@/lib/errors';
@@ -26,7 +26,7 @@ export const createLayout = action(['id', 'state', 'form'], async (railwayId, _p
 export const updateLayout = action(['id', 'id', 'state', 'form'], async (railwayId, layoutId, _prev, formData): Promise<ActionState> => {
   const { member, layout } = await requireLayout(railwayId, layoutId, 'planner', 'edit layouts');
   const { version, ...values } = parseOrThrow(layoutEditSchema, formToObject(formData));
-  const saved = rowOrThrow(saveLayout(member.railwayId, layout.id, version, values), 'That layout');
+  const saved = rowOrThrow(updateLayoutById(member.railwayId, layout.id, version, values), 'That layout');
   recordAudit({ railwayId: member.railwayId, userId: member.user.id, action: 'update', entity: 'layout', entityId: layout.id });
   revalidateLayout(member.railwayId, layout.id);
   return { ok: true, message: `Layout “${saved.name}” saved.` };
@@ -38,7 +38,7 @@ export const deleteLayout = action(['id', 'id', 'state', 'form'], async (railway
   const { version } = parseOrThrow(rowDeleteSchema.pick({ version: true }), formToObject(formData));
   const n = countLayoutSessions(layout.id);
   if (n > 0) throw new AppError('conflict', `${n} session${n === 1 ? ' uses' : 's use'} this layout; delete ${n === 1 ? 'it' : 'them'} first.`);
-  rowOrThrow(removeLayout(member.railwayId, layout.id, version), 'That layout');
+  rowOrThrow(deleteLayoutById(member.railwayId, layout.id, version), 'That layout');
   recordAudit({ railwayId: member.railwayId, userId: member.user.id, action: 'delete', entity: 'layout', entityId: layout.id, detail: { name: layout.name } });
   revalidateLayout(member.railwayId);
   return { ok: true, message: `Layout “${layout.name}” deleted.` };

@@ -1,4 +1,4 @@
-import { updateLayout } from '@/db/queries/layouts';
+import { updateLayoutById } from '@/db/queries/layouts';
 import { recordAudit } from '@/db/queries/railways';
 import { AppError, notFound, parseOrThrow, readMultipart } from '@/lib/errors';
 import { handler } from '@/lib/http';
@@ -55,7 +55,7 @@ const uploadTrackPlan = handler<Params>(async (request, { params }) => {
     throw new AppError('bad_request', message, { issues: [{ path: 'file', message }] });
   }
   const name = storeTrackPlan(bytes, type);
-  const result = updateLayout(member.railwayId, layout.id, version, { trackPlanFile: name, trackPlanType: type });
+  const result = updateLayoutById(member.railwayId, layout.id, version, { trackPlanFile: name, trackPlanType: type });
   if (!result.ok) removeTrackPlan(name);
   const saved = rowOrThrow(result, 'That layout');
   removeTrackPlan(layout.trackPlanFile);
@@ -70,7 +70,7 @@ const removeTrackPlanImage = handler<Params>(async (request, { params }) => {
   const { member, layout } = await requireLayoutById(layoutId, 'planner', 'change track plans');
   const { version } = parseOrThrow(trackPlanVersionSchema, { version: new URL(request.url).searchParams.get('version') });
   if (!layout.trackPlanFile) throw notFound('The track plan');
-  const saved = rowOrThrow(updateLayout(member.railwayId, layout.id, version, { trackPlanFile: null, trackPlanType: null }), 'That layout');
+  const saved = rowOrThrow(updateLayoutById(member.railwayId, layout.id, version, { trackPlanFile: null, trackPlanType: null }), 'That layout');
   removeTrackPlan(layout.trackPlanFile);
   recordAudit({ railwayId: member.railwayId, userId: member.user.id, action: 'remove-track-plan', entity: 'layout', entityId: layout.id });
   revalidateLayout(member.railwayId, layout.id);

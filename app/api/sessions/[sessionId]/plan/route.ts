@@ -1,6 +1,6 @@
 import { parseOrThrow, readJson } from '@/lib/errors';
 import { handler } from '@/lib/http';
-import { exportPlan, replaceRunsFromPlan } from '@/lib/runs/service';
+import { exportSessionPlan, replaceRunsFromPlan } from '@/lib/runs/service';
 import { PLAN_MAX_BYTES, postPlanSchema, sessionParamsSchema } from './schema';
 
 export const dynamic = 'force-dynamic';
@@ -10,7 +10,7 @@ type Params = { sessionId: string };
 /** The session as the engine's plan interchange, version 2 (each run with its speed and note beside it). */
 const getPlan = handler<Params>(async (_request, { params }) => {
   const { sessionId } = parseOrThrow(sessionParamsSchema, await params);
-  const { session, plan } = await exportPlan(sessionId);
+  const { session, plan } = await exportSessionPlan(sessionId);
   return Response.json(plan, {
     headers: { 'Content-Disposition': `inline; filename="session-${session.id}.plan.json"` },
   });

@@ -7,9 +7,9 @@ import { action } from '@/lib/http';
 import {
   inviteToSession,
   remindUnanswered,
-  resendInvitation as resendOne,
-  sendNotices as sendAll,
-  setReplyDeadline as setDeadline,
+  queueInvitationAgain,
+  queueSessionNotices,
+  saveReplyDeadline,
 } from '@/lib/invitations/send';
 import {
   inviteCrewSchema,
@@ -46,7 +46,7 @@ export const sendNotices = action(['id', 'id', 'state', 'form'], async (railwayI
   const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'send invitations');
   const id = parseOrThrow(sessionIdSchema, sessionId);
   const { kind } = parseOrThrow(sendNoticesSchema, { kind: formData.get('kind') });
-  const result = sendAll({ railwayId: host.railwayId, sessionId: id, host: host.user, kind });
+  const result = queueSessionNotices({ railwayId: host.railwayId, sessionId: id, host: host.user, kind });
   revalidatePath(trackerPath(host.railwayId, id));
   const what = kind === 'cancel' ? 'cancellation' : kind === 'update' ? 'update' : 'invitation';
   return {
@@ -63,7 +63,7 @@ export const resendInvitation = action(['id', 'id', 'state', 'form'], async (rai
   const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'send invitations');
   const id = parseOrThrow(sessionIdSchema, sessionId);
   const { invitationId } = parseOrThrow(resendSchema, { invitationId: formData.get('invitationId') });
-  const result = resendOne({ railwayId: host.railwayId, sessionId: id, host: host.user, invitationId });
+  const result = queueInvitationAgain({ railwayId: host.railwayId, sessionId: id, host: host.user, invitationId });
   revalidatePath(trackerPath(host.railwayId, id));
   return { ok: true, message: result.requeued ? 'Retrying the failed e-mail now.' : result.queued ? 'Sent again.' : 'Already queued.' };
 });
@@ -83,7 +83,7 @@ export const setReplyDeadline = action(['id', 'id', 'state', 'form'], async (rai
   const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'set the reply deadline');
   const id = parseOrThrow(sessionIdSchema, sessionId);
   const { replyBy } = parseOrThrow(replyDeadlineSchema, { replyBy: formData.get('replyBy') ?? '' });
-  const result = setDeadline({ railwayId: host.railwayId, sessionId: id, host: host.user, replyBy });
+  const result = saveReplyDeadline({ railwayId: host.railwayId, sessionId: id, host: host.user, replyBy });
   revalidatePath(trackerPath(host.railwayId, id));
   return { ok: true, message: result.replyBy ? 'Reply deadline saved. E-mails from now on say it.' : 'Reply deadline removed.' };
 });
