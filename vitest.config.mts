@@ -24,7 +24,7 @@ const unit: TestProjectInlineConfiguration = {
     include: ['tests/unit/**/*.test.ts'],
     exclude: ['**/node_modules/**', ...(engineRun ? ['tests/unit/control/**'] : [])],
     environment: 'node',
-    ...(underStryker ? { testTimeout: 120_000 } : {}),
+    ...(underStryker ? { testTimeout: 120_000, setupFiles: ['tests/shared/mutation-setup.ts'] } : {}),
   },
 };
 
@@ -35,7 +35,7 @@ const integration: TestProjectInlineConfiguration = {
     include: ['tests/integration/**/*.test.ts'],
     exclude: ['**/node_modules/**', ...childProcessTests],
     environment: 'node',
-    setupFiles: ['tests/integration/setup.ts'],
+    setupFiles: ['tests/integration/setup.ts', ...(underStryker ? ['tests/shared/mutation-setup.ts'] : [])],
     pool: 'forks',
     fileParallelism: false,
     testTimeout: 30_000,
