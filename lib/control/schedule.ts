@@ -1,4 +1,4 @@
-import { defaultRamps, dropAt, driverDrop, dutyFor, formatFast, indexPlan, neededOutput, plannedSpeedKmh, travelOfPlan, type Plan, type Travel } from '@/lib/planning';
+import { defaultRamps, dropAt, driverDrop, dutyFor, formatFast, indexPlan, neededOutput, plannedSpeedKmh, trainAmps, travelOfPlan, type Plan, type Travel } from '@/lib/planning';
 import type { BlockWiring, ControlTiming, WiringSheet } from './wiring';
 
 /** Format name and version of the control schedule (documented in the README). */
@@ -260,7 +260,7 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
     let stillPwm = 0;
     let pwmProblem: string | null = null;
     // The bridge's greatest drop at the train's running current, so the duty is enough (see dutyFor).
-    const trainAmps = train.locoIds.reduce((sum, id) => sum + (locoById.get(id)?.runningAmps ?? 0), train.lightingAmps);
+    const runningAmps = trainAmps(train.lightingAmps, train.locoIds.map((id) => locoById.get(id)).filter((l) => l !== undefined)).runningAmps;
     for (const locoId of train.locoIds) {
       const loco = locoById.get(locoId);
       const top = input.locoTopSpeedKmh[locoId];
@@ -272,7 +272,7 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
       const dutyAt = (targetSpeedKmh: number) =>
         dutyFor({
           supplyVolts: supply.volts,
-          dropVolts: dropAt(driverDrop(driver).max, trainAmps),
+          dropVolts: dropAt(driverDrop(driver).max, runningAmps),
           ratedVolts: loco.ratedVolts,
           topSpeedKmh: top,
           startVolts: loco.startVolts ?? 0,

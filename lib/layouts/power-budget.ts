@@ -9,6 +9,7 @@ import {
   startAmps,
   surgeLimit,
   trackVoltsOf,
+  trainAmps,
   AMPS_TOLERANCE,
   VOLTS_TOLERANCE,
   type DriverPreset,
@@ -123,11 +124,12 @@ export function trainLoads(input: Pick<BudgetInput, 'locomotives' | 'trains'>): 
         ? [{ label: 'lighting', runningAmps: train.lightingAmps, stallAmps: train.lightingAmps, startAmps: train.lightingAmps }]
         : []),
     ];
+    const amps = trainAmps(train.lightingAmps, locos);
     return {
       id: train.id,
       name: train.name,
-      runningAmps: round(parts.reduce((s, p) => s + p.runningAmps, 0)),
-      surgeAmps: round(parts.reduce((s, p) => s + p.startAmps, 0)),
+      runningAmps: round(amps.runningAmps),
+      surgeAmps: round(amps.startAmps),
       parts,
       topSpeedKmh: locos.length ? Math.min(...locos.map((l) => l.topSpeedKmh)) : null,
     };

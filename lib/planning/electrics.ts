@@ -72,6 +72,23 @@ export function startAmps(loco: Pick<Loco, 'runningAmps' | 'stallAmps' | 'ratedV
 }
 
 /**
+ * The one train-current sum: a train's lighting plus each of its locomotives, running and at start
+ * (startAmps). Lighting first, then the locos in order, so every caller adds in the same order.
+ */
+export function trainAmps(
+  lightingAmps: number,
+  locos: Iterable<Pick<Loco, 'runningAmps' | 'stallAmps' | 'ratedVolts' | 'startVolts'>>,
+): { runningAmps: number; startAmps: number } {
+  let running = lightingAmps;
+  let start = lightingAmps;
+  for (const loco of locos) {
+    running += loco.runningAmps;
+    start += startAmps(loco);
+  }
+  return { runningAmps: running, startAmps: start };
+}
+
+/**
  * Scale speed, km/h, of a movement of `lengthMm` model millimetres in `seconds`: mm/s × ratio gives
  * prototype mm/s, × 3600 / 1e6 gives km/h (the inverse of modelSpeedMmPerS).
  */

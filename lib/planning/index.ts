@@ -48,7 +48,7 @@ export type { Finding, FindingKind } from './finding';
 export { buildLoadProfile, runCurrents } from './load';
 export type { LoadPoint, LoadSeries, LoadProfile, HeatPoint, HeatSeries } from './load';
 export { nominalTrackVolts, trackVoltsOf, plannedSpeedKmh } from './voltage';
-export { dropAt, channelWatts, driverDrop, surgeLimit, startAmps, scaleSpeedKmh } from './electrics';
+export { dropAt, channelWatts, driverDrop, surgeLimit, startAmps, trainAmps, scaleSpeedKmh } from './electrics';
 export type { DropLine, DriverDrop } from './electrics';
 export { suggestRetime, applyRetime } from './retime';
 export type { Retime, RetimeOptions } from './retime';

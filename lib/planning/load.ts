@@ -1,5 +1,5 @@
 import { formatSessionTime } from './clock';
-import { channelWatts, driverDrop, startAmps, surgeLimit, type DropLine } from './electrics';
+import { channelWatts, driverDrop, surgeLimit, trainAmps, type DropLine } from './electrics';
 import type { Finding, FindingKind } from './finding';
 import { sortByKey } from './intervals';
 import { withNoun, type PlanNames } from './names';
@@ -73,15 +73,9 @@ export function runCurrents(plan: Plan): { runningAmps: Float64Array; stallAmps:
   for (const loco of plan.locos) if (!locoOf.has(loco.id)) locoOf.set(loco.id, loco);
   const totals = new Map<string, [number, number]>();
   for (const train of plan.trains) {
-    let running = train.lightingAmps;
-    let start = train.lightingAmps;
-    for (const locoId of train.locoIds) {
-      const loco = locoOf.get(locoId);
-      if (loco === undefined) continue;
-      running += loco.runningAmps;
-      start += startAmps(loco);
-    }
-    if (!totals.has(train.id)) totals.set(train.id, [running, start]);
+    const locos = train.locoIds.map((id) => locoOf.get(id)).filter((loco) => loco !== undefined);
+    const amps = trainAmps(train.lightingAmps, locos);
+    if (!totals.has(train.id)) totals.set(train.id, [amps.runningAmps, amps.startAmps]);
   }
   const runningAmps = new Float64Array(plan.runs.length);
   const stallAmps = new Float64Array(plan.runs.length);

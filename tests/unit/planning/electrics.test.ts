@@ -8,6 +8,7 @@ import {
   plannedSpeedKmh,
   startAmps,
   timeRun,
+  trainAmps,
   type Finding,
   type Plan,
 } from '@/lib/planning';
@@ -148,6 +149,16 @@ describe('start current under a PWM ramp', () => {
     expect(startAmps({ runningAmps: 0.5, stallAmps: 1.9, ratedVolts: 12, startVolts: 2.4 })).toBe(0.5);
     // No start voltage measured: the full stall current (nothing says how gently it starts).
     expect(startAmps({ runningAmps: 0.5, stallAmps: 1.9, ratedVolts: 12 })).toBe(1.9);
+  });
+
+  it('a train draws its lighting plus each loco: currents of loads in parallel add (Kirchhoff’s current law)', () => {
+    const locos = [
+      { runningAmps: 0.5, stallAmps: 3, ratedVolts: 12, startVolts: 6 },
+      { runningAmps: 0.25, stallAmps: 1.9, ratedVolts: 12 },
+    ];
+    // Running: 0.125 + 0.5 + 0.25; at start: 0.125 + 3 × 6 / 12 + 1.9 (binary fractions, so exact sums).
+    expect(trainAmps(0.125, locos)).toEqual({ runningAmps: 0.875, startAmps: 0.125 + 1.5 + 1.9 });
+    expect(trainAmps(0.125, [])).toEqual({ runningAmps: 0.125, startAmps: 0.125 });
   });
 
   it('SLRS007B: the same 1.9 A motor started by a ramp with a 2.4 V start voltage passes the 1 A class', () => {
