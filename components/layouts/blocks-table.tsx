@@ -5,7 +5,7 @@ import { createBlock, deleteBlock, updateBlock } from '@/app/(app)/railways/[rai
 import { Badge } from '@/components/ui/card';
 import { fromMm } from '@/lib/layouts/units';
 import { blockEditSchema, blockSchema } from '@/lib/validations/layout';
-import { EntityTable, type EntityColumn, type FormValues } from './entity-table';
+import { EntityTable, type EntityColumn, type FormValues } from '@/components/ui/entity-table';
 import { UnitPicker } from './unit-picker';
 import { useLengthUnit } from './use-length-unit';
 

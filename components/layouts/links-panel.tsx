@@ -9,7 +9,7 @@ import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { Field, Select } from '@/components/ui/field';
 import { linkSchema } from '@/lib/validations/layout';
-import { DataTable } from './data-table';
+import { DataTable } from '@/components/ui/data-table';
 
 type LinkRow = { id: string; a: string; b: string; aEnd: 'a' | 'b'; bEnd: 'a' | 'b' };
 type End = 'a' | 'b';

@@ -16,7 +16,7 @@ import { presetDriverValues } from '@/lib/layouts/driver-electrics';
 import { DRIVER_PRESETS, findDriverPreset } from '@/lib/planning';
 import { cabEditSchema, cabSchema, driverEditSchema, driverSchema, supplyEditSchema, supplySchema } from '@/lib/validations/layout';
 import type { BudgetInput } from '@/lib/layouts/power-budget';
-import { EntityTable, type EntityColumn } from './entity-table';
+import { EntityTable, type EntityColumn } from '@/components/ui/entity-table';
 
 type Versioned<T> = T & { version: number };
 export type SupplyRow = Versioned<BudgetInput['supplies'][number]>;

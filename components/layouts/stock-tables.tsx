@@ -11,7 +11,7 @@ import {
 } from '@/app/(app)/railways/[railwayId]/layouts/[layoutId]/actions';
 import { fromMm } from '@/lib/layouts/units';
 import { locomotiveEditSchema, locomotiveSchema, trainEditSchema, trainSchema } from '@/lib/validations/layout';
-import { EntityTable, type EntityColumn } from './entity-table';
+import { EntityTable, type EntityColumn } from '@/components/ui/entity-table';
 import { UnitPicker } from './unit-picker';
 import { useLengthUnit } from './use-length-unit';
 
