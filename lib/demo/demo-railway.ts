@@ -4,8 +4,9 @@ import type { Db } from '@/db';
 import * as t from '@/db/schema';
 import { demoWiringSheet } from './demo-wiring';
 import { presetDriverValues } from '@/lib/layouts/driver-electrics';
-import { DRIVER_PRESETS, findRoute, timeRun, type DriverPreset } from '@/lib/planning';
+import { DRIVER_PRESETS, routeThrough, timeRun, type DriverPreset, type Ramps } from '@/lib/planning';
 import type { RunFields } from '@/lib/runs/schema';
+import { trainRamps } from '@/lib/sessions/to-plan';
 
 // The demo railway is a scenario of our own invention: the club, its places and its people are
 // made up. Currents are the common-practice figures of the reference notes (an HO can motor runs
@@ -84,6 +85,8 @@ const INDOOR_LOCOS = [
   ['express88', 'Express engine No. 88', 0.5, 1.2, 12, 140, 2.0],
   // Not measured: starts are judged at its full 1.6 A stall current.
   ['freight205', 'Open-frame freight diesel No. 205', 0.6, 1.6, 12, 90, null],
+  // The stone train's second engine, the same class and just as unmeasured: a locomotive runs in one train.
+  ['freight318', 'Open-frame freight diesel No. 318', 0.6, 1.6, 12, 90, null],
 ] as const;
 const GARDEN_LOCOS = [
   ['mogul', 'Garden 2-6-0 "Thistle"', 1.5, 3.0, 18, 50, 3.0],
@@ -96,7 +99,7 @@ const INDOOR_TRAINS = [
   ['express', 'Fernwick express', ['express88'], 0.15, 1300],
   ['goods', 'Pick-up goods', ['freight205'], 0, 1100],
   ['shuttle', 'Railcar shuttle', ['railcar12'], 0.04, 350],
-  ['heavy', 'Double-headed stone train', ['diesel7', 'freight205'], 0, 1350],
+  ['heavy', 'Double-headed stone train', ['diesel7', 'freight318'], 0, 1350],
 ] as const;
 const GARDEN_TRAINS = [['garden', 'Orchard passenger', ['mogul'], 0.06, 2600]] as const;
 
@@ -114,36 +117,45 @@ type RunSpec = {
   standAfterS: number;
 };
 
-// About twenty runs over a three-hour evening. Three clash on purpose so that a newcomer sees the
-// checker's point at once: the goods meets the express below the loop, the railcar shuttle is put
-// on cab 3 while the goods is still moving on it, and the double-headed stone train draws more
-// than its 1 A-class channel can carry.
+// Twenty runs over a three-hour evening. The trains start where their first run leaves: the stopper in
+// the loop's passing road, the express in yard road 2, the goods in Fernwick platform 1, the railcar in
+// the loop's main road, the stone train in yard road 3. The whole session's occupancy holds: no train
+// stands in a block another run passes through (only the terminal roads and one road of the loop at a
+// time hold a standing train), and the line is timed with each train's ramps. Three clashes are there
+// on purpose, so that a newcomer sees the checker's point at once: the railcar shuttle is put on cab 3
+// while the goods is still moving on it, the goods sets off from the loop while the express is still
+// coming down Fernwick bank, and the double-headed stone train draws more than its 1 A-class channel
+// can carry (it also leaves from yard road 3, whose feeders are the wrong way round: a short at its
+// rail gap).
 const RUNS: RunSpec[] = [
-  { train: 'stopper', cab: 'cab1', operator: 'operator', from: 'T1', to: 'Y1', via: 'L1', departMin: 5, speedKmh: 50, standBeforeS: 120, standAfterS: 180 },
-  { train: 'express', cab: 'cab2', operator: 'op2', from: 'Y2', to: 'T2', via: 'L1', departMin: 8, speedKmh: 90, standBeforeS: 180, standAfterS: 300 },
-  { train: 'goods', cab: 'cab3', operator: 'op3', from: 'Y2', to: 'L2', departMin: 14, speedKmh: 40, standBeforeS: 120, standAfterS: 240 },
+  { train: 'stopper', cab: 'cab1', operator: 'operator', from: 'L2', to: 'Y1', departMin: 5, speedKmh: 50, standBeforeS: 120, standAfterS: 180 },
+  { train: 'express', cab: 'cab2', operator: 'op2', from: 'Y2', to: 'T2', via: 'L2', departMin: 8, speedKmh: 90, standBeforeS: 180, standAfterS: 300 },
+  { train: 'goods', cab: 'cab3', operator: 'op3', from: 'T1', to: 'L2', departMin: 14, speedKmh: 40, standBeforeS: 120, standAfterS: 240 },
   // Clash: the railcar shuttle is put on cab 3 while the goods is still moving on it.
-  { train: 'shuttle', cab: 'cab3', operator: 'op4', from: 'T1', to: 'M3', departMin: 14.3, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
-  { train: 'stopper', cab: 'cab1', operator: 'operator', from: 'Y1', to: 'T1', via: 'L1', departMin: 22, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
+  { train: 'shuttle', cab: 'cab3', operator: 'op4', from: 'L1', to: 'Y2', departMin: 14.3, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
+  { train: 'shuttle', cab: 'cab3', operator: 'op4', from: 'Y2', to: 'T1', via: 'L1', departMin: 24, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
   // Clash: the goods sets off from the loop while the express is still coming down Fernwick bank.
   { train: 'express', cab: 'cab2', operator: 'op2', from: 'T2', to: 'Y2', via: 'L1', departMin: 32, speedKmh: 90, standBeforeS: 120, standAfterS: 300 },
   { train: 'goods', cab: 'cab3', operator: 'op3', from: 'L2', to: 'T2', departMin: 32.1, speedKmh: 40, standBeforeS: 60, standAfterS: 300 },
-  { train: 'shuttle', cab: 'cab4', operator: 'op4', from: 'M3', to: 'T1', departMin: 45, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
-  { train: 'stopper', cab: 'cab1', operator: 'operator', from: 'T1', to: 'Y1', via: 'L2', departMin: 52, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
-  { train: 'express', cab: 'cab2', operator: 'op2', from: 'Y2', to: 'T2', via: 'L1', departMin: 58.5, speedKmh: 90, standBeforeS: 120, standAfterS: 300 },
-  { train: 'shuttle', cab: 'cab4', operator: 'op5', from: 'T1', to: 'M4', departMin: 66, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
-  { train: 'goods', cab: 'cab3', operator: 'op3', from: 'T2', to: 'Y1', via: 'L2', departMin: 75, speedKmh: 40, standBeforeS: 60, standAfterS: 300 },
-  { train: 'stopper', cab: 'cab1', operator: 'operator', from: 'Y1', to: 'T1', via: 'L1', departMin: 88, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
+  { train: 'shuttle', cab: 'cab4', operator: 'op5', from: 'T1', to: 'L1', departMin: 40, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
+  { train: 'stopper', cab: 'cab1', operator: 'operator', from: 'Y1', to: 'T1', via: 'L2', departMin: 45, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
+  { train: 'goods', cab: 'cab3', operator: 'op3', from: 'T2', to: 'Y1', via: 'L2', departMin: 52, speedKmh: 40, standBeforeS: 60, standAfterS: 300 },
+  { train: 'express', cab: 'cab2', operator: 'op2', from: 'Y2', to: 'T2', via: 'L2', departMin: 58.5, speedKmh: 90, standBeforeS: 120, standAfterS: 300 },
+  { train: 'stopper', cab: 'cab1', operator: 'operator', from: 'T1', to: 'Y2', via: 'L2', departMin: 66, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
+  { train: 'shuttle', cab: 'cab4', operator: 'op4', from: 'L1', to: 'T1', departMin: 72, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
   // Clash: two motors on one 1 A-class channel (0.45 A + 0.6 A running, more at start-up). It
   // also leaves from yard road 3, whose feeders are the wrong way round: a short at its rail gap.
-  { train: 'heavy', cab: 'cab1', operator: 'op6', from: 'Y3', to: 'M4', via: 'L2', departMin: 100, speedKmh: 35, standBeforeS: 120, standAfterS: 300 },
-  { train: 'shuttle', cab: 'cab4', operator: 'op4', from: 'M4', to: 'T1', departMin: 108, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
-  { train: 'express', cab: 'cab2', operator: 'op2', from: 'T2', to: 'Y2', via: 'L1', departMin: 118, speedKmh: 90, standBeforeS: 120, standAfterS: 300 },
-  { train: 'stopper', cab: 'cab3', operator: 'operator', from: 'T1', to: 'Y1', via: 'L2', departMin: 130, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
-  { train: 'heavy', cab: 'cab1', operator: 'op6', from: 'M4', to: 'Y2', via: 'L1', departMin: 142, speedKmh: 35, standBeforeS: 60, standAfterS: 300 },
-  { train: 'goods', cab: 'cab3', operator: 'op3', from: 'Y1', to: 'L2', departMin: 150, speedKmh: 40, standBeforeS: 60, standAfterS: 300 },
-  { train: 'shuttle', cab: 'cab4', operator: 'op5', from: 'T1', to: 'M3', departMin: 160, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
+  { train: 'heavy', cab: 'cab1', operator: 'op6', from: 'Y3', to: 'L1', departMin: 100, speedKmh: 35, standBeforeS: 120, standAfterS: 300 },
+  { train: 'stopper', cab: 'cab1', operator: 'operator', from: 'Y2', to: 'L2', departMin: 108, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
+  { train: 'heavy', cab: 'cab1', operator: 'op6', from: 'L1', to: 'Y2', departMin: 118, speedKmh: 35, standBeforeS: 60, standAfterS: 300 },
+  { train: 'shuttle', cab: 'cab4', operator: 'op5', from: 'T1', to: 'L1', departMin: 126, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
+  { train: 'stopper', cab: 'cab3', operator: 'operator', from: 'L2', to: 'T1', departMin: 134, speedKmh: 50, standBeforeS: 60, standAfterS: 240 },
+  { train: 'goods', cab: 'cab3', operator: 'op3', from: 'Y1', to: 'L2', departMin: 142, speedKmh: 40, standBeforeS: 60, standAfterS: 300 },
+  { train: 'shuttle', cab: 'cab3', operator: 'op5', from: 'L1', to: 'Y1', departMin: 150, speedKmh: 60, standBeforeS: 60, standAfterS: 120 },
 ];
+
+/** The indoor branch is H0. */
+const INDOOR_SCALE_RATIO = 87;
 
 const INDOOR_TRACK = {
   blocks: INDOOR_BLOCKS.map(([key, , lengthMm]) => ({ id: key, lengthMm })),
@@ -152,26 +164,29 @@ const INDOOR_TRACK = {
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
-/** Times one demo run on the indoor branch (block keys) and writes it with its steps. */
+/**
+ * Times one demo run on the indoor branch (block keys) as the builder does (lib/runs/rules.ts): the
+ * route a train can take through the waypoints without reversing, timed with the train's ramps, each
+ * step recording its direction of travel; then writes it with its steps.
+ */
 function insertDemoRun(
   tx: Tx,
   spec: RunSpec,
-  ids: { sessionId: string; trainId: string; trainLengthMm: number; cabId: string; operatorId: string | null; blockId: (key: string) => string },
+  ids: { sessionId: string; trainId: string; trainLengthMm: number; ramps: Ramps; cabId: string; operatorId: string | null; blockId: (key: string) => string },
   offsetS = 0,
 ): void {
-  const route = spec.via
-    ? [...(findRoute(INDOOR_TRACK, spec.from, spec.via) ?? []), ...(findRoute(INDOOR_TRACK, spec.via, spec.to) ?? []).slice(1)]
-    : findRoute(INDOOR_TRACK, spec.from, spec.to);
-  if (!route || route.length < 2) throw new Error(`demo: no route ${spec.from} → ${spec.to}`);
+  const found = routeThrough(INDOOR_TRACK, spec.via ? [spec.from, spec.via, spec.to] : [spec.from, spec.to]);
+  if (!found.ok || found.steps.length < 2) throw new Error(`demo: no route ${spec.from} → ${spec.to}`);
   const timed = timeRun({
     blocks: INDOOR_TRACK.blocks,
-    scaleRatio: 87,
+    scaleRatio: INDOOR_SCALE_RATIO,
     trainLengthMm: ids.trainLengthMm,
-    route,
+    route: found.steps.map((step) => step.blockId),
     departS: offsetS + spec.departMin * 60,
     speedKmh: spec.speedKmh,
     standBeforeS: spec.standBeforeS,
     standAfterS: spec.standAfterS,
+    ...ids.ramps,
   });
   // The same record every other path writes (lib/runs/schema.ts), so a new run field shows here too.
   const run: RunFields = {
@@ -182,7 +197,7 @@ function insertDemoRun(
     arriveS: timed.arriveS,
     speedKmh: spec.speedKmh,
     note: '',
-    steps: timed.steps.map((step) => ({ ...step, blockId: ids.blockId(step.blockId) })),
+    steps: timed.steps.map((step, i) => ({ ...step, blockId: ids.blockId(step.blockId), fromEnd: found.steps[i]!.fromEnd, toEnd: found.steps[i]!.toEnd })),
   };
   const { steps, ...row } = run;
   const runId = tx
@@ -251,7 +266,7 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
       {
         name: 'Kestrel Vale branch (H0)',
         scaleName: 'H0',
-        scaleRatio: 87,
+        scaleRatio: INDOOR_SCALE_RATIO,
         setting: 'indoor',
         notes: 'Single-track branch from Larkholm yard through the Mossgate passing loop to the Fernwick terminus. Thirteen blocks, four cabs.',
       },
@@ -361,6 +376,8 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
         sessionId,
         trainId: train.id,
         trainLengthMm: train.lengthMm,
+        // The demo's trains store no ramps of their own: H0's common practice, as the builder would use.
+        ramps: trainRamps({ accelKmhPerS: null, brakingKmhPerS: null }, INDOOR_SCALE_RATIO),
         cabId: cabIds[spec.cab],
         operatorId: spec.operator ? userIds[spec.operator] : null,
         blockId: (key) => indoor.blockIds[key]!,
@@ -434,6 +451,7 @@ export function seedLargeSession(db: Db, repeats = 10): { sessionId: string; run
             sessionId,
             trainId: train.id,
             trainLengthMm: train.lengthMm,
+            ramps: trainRamps(train, layout.scaleRatio),
             cabId: cabId(spec.cab),
             operatorId: spec.operator ? userId(spec.operator) : null,
             blockId,

@@ -77,7 +77,7 @@ test('a planner sees the seeded clashes, repairs timing, and brings a clash back
   await dialog.getByTestId('apply-retime').click();
   await expect(dialog).toBeHidden();
   for (const kind of TIMING_KINDS) await expect(timetable.finding(kind)).toHaveCount(0);
-  // Block clashes leave the graph; trains standing in a block another comes into stay boxed (a retime does not clear those).
+  // Block clashes leave the graph (the demo has no train standing where another passes, which a retime would not clear).
   await expect(timetable.graphClashes.and(page.locator('[data-kind="block-overlap"]'))).toHaveCount(0);
   await expect(page.getByTestId('undo-bar')).toContainText('Repaired timing (2 runs moved)');
   // Power overloads are not a timing matter and stay.
