@@ -10,7 +10,7 @@ export type CsvChange<V> = { action: 'create' } & { values: V } | { action: 'upd
 
 export type CsvChanges =
   | { table: 'blocks'; changes: CsvChange<BlockValues>[] }
-  | { table: 'links'; changes: CsvChange<{ blockAId: string; blockBId: string }>[] }
+  | { table: 'links'; changes: CsvChange<{ blockAId: string; blockBId: string; blockAEnd: 'a' | 'b'; blockBEnd: 'a' | 'b' }>[] }
   | { table: 'locomotives'; changes: CsvChange<LocomotiveValues>[] }
   | { table: 'trains'; changes: CsvChange<TrainValues & { locomotiveIds: string[] }>[] };
 

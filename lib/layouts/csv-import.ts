@@ -34,7 +34,12 @@ export function exportCsv(table: CsvTable, rows: LayoutRows): string {
     case 'links':
       return toCsv(
         table,
-        rows.links.map((l) => ({ block_a: blockName.get(l.blockAId) ?? '', block_b: blockName.get(l.blockBId) ?? '' })),
+        rows.links.map((l) => ({
+          block_a: blockName.get(l.blockAId) ?? '',
+          block_b: blockName.get(l.blockBId) ?? '',
+          block_a_end: l.blockAEnd,
+          block_b_end: l.blockBEnd,
+        })),
       );
     case 'locomotives':
       return toCsv(
@@ -140,8 +145,10 @@ export function planCsvImport(table: CsvTable, text: string, rows: LayoutRows): 
     }
     case 'links': {
       const blockByName = new Map(rows.blocks.map((b) => [lower(b.name), b]));
-      const linked = new Set(rows.links.flatMap((l) => [`${l.blockAId}|${l.blockBId}`, `${l.blockBId}|${l.blockAId}`]));
-      const list: CsvChange<{ blockAId: string; blockBId: string }>[] = [];
+      // One link per rail joint: an end of one block against an end of another, either way round.
+      const joint = (aId: string, aEnd: string, bId: string, bEnd: string) => [`${aId}:${aEnd}`, `${bId}:${bEnd}`].sort().join('|');
+      const linked = new Set(rows.links.map((l) => joint(l.blockAId, l.blockAEnd, l.blockBId, l.blockBEnd)));
+      const list: CsvChange<{ blockAId: string; blockBId: string; blockAEnd: 'a' | 'b'; blockBEnd: 'a' | 'b' }>[] = [];
       for (const { row, cells } of records) {
         const label = `${cells.block_a ?? ''} — ${cells.block_b ?? ''}`;
         const a = blockByName.get(lower(cells.block_a ?? ''));
@@ -160,20 +167,32 @@ export function planCsvImport(table: CsvTable, text: string, rows: LayoutRows): 
           push(row, label, 'error');
           continue;
         }
-        const parsed = linkSchema.safeParse({ blockAId: a.id, blockBId: b.id });
+        // A blank end is what the upgrade to track with ends gave an old link (drizzle/0009): along the
+        // line's position order, the block further along meets the other at its a end; equal positions
+        // keep block_a's b end to block_b's a end.
+        const aFurther = a.positionMm > b.positionMm;
+        const endCell = (cell: string | undefined, fallback: 'a' | 'b') => (cell === undefined || cell.trim() === '' ? fallback : lower(cell));
+        const parsed = linkSchema.safeParse({
+          blockAId: a.id,
+          blockBId: b.id,
+          blockAEnd: endCell(cells.block_a_end, aFurther ? 'a' : 'b'),
+          blockBEnd: endCell(cells.block_b_end, aFurther ? 'b' : 'a'),
+        });
         if (!parsed.success) {
-          issues.push(...cellIssues(row, parsed.error, { blockBId: 'block_b', blockAId: 'block_a' }));
+          issues.push(...cellIssues(row, parsed.error, { blockBId: 'block_b', blockAId: 'block_a', blockAEnd: 'block_a_end', blockBEnd: 'block_b_end' }));
           push(row, label, 'error');
           continue;
         }
-        const key = [a.id, b.id].sort().join('|');
-        if (duplicate(row, key, 'block_b', `The link “${a.name}” — “${b.name}”`)) {
+        const v = parsed.data;
+        const key = joint(v.blockAId, v.blockAEnd, v.blockBId, v.blockBEnd);
+        const named = `“${a.name}” (${v.blockAEnd} end) — “${b.name}” (${v.blockBEnd} end)`;
+        if (duplicate(row, key, 'block_b', `The link ${named}`)) {
           push(row, label, 'error');
           continue;
         }
-        const exists = linked.has(`${a.id}|${b.id}`);
-        if (!exists) list.push({ action: 'create', values: { blockAId: a.id, blockBId: b.id } });
-        push(row, `${a.name} — ${b.name}`, exists ? 'unchanged' : 'create');
+        const exists = linked.has(key);
+        if (!exists) list.push({ action: 'create', values: v });
+        push(row, `${a.name} (${v.blockAEnd}) — ${b.name} (${v.blockBEnd})`, exists ? 'unchanged' : 'create');
       }
       changes = { table, changes: list };
       break;

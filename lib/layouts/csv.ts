@@ -13,6 +13,8 @@ export const CSV_COLUMNS: Record<CsvTable, { name: string; required: boolean; he
   links: [
     { name: 'block_a', required: true, help: 'a block name' },
     { name: 'block_b', required: true, help: 'another block name' },
+    { name: 'block_a_end', required: false, help: "a or b, block_a's end at the joint; blank: by position, the block further along meets at its a end, the other at its b end" },
+    { name: 'block_b_end', required: false, help: "a or b, block_b's end at the joint; blank: by position, as for block_a_end" },
   ],
   locomotives: [
     { name: 'name', required: true, help: 'unique within the layout' },

@@ -44,7 +44,7 @@ function snapshot(layoutId: string) {
   const loco = new Map(rows.locomotives.map((l) => [l.id, l.name]));
   return {
     blocks: rows.blocks.map(({ name, lengthMm, positionMm }) => ({ name, lengthMm, positionMm })).sort((a, b) => a.name.localeCompare(b.name)),
-    links: rows.links.map((l) => [block.get(l.blockAId), block.get(l.blockBId)].sort().join('|')).sort(),
+    links: rows.links.map((l) => [`${block.get(l.blockAId)}:${l.blockAEnd}`, `${block.get(l.blockBId)}:${l.blockBEnd}`].sort().join('|')).sort(),
     supplies: rows.supplies.map(({ name, volts, amps }) => ({ name, volts, amps })),
     drivers: rows.drivers.map(({ name, presetId, partNumber, channels, channelAmps, channelPeakAmps, totalAmps, dropVolts }) => ({ name, presetId, partNumber, channels, channelAmps, channelPeakAmps, totalAmps, dropVolts })),
     cabs: rows.cabs.map(({ name, channel }) => ({ name, channel })),
@@ -126,7 +126,7 @@ describe('CSV import and export', () => {
     const preview = await csv(seed.layout.id, 'links', 'block_a,block_c\nSeed east,Seed west\n');
     expect(preview.body.issues).toEqual([
       { row: 1, column: 'block_b', message: 'The column “block_b” is missing (another block name).' },
-      { row: 1, column: 'block_c', message: 'Unknown column “block_c”; the columns are block_a, block_b.' },
+      { row: 1, column: 'block_c', message: 'Unknown column “block_c”; the columns are block_a, block_b, block_a_end, block_b_end.' },
     ]);
   });
 
@@ -167,6 +167,53 @@ describe('CSV import and export', () => {
     expect(b.links).toEqual(a.links);
     expect(b.locomotives).toEqual(a.locomotives);
     expect(b.trains).toEqual(a.trains);
+  });
+
+  it('links carry the ends of the rail joint: exported, read back, and a balloon loop is two links between one pair', async () => {
+    const w = makeWorld();
+    const seed = seedLayout(w.railway.id);
+    signInAs(w.planner);
+    // A balloon loop beyond Seed siding (position 2700): both of its ends meet the siding's b end.
+    const blocks = await csv(seed.layout.id, 'blocks', 'name,length,unit,position\nBalloon,4,m,3300\n');
+    expect((await csv(seed.layout.id, 'blocks', 'name,length,unit,position\nBalloon,4,m,3300\n', `mode=commit&basis=${blocks.body.basis}`)).status).toBe(200);
+    const file = ['block_a,block_b,block_a_end,block_b_end', 'Seed siding,Balloon,b,a', 'Seed siding,Balloon,B,b', 'Seed west,Seed siding,,'].join('\n');
+    const preview = await csv(seed.layout.id, 'links', file);
+    expect(preview.body.issues).toEqual([]);
+    expect(preview.body.rows.map((r: { label: string; action: string }) => `${r.label}: ${r.action}`)).toEqual([
+      'Seed siding (b) — Balloon (a): create',
+      'Seed siding (b) — Balloon (b): create',
+      // Blank ends as the upgrade to ends gives them: Seed siding is further along, so it meets at its a end.
+      'Seed west (b) — Seed siding (a): create',
+    ]);
+    expect((await csv(seed.layout.id, 'links', file, `mode=commit&basis=${preview.body.basis}`)).status).toBe(200);
+    expect(snapshot(seed.layout.id).links).toEqual(['Balloon:a|Seed siding:b', 'Balloon:b|Seed siding:b', 'Seed east:b|Seed west:a', 'Seed siding:a|Seed west:b']);
+    // The export writes every joint's ends; read back on its own layout, each joint is unchanged.
+    const text = await exportCsv(seed.layout.id, 'links');
+    expect(text.split('\r\n')[0]).toBe('block_a,block_b,block_a_end,block_b_end');
+    expect(text).toContain('Seed siding,Balloon,b,b');
+    expect((await csv(seed.layout.id, 'links', text)).body.counts).toMatchObject({ create: 0, unchanged: 4, error: 0 });
+    // The same joint named from the other side is the same link; an old file without ends still imports.
+    const flipped = await csv(seed.layout.id, 'links', 'block_a,block_b,block_a_end,block_b_end\nBalloon,Seed siding,b,b\n');
+    expect(flipped.body.counts).toMatchObject({ create: 0, unchanged: 1 });
+    const old = await csv(seed.layout.id, 'links', 'block_a,block_b\nSeed west,Seed east\n');
+    // Seed west (1500) is further along than Seed east (0): its a end meets Seed east's b end, the stored joint.
+    expect(old.body.counts).toMatchObject({ create: 0, unchanged: 1, error: 0 });
+  });
+
+  it('a link end that is not a or b, or a joint twice in one file, is a row problem on its column', async () => {
+    const w = makeWorld();
+    const seed = seedLayout(w.railway.id);
+    signInAs(w.planner);
+    const file = ['block_a,block_b,block_a_end,block_b_end', 'Seed west,Seed siding,c,a', 'Seed west,Seed siding,b,a', 'Seed siding,Seed west,a,b'].join('\n');
+    const preview = await csv(seed.layout.id, 'links', file);
+    expect(preview.body.issues).toEqual([
+      { row: 2, column: 'block_a_end', message: 'must be the a end or the b end' },
+      { row: 4, column: 'block_b', message: 'The link “Seed siding” (a end) — “Seed west” (b end) is already on row 3 of this file.' },
+    ]);
+    expect(preview.body.counts).toMatchObject({ create: 1, error: 2 });
+    const before = snapshot(seed.layout.id);
+    expect((await csv(seed.layout.id, 'links', file, `mode=commit&basis=${preview.body.basis}`)).status).toBe(400);
+    expect(snapshot(seed.layout.id)).toEqual(before);
   });
 
   it('operators may export but not import; another railway’s layout is 404', async () => {
