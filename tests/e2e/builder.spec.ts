@@ -123,6 +123,11 @@ test('a long group of findings folds and lists its first 20: a draft copy where 
   // Trains standing in a block another train comes into are boxed on the graph like other clashes.
   expect(await page.locator('[data-testid="graph-clash"][data-kind="block-occupied"]').count()).toBeGreaterThan(0);
   await screenshotBoth(page, 'builder-long-group');
+  // The copy is cancelled again: other tests count the sessions of the demo's title that are coming up.
+  await page.getByRole('link', { name: 'Settings and status' }).click();
+  await page.getByRole('button', { name: 'Cancel session…' }).click();
+  await page.getByRole('alertdialog').getByRole('button', { name: 'Cancel the session' }).click();
+  await expect(page.getByTestId('status-form').getByRole('button', { name: 'Reopen as draft' })).toBeVisible();
 });
 
 test('on a phone the findings are a sheet that folds to one line', async ({ page, signInAs, railwayPage }) => {

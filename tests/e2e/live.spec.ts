@@ -90,21 +90,22 @@ test('the session day: clock, reports from phones, the board follows, a delay ma
   await priya.unroute('**/api/sessions/*/live*');
   await expect(priya.getByTestId('live-mode')).toHaveText('Live');
 
-  // The host puts a wrong report right from the board: the stopper really left at 06:25, and its
+  // The host puts a wrong report right from the board: the stopper really left at 06:28, and its
   // arrival was pressed too soon. Juno's phone follows, and the run's history names who did what.
   const correct = host.getByTestId('correct-reports');
   await correct.getByLabel('Run', { exact: true }).selectOption({ label: 'Wrenhollow stopper · planned 06:20' });
-  await correct.getByLabel('Departure at (fast HH:MM)').fill('06:25');
+  await correct.getByLabel('Departure at (fast HH:MM)').fill('06:28');
   await correct.getByTestId('correction-row').filter({ hasText: 'Departure' }).getByRole('button', { name: 'Set time' }).click();
-  await expect(correct.getByTestId('report-history')).toContainText('06:25 departed — corrected by Hazel Brightwater');
+  await expect(correct.getByTestId('report-history')).toContainText('06:28 departed — corrected by Hazel Brightwater');
   await expect(host.getByTestId('live-feed')).toContainText('(corrected by Hazel Brightwater)');
   await correct.getByTestId('correction-row').filter({ hasText: 'Arrival' }).getByRole('button', { name: 'Withdraw' }).click();
   await expect(correct.getByTestId('report-history')).toContainText('arrived — withdrawn by Hazel Brightwater');
   await expect(correct.getByTestId('correction-row').filter({ hasText: 'Arrival' })).toHaveCount(0);
   await expect(junoNext).toContainText('Under way');
   await expect(junoNext).toContainText('Wrenhollow stopper');
-  // 06:25 against the planned 06:20: five fast minutes late now, not ten.
-  await expect(host.getByTestId('late-run').filter({ hasText: 'Wrenhollow stopper' })).toContainText('+5 min');
+  // 06:28 against the planned 06:20: eight fast minutes late now, not ten. (The run takes under three fast
+  // minutes, so at 06:30 it is not yet due at the other end: the departure sets the lateness.)
+  await expect(host.getByTestId('late-run').filter({ hasText: 'Wrenhollow stopper' })).toContainText('+8 min');
   await screenshotBoth(host, 'live-board-correct');
   await juno.getByTestId('my-corrections').locator('summary').click();
   await expect(juno.getByTestId('my-corrections').getByTestId('report-history')).toContainText('withdrawn by Hazel Brightwater');
