@@ -120,8 +120,8 @@ type RunSpec = {
 // Twenty runs over a three-hour evening. The trains start where their first run leaves: the stopper in
 // the loop's passing road, the express in yard road 2, the goods in Fernwick platform 1, the railcar in
 // the loop's main road, the stone train in yard road 3. The whole session's occupancy holds: no train
-// stands in a block another run passes through (only the terminal roads and one road of the loop at a
-// time hold a standing train), and the line is timed with each train's ramps. Three clashes are there
+// stands in a block another run passes through (trains stand in the terminal roads and the loop's roads;
+// a run passes the loop by whichever road is free), and the line is timed with each train's ramps. Three clashes are there
 // on purpose, so that a newcomer sees the checker's point at once: the railcar shuttle is put on cab 3
 // while the goods is still moving on it, the goods sets off from the loop while the express is still
 // coming down Fernwick bank, and the double-headed stone train draws more than its 1 A-class channel

@@ -36,6 +36,14 @@ test('a planner builds a small layout, fixes a CSV import by its row number and 
   await page.reload();
   await expect(page.getByLabel('Length of block Junction')).toHaveValue('1.25');
   await screenshotBoth(page, 'layouts-track');
+  // The links CSV names each rail joint's ends; blank ends follow the line's position order (the block
+  // further along meets at its a end), and a joint already there is unchanged.
+  await layout.checkCsv('links', 'block_a,block_b,block_a_end,block_b_end\nQuay road,Harbour curve,,\nJunction,Quay road,a,a\n');
+  const linksPreview = layout.csv('links').getByTestId('csv-preview');
+  await expect(linksPreview).toContainText('Quay road (b) — Harbour curve (a)');
+  await expect(linksPreview).toContainText('Junction (a) — Quay road (a)');
+  await expect(layout.csv('links').getByRole('button', { name: 'Import 1 row' })).toBeVisible();
+  await screenshotBoth(page, 'layouts-csv-links');
 
   // Power: a supply, a driver from a preset, two cabs.
   await layout.openTab('Power');
