@@ -1,5 +1,5 @@
-import { compareFindings, FINDING_KINDS, orderedPair, type Finding, type FindingKind } from './finding';
-import { countOverlapsInGroups, forEachMarkedOverlapInGroups, forEachOverlapInGroups, groupBy, sortByKey } from './intervals';
+import { compareFindings, FINDING_KINDS, orderedPair, willList, type Finding, type FindingKind, type FindingSink } from './finding';
+import { countOverlapsInGroups, forEachMarkedOverlapInGroups, forEachOverlapInGroups, groupBy, orderByKey } from './intervals';
 import { TIME_TOLERANCE_S } from './rules';
 import { buildLoadProfile, findPowerOverloads, type LoadProfile } from './load';
 import { planNames, sentenceCase, withNoun, type PlanNames } from './names';
@@ -50,7 +50,7 @@ export class CheckBudgetError extends Error {
  * Findings as they are found: every one is counted, but only the first `maxPerKind` of a kind are
  * built (message included), so a plan with a quadratic number of clashes costs no more than the caps.
  */
-class FindingList {
+class FindingList implements FindingSink {
   readonly counts = Object.fromEntries(FINDING_KINDS.map((kind) => [kind, 0])) as Record<FindingKind, number>;
   readonly listed: Finding[] = [];
   readonly totals = { errors: 0, warnings: 0 };
@@ -61,6 +61,15 @@ class FindingList {
   /** How many more findings of this kind will be listed. */
   room(kind: FindingKind): number {
     return this.maxPerKind - this.kept[kind];
+  }
+
+  /** Whether a finding of this kind added now is listed (else only counted). */
+  lists(kind: FindingKind): boolean {
+    return this.kept[kind] < this.maxPerKind;
+  }
+
+  push(finding: Finding): void {
+    this.add(finding);
   }
 
   add(finding: Finding): void {
@@ -138,25 +147,29 @@ export function checkPlan(plan: Plan, options: CheckOptions = {}): PlanCheck {
   const list = new FindingList(options.maxPerKind ?? FINDING_LIMITS.perKind);
   const index = indexPlan(plan);
   const names = planNames(plan);
-  const sessionEnd = findBlockClashes(plan, index, names, list);
+  // Shared orders: every step by entry, and each train's runs in the order it runs them.
+  const stepsByEnter = orderByKey(index.stepEnter);
+  const trainRuns = runsByTrain(plan, index);
+  const sessionEnd = findBlockClashes(plan, index, stepsByEnter, trainRuns, names, list);
   inBudget();
-  findDoubleBookings(plan, index.runCab, plan.cabs, 'cab-double-booked', (id) => withNoun('cab', names.cab(id)), names, list);
-  findDoubleBookings(plan, index.runOperator, plan.operators, 'operator-double-booked', names.operator, names, list);
-  findDoubleBookings(plan, index.runTrain, plan.trains, 'train-double-booked', (id) => withNoun('train', names.train(id)), names, list);
+  const movements = runMovements(plan);
+  findDoubleBookings(plan, movements, index.runCab, plan.cabs, 'cab-double-booked', (id) => withNoun('cab', names.cab(id)), names, list);
+  findDoubleBookings(plan, movements, index.runOperator, plan.operators, 'operator-double-booked', names.operator, names, list);
+  findDoubleBookings(plan, movements, index.runTrain, plan.trains, 'train-double-booked', (id) => withNoun('train', names.train(id)), names, list);
   inBudget();
-  const shapes: Finding[] = [];
+  // The other checks add to the list as they go (each kind comes from one check only), writing
+  // messages only for findings it lists.
   findLocoInTwoTrains(plan, index, names, sessionEnd, list);
-  findContinuityBreaks(plan, index, names, shapes);
-  findRouteGaps(plan, index, names, shapes);
-  findStepGaps(plan, names, shapes);
-  findTooLong(plan, index, names, shapes);
-  findPolarityIssues(plan, index, names, shapes);
+  findContinuityBreaks(plan, trainRuns, names, list);
+  findRouteGaps(plan, index, names, list);
+  findStepGaps(plan, names, list);
+  findTooLong(plan, index, names, list);
+  findPolarityIssues(plan, index, names, list, stepsByEnter);
   inBudget();
   const load = buildLoadProfile(plan, index);
-  findPowerOverloads(load, plan.rules.derate, shapes, names);
-  findVoltageIssues(plan, index, shapes, names);
+  findPowerOverloads(load, plan.rules.derate, list, names);
+  findVoltageIssues(plan, index, list, names);
   inBudget();
-  for (const finding of shapes) list.add(finding);
   const findings = list.listed.sort(compareFindings);
   const maxFindings = options.maxFindings ?? FINDING_LIMITS.total;
   if (findings.length > maxFindings) findings.length = maxFindings;
@@ -174,76 +187,87 @@ export function checkPlan(plan: Plan, options: CheckOptions = {}): PlanCheck {
  * last, which no step covers. An interval clashes with another train's when their
  * `[enter, reach)` overlap, reach = exit + headway − TIME_TOLERANCE_S.
  */
-function occupancy(plan: Plan, index: PlanIndex) {
+function occupancy(plan: Plan, index: PlanIndex, stepsByEnter: Int32Array, trainRuns: RunsByTrain) {
   const headway = plan.rules.headwayS;
   const { stepEnter, stepExit, stepBlock, stepRun, stepStart } = index;
   const trainCount = plan.trains.length;
+  const stepCount = stepEnter.length;
   // A run whose train is unknown (only in a plan the schema never saw) is an owner of its own.
-  const ownerOfRun = (r: number) => (index.runTrain[r]! >= 0 ? index.runTrain[r]! : trainCount + r);
-  const stepOrder = Array.from({ length: stepEnter.length }, (_, k) => k).sort(
-    (x, y) =>
-      stepBlock[x]! - stepBlock[y]! ||
-      ownerOfRun(stepRun[x]!) - ownerOfRun(stepRun[y]!) ||
-      stepEnter[x]! - stepEnter[y]! ||
-      x - y,
-  );
-  const block: number[] = [];
-  const owner: number[] = [];
-  const enter: number[] = [];
-  const exit: number[] = [];
-  const reach: number[] = [];
+  const stepOwner = new Int32Array(stepCount);
+  for (let k = 0; k < stepCount; k++) {
+    const r = stepRun[k]!;
+    stepOwner[k] = index.runTrain[r]! >= 0 ? index.runTrain[r]! : trainCount + r;
+  }
+  // Steps in a known block by block, owner, entry and position: stable groupings of the entry order.
+  const byOwner = groupBy(stepOwner, trainCount + plan.runs.length, stepsByEnter).items;
+  const stepOrder = groupBy(stepBlock, plan.blocks.length, byOwner).items;
+
+  // At most one stay per step, and one stand per run and one more per train.
+  const capacity = stepOrder.length + plan.runs.length + trainCount;
+  const block = new Int32Array(capacity);
+  const owner = new Int32Array(capacity);
+  const enterAll = new Float64Array(capacity);
+  const exitAll = new Float64Array(capacity);
+  const reachAll = new Float64Array(capacity);
   /** Stays: their steps are stepOrder[from[i]] .. stepOrder[to[i] − 1]; stands: from[i] = −1 − run. */
-  const from: number[] = [];
-  const to: number[] = [];
+  const from = new Int32Array(capacity);
+  const to = new Int32Array(capacity);
+  let count = 0;
   const push = (b: number, o: number, e: number, x: number, f: number, t: number) => {
-    block.push(b);
-    owner.push(o);
-    enter.push(e);
-    exit.push(x);
-    reach.push(x + headway - TIME_TOLERANCE_S);
-    from.push(f);
-    to.push(t);
+    block[count] = b;
+    owner[count] = o;
+    enterAll[count] = e;
+    exitAll[count] = x;
+    reachAll[count] = x + headway - TIME_TOLERANCE_S;
+    from[count] = f;
+    to[count] = t;
+    count++;
   };
   for (let i = 0; i < stepOrder.length; i++) {
     const k = stepOrder[i]!;
     const b = stepBlock[k]!;
-    if (b < 0) continue;
-    const o = ownerOfRun(stepRun[k]!);
-    const last = block.length - 1;
-    if (last >= 0 && block[last] === b && owner[last] === o && stepEnter[k]! <= exit[last]! + headway) {
-      if (stepExit[k]! > exit[last]!) {
-        exit[last] = stepExit[k]!;
-        reach[last] = stepExit[k]! + headway - TIME_TOLERANCE_S;
+    const o = stepOwner[k]!;
+    const last = count - 1;
+    if (last >= 0 && block[last] === b && owner[last] === o && stepEnter[k]! <= exitAll[last]! + headway) {
+      if (stepExit[k]! > exitAll[last]!) {
+        exitAll[last] = stepExit[k]!;
+        reachAll[last] = stepExit[k]! + headway - TIME_TOLERANCE_S;
       }
       to[last] = i + 1;
       continue;
     }
     push(b, o, stepEnter[k]!, stepExit[k]!, i, i + 1);
   }
-  const stayCount = block.length;
+  const stayCount = count;
 
   // Stands, train by train in departure order.
   let sessionEnd = plan.sessionEndS ?? -Infinity;
   if (plan.sessionEndS === undefined) for (const x of stepExit) if (x > sessionEnd) sessionEnd = x;
-  const { items, offsets } = groupBy(index.runTrain, trainCount);
+  const stand = (t: number, r: number, at: number, fromS: number, toS: number) => {
+    const b = stepBlock[at]!;
+    if (b >= 0 && toS - fromS > TIME_TOLERANCE_S) push(b, t, fromS, toS, -1 - r, -1);
+  };
   for (let t = 0; t < trainCount; t++) {
-    const runs = sortRunsByDeparture(plan, Array.from(items.subarray(offsets[t]!, offsets[t + 1]!)));
-    const stand = (r: number, at: number, fromS: number, toS: number) => {
-      const b = stepBlock[at]!;
-      if (b >= 0 && toS - fromS > TIME_TOLERANCE_S) push(b, t, fromS, toS, -1 - r, -1);
-    };
-    runs.forEach((r, i) => {
+    const end = trainRuns.offsets[t + 1]!;
+    for (let i = trainRuns.offsets[t]!; i < end; i++) {
+      const r = trainRuns.items[i]!;
       const firstStep = stepStart[r]!;
       const lastStep = stepStart[r + 1]! - 1;
-      if (i === 0) stand(r, firstStep, Math.min(0, stepEnter[firstStep]!), stepEnter[firstStep]!);
-      const next = runs[i + 1];
-      if (next !== undefined) stand(r, lastStep, stepExit[lastStep]!, stepEnter[stepStart[next]!]!);
-      else stand(r, lastStep, stepExit[lastStep]!, sessionEnd);
-    });
+      if (i === trainRuns.offsets[t]) stand(t, r, firstStep, Math.min(0, stepEnter[firstStep]!), stepEnter[firstStep]!);
+      if (i + 1 < end) stand(t, r, lastStep, stepExit[lastStep]!, stepEnter[stepStart[trainRuns.items[i + 1]!]!]!);
+      else stand(t, r, lastStep, stepExit[lastStep]!, sessionEnd);
+    }
   }
-  const isStand = Uint8Array.from(from, (f) => (f < 0 ? 1 : 0));
+  const enter = enterAll.subarray(0, count);
+  const exit = exitAll.subarray(0, count);
+  const reach = reachAll.subarray(0, count);
+  const isStand = new Uint8Array(count);
   // An interval shorter than the tolerance (with no headway) can clash with nothing.
-  const group = Int32Array.from(block, (b, i) => (reach[i]! > enter[i]! ? b : -1));
+  const group = new Int32Array(count);
+  for (let i = 0; i < count; i++) {
+    isStand[i] = from[i]! < 0 ? 1 : 0;
+    group[i] = reach[i]! > enter[i]! ? block[i]! : -1;
+  }
 
   /** The run an interval speaks for at time `atS`: a stand's own, or the stay's step entered last by then. */
   const runAt = (i: number, atS: number): number => {
@@ -257,7 +281,7 @@ function occupancy(plan: Plan, index: PlanIndex) {
     }
     return stepRun[stepOrder[lo]!]!;
   };
-  return { block, owner, enter, exit, reach, group, isStand, stayCount, runAt, sessionEnd };
+  return { count, block, owner, enter, exit, reach, group, isStand, stayCount, runAt, sessionEnd };
 }
 
 type Occupancy = ReturnType<typeof occupancy>;
@@ -280,25 +304,36 @@ function meeting(occ: Occupancy, p: number, q: number) {
  * finding per block and pair. All are counted in O(n log n); only as many as the list has room for
  * are found, in order of the later interval's entry.
  */
-function findBlockClashes(plan: Plan, index: PlanIndex, names: PlanNames, list: FindingList): number {
+function findBlockClashes(
+  plan: Plan,
+  index: PlanIndex,
+  stepsByEnter: Int32Array,
+  trainRuns: RunsByTrain,
+  names: PlanNames,
+  list: FindingList,
+): number {
   const headway = plan.rules.headwayS;
-  const occ = occupancy(plan, index);
+  const occ = occupancy(plan, index, stepsByEnter, trainRuns);
   const blockCount = plan.blocks.length;
   const sum = (values: number[]) => values.reduce((a, b) => a + b, 0);
+  const orders = { byStart: orderByKey(occ.enter), byEnd: orderByKey(occ.reach) };
   const stayGroup = occ.group.map((g, i) => (occ.isStand[i] ? -1 : g));
-  const stayPairs = sum(countOverlapsInGroups(stayGroup, blockCount, occ.enter, occ.reach));
-  // Pairs of one train (a stand and its own stays) never clash: count them to take them off.
-  const ownerGroupOf = new Map<number, number>();
-  const ownerGroup = occ.group.map((g, i) => {
-    if (g < 0) return -1;
-    const key = g * (plan.trains.length + plan.runs.length) + occ.owner[i]!;
-    let id = ownerGroupOf.get(key);
-    if (id === undefined) ownerGroupOf.set(key, (id = ownerGroupOf.size));
-    return id;
-  });
-  const samePairs = sum(countOverlapsInGroups(ownerGroup, ownerGroupOf.size, occ.enter, occ.reach));
-  const allPairs = sum(countOverlapsInGroups(occ.group, blockCount, occ.enter, occ.reach));
-  const order = sortByKey(Array.from({ length: occ.block.length }, (_, i) => i), occ.enter);
+  const stayPairs = sum(countOverlapsInGroups(stayGroup, blockCount, occ.enter, occ.reach, orders));
+  // Pairs of one train (a stand and its own stays) never clash: count them to take them off. Their
+  // groups are numbered in (block, owner) order, from the intervals grouped by owner, then block.
+  const byOwner = groupBy(occ.owner, plan.trains.length + plan.runs.length).items;
+  const byBlockOwner = groupBy(occ.group, blockCount, byOwner);
+  const ownerGroup = new Int32Array(occ.count).fill(-1);
+  let ownerGroups = 0;
+  for (let k = 0; k < byBlockOwner.items.length; k++) {
+    const i = byBlockOwner.items[k]!;
+    const before = k > 0 ? byBlockOwner.items[k - 1]! : -1;
+    if (before < 0 || occ.group[before] !== occ.group[i] || occ.owner[before] !== occ.owner[i]) ownerGroups++;
+    ownerGroup[i] = ownerGroups - 1;
+  }
+  const samePairs = sum(countOverlapsInGroups(ownerGroup, ownerGroups, occ.enter, occ.reach, orders));
+  const allPairs = sum(countOverlapsInGroups(occ.group, blockCount, occ.enter, occ.reach, orders));
+  const order = orders.byStart;
 
   const describe = (p: number, q: number, kind: 'block-overlap' | 'block-occupied') => {
     const m = meeting(occ, p, q);
@@ -356,8 +391,19 @@ function findBlockClashes(plan: Plan, index: PlanIndex, names: PlanNames, list: 
   return occ.sessionEnd;
 }
 
+/** Every run's movement `[departS, arriveS)`, and the orders findDoubleBookings sweeps it in. */
+function runMovements(plan: Plan) {
+  const runs = plan.runs;
+  const depart = Float64Array.from(runs, (run) => run.departS);
+  const arrive = Float64Array.from(runs, (run) => run.arriveS);
+  // Two movements clash when they share more than the tolerance: [departS, arriveS − tolerance).
+  const until = Float64Array.from(runs, (run) => run.arriveS - TIME_TOLERANCE_S);
+  return { depart, arrive, until, orders: { byStart: orderByKey(depart), byEnd: orderByKey(until) } };
+}
+
 function findDoubleBookings(
   plan: Plan,
+  movements: ReturnType<typeof runMovements>,
   runOwner: Int32Array,
   owners: readonly { id: string }[],
   kind: 'cab-double-booked' | 'operator-double-booked' | 'train-double-booked',
@@ -366,15 +412,12 @@ function findDoubleBookings(
   list: FindingList,
 ): void {
   const runs = plan.runs;
-  const depart = Float64Array.from(runs, (run) => run.departS);
-  const arrive = Float64Array.from(runs, (run) => run.arriveS);
-  // Two movements clash when they share more than the tolerance: [departS, arriveS − tolerance).
-  const until = Float64Array.from(runs, (run) => run.arriveS - TIME_TOLERANCE_S);
+  const { depart, arrive, until, orders } = movements;
   const owner = Int32Array.from(runOwner, (o, r) => (until[r]! > depart[r]! ? o : -1));
-  const total = countOverlapsInGroups(owner, owners.length, depart, until).reduce((a, b) => a + b, 0);
+  const total = countOverlapsInGroups(owner, owners.length, depart, until, orders).reduce((a, b) => a + b, 0);
   let room = list.room(kind);
   if (room > 0 && total > 0) {
-    const order = sortByKey(Array.from({ length: runs.length }, (_, r) => r), depart);
+    const order = orders.byStart;
     forEachOverlapInGroups(order, owner, owners.length, depart, until, (p, q) => {
       const ownerId = owners[owner[p]!]!.id;
       const [runA, runB] = orderedPair(runs[p]!.id, runs[q]!.id);
@@ -430,7 +473,7 @@ function findLocoInTwoTrains(plan: Plan, index: PlanIndex, names: PlanNames, ses
   const total = countOverlapsInGroups(group, plan.locos.length, start, end).reduce((a, b) => a + b, 0);
   let room = list.room('loco-in-two-trains');
   if (room > 0 && total > 0) {
-    const order = sortByKey(Array.from({ length: loco.length }, (_, i) => i), start);
+    const order = orderByKey(start);
     forEachOverlapInGroups(order, group, plan.locos.length, start, end, (p, q) => {
       const locoId = plan.locos[loco[p]!]!.id;
       const [trainA, trainB] = orderedPair(plan.trains[train[p]!]!.id, plan.trains[train[q]!]!.id);
@@ -453,7 +496,7 @@ function findLocoInTwoTrains(plan: Plan, index: PlanIndex, names: PlanNames, ses
 }
 
 /** `step-gap` `[runId, blockA, blockB]` (error): a run's next step begins after its step before ended. */
-function findStepGaps(plan: Plan, names: PlanNames, findings: Finding[]): void {
+function findStepGaps(plan: Plan, names: PlanNames, findings: FindingSink): void {
   for (const run of plan.runs) {
     for (let j = 1; j < run.steps.length; j++) {
       const before = run.steps[j - 1]!;
@@ -466,40 +509,49 @@ function findStepGaps(plan: Plan, names: PlanNames, findings: Finding[]): void {
         ids: [run.id, before.blockId, after.blockId],
         fromS: before.exitS,
         toS: after.enterS,
-        message:
-          `${names.run(run.id)} leaves ${withNoun('block', names.block(before.blockId))} ${formatGap(gap)} before it enters ` +
-          `${withNoun('block', names.block(after.blockId))}: between them the train is nowhere`,
+        message: willList(findings, 'step-gap')
+          ? `${names.run(run.id)} leaves ${withNoun('block', names.block(before.blockId))} ${formatGap(gap)} before it enters ` +
+            `${withNoun('block', names.block(after.blockId))}: between them the train is nowhere`
+          : '',
       });
     }
   }
 }
 
-/** Runs (indices) by departS, ties by run id: the order a train runs them. */
-function sortRunsByDeparture(plan: Plan, runs: number[]): number[] {
-  return runs.sort((a, b) => {
-    const x = plan.runs[a]!;
-    const y = plan.runs[b]!;
-    if (x.departS !== y.departS) return x.departS - y.departS;
-    return x.id < y.id ? -1 : x.id > y.id ? 1 : 0;
-  });
+/** Each train's runs (indices) in the order it runs them: by departS, ties by run id. */
+interface RunsByTrain {
+  /** Train t's runs are items[offsets[t]] .. items[offsets[t + 1] − 1]. */
+  items: Int32Array;
+  offsets: Int32Array;
 }
 
-function findContinuityBreaks(plan: Plan, index: PlanIndex, names: PlanNames, findings: Finding[]): void {
+function runsByTrain(plan: Plan, index: PlanIndex): RunsByTrain {
   const runs = plan.runs;
-  const { items, offsets } = groupBy(index.runTrain, plan.trains.length);
+  const depart = Float64Array.from(runs, (run) => run.departS);
+  const grouped = groupBy(index.runTrain, plan.trains.length, orderByKey(depart));
+  // Ties in departS (rare) by id: an insertion sort that only moves runs departing together.
+  const { items, offsets } = grouped;
   for (let t = 0; t < plan.trains.length; t++) {
-    const from = offsets[t]!;
-    const to = offsets[t + 1]!;
-    if (to - from < 2) continue;
-    const order = Array.from(items.subarray(from, to)).sort((a, b) => {
-      const x = runs[a]!;
-      const y = runs[b]!;
-      if (x.departS !== y.departS) return x.departS - y.departS;
-      return x.id < y.id ? -1 : x.id > y.id ? 1 : 0;
-    });
-    for (let i = 1; i < order.length; i++) {
-      const earlier = runs[order[i - 1]!]!;
-      const later = runs[order[i]!]!;
+    for (let i = offsets[t]! + 1; i < offsets[t + 1]!; i++) {
+      const r = items[i]!;
+      let j = i - 1;
+      while (j >= offsets[t]! && depart[items[j]!] === depart[r] && runs[items[j]!]!.id > runs[r]!.id) {
+        items[j + 1] = items[j]!;
+        j--;
+      }
+      items[j + 1] = r;
+    }
+  }
+  return grouped;
+}
+
+function findContinuityBreaks(plan: Plan, trainRuns: RunsByTrain, names: PlanNames, findings: FindingSink): void {
+  const runs = plan.runs;
+  const { items, offsets } = trainRuns;
+  for (let t = 0; t < plan.trains.length; t++) {
+    for (let i = offsets[t]! + 1; i < offsets[t + 1]!; i++) {
+      const earlier = runs[items[i - 1]!]!;
+      const later = runs[items[i]!]!;
       const endedIn = earlier.steps[earlier.steps.length - 1]!.blockId;
       const startsIn = later.steps[0]!.blockId;
       if (endedIn === startsIn) continue;
@@ -510,15 +562,16 @@ function findContinuityBreaks(plan: Plan, index: PlanIndex, names: PlanNames, fi
         ids: [trainId, earlier.id, later.id],
         fromS: Math.min(earlier.arriveS, later.departS),
         toS: Math.max(earlier.arriveS, later.departS),
-        message:
-          `${withNoun('train', names.train(trainId))} ends ${names.run(earlier.id)} in ${withNoun('block', names.block(endedIn))} ` +
-          `but starts ${names.run(later.id)} in ${withNoun('block', names.block(startsIn))}`,
+        message: willList(findings, 'train-continuity')
+          ? `${withNoun('train', names.train(trainId))} ends ${names.run(earlier.id)} in ${withNoun('block', names.block(endedIn))} ` +
+            `but starts ${names.run(later.id)} in ${withNoun('block', names.block(startsIn))}`
+          : '',
       });
     }
   }
 }
 
-function findRouteGaps(plan: Plan, index: PlanIndex, names: PlanNames, findings: Finding[]): void {
+function findRouteGaps(plan: Plan, index: PlanIndex, names: PlanNames, findings: FindingSink): void {
   const blockCount = plan.blocks.length;
   const joined = new Set<number>();
   for (const link of plan.links) {
@@ -543,15 +596,16 @@ function findRouteGaps(plan: Plan, index: PlanIndex, names: PlanNames, findings:
         ids: [run.id, before.blockId, after.blockId],
         fromS: Math.min(before.exitS, after.enterS),
         toS: Math.max(before.exitS, after.enterS),
-        message:
-          `${names.run(run.id)} goes from ${withNoun('block', names.block(before.blockId))} straight to ` +
-          `${withNoun('block', names.block(after.blockId))}, which no link joins`,
+        message: willList(findings, 'route-gap')
+          ? `${names.run(run.id)} goes from ${withNoun('block', names.block(before.blockId))} straight to ` +
+            `${withNoun('block', names.block(after.blockId))}, which no link joins`
+          : '',
       });
     }
   });
 }
 
-function findTooLong(plan: Plan, index: PlanIndex, names: PlanNames, findings: Finding[]): void {
+function findTooLong(plan: Plan, index: PlanIndex, names: PlanNames, findings: FindingSink): void {
   plan.runs.forEach((run, r) => {
     const train = plan.trains[index.runTrain[r]!];
     if (train === undefined) return;
@@ -573,9 +627,10 @@ function findTooLong(plan: Plan, index: PlanIndex, names: PlanNames, findings: F
         ids: [run.id, block.id],
         fromS: stand.fromS,
         toS: stand.toS,
-        message:
-          `${names.run(run.id)} ${stand.where} in ${withNoun('block', names.block(block.id))} (${block.lengthMm} mm), ` +
-          `shorter than the train (${train.lengthMm} mm)`,
+        message: willList(findings, 'train-too-long')
+          ? `${names.run(run.id)} ${stand.where} in ${withNoun('block', names.block(block.id))} (${block.lengthMm} mm), ` +
+            `shorter than the train (${train.lengthMm} mm)`
+          : '',
       });
     }
   });

@@ -50,7 +50,13 @@ export function fastTimeToReal(text: string, clock: FastClock, nearS?: number): 
 
 /** The fast clock's face, `HH:MM`, at a real session time; wraps at 24 h. */
 export function formatFast(realS: number, clock: FastClock): string {
-  return formatTimeOfDay(realToFast(realS, clock));
+  return fastFormatter(clock)(realS);
+}
+
+/** formatFast for one clock, its start read once (for writing many times). */
+export function fastFormatter(clock: FastClock): (realS: number) => string {
+  const start = fastStartS(clock);
+  return (realS) => formatTimeOfDay(start + realS * clock.ratio);
 }
 
 /**

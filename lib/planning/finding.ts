@@ -72,6 +72,19 @@ export interface Finding {
   limitWatts?: number;
 }
 
+/**
+ * Where a check puts its findings: a plain array, or checkPlan's list, which lists only so many of
+ * each kind and counts the rest. `lists(kind)` false says a finding of that kind would only be
+ * counted, so a check may leave its message empty.
+ */
+export interface FindingSink {
+  push(finding: Finding): unknown;
+  lists?(kind: FindingKind): boolean;
+}
+
+/** Whether a finding of this kind pushed to `sink` now would be listed (its message read). */
+export const willList = (sink: FindingSink, kind: FindingKind): boolean => sink.lists?.(kind) !== false;
+
 const kindRank = new Map(FINDING_KINDS.map((kind, i) => [kind, i]));
 
 /** Orders findings by start time, then kind, then ids, so the list reads as the session unfolds. */

@@ -101,30 +101,30 @@ export function forEachMarkedOverlapInGroups(
 
 /**
  * How many pairs of the same group overlap (half-open intervals, each with start < end), without
- * listing them: O(n log n) however many pairs there are. In start order, interval i overlaps every
- * earlier one except those that ended by its start, and an interval that ended by i's start began
- * before it; so i adds `i − #{ends <= start_i}`.
+ * listing them: O(n) after the two orders. In start order, interval i overlaps every earlier one
+ * except those that ended by its start, and an interval that ended by i's start began before it;
+ * so i adds `i − #{ends <= start_i}`. `orders` may pass the intervals already sorted by start and
+ * by end (as orderByKey gives them); otherwise they are sorted here.
  */
-export function countOverlapsInGroups(group: ArrayLike<number>, groups: number, start: ArrayLike<number>, end: ArrayLike<number>): number[] {
-  const { items, offsets } = groupBy(group, groups);
+export function countOverlapsInGroups(
+  group: ArrayLike<number>,
+  groups: number,
+  start: ArrayLike<number>,
+  end: ArrayLike<number>,
+  orders: { byStart: Int32Array; byEnd: Int32Array } = { byStart: orderByKey(start), byEnd: orderByKey(end) },
+): number[] {
+  const starts = groupBy(group, groups, orders.byStart);
+  const ends = groupBy(group, groups, orders.byEnd);
   const counts = new Array<number>(groups).fill(0);
   for (let g = 0; g < groups; g++) {
-    const from = offsets[g]!;
-    const to = offsets[g + 1]!;
+    const from = starts.offsets[g]!;
+    const to = starts.offsets[g + 1]!;
     if (to - from < 2) continue;
-    const starts = new Float64Array(to - from);
-    const ends = new Float64Array(to - from);
-    for (let i = from; i < to; i++) {
-      starts[i - from] = start[items[i]!]!;
-      ends[i - from] = end[items[i]!]!;
-    }
-    starts.sort();
-    ends.sort();
     let count = 0;
-    let ended = 0;
-    for (let i = 0; i < starts.length; i++) {
-      const s = starts[i]!;
-      while (ended < ends.length && ends[ended]! <= s) ended++;
+    let ended = from;
+    for (let i = from; i < to; i++) {
+      const s = start[starts.items[i]!]!;
+      while (ended < to && end[ends.items[ended]!]! <= s) ended++;
       count += i - ended;
     }
     counts[g] = count;
@@ -132,19 +132,82 @@ export function countOverlapsInGroups(group: ArrayLike<number>, groups: number, 
   return counts;
 }
 
+/** orderByKey's digits, six 11-bit digits per key, pass by pass; grown as needed and reused. */
+let radixDigits = new Uint16Array(0);
+const radixCounts = new Int32Array(2048);
+const keyBits = new Float64Array(1);
+const keyWords = new Uint32Array(keyBits.buffer);
+/** Which of keyWords holds a double's low 32 bits on this machine. */
+const LOW_WORD = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1 ? 0 : 1;
+
 /**
- * Sorts `items` (indices) in place by `key[i]`, ties by index; returns it. Sorting plain number
- * arrays with a comparator is the fastest general sort V8 offers for keyed indices.
+ * `items` (default 0..n−1 for n = key.length) in a new array, ordered by `key[item]` ascending,
+ * ties kept in the order given: with items ascending (the default) that is the order of
+ * `sort((a, b) => key[a] − key[b] || a − b)` for keys without NaN (−0 ties with 0). A stable
+ * least-significant-digit radix sort on the keys' IEEE 754 bits, sign-flipped so that their
+ * unsigned order is the numbers' order (negatives: every bit flipped; others: the sign bit set),
+ * in six passes of 11 bits, a pass skipped when every key has the same digit there: O(n), typed
+ * arrays only, no comparator calls.
  */
-export function sortByKey<T extends number[]>(items: T, key: ArrayLike<number>): T {
-  return items.sort((a, b) => key[a]! - key[b]! || a - b);
+export function orderByKey(key: ArrayLike<number>, items?: ArrayLike<number>): Int32Array {
+  const n = items === undefined ? key.length : items.length;
+  const order = new Int32Array(n);
+  if (items === undefined) for (let i = 0; i < n; i++) order[i] = i;
+  else order.set(items);
+  if (n < 2) return order;
+  if (radixDigits.length < 6 * n) radixDigits = new Uint16Array(Math.max(6 * n, 2 * radixDigits.length));
+  const digits = radixDigits;
+  for (let i = 0; i < n; i++) {
+    keyBits[0] = key[order[i]!]! + 0; // −0 + 0 is +0
+    let high = keyWords[1 - LOW_WORD]!;
+    let low = keyWords[LOW_WORD]!;
+    if (high >>> 31 === 1) {
+      high = ~high >>> 0;
+      low = ~low >>> 0;
+    } else {
+      high = (high | 0x80000000) >>> 0;
+    }
+    digits[i] = low & 2047;
+    digits[n + i] = (low >>> 11) & 2047;
+    digits[2 * n + i] = (low >>> 22) | ((high & 1) << 10);
+    digits[3 * n + i] = (high >>> 1) & 2047;
+    digits[4 * n + i] = (high >>> 12) & 2047;
+    digits[5 * n + i] = high >>> 23;
+  }
+  // Sort positions 0..n−1 (the digits stay where they are), then map them back to items.
+  let positions = new Int32Array(n);
+  for (let i = 0; i < n; i++) positions[i] = i;
+  let spare = new Int32Array(n);
+  const counts = radixCounts;
+  for (let pass = 0; pass < 6; pass++) {
+    const base = pass * n;
+    counts.fill(0);
+    for (let i = 0; i < n; i++) counts[digits[base + i]!]!++;
+    if (counts[digits[base]!] === n) continue;
+    let sum = 0;
+    for (let d = 0; d < 2048; d++) {
+      const c = counts[d]!;
+      counts[d] = sum;
+      sum += c;
+    }
+    for (let i = 0; i < n; i++) {
+      const p = positions[i]!;
+      spare[counts[digits[base + p]!]!++] = p;
+    }
+    const swap = positions;
+    positions = spare;
+    spare = swap;
+  }
+  for (let i = 0; i < n; i++) spare[i] = order[positions[i]!]!;
+  return spare;
 }
 
 /**
- * Groups indices 0..n-1 by a group number (counting sort, stable), so each group keeps the order the
- * indices had. Returns the concatenated indices and where each group starts.
+ * Groups indices by a group number (counting sort, stable): 0..n−1 in turn, or in the order of
+ * `order` (a permutation of 0..n−1), so that each group keeps that order. Indices with a negative group are left out. Returns
+ * the concatenated indices and where each group starts.
  */
-export function groupBy(groupOf: ArrayLike<number>, groups: number): { items: Int32Array; offsets: Int32Array } {
+export function groupBy(groupOf: ArrayLike<number>, groups: number, order?: ArrayLike<number>): { items: Int32Array; offsets: Int32Array } {
   const offsets = new Int32Array(groups + 1);
   for (let i = 0; i < groupOf.length; i++) {
     const g = groupOf[i]!;
@@ -152,12 +215,18 @@ export function groupBy(groupOf: ArrayLike<number>, groups: number): { items: In
   }
   for (let g = 0; g < groups; g++) offsets[g + 1]! += offsets[g]!;
   const fill = offsets.slice(0, groups);
-  let total = 0;
-  for (let i = 0; i < groupOf.length; i++) if (groupOf[i]! >= 0) total++;
-  const items = new Int32Array(total);
-  for (let i = 0; i < groupOf.length; i++) {
-    const g = groupOf[i]!;
-    if (g >= 0) items[fill[g]!++] = i;
+  const items = new Int32Array(offsets[groups]!);
+  if (order === undefined) {
+    for (let i = 0; i < groupOf.length; i++) {
+      const g = groupOf[i]!;
+      if (g >= 0) items[fill[g]!++] = i;
+    }
+  } else {
+    for (let k = 0; k < order.length; k++) {
+      const i = order[k]!;
+      const g = groupOf[i]!;
+      if (g >= 0) items[fill[g]!++] = i;
+    }
   }
   return { items, offsets };
 }

@@ -1,7 +1,7 @@
 import { formatSessionTime } from './clock';
 import { channelWatts, driverDrop, surgeLimit, trainAmps, type DropLine } from './electrics';
-import type { Finding, FindingKind } from './finding';
-import { sortByKey } from './intervals';
+import { willList, type Finding, type FindingKind, type FindingSink } from './finding';
+import { orderByKey } from './intervals';
 import { withNoun, type PlanNames } from './names';
 import { indexPlan, type PlanIndex } from './plan-index';
 import { AMPS_TOLERANCE } from './rules';
@@ -145,18 +145,21 @@ export function buildLoadProfile(plan: Plan, index: PlanIndex = indexPlan(plan))
   const runs = plan.runs;
   // Three events per run: 3r departure, 3r + 1 end of surge, 3r + 2 arrival.
   const time = new Float64Array(runs.length * 3);
-  const events: number[] = [];
+  const listed = new Int32Array(runs.length * 3);
+  let count = 0;
   for (let r = 0; r < runs.length; r++) {
     const run = runs[r]!;
     if (index.runCab[r]! < 0) continue;
     time[3 * r] = run.departS;
     time[3 * r + 1] = run.departS + surgeS;
     time[3 * r + 2] = run.arriveS;
-    events.push(3 * r, 3 * r + 2);
+    listed[count++] = 3 * r;
     // A surge that outlasts the movement simply ends at arrival.
-    if (run.departS + surgeS < run.arriveS) events.push(3 * r + 1);
+    if (run.departS + surgeS < run.arriveS) listed[count++] = 3 * r + 1;
+    listed[count++] = 3 * r + 2;
   }
-  sortByKey(events, time);
+  // By time, ties in event order (run, then phase).
+  const events = orderByKey(time, listed.subarray(0, count));
 
   const apply = (t: Tally | undefined, at: number, dRunning: number, dPeak: number, dMoving: number) => {
     if (t === undefined) return;
@@ -219,14 +222,17 @@ export function buildLoadProfile(plan: Plan, index: PlanIndex = indexPlan(plan))
   }
 
   for (const s of [...profile.cabs, ...profile.drivers, ...profile.supplies]) {
-    for (const [, running, peak] of s.points) {
-      if (running > s.maxRunningAmps) s.maxRunningAmps = running;
-      if (peak > s.maxPeakAmps) s.maxPeakAmps = peak;
+    for (let i = 0; i < s.points.length; i++) {
+      const point = s.points[i]!;
+      if (point[1] > s.maxRunningAmps) s.maxRunningAmps = point[1];
+      if (point[2] > s.maxPeakAmps) s.maxPeakAmps = point[2];
     }
-    if (s.heat === null) continue;
-    for (const [, low, high] of s.heat.points) {
-      if (low > s.heat.maxLowWatts) s.heat.maxLowWatts = low;
-      if (high > s.heat.maxHighWatts) s.heat.maxHighWatts = high;
+    const heat = s.heat;
+    if (heat === null) continue;
+    for (let i = 0; i < heat.points.length; i++) {
+      const point = heat.points[i]!;
+      if (point[1] > heat.maxLowWatts) heat.maxLowWatts = point[1];
+      if (point[2] > heat.maxHighWatts) heat.maxHighWatts = point[2];
     }
   }
   return profile;
@@ -255,7 +261,7 @@ function overloads(
   kind: FindingKind,
   severity: Finding['severity'] | ((otherPeak: number, limit: number) => Finding['severity']),
   describe: (peak: number, limit: number, fromS: number, toS: number, otherPeak: number) => string,
-  findings: Finding[],
+  findings: FindingSink,
   tolerance = AMPS_TOLERANCE,
 ): Finding[] {
   const made: Finding[] = [];
@@ -283,7 +289,7 @@ function overloads(
       ids: [id],
       fromS,
       toS,
-      message: describe(peak, limit, fromS, toS, otherPeak),
+      message: willList(findings, kind) ? describe(peak, limit, fromS, toS, otherPeak) : '',
       peakAmps: peak,
       limitAmps: limit,
     };
@@ -309,7 +315,7 @@ const WATTS_TOLERANCE = 1e-9;
  * mounting at 25 °C (copper, heat sink and air change it), so the message says how far over it is,
  * on the least and on the greatest drop. It carries watts (not amps): `peakWatts`, `limitWatts`.
  */
-export function findPowerOverloads(profile: LoadProfile, derate: number, findings: Finding[], names?: PlanNames): void {
+export function findPowerOverloads(profile: LoadProfile, derate: number, findings: FindingSink, names?: PlanNames): void {
   const span = names
     ? names.span
     : (fromS: number, toS: number) => `from ${formatSessionTime(fromS)} to ${formatSessionTime(toS)}`;

@@ -1,4 +1,4 @@
-import { formatFast } from './clock';
+import { fastFormatter } from './clock';
 import type { Plan } from './schema';
 
 /** How findings name the things of a plan: by the names people gave them, never by ids. */
@@ -42,7 +42,7 @@ export function planNames(plan: Plan): PlanNames {
     const name = map.get(id);
     return name ? name : `"${id}"`;
   };
-  const fast = (realS: number) => formatFast(realS, plan.clock);
+  const fast = fastFormatter(plan.clock);
   const train = lookup(trains);
   return {
     run: (runId) => {

@@ -107,52 +107,108 @@ export function travelOfRun(
   joined: readonly number[][],
 ): Travel {
   const n = steps.length;
-  const fromEnd: End[] = new Array(n);
-  const toEnd: End[] = new Array(n);
-  const linkedTo = new Array<boolean>(n).fill(false);
-  const joins = (block: number, end: End, next: number): End[] => {
-    if (block < 0 || next < 0) return [];
-    const ends: End[] = [];
-    for (const node of joined[endNode(block, end)] ?? []) if (nodeBlock(node) === next) ends.push(nodeEnd(node));
-    return ends;
+  const flat = {
+    block: Int32Array.from(steps, (step) => step.block),
+    givenFrom: Int8Array.from(steps, (step) => endCode(step.fromEnd)),
+    givenTo: Int8Array.from(steps, (step) => endCode(step.toEnd)),
   };
-  const reaches = (block: number, end: End, next: number) => joins(block, end, next).length > 0;
-  for (let k = 0; k < n; k++) {
-    const step = steps[k]!;
-    const next = steps[k + 1];
-    if (k === 0) {
-      let heading: End = step.toEnd ?? (step.fromEnd !== undefined ? otherEnd(step.fromEnd) : 'b');
-      if (step.toEnd === undefined && step.fromEnd === undefined && next !== undefined && next.block !== step.block) {
-        if (!reaches(step.block, 'b', next.block) && reaches(step.block, 'a', next.block)) heading = 'a';
+  const out = { fromEnd: new Uint8Array(n), toEnd: new Uint8Array(n), joined: new Uint8Array(n) };
+  travelOfSteps(flat, 0, n, joined, out);
+  return {
+    fromEnd: Array.from(out.fromEnd, nodeEnd),
+    toEnd: Array.from(out.toEnd, nodeEnd),
+    joined: Array.from(out.joined, (j) => j === 1),
+  };
+}
+
+/** An end as a number, as endNode numbers it (0 `a`, 1 `b`), or −1 when not given. */
+export const endCode = (end: End | undefined): number => (end === undefined ? -1 : end === 'b' ? 1 : 0);
+
+/** Steps laid out flat: block numbers, and their given ends as endCode gives them. */
+export interface FlatSteps {
+  block: ArrayLike<number>;
+  givenFrom: ArrayLike<number>;
+  givenTo: ArrayLike<number>;
+}
+
+/** travelOfRun's result laid out flat: ends as endCode numbers, joined as 1 or 0. */
+export interface FlatTravel {
+  fromEnd: Uint8Array;
+  toEnd: Uint8Array;
+  joined: Uint8Array;
+}
+
+/**
+ * The ends of block `next` joined to end `end` (0 `a`, 1 `b`) of `block`, in the order the links
+ * list them: 0 none, 1 only `a`, 2 only `b`, 3 `a` then `b`, 4 `b` then `a`.
+ */
+function joinedEnds(joined: readonly number[][], block: number, end: number, next: number): number {
+  if (block < 0 || next < 0) return 0;
+  const nodes = joined[2 * block + end];
+  if (nodes === undefined) return 0;
+  let code = 0;
+  for (const node of nodes) {
+    if (node >> 1 !== next) continue;
+    const e = node & 1;
+    if (code === 0) code = e + 1;
+    else if (code <= 2 && code !== e + 1) code = code === 1 ? 3 : 4;
+  }
+  return code;
+}
+const firstJoined = (code: number): number => (code === 1 || code === 3 ? 0 : 1);
+const secondJoined = (code: number): number => (code === 3 ? 1 : code === 4 ? 0 : -1);
+const joinsEnd = (code: number, end: number): boolean => (code >= 3 ? true : code === end + 1);
+
+/**
+ * travelOfRun over the steps `first` .. `end − 1` of `steps`, written into `out` at the same
+ * positions, so that a whole plan's travel is worked out with no objects per step.
+ */
+export function travelOfSteps(steps: FlatSteps, first: number, end: number, joined: readonly number[][], out: FlatTravel): void {
+  const { block, givenFrom, givenTo } = steps;
+  const { fromEnd, toEnd } = out;
+  const reaches = (b: number, e: number, next: number) => joinedEnds(joined, b, e, next) !== 0;
+  for (let k = first; k < end; k++) {
+    const here = block[k]!;
+    const next = k + 1 < end ? block[k + 1]! : null;
+    const from = givenFrom[k]!;
+    const to = givenTo[k]!;
+    out.joined[k] = 0;
+    if (k === first) {
+      let heading = to >= 0 ? to : from >= 0 ? 1 - from : 1;
+      if (to < 0 && from < 0 && next !== null && next !== here) {
+        if (!reaches(here, 1, next) && reaches(here, 0, next)) heading = 0;
       }
-      toEnd[0] = heading;
-      fromEnd[0] = step.fromEnd ?? otherEnd(heading);
+      toEnd[k] = heading;
+      fromEnd[k] = from >= 0 ? from : 1 - heading;
       continue;
     }
-    const before = steps[k - 1]!;
-    if (before.block === step.block) {
-      fromEnd[k] = step.fromEnd ?? fromEnd[k - 1]!;
-      toEnd[k] = step.toEnd ?? toEnd[k - 1]!;
+    const before = block[k - 1]!;
+    if (before === here) {
+      fromEnd[k] = from >= 0 ? from : fromEnd[k - 1]!;
+      toEnd[k] = to >= 0 ? to : toEnd[k - 1]!;
       continue;
     }
     let leaving = toEnd[k - 1]!;
     // Implicit ends: reversal in the block before when only its other end reaches this block.
-    if (before.toEnd === undefined && !reaches(before.block, leaving, step.block) && reaches(before.block, otherEnd(leaving), step.block)) {
-      leaving = otherEnd(leaving);
+    if (givenTo[k - 1]! < 0 && !reaches(before, leaving, here) && reaches(before, 1 - leaving, here)) {
+      leaving = 1 - leaving;
       toEnd[k - 1] = leaving;
     }
-    const candidates = joins(before.block, leaving, step.block);
-    let entering: End;
-    if (step.fromEnd !== undefined) entering = step.fromEnd;
-    else if (candidates.length === 0) entering = 'a';
-    else if (candidates.length === 1 || next === undefined || next.block === step.block) entering = candidates[0]!;
-    // Both ends of this block join the end left (a two-block loop): go on towards the next block.
-    else entering = candidates.find((end) => reaches(step.block, otherEnd(end), next.block)) ?? candidates[0]!;
-    linkedTo[k] = candidates.includes(entering);
+    const candidates = joinedEnds(joined, before, leaving, here);
+    let entering: number;
+    if (from >= 0) entering = from;
+    else if (candidates === 0) entering = 0;
+    else if (candidates <= 2 || next === null || next === here) entering = firstJoined(candidates);
+    else {
+      // Both ends of this block join the end left (a two-block loop): go on towards the next block.
+      const one = firstJoined(candidates);
+      const two = secondJoined(candidates);
+      entering = reaches(here, 1 - one, next) ? one : reaches(here, 1 - two, next) ? two : one;
+    }
+    out.joined[k] = joinsEnd(candidates, entering) ? 1 : 0;
     fromEnd[k] = entering;
-    toEnd[k] = step.toEnd ?? otherEnd(entering);
+    toEnd[k] = to >= 0 ? to : 1 - entering;
   }
-  return { fromEnd, toEnd, joined: linkedTo };
 }
 
 /** What findReversingLoops needs of a block. */

@@ -1,6 +1,6 @@
 import { dutyFor } from './duty';
 import { dropAt, driverDrop, scaleSpeedKmh } from './electrics';
-import type { Finding } from './finding';
+import { willList, type FindingSink } from './finding';
 import { runCurrents } from './load';
 import { planNames, withNoun, type PlanNames } from './names';
 import type { PlanIndex } from './plan-index';
@@ -74,18 +74,21 @@ export function plannedSpeedKmh(plan: Plan, run: Plan['runs'][number], blockLeng
  *   than the loco can give (above its top speed) or more duty than its cab can give (dutyFor with the
  *   greatest drop at the train's running current). Only for locos with a top speed recorded.
  */
-export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Finding[], names: PlanNames = planNames(plan)): void {
+export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: FindingSink, names: PlanNames = planNames(plan)): void {
   const gauge = gaugeForScale(plan.scale);
   const nominal = gauge === null ? null : nominalTrackVolts(gauge);
-  const locoOf = new Map<string, Plan['locos'][number]>();
-  for (const loco of plan.locos) if (!locoOf.has(loco.id)) locoOf.set(loco.id, loco);
+  const locoOf = new Map<string, number>();
+  plan.locos.forEach((loco, i) => {
+    if (!locoOf.has(loco.id)) locoOf.set(loco.id, i);
+  });
+  const drops = plan.drivers.map((driver) => driverDrop(driver));
   const blockLength = new Map<string, number>();
   for (const block of plan.blocks) if (!blockLength.has(block.id)) blockLength.set(block.id, block.lengthMm);
   const { runningAmps } = runCurrents(plan);
 
   // Per cab: span of its runs and its heaviest train; per cab and loco: span, run count, highest volts.
   const cabLoad = new Map<number, { fromS: number; toS: number; amps: number }>();
-  const overDriven = new Map<string, { cab: number; loco: string; fromS: number; toS: number; runs: number; track: number; amps: number }>();
+  const overDriven = new Map<number, { cab: number; loco: number; fromS: number; toS: number; runs: number; track: number; amps: number }>();
   plan.runs.forEach((run, r) => {
     const cab = index.runCab[r]!;
     const driver = plan.drivers[index.runDriver[r]!];
@@ -101,20 +104,21 @@ export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Findin
     }
     const train = plan.trains[index.runTrain[r]!];
     if (train === undefined) return;
-    const drop = driverDrop(driver);
+    const drop = drops[index.runDriver[r]!]!;
     const highest = trackVoltsOf(supply.volts, dropAt(drop.min, amps));
     let speed: number | null | undefined;
     for (const locoId of train.locoIds) {
-      const loco = locoOf.get(locoId);
-      if (loco === undefined) continue;
+      const l = locoOf.get(locoId);
+      if (l === undefined) continue;
+      const loco = plan.locos[l]!;
       if (loco.topSpeedKmh !== undefined && loco.topSpeedKmh !== null) {
         speed ??= plannedSpeedKmh(plan, run, blockLength, train);
         if (speed !== null) reachFinding(run, loco, loco.topSpeedKmh, speed, supply.volts, dropAt(drop.max, amps), names, findings);
       }
       if (!(highest > loco.ratedVolts + VOLTS_TOLERANCE)) continue;
-      const key = `${cab}\u0000${locoId}`;
+      const key = cab * plan.locos.length + l;
       const entry = overDriven.get(key);
-      if (entry === undefined) overDriven.set(key, { cab, loco: locoId, fromS: run.departS, toS: run.arriveS, runs: 1, track: highest, amps });
+      if (entry === undefined) overDriven.set(key, { cab, loco: l, fromS: run.departS, toS: run.arriveS, runs: 1, track: highest, amps });
       else {
         entry.fromS = Math.min(entry.fromS, run.departS);
         entry.toS = Math.max(entry.toS, run.arriveS);
@@ -129,7 +133,7 @@ export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Findin
 
   for (const entry of overDriven.values()) {
     const cab = plan.cabs[entry.cab]!;
-    const loco = locoOf.get(entry.loco)!;
+    const loco = plan.locos[entry.loco]!;
     const safeDuty = Math.floor((loco.ratedVolts / entry.track) * 100);
     findings.push({
       kind: 'track-voltage-high',
@@ -137,8 +141,9 @@ export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Findin
       ids: [cab.id, loco.id],
       fromS: entry.fromS,
       toS: entry.toS,
-      message:
-        `${withNoun('cab', names.cab(cab.id))} puts up to ${volts(entry.track)} on the rails at full throttle (the bridge's least drop at ${ampsText(entry.amps)}), above the ${volts(loco.ratedVolts)} rating of ${names.loco(loco.id)} ` +
+      message: !willList(findings, 'track-voltage-high')
+        ? ''
+        : `${withNoun('cab', names.cab(cab.id))} puts up to ${volts(entry.track)} on the rails at full throttle (the bridge's least drop at ${ampsText(entry.amps)}), above the ${volts(loco.ratedVolts)} rating of ${names.loco(loco.id)} ` +
         `(${entry.runs} run${entry.runs === 1 ? '' : 's'}); keep its duty at or below ${safeDuty} % (NEM 630 Table 2 judges PWM by its average voltage)`,
     });
   }
@@ -173,7 +178,7 @@ function reachFinding(
   supplyVolts: number,
   dropVolts: number,
   names: PlanNames,
-  findings: Finding[],
+  findings: FindingSink,
 ): void {
   const result = dutyFor({
     supplyVolts,
@@ -191,6 +196,8 @@ function reachFinding(
     ids: [run.id, loco.id],
     fromS: run.departS,
     toS: run.arriveS,
-    message: `${names.run(run.id)} is planned at ${Math.round(speedKmh * 10) / 10} km/h, more than ${names.loco(loco.id)} can give on its cab: ${result.reason}`,
+    message: !willList(findings, 'speed-not-reachable')
+      ? ''
+      : `${names.run(run.id)} is planned at ${Math.round(speedKmh * 10) / 10} km/h, more than ${names.loco(loco.id)} can give on its cab: ${result.reason}`,
   });
 }
