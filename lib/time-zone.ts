@@ -1,6 +1,6 @@
 // The one time-zone module: wall-clock time in an IANA zone ⇄ UTC, with nothing but Intl (no time-zone
 // library is installed). Hours come back 0–23 (some engines print midnight as 24).
-// Client-safe: the session form and the calendar use it too.
+// Client-safe: the session form, the calendar and every page that shows a session time use it.
 
 const formatters = new Map<string, Intl.DateTimeFormat>();
 
@@ -76,4 +76,30 @@ export function utcToZoned(instant: Date, timeZone: string): { date: string; tim
 export function floatingIso(utcMs: number, timeZone: string): string {
   const w = wallClockParts(utcMs, timeZone);
   return `${pad(w.year, 4)}-${pad(w.month)}-${pad(w.day)}T${pad(w.hour)}:${pad(w.minute)}:${pad(w.second)}`;
+}
+
+// ---- Showing an instant in a zone, for people (en-GB, 24-hour) ----
+
+/** A session's real date and time in its own zone, e.g. "Sat 12 Dec 2026, 14:00". */
+export function formatInZone(date: Date, timeZone: string, options: Intl.DateTimeFormatOptions = {}): string {
+  return new Intl.DateTimeFormat('en-GB', {
+    timeZone,
+    weekday: 'short',
+    day: 'numeric',
+    month: 'short',
+    year: 'numeric',
+    hour: '2-digit',
+    minute: '2-digit',
+    hourCycle: 'h23',
+    ...options,
+  }).format(date);
+}
+
+export function formatTimeInZone(date: Date, timeZone: string): string {
+  return new Intl.DateTimeFormat('en-GB', { timeZone, hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }).format(date);
+}
+
+/** A session's date alone in its zone, e.g. "Sat 12 Dec 2026". */
+export function formatDateInZone(date: Date, timeZone: string): string {
+  return new Intl.DateTimeFormat('en-GB', { timeZone, weekday: 'short', day: 'numeric', month: 'short', year: 'numeric' }).format(date);
 }

@@ -1,6 +1,6 @@
 import type { loadSessionRows } from '@/db/queries/plan-data';
 import { formatFast } from '@/lib/planning';
-import { formatTimeInZone } from '@/lib/format';
+import { formatTimeInZone } from '@/lib/time-zone';
 
 type SessionRows = NonNullable<ReturnType<typeof loadSessionRows>>;
 

@@ -1,4 +1,4 @@
-import { formatInZone as formatInZoneUncached, formatTimeInZone } from '@/lib/format';
+import { formatInZone as formatInZoneUncached, formatTimeInZone } from '@/lib/time-zone';
 import { formatStand, type RunAssignment } from '@/lib/invitations/assignments';
 import type { CalendarSession, Person } from '@/lib/calendar/ics';
 

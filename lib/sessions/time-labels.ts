@@ -2,7 +2,7 @@
 // Client-safe (no server imports).
 import type { FastClock } from '@/lib/planning';
 import { formatFast, formatTimeOfDay, realToFast } from '@/lib/planning/clock';
-import { formatTimeInZone } from '@/lib/format';
+import { formatTimeInZone } from '@/lib/time-zone';
 
 export type SessionClock = FastClock & { startsAtMs: number; timeZone: string };
 

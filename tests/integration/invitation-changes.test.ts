@@ -9,7 +9,7 @@ import { getRailwaySession, listSessionInvitations } from '@/db/queries/invitati
 import * as t from '@/db/schema';
 import { personalFeed } from '@/lib/calendar/feeds';
 import { resetEnvCache } from '@/lib/env';
-import { formatInZone } from '@/lib/format';
+import { formatInZone } from '@/lib/time-zone';
 import { isLate } from '@/lib/invitations/reply';
 import { sessionStandings } from '@/lib/invitations/send';
 import { startLocalMailServer } from '@/lib/mail/local-server';

@@ -5,7 +5,7 @@ import { MailText } from '@/components/mail/mail-text';
 import { Card, Notice } from '@/components/ui/card';
 import { requireUser } from '@/lib/auth';
 import { env } from '@/lib/env';
-import { formatInZone } from '@/lib/format';
+import { formatInZone } from '@/lib/time-zone';
 
 export const metadata: Metadata = { title: 'My mail' };
 export const dynamic = 'force-dynamic';

@@ -8,7 +8,7 @@ import { RsvpButtons } from '@/components/crew/rsvp-buttons';
 import { RunCard } from '@/components/crew/run-card';
 import { Card } from '@/components/ui/card';
 import { currentUser } from '@/lib/current-user';
-import { formatInZone } from '@/lib/format';
+import { formatInZone } from '@/lib/time-zone';
 import { absoluteUrl } from '@/lib/mail/account-mail';
 import { loadMyRuns, type MyRunsSession } from '@/lib/invitations/my-runs';
 

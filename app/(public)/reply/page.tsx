@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import { ReplyForm } from '@/components/invitations/reply-form';
 import { Card, Notice } from '@/components/ui/card';
-import { formatInZone } from '@/lib/format';
+import { formatInZone } from '@/lib/time-zone';
 import { ANSWER_LABELS, inspectReplyToken } from '@/lib/invitations/reply';
 import { ANSWERS, MAX_REPLY_COMMENT, type Answer } from '@/lib/validations/invitation';
 

@@ -3,7 +3,7 @@ import Link from 'next/link';
 import { notFound, redirect } from 'next/navigation';
 import { PrintButton } from '@/components/crew/print-button';
 import { currentUser } from '@/lib/current-user';
-import { formatInZone } from '@/lib/format';
+import { formatInZone } from '@/lib/time-zone';
 import { formatStand } from '@/lib/invitations/assignments';
 import { loadMyRuns } from '@/lib/invitations/my-runs';
 import { requireSession } from '@/lib/auth/sessions';

@@ -5,7 +5,7 @@ import { getRailwaySession } from '@/db/queries/invitation-records';
 import { listOutbox } from '@/db/queries/outbox';
 import { listRailwaySessions } from '@/db/queries/sessions';
 import { Badge, Card } from '@/components/ui/card';
-import { formatDateInZone, formatInZone } from '@/lib/format';
+import { formatDateInZone, formatInZone } from '@/lib/time-zone';
 import { crewStatus } from '@/lib/invitations/crew-status';
 import { memberForPage } from '@/lib/auth/pages';
 import { roleAtLeast } from '@/lib/roles';

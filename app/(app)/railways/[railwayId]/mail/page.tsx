@@ -5,7 +5,7 @@ import { MailText } from '@/components/mail/mail-text';
 import { NotAllowed } from '@/components/railway/not-allowed';
 import { Badge, Card, Notice } from '@/components/ui/card';
 import { env } from '@/lib/env';
-import { formatInZone } from '@/lib/format';
+import { formatInZone } from '@/lib/time-zone';
 import { maskPersonalLinks } from '@/lib/mail/personal-links';
 import { memberForPage } from '@/lib/auth/pages';
 import { getRailway } from '@/db/queries/railways';

@@ -6,7 +6,7 @@ import { getRailway } from '@/db/queries/railways';
 import { listRailwaySessions } from '@/db/queries/sessions';
 import { DuplicateForm, SessionForm } from '@/components/sessions/session-form';
 import { Badge, Card } from '@/components/ui/card';
-import { formatInZone } from '@/lib/format';
+import { formatInZone } from '@/lib/time-zone';
 import { memberForPage } from '@/lib/auth/pages';
 import { roleAtLeast } from '@/lib/roles';
 import { errorCounts } from '@/lib/sessions/error-counts';

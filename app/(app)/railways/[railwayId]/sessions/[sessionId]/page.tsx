@@ -3,7 +3,7 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { TimetableBuilder } from '@/components/timetable/timetable-builder';
 import { Badge } from '@/components/ui/card';
-import { formatInZone, formatTimeInZone } from '@/lib/format';
+import { formatInZone, formatTimeInZone } from '@/lib/time-zone';
 import { memberForPage } from '@/lib/auth/pages';
 import { roleAtLeast } from '@/lib/roles';
 import { builderPageProps, loadSessionPlan } from '@/lib/sessions/builder';

@@ -8,7 +8,7 @@ import { AutoRefresh } from '@/components/invitations/auto-refresh';
 import { InviteCrewForm, NoticeActions, RemindButton, ReplyDeadlineForm, ResendButton } from '@/components/invitations/tracker-forms';
 import { NotAllowed } from '@/components/railway/not-allowed';
 import { Badge, Card, Notice } from '@/components/ui/card';
-import { formatInZone } from '@/lib/format';
+import { formatInZone } from '@/lib/time-zone';
 import { describeChange, summariseChanges } from '@/lib/invitations/changes';
 import { isLate } from '@/lib/invitations/reply';
 import { nextReminderAt, remindable, sessionStandings } from '@/lib/invitations/send';
