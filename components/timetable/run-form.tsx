@@ -1,5 +1,6 @@
 'use client';
 
+import dynamic from 'next/dynamic';
 import { useMemo, useState } from 'react';
 import type { FastClock } from '@/lib/planning';
 import { parseTimeOfDay } from '@/lib/planning/time-of-day';
@@ -11,6 +12,11 @@ import { Button } from '@/components/ui/button';
 import { Field, Select, TextInput } from '@/components/ui/field';
 
 const STAND_BEFORE_S = '60';
+
+// The drawing loads when the planner first opens it (the builder's first view stays light).
+const TrackDiagram = dynamic(() => import('@/components/layouts/track-diagram').then((m) => m.TrackDiagram), {
+  loading: () => <p className="text-sm text-muted">Loading the track diagram…</p>,
+});
 
 /**
  * Adds a run: train, cab, operator, a fast-clock departure, and a route picked by clicking blocks
@@ -50,6 +56,7 @@ export function RunForm({
   // The route start the form filled in itself (replaced when the train changes, kept once the planner picks on).
   const [prefilled, setPrefilled] = useState<string | null>(initial?.fromBlockId ?? null);
   const [added, setAdded] = useState<string | null>(null);
+  const [diagramOpen, setDiagramOpen] = useState(false);
   const [errors, setErrors] = useState<Record<string, string>>({});
 
   /** Departure and route start carried on from a train's last run (or the plain suggestion). */
@@ -158,9 +165,25 @@ export function RunForm({
       </div>
       <fieldset className="space-y-2">
         <legend className="text-sm font-semibold">Route</legend>
-        <p className="text-xs text-muted">
-          Click the first and the last block; the shortest route between them is filled in. Click blocks in between to choose the way (a loop road, say).
-        </p>
+        <div className="flex flex-wrap items-center justify-between gap-2">
+          <p className="text-xs text-muted">
+            Click the first and the last block; the shortest route between them is filled in. Click blocks in between to choose the way (a loop road, say).
+          </p>
+          <Button type="button" variant="secondary" aria-expanded={diagramOpen} onClick={() => setDiagramOpen((o) => !o)} data-testid="route-diagram-toggle">
+            {diagramOpen ? 'Hide the track diagram' : 'Pick on the track diagram'}
+          </Button>
+        </div>
+        {diagramOpen ? (
+          <TrackDiagram
+            title="Track diagram: click blocks in order to pick the route"
+            idPrefix="route-diagram"
+            blocks={layout.blocks}
+            links={layout.links}
+            picked={waypoints}
+            route={route ?? []}
+            onPick={(id) => setWaypoints((w) => [...w, id])}
+          />
+        ) : null}
         <div className="flex flex-wrap gap-1.5" role="group" aria-label="Blocks">
           {layout.blocks.map((b) => {
             const order = waypoints.indexOf(b.id);

@@ -32,6 +32,9 @@ const CalendarView = dynamic(() => import('./calendar-view').then((m) => m.Calen
   ssr: false,
   loading: () => <p className="p-4 text-sm text-muted">Loading the calendar…</p>,
 });
+const TrackView = dynamic(() => import('./track-view').then((m) => m.TrackView), {
+  loading: () => <p className="p-4 text-sm text-muted">Loading the track diagram…</p>,
+});
 const PrintView = dynamic(() => import('./print-view').then((m) => m.PrintView), {
   loading: () => <p className="p-4 text-sm text-muted">Loading the printable timetable…</p>,
 });
@@ -47,10 +50,11 @@ function useDrawnInBrowser(): boolean {
   return useSyncExternalStore(noSubscription, () => true, () => false);
 }
 
-type View = 'graph' | 'calendar' | 'load' | 'print';
+type View = 'graph' | 'track' | 'calendar' | 'load' | 'print';
 const VIEWS: { id: View; label: string }[] = [
   { id: 'graph', label: 'Train graph' },
   { id: 'calendar', label: 'Calendar' },
+  { id: 'track', label: 'Track' },
   { id: 'load', label: 'Load' },
   { id: 'print', label: 'Print' },
 ];
@@ -201,7 +205,7 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
             </Tabs.Trigger>
           ))}
         </Tabs.List>
-        {view === 'graph' || view === 'calendar' ? (
+        {view === 'graph' || view === 'calendar' || view === 'track' ? (
           <label className="flex items-center gap-2 text-sm">
             Colour by
             <select value={colorBy} onChange={(e) => setColorBy(e.target.value as 'cab' | 'operator')} className="rounded-plate border border-line bg-surface px-2 py-1">
@@ -247,6 +251,17 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
               </div>
               <GraphResizeHandle height={graphHeight.px} onResize={graphHeight.set} controls="train-graph-area" />
             </Tabs.Content>
+            <Tabs.Content value="track" className="focus-visible:outline-none">
+              <TrackView
+                layout={layout}
+                runs={runs}
+                clock={clock}
+                lengthS={lengthS}
+                sessionEndS={(session.endsAtMs - session.startsAtMs) / 1000}
+                colorOf={colorOf}
+                trainName={trainName}
+              />
+            </Tabs.Content>
             <Tabs.Content value="calendar" className="focus-visible:outline-none">
               <CalendarView
                 runs={runs}
@@ -267,7 +282,7 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
             <Tabs.Content value="print" className="focus-visible:outline-none">
               <PrintView title={session.title} dateLabel={dateLabel} runs={runs} layout={layout} clock={clock} clashing={clashing} />
             </Tabs.Content>
-            {(view === 'graph' || view === 'calendar') && colors.length ? (
+            {(view === 'graph' || view === 'calendar' || view === 'track') && colors.length ? (
               <ul className="mt-3 flex flex-wrap gap-3 text-xs" aria-label="Colours">
                 {colors.map((c, i) => (
                   <li key={c.id} className="flex items-center gap-1">

@@ -112,7 +112,7 @@ export function builderLayout(rows: SessionRows): BuilderLayout {
   const rsvp = rsvpByUser(rows.session.id);
   return {
     scaleRatio: rows.layout?.scaleRatio ?? 87,
-    blocks: rows.blocks.map((b) => ({ id: b.id, name: b.name, lengthMm: b.lengthMm, positionMm: b.positionMm, ...(b.reversingPlace ? { reversingPlace: true } : {}) })),
+    blocks: rows.blocks.map((b) => ({ id: b.id, name: b.name, lengthMm: b.lengthMm, positionMm: b.positionMm, ...(b.reversingPlace ? { reversingPlace: true } : {}), ...(b.reversingSection ? { reversingSection: true } : {}) })),
     links: rows.links.map((l) => ({ a: l.blockAId, b: l.blockBId, aEnd: l.blockAEnd, bEnd: l.blockBEnd })),
     cabs: rows.cabs.map((c) => ({ id: c.id, name: c.name, driverId: c.driverId, channel: c.channel })),
     drivers: rows.drivers.map((d) => ({ id: d.id, name: d.name, supplyId: d.supplyId })),

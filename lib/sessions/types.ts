@@ -54,7 +54,7 @@ export type BuilderChange = BuilderSnapshot & {
 /** The layout and crew the builder draws with; loaded once with the page. */
 export type BuilderLayout = {
   scaleRatio: number;
-  blocks: { id: string; name: string; lengthMm: number; positionMm: number; reversingPlace?: boolean }[];
+  blocks: { id: string; name: string; lengthMm: number; positionMm: number; reversingPlace?: boolean; reversingSection?: boolean }[];
   /** Rail joints: end aEnd of block a meets end bEnd of block b. */
   links: { a: string; b: string; aEnd: 'a' | 'b'; bEnd: 'a' | 'b' }[];
   cabs: { id: string; name: string; driverId: string; channel: number }[];
