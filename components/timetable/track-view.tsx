@@ -2,7 +2,8 @@
 
 import { useMemo, useState } from 'react';
 import { trainPositionsAt } from '@/lib/planning/positions';
-import { fastLabel, fastTextToReal, type SessionClock } from '@/lib/sessions/time-labels';
+import { fastTimeToReal } from '@/lib/planning/clock';
+import { fastLabel, type SessionClock } from '@/lib/sessions/time-labels';
 import type { BuilderLayout } from '@/lib/sessions/types';
 import type { Run } from '@/lib/runs/schema';
 import { TrackDiagram, type DiagramMark } from '@/components/layouts/track-diagram';
@@ -71,7 +72,7 @@ export function TrackView({
               inputMode="numeric"
               onChange={(e) => setText(e.target.value)}
               onBlur={() => {
-                const s = fastTextToReal(text, clock);
+                const s = fastTimeToReal(text, clock);
                 if (s === null || s < 0 || s > lengthS) setError('A fast time within the session, HH:MM.');
                 else moveTo(s);
               }}
