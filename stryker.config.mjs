@@ -13,6 +13,11 @@
 //   valid address to z.email, so it never reaches the list).
 // - lib/calendar/ics.ts finish(): `text.endsWith('\r\n')` → `startsWith`: ical-generator 10 writes
 //   neither a leading CRLF nor a trailing one, so both forms add the one CRLF RFC 5545 3.1 wants.
+// - lib/layouts/power-budget.ts (and the engine's checks of the same kind): `amps > rating + AMPS_TOLERANCE`
+//   → `>=` (and the same with VOLTS_TOLERANCE). The tolerance (1e-9 A or V, lib/planning/rules.ts) only
+//   absorbs floating-point sums such as 0.1 + 0.2; the two forms differ at exactly rating + 1e-9, which no
+//   figure a planner types (two decimals at most) or sums reaches. The edge tests put a load exactly at its
+//   rating, which is where the real `>` vs `>=` question lies, and they pass with either form here.
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',

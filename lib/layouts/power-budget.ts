@@ -152,7 +152,8 @@ export function heaviest(loads: TrainLoad[], k: number, which: 'runningAmps' | '
 const a = (v: number) => `${round(v)} A`;
 const w = (x: number) => `${Math.round(x * 100) / 100} W`;
 const v = (x: number) => `${Math.round(x * 100) / 100} V`;
-const worse = (x: Status, y: Status): Status => (x === 'over' || y === 'over' ? 'over' : x === 'warning' || y === 'warning' ? 'warning' : 'ok');
+/** A warning, unless the status is already over. */
+const atLeastWarning = (status: Status): Status => (status === 'over' ? 'over' : 'warning');
 
 export function powerBudget(input: BudgetInput): PowerBudget {
   const derate = input.derate ?? defaultRules.derate;
@@ -245,13 +246,13 @@ export function powerBudget(input: BudgetInput): PowerBudget {
     }
     if (electrics.packageWatts !== null && heatHighWatts > electrics.packageWatts + 1e-9) {
       // A warning, as in the plan check: the package rating holds for one mounting at 25 °C.
-      status = worse(status, 'warning');
+      status = atLeastWarning(status);
       messages.push(
         `With every cab running its heaviest train the bridge dissipates about ${w(heatLowWatts)} to ${w(heatHighWatts)}, above its ${w(electrics.packageWatts)} package rating: add a heat sink or spread the trains over more drivers.`,
       );
     }
     if (nominalVolts !== null && gaugeMm !== null && trackVolts < nominalVolts - VOLTS_TOLERANCE) {
-      status = worse(status, 'warning');
+      status = atLeastWarning(status);
       messages.push(
         `Track gets ${v(trackVolts)} at full throttle with the heaviest train, below the ${nominalVolts} V nominal of NEM 630 Table 1 for ${gaugeMm} mm gauge` +
           (nominalVolts === 12 ? ' (NMRA S-9 I.A: at least 12 V at full throttle at maximum anticipated load)' : '') + '.',
@@ -262,7 +263,7 @@ export function powerBudget(input: BudgetInput): PowerBudget {
         status = 'over';
         messages.push(`Supply ${v(supply.volts)} is above the ${v(preset.maxSupplyVolts)} motor-supply maximum of this driver class (${preset.source}).`);
       } else if (preset.minSupplyVolts !== null && supply.volts < preset.minSupplyVolts - VOLTS_TOLERANCE) {
-        status = worse(status, 'warning');
+        status = atLeastWarning(status);
         messages.push(`Supply ${v(supply.volts)} is below the ${v(preset.minSupplyVolts)} motor-supply minimum of this driver class (${preset.source}).`);
       }
     }
