@@ -60,4 +60,22 @@ export default tseslint.config(
     files: ['components/**/*.{ts,tsx}'],
     rules: { 'no-restricted-imports': ['error', { patterns: ['@/db', '@/db/*', '@/app/**/page', '@/app/**/layout'] }] },
   },
+  {
+    // The builder, My runs, the crew card and the live pages run in the browser: zod and the plan schemas
+    // (over 100 KiB) stay on the server. Types are fine; values come from the zod-free modules
+    // (lib/planning/{clock,route,finding,session-clock}, lib/runs/fields, lib/validations/session-constants).
+    files: ['components/timetable/**/*.{ts,tsx}', 'components/crew/**/*.{ts,tsx}', 'components/live/**/*.{ts,tsx}', 'components/sessions/**/*.{ts,tsx}'],
+    rules: {
+      '@typescript-eslint/no-restricted-imports': [
+        'error',
+        {
+          paths: ['zod', '@/lib/planning', '@/lib/runs/schema', '@/lib/validations/session'].map((name) => ({
+            name,
+            allowTypeImports: true,
+            message: 'Browser code here imports values from zod-free modules (see eslint.config.mjs).',
+          })),
+        },
+      ],
+    },
+  },
 );

@@ -3,7 +3,8 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useCallback, useRef, useState } from 'react';
 import type { BuilderChange, BuilderSnapshot } from '@/lib/sessions/types';
-import { restoreEdit, runFieldsOf, shiftTiming, type CreateRunBody, type Move, type Run, type UpdateRunBody } from '@/lib/runs/schema';
+import { restoreEdit, runFieldsOf, shiftTiming } from '@/lib/runs/fields';
+import type { CreateRunBody, Move, Run, UpdateRunBody } from '@/lib/runs/schema';
 import { ApiError, timetableApi } from './api';
 import { timetableKeys } from './query-keys';
 

@@ -55,26 +55,8 @@ type TimingKey = 'departS' | 'arriveS' | 'steps';
 export type RunTiming = Pick<RunFields, TimingKey>;
 export type RunAttributes = Omit<RunFields, TimingKey>;
 
-/** The fields of a run, for a copy or a put-back: everything but its id and version. */
-export function runFieldsOf(run: Run): RunFields {
-  const { id: _id, version: _version, ...fields } = run;
-  return fields;
-}
-
-/** A run's attributes (everything but its identity and its timing), for an edit that puts them back. */
-export function runAttributesOf(run: Run): RunAttributes {
-  const { id: _id, version: _version, departS: _d, arriveS: _a, steps: _s, ...attributes } = run;
-  return attributes;
-}
-
-/** The run moved by `deltaS` real seconds: departure, arrival and every step. */
-export function shiftTiming(run: RunTiming, deltaS: number): RunTiming {
-  return {
-    departS: run.departS + deltaS,
-    arriveS: run.arriveS + deltaS,
-    steps: run.steps.map((s) => ({ ...s, enterS: s.enterS + deltaS, exitS: s.exitS + deltaS })),
-  };
-}
+// Plain functions over these types, in a zod-free module the builder's client imports.
+export { restoreEdit, runAttributesOf, runFieldsOf, shiftTiming } from './fields';
 
 /**
  * What the plan interchange does not carry: a stored run's fields beyond the engine's run. Plan
@@ -165,15 +147,6 @@ export const updateRunSchema = z
   });
 export type UpdateRunInput = z.infer<typeof updateRunSchema>;
 export type UpdateRunBody = z.input<typeof updateRunSchema>;
-
-/** The edit that puts a run's every field back as it was in `before`, at the version it is at now. */
-export function restoreEdit(before: Run, nowVersion: number): UpdateRunBody {
-  return {
-    version: nowVersion,
-    ...runAttributesOf(before),
-    steps: { departS: before.departS, arriveS: before.arriveS, steps: before.steps },
-  };
-}
 
 export const seriesSchema = z.object({
   everyFastMin: z.number({ error: 'Enter how many fast minutes apart.' }).int('Use whole minutes.').min(1, 'Use at least 1 minute.').max(24 * 60, 'Use at most 1440 minutes.'),
