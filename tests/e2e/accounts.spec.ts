@@ -54,6 +54,12 @@ test('signing in through the form lands on Railways', async ({ page, signInPage 
   await signInPage.signIn(DEMO.planner, DEMO_PASSWORD);
   await expect(page).toHaveURL(/\/railways$/);
   await expect(page.getByText(DEMO_RAILWAY)).toBeVisible();
+  // The header's Sign out (a plain form to next-auth's sign-out endpoint) ends this session: the front
+  // page, and the app asks to sign in again.
+  await page.getByRole('button', { name: 'Sign out', exact: true }).click();
+  await expect(page).toHaveURL(/\/$/);
+  await page.goto('/railways');
+  await expect(page).toHaveURL(/\/sign-in/);
 });
 
 test('a wrong password is refused with a message', async ({ page, signInPage }) => {
