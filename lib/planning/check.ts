@@ -162,7 +162,7 @@ export function checkPlan(plan: Plan, options: CheckOptions = {}): PlanCheck {
   findLocoInTwoTrains(plan, index, names, sessionEnd, list);
   findContinuityBreaks(plan, trainRuns, names, list);
   findRouteGaps(plan, index, names, list);
-  findStepGaps(plan, names, list);
+  findStepGaps(plan, index, names, list);
   findTooLong(plan, index, names, list);
   findPolarityIssues(plan, index, names, list, stepsByEnter);
   inBudget();
@@ -369,8 +369,9 @@ function findBlockClashes(
     return { kind, severity: 'error' as const, ids: [blockId, runA, runB], fromS: m.fromS, toS: m.toS, message };
   };
 
-  let room = list.room('block-overlap');
-  if (room > 0 && stayPairs > 0) {
+  // Never more visits than pairs: the sweep stops at the last one.
+  let room = Math.min(list.room('block-overlap'), stayPairs);
+  if (room > 0) {
     forEachOverlapInGroups(order, stayGroup, blockCount, occ.enter, occ.reach, (p, q) => {
       list.add(describe(p, q, 'block-overlap'));
       return --room > 0;
@@ -379,8 +380,8 @@ function findBlockClashes(
   list.countAll('block-overlap', stayPairs, 'error');
 
   const occupiedPairs = allPairs - stayPairs - samePairs;
-  room = list.room('block-occupied');
-  if (room > 0 && occupiedPairs > 0) {
+  room = Math.min(list.room('block-occupied'), occupiedPairs);
+  if (room > 0) {
     forEachMarkedOverlapInGroups(order, occ.group, blockCount, occ.isStand, occ.enter, occ.reach, (p, q) => {
       if (occ.owner[p] === occ.owner[q]) return true;
       list.add(describe(p, q, 'block-occupied'));
@@ -415,8 +416,8 @@ function findDoubleBookings(
   const { depart, arrive, until, orders } = movements;
   const owner = Int32Array.from(runOwner, (o, r) => (until[r]! > depart[r]! ? o : -1));
   const total = countOverlapsInGroups(owner, owners.length, depart, until, orders).reduce((a, b) => a + b, 0);
-  let room = list.room(kind);
-  if (room > 0 && total > 0) {
+  let room = Math.min(list.room(kind), total);
+  if (room > 0) {
     const order = orders.byStart;
     forEachOverlapInGroups(order, owner, owners.length, depart, until, (p, q) => {
       const ownerId = owners[owner[p]!]!.id;
@@ -471,8 +472,8 @@ function findLocoInTwoTrains(plan: Plan, index: PlanIndex, names: PlanNames, ses
   });
   const group = Int32Array.from(loco, (l, i) => (end[i]! > start[i]! ? l : -1));
   const total = countOverlapsInGroups(group, plan.locos.length, start, end).reduce((a, b) => a + b, 0);
-  let room = list.room('loco-in-two-trains');
-  if (room > 0 && total > 0) {
+  let room = Math.min(list.room('loco-in-two-trains'), total);
+  if (room > 0) {
     const order = orderByKey(start);
     forEachOverlapInGroups(order, group, plan.locos.length, start, end, (p, q) => {
       const locoId = plan.locos[loco[p]!]!.id;
@@ -496,13 +497,15 @@ function findLocoInTwoTrains(plan: Plan, index: PlanIndex, names: PlanNames, ses
 }
 
 /** `step-gap` `[runId, blockA, blockB]` (error): a run's next step begins after its step before ended. */
-function findStepGaps(plan: Plan, names: PlanNames, findings: FindingSink): void {
-  for (const run of plan.runs) {
-    for (let j = 1; j < run.steps.length; j++) {
-      const before = run.steps[j - 1]!;
-      const after = run.steps[j]!;
-      const gap = after.enterS - before.exitS;
+function findStepGaps(plan: Plan, index: PlanIndex, names: PlanNames, findings: FindingSink): void {
+  const { stepStart, stepEnter, stepExit } = index;
+  for (let r = 0; r < plan.runs.length; r++) {
+    for (let k = stepStart[r]! + 1; k < stepStart[r + 1]!; k++) {
+      const gap = stepEnter[k]! - stepExit[k - 1]!;
       if (!(gap > TIME_TOLERANCE_S)) continue;
+      const run = plan.runs[r]!;
+      const before = run.steps[k - 1 - stepStart[r]!]!;
+      const after = run.steps[k - stepStart[r]!]!;
       findings.push({
         kind: 'step-gap',
         severity: 'error',
@@ -609,6 +612,8 @@ function findTooLong(plan: Plan, index: PlanIndex, names: PlanNames, findings: F
   plan.runs.forEach((run, r) => {
     const train = plan.trains[index.runTrain[r]!];
     if (train === undefined) return;
+    const shorter = (b: number) => b >= 0 && plan.blocks[b]!.lengthMm < train.lengthMm;
+    if (!shorter(index.stepBlock[index.stepStart[r]!]!) && !shorter(index.stepBlock[index.stepStart[r + 1]! - 1]!)) return;
     const first = run.steps[0]!;
     const last = run.steps[run.steps.length - 1]!;
     const stands =

@@ -92,6 +92,7 @@ interface Tally {
   peak: number;
   moving: number;
   series: LoadSeries;
+  steps: Steps;
 }
 
 /**
@@ -128,7 +129,8 @@ export function buildLoadProfile(plan: Plan, index: PlanIndex = indexPlan(plan))
       return { ...series(c.id, c.name, driver.channelAmps, driver.channelAmps, surge.amps), surgeJudgedContinuous: surge.continuous };
     }),
   };
-  const tally = (s: LoadSeries): Tally => ({ running: 0, peak: 0, moving: 0, series: s });
+  const tally = (s: LoadSeries): Tally => ({ running: 0, peak: 0, moving: 0, series: s, steps: steps(s.points) });
+  const heatSteps = profile.drivers.map((d) => steps(d.heat!.points));
   const cabTallies = profile.cabs.map(tally);
   const driverTallies = profile.drivers.map(tally);
   const supplyTallies = profile.supplies.map(tally);
@@ -172,11 +174,10 @@ export function buildLoadProfile(plan: Plan, index: PlanIndex = indexPlan(plan))
       t.running += dRunning;
       t.peak += dPeak;
     }
-    setPoint(t.series.points, at, t.running, t.peak);
+    setPoint(t.steps, at, t.running, t.peak);
   };
 
   const heatOf = (driver: number, at: number) => {
-    const heat = profile.drivers[driver]!.heat!;
     const [low, high] = driverLines[driver]!;
     let lowWatts = 0;
     let highWatts = 0;
@@ -185,7 +186,7 @@ export function buildLoadProfile(plan: Plan, index: PlanIndex = indexPlan(plan))
       lowWatts += channelWatts(low, amps);
       highWatts += channelWatts(high, amps);
     }
-    setPoint(heat.points, at, lowWatts, highWatts);
+    setPoint(heatSteps[driver]!, at, lowWatts, highWatts);
   };
 
   for (const event of events) {
@@ -221,32 +222,55 @@ export function buildLoadProfile(plan: Plan, index: PlanIndex = indexPlan(plan))
     if (supply >= 0) apply(supplyTallies[supply], at, dRunning, dPeak, dMoving);
   }
 
-  for (const s of [...profile.cabs, ...profile.drivers, ...profile.supplies]) {
-    for (let i = 0; i < s.points.length; i++) {
-      const point = s.points[i]!;
-      if (point[1] > s.maxRunningAmps) s.maxRunningAmps = point[1];
-      if (point[2] > s.maxPeakAmps) s.maxPeakAmps = point[2];
-    }
-    const heat = s.heat;
-    if (heat === null) continue;
-    for (let i = 0; i < heat.points.length; i++) {
-      const point = heat.points[i]!;
-      if (point[1] > heat.maxLowWatts) heat.maxLowWatts = point[1];
-      if (point[2] > heat.maxHighWatts) heat.maxHighWatts = point[2];
-    }
+  for (const t of [...cabTallies, ...driverTallies, ...supplyTallies]) {
+    const max = finish(t.steps);
+    t.series.maxRunningAmps = max.a;
+    t.series.maxPeakAmps = max.b;
   }
+  profile.drivers.forEach((driver, d) => {
+    const max = finish(heatSteps[d]!);
+    driver.heat!.maxLowWatts = max.a;
+    driver.heat!.maxHighWatts = max.b;
+  });
   return profile;
 }
 
-/** Appends a breakpoint, or overwrites the last one when it is at the same instant. */
-function setPoint(points: [number, number, number][], at: number, a: number, b: number): void {
+/** A step function being built: its breakpoints, and the highest values among those finished. */
+interface Steps {
+  points: [number, number, number][];
+  a: number;
+  b: number;
+}
+
+const steps = (points: [number, number, number][]): Steps => ({ points, a: 0, b: 0 });
+
+/** Takes a finished breakpoint into the maxima. */
+function fold(steps: Steps, point: readonly [number, number, number]): void {
+  if (point[1] > steps.a) steps.a = point[1];
+  if (point[2] > steps.b) steps.b = point[2];
+}
+
+/**
+ * Appends a breakpoint, or overwrites the last one when it is at the same instant; a breakpoint is
+ * taken into the maxima once the next instant begins (so only an instant's outcome counts).
+ */
+function setPoint(steps: Steps, at: number, a: number, b: number): void {
+  const points = steps.points;
   const last = points[points.length - 1];
   if (last !== undefined && last[0] === at) {
     last[1] = a;
     last[2] = b;
-  } else {
-    points.push([at, a, b]);
+    return;
   }
+  if (last !== undefined) fold(steps, last);
+  points.push([at, a, b]);
+}
+
+/** The maxima over every breakpoint, the last one included. */
+function finish(steps: Steps): { a: number; b: number } {
+  const last = steps.points[steps.points.length - 1];
+  if (last !== undefined) fold(steps, last);
+  return steps;
 }
 
 /**
