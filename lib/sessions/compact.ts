@@ -1,16 +1,83 @@
 // The builder page's props in a compact form: the server renders the page and React sends its props
 // once more in the page's payload, so they are kept small. A run refers to its train, cab, operator
 // and blocks by their place in the layout the page also sends (ids once), and its steps are one flat
-// array. Plain functions, no server imports: the page encodes, the builder decodes in the browser.
+// array. Each run field has a typed codec (RUN_CODECS) and a place in the tuple (RUN_ORDER); the
+// compiler refuses a run or step field that has neither. Plain functions, no server imports: the page encodes, the builder decodes in the browser.
 import type { LoadProfile, LoadSeries } from '@/lib/planning';
 import type { BuilderLayout, BuilderSnapshot } from '@/lib/sessions/types';
-import type { Run } from '@/lib/runs/schema';
+import type { Run, Step } from '@/lib/runs/schema';
 
 /** An id as its place in a layout list, or the id itself when the list does not hold it. */
 type Ref = number | string;
 
-/** [id, version, train, cab, operator (null: none), departS, arriveS, speedKmh, note, [block, enterS, exitS, …]] */
-export type CompactRun = [string, number, Ref, Ref, Ref | null, number, number, number | null, string, (number | string)[]];
+type RefLists = 'trains' | 'cabs' | 'operators' | 'blocks';
+type Encoders = Record<RefLists, (id: string) => Ref>;
+type Decoders = Record<RefLists, (ref: Ref) => string>;
+
+/** How one field of a run goes on the wire (`W`) and comes back. */
+interface FieldCodec<T, W> {
+  encode(value: T, refs: Encoders): W;
+  decode(wire: W, refs: Decoders): T;
+}
+const codec = <T, W>(encode: FieldCodec<T, W>['encode'], decode: FieldCodec<T, W>['decode']): FieldCodec<T, W> => ({ encode, decode });
+const same = <T>() => codec<T, T>((v) => v, (w) => w);
+const ref = (list: RefLists) => codec<string, Ref>((id, refs) => refs[list](id), (wire, refs) => refs[list](wire));
+
+// A step's travel direction as one number: fromEnd × 3 + toEnd, each 0 (not recorded), 1 (a) or 2 (b).
+const ENDS = [undefined, 'a', 'b'] as const;
+const endCode = (end: Step['fromEnd']) => ENDS.indexOf(end);
+/** Step fields the flat step encoding below writes; a new one fails the check until it is written. */
+type StepFieldsWritten = 'blockId' | 'enterS' | 'exitS' | 'fromEnd' | 'toEnd';
+const everyStepFieldWritten: [Exclude<keyof Step, StepFieldsWritten>] extends [never] ? true : never = true;
+void everyStepFieldWritten;
+const STEP_CELLS = 4;
+
+/** The steps as one flat array: block, enterS, exitS, ends, block, … */
+const stepsCodec = codec<Run['steps'], (number | string)[]>(
+  (steps, refs) => steps.flatMap((s) => [refs.blocks(s.blockId), s.enterS, s.exitS, endCode(s.fromEnd) * 3 + endCode(s.toEnd)]),
+  (flat, refs) => {
+    const steps: Run['steps'] = [];
+    for (let i = 0; i + STEP_CELLS - 1 < flat.length; i += STEP_CELLS) {
+      const ends = Number(flat[i + 3]);
+      const fromEnd = ENDS[Math.floor(ends / 3)];
+      const toEnd = ENDS[ends % 3];
+      steps.push({
+        blockId: refs.blocks(flat[i]!),
+        enterS: Number(flat[i + 1]),
+        exitS: Number(flat[i + 2]),
+        ...(fromEnd ? { fromEnd } : {}),
+        ...(toEnd ? { toEnd } : {}),
+      });
+    }
+    return steps;
+  },
+);
+
+/** Every field of a run with its codec: a field added to the run schema fails to compile until it has one here. */
+const RUN_CODECS = {
+  id: same<string>(),
+  version: same<number>(),
+  trainId: ref('trains'),
+  cabId: ref('cabs'),
+  operatorId: codec<string | null, Ref | null>(
+    (id, refs) => (id === null ? null : refs.operators(id)),
+    (wire, refs) => (wire === null ? null : refs.operators(wire)),
+  ),
+  departS: same<number>(),
+  arriveS: same<number>(),
+  speedKmh: same<number | null>(),
+  note: same<string>(),
+  steps: stepsCodec,
+} satisfies { [K in keyof Run]-?: { encode(value: Run[K], refs: Encoders): unknown; decode(wire: never, refs: Decoders): Run[K] } };
+
+/** The order of a run's fields in its tuple. */
+const RUN_ORDER = ['id', 'version', 'trainId', 'cabId', 'operatorId', 'departS', 'arriveS', 'speedKmh', 'note', 'steps'] as const;
+const everyRunFieldPlaced: [Exclude<keyof Run, (typeof RUN_ORDER)[number]>] extends [never] ? true : never = true;
+void everyRunFieldPlaced;
+
+type WireOf<K> = K extends keyof typeof RUN_CODECS ? ReturnType<(typeof RUN_CODECS)[K]['encode']> : never;
+/** A run on the wire: each field's wire form in RUN_ORDER (derived, so the two cannot drift apart). */
+export type CompactRun = { -readonly [I in keyof typeof RUN_ORDER]: WireOf<(typeof RUN_ORDER)[I]> };
 
 export type CompactSnapshot = Omit<BuilderSnapshot, 'runs'> & { runs: CompactRun[] };
 
@@ -23,52 +90,26 @@ function resolver(list: readonly { id: string }[]): (ref: Ref) => string {
   return (ref) => (typeof ref === 'number' ? (list[ref]?.id ?? '') : ref);
 }
 
+// The one place the per-field types meet the tuple: each codec is typed above, RUN_ORDER is checked whole.
+type AnyCodec = FieldCodec<unknown, unknown>;
+const codecOf = (key: (typeof RUN_ORDER)[number]) => RUN_CODECS[key] as AnyCodec;
+
+export function encodeRun(run: Run, refs: Encoders): CompactRun {
+  return RUN_ORDER.map((key) => codecOf(key).encode(run[key], refs)) as unknown as CompactRun;
+}
+
+export function decodeRun(wire: CompactRun, refs: Decoders): Run {
+  return Object.fromEntries(RUN_ORDER.map((key, i) => [key, codecOf(key).decode(wire[i], refs)])) as Run;
+}
+
 export function compactSnapshot(snapshot: BuilderSnapshot, layout: BuilderLayout): CompactSnapshot {
-  const train = indexer(layout.trains);
-  const cab = indexer(layout.cabs);
-  const operator = indexer(layout.operators);
-  const block = indexer(layout.blocks);
-  return {
-    ...snapshot,
-    runs: snapshot.runs.map((r) => [
-      r.id,
-      r.version,
-      train(r.trainId),
-      cab(r.cabId),
-      r.operatorId === null ? null : operator(r.operatorId),
-      r.departS,
-      r.arriveS,
-      r.speedKmh,
-      r.note,
-      r.steps.flatMap((s) => [block(s.blockId), s.enterS, s.exitS]),
-    ]),
-  };
+  const refs: Encoders = { trains: indexer(layout.trains), cabs: indexer(layout.cabs), operators: indexer(layout.operators), blocks: indexer(layout.blocks) };
+  return { ...snapshot, runs: snapshot.runs.map((r) => encodeRun(r, refs)) };
 }
 
 export function expandSnapshot(compact: CompactSnapshot, layout: BuilderLayout): BuilderSnapshot {
-  const train = resolver(layout.trains);
-  const cab = resolver(layout.cabs);
-  const operator = resolver(layout.operators);
-  const block = resolver(layout.blocks);
-  const runs: Run[] = compact.runs.map(([id, version, trainRef, cabRef, operatorRef, departS, arriveS, speedKmh, note, flat]) => {
-    const steps: Run['steps'] = [];
-    for (let i = 0; i + 2 < flat.length; i += 3) {
-      steps.push({ blockId: block(flat[i]!), enterS: Number(flat[i + 1]), exitS: Number(flat[i + 2]) });
-    }
-    return {
-      id,
-      version,
-      trainId: train(trainRef),
-      cabId: cab(cabRef),
-      operatorId: operatorRef === null ? null : operator(operatorRef),
-      departS,
-      arriveS,
-      speedKmh,
-      note,
-      steps,
-    };
-  });
-  return { ...compact, runs };
+  const refs: Decoders = { trains: resolver(layout.trains), cabs: resolver(layout.cabs), operators: resolver(layout.operators), blocks: resolver(layout.blocks) };
+  return { ...compact, runs: compact.runs.map((r) => decodeRun(r, refs)) };
 }
 
 /** A load series on the wire: its id once (the name is in the layout), points as arrays. */

@@ -27,7 +27,11 @@ const snapshot: BuilderSnapshot = {
   runs: [
     {
       id: 'run-1', version: 2, trainId: 'train-1', cabId: 'cab-1', operatorId: 'op-1', departS: 10.5, arriveS: 70.25, speedKmh: 40, note: 'first',
-      steps: [{ blockId: 'block-aaaaaaaa-1', enterS: 10.5, exitS: 40 }, { blockId: 'block-aaaaaaaa-2', enterS: 40, exitS: 70.25 }],
+      // The travel direction the route finder recorded (either end, or only one of them) comes back too.
+      steps: [
+        { blockId: 'block-aaaaaaaa-1', enterS: 10.5, exitS: 40, fromEnd: 'a', toEnd: 'b' },
+        { blockId: 'block-aaaaaaaa-2', enterS: 40, exitS: 70.25, toEnd: 'a' },
+      ],
     },
     // An operator no longer in the crew list and a block the layout lost keep their ids.
     {
@@ -52,6 +56,9 @@ describe('compact builder props', () => {
     expect(compact.runs[0]![2]).toBe(0);
     expect(compact.runs[1]![4]).toBe('op-gone');
     expect(compact.runs[2]![4]).toBeNull();
+    // Steps are flat, four cells each: block, enterS, exitS, fromEnd × 3 + toEnd (0 none, 1 a, 2 b).
+    expect(compact.runs[0]![9]).toEqual([0, 10.5, 40, 1 * 3 + 2, 1, 40, 70.25, 0 * 3 + 1]);
+    expect(compact.runs[1]![9]).toEqual(['block-gone', 100, 130, 0]);
   });
 
   it('are smaller than the plain runs', () => {
