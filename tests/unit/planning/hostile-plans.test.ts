@@ -40,6 +40,31 @@ describe('issue 10 finding 3: quadratic stall', () => {
     expect(check.counts['loco-in-two-trains']).toBe(pairs(40));
   });
 
+  it('lists exactly the per-kind cap of each kind that has more, and counts every finding in the totals by severity', () => {
+    // 12 identical runs: 3 × 66 block overlaps, 66 pairs each on cab, operator and locomotive.
+    const check = checkPlan(identicalRunsPlan(12), { maxPerKind: 5 });
+    const severityOf = new Map(check.findings.map((f) => [f.kind, f.severity]));
+    let errors = 0;
+    let warnings = 0;
+    for (const kind of FINDING_KINDS) {
+      const count = check.counts[kind];
+      expect(check.findings.filter((f) => f.kind === kind), kind).toHaveLength(Math.min(5, count));
+      if (count > 0) expect(severityOf.has(kind), kind).toBe(true);
+      if (severityOf.get(kind) === 'error') errors += count;
+      if (severityOf.get(kind) === 'warning') warnings += count;
+    }
+    expect(check.counts['block-overlap']).toBe(3 * pairs(12));
+    expect(check.counts['cab-double-booked']).toBe(pairs(12));
+    expect(check.totals).toEqual({ errors, warnings });
+    // Errors at least: the overlaps and the cab, operator and locomotive double bookings.
+    expect(check.totals.errors).toBeGreaterThanOrEqual(3 * pairs(12) + 3 * pairs(12));
+    // The same plan uncapped: the same counts and totals, every finding listed.
+    const all = checkPlan(identicalRunsPlan(12));
+    expect(all.counts).toEqual(check.counts);
+    expect(all.totals).toEqual(check.totals);
+    expect(all.findings).toHaveLength(errors + warnings);
+  });
+
   it('refuses plans past the run and step limits in the schema', () => {
     const many = identicalRunsPlan(PLAN_LIMITS.runs + 1);
     expect(formatPlanIssues(planSchema.safeParse(many).error!)).toContain(`runs: must hold ${PLAN_LIMITS.runs} or fewer`);
@@ -58,6 +83,12 @@ describe('issue 10 finding 3: quadratic stall', () => {
     const now = () => (clock += 1000);
     expect(() => checkPlan(identicalRunsPlan(3), { budget: { ms: 1500, now } })).toThrow(CheckBudgetError);
     expect(checkPlan(identicalRunsPlan(3), { budget: { ms: 1500, now: () => 0 } }).findings.length).toBeGreaterThan(0);
+    // The budget runs from the first reading, whatever the clock's origin: a clock standing at 10⁶ ms
+    // is within it, and so is one that has moved exactly the budget (more than it is needed to give up).
+    expect(checkPlan(identicalRunsPlan(3), { budget: { ms: 1500, now: () => 1e6 } }).findings.length).toBeGreaterThan(0);
+    let reads = 0;
+    const exactly = () => (reads++ === 0 ? 0 : 1500);
+    expect(checkPlan(identicalRunsPlan(3), { budget: { ms: 1500, now: exactly } }).findings.length).toBeGreaterThan(0);
   });
 });
 
