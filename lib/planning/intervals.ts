@@ -132,9 +132,11 @@ export function countOverlapsInGroups(
   return counts;
 }
 
-/** orderByKey's digits, six 11-bit digits per key, pass by pass; grown as needed and reused. */
+/** orderByKey's digits, pass by pass; grown as needed and reused. */
 let radixDigits = new Uint16Array(0);
-const radixCounts = new Int32Array(2048);
+const radixCounts = new Int32Array(65536);
+/** From this many keys on, four passes of 16 bits beat six of 11 (whose counts are cheaper to clear). */
+const WIDE_DIGITS_FROM = 16384;
 const keyBits = new Float64Array(1);
 const keyWords = new Uint32Array(keyBits.buffer);
 /** Which of keyWords holds a double's low 32 bits on this machine. */
@@ -146,8 +148,8 @@ const LOW_WORD = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1 ? 0 : 1;
  * `sort((a, b) => key[a] − key[b] || a − b)` for keys without NaN (−0 ties with 0). A stable
  * least-significant-digit radix sort on the keys' IEEE 754 bits, sign-flipped so that their
  * unsigned order is the numbers' order (negatives: every bit flipped; others: the sign bit set),
- * in six passes of 11 bits, a pass skipped when every key has the same digit there: O(n), typed
- * arrays only, no comparator calls.
+ * in six passes of 11 bits (four of 16 for many keys), a pass skipped when every key has the same
+ * digit there: O(n), typed arrays only, no comparator calls.
  */
 export function orderByKey(key: ArrayLike<number>, items?: ArrayLike<number>): Int32Array {
   const n = items === undefined ? key.length : items.length;
@@ -155,7 +157,10 @@ export function orderByKey(key: ArrayLike<number>, items?: ArrayLike<number>): I
   if (items === undefined) for (let i = 0; i < n; i++) order[i] = i;
   else order.set(items);
   if (n < 2) return order;
-  if (radixDigits.length < 6 * n) radixDigits = new Uint16Array(Math.max(6 * n, 2 * radixDigits.length));
+  const wide = n >= WIDE_DIGITS_FROM;
+  const passes = wide ? 4 : 6;
+  const buckets = wide ? 65536 : 2048;
+  if (radixDigits.length < passes * n) radixDigits = new Uint16Array(Math.max(passes * n, 2 * radixDigits.length));
   const digits = radixDigits;
   for (let i = 0; i < n; i++) {
     keyBits[0] = key[order[i]!]! + 0; // −0 + 0 is +0
@@ -167,25 +172,32 @@ export function orderByKey(key: ArrayLike<number>, items?: ArrayLike<number>): I
     } else {
       high = (high | 0x80000000) >>> 0;
     }
-    digits[i] = low & 2047;
-    digits[n + i] = (low >>> 11) & 2047;
-    digits[2 * n + i] = (low >>> 22) | ((high & 1) << 10);
-    digits[3 * n + i] = (high >>> 1) & 2047;
-    digits[4 * n + i] = (high >>> 12) & 2047;
-    digits[5 * n + i] = high >>> 23;
+    if (wide) {
+      digits[i] = low & 0xffff;
+      digits[n + i] = low >>> 16;
+      digits[2 * n + i] = high & 0xffff;
+      digits[3 * n + i] = high >>> 16;
+    } else {
+      digits[i] = low & 2047;
+      digits[n + i] = (low >>> 11) & 2047;
+      digits[2 * n + i] = (low >>> 22) | ((high & 1) << 10);
+      digits[3 * n + i] = (high >>> 1) & 2047;
+      digits[4 * n + i] = (high >>> 12) & 2047;
+      digits[5 * n + i] = high >>> 23;
+    }
   }
   // Sort positions 0..n−1 (the digits stay where they are), then map them back to items.
   let positions = new Int32Array(n);
   for (let i = 0; i < n; i++) positions[i] = i;
   let spare = new Int32Array(n);
   const counts = radixCounts;
-  for (let pass = 0; pass < 6; pass++) {
+  for (let pass = 0; pass < passes; pass++) {
     const base = pass * n;
-    counts.fill(0);
+    counts.fill(0, 0, buckets);
     for (let i = 0; i < n; i++) counts[digits[base + i]!]!++;
     if (counts[digits[base]!] === n) continue;
     let sum = 0;
-    for (let d = 0; d < 2048; d++) {
+    for (let d = 0; d < buckets; d++) {
       const c = counts[d]!;
       counts[d] = sum;
       sum += c;
