@@ -4,6 +4,7 @@ import Link from 'next/link';
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
 import { Badge } from '@/components/ui/card';
 import { timetableKeys } from '@/components/timetable/query-keys';
+import { apiCall } from '@/lib/client/api';
 import type { ControlFinding } from '@/lib/control/schedule';
 import { spanLabel, type SessionClock } from '@/lib/sessions/time-labels';
 
@@ -26,11 +27,7 @@ const SHOWN = 12;
 export function ControlFindings({ sessionId, revision, clock, controlHref }: { sessionId: string; revision: number; clock: SessionClock; controlHref: string }) {
   const query = useQuery({
     queryKey: timetableKeys.control(sessionId, revision),
-    queryFn: async (): Promise<Answer> => {
-      const res = await fetch(`/api/sessions/${sessionId}/control/findings`, { cache: 'no-store' });
-      if (!res.ok) throw new Error(`The server answered ${res.status}.`);
-      return res.json();
-    },
+    queryFn: () => apiCall<Answer>('GET', `/api/sessions/${sessionId}/control/findings`),
     placeholderData: keepPreviousData,
     staleTime: 60_000,
   });

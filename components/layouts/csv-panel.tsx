@@ -5,6 +5,7 @@ import { useState, useTransition } from 'react';
 import { Button, buttonClass } from '@/components/ui/button';
 import { Badge, Notice } from '@/components/ui/card';
 import { inputClass } from '@/components/ui/field';
+import { ApiError, apiCall, errorMessage } from '@/lib/client/api';
 import { CSV_COLUMNS, type CsvIssue } from '@/lib/layouts/csv';
 import { CSV_MAX_BYTES, type CsvTable } from '@/lib/validations/layout';
 
@@ -35,11 +36,13 @@ export function CsvPanel({ layoutId, table, canEdit }: { layoutId: string; table
     startTransition(async () => {
       setMessage(null);
       const query = mode === 'preview' ? '?mode=preview' : `?mode=commit&basis=${encodeURIComponent(preview?.basis ?? '')}`;
-      const res = await fetch(`${url}${query}`, { method: 'POST', body: text, headers: { 'Content-Type': 'text/csv' } });
-      const body = await res.json().catch(() => ({ error: 'The server did not answer.' }));
-      if (!res.ok) {
-        setMessage({ ok: false, text: res.status === 409 ? 'The table changed since you checked the file. Check it again.' : body.error });
-        if (res.status === 409) setPreview(null);
+      let body: Preview;
+      try {
+        body = await apiCall<Preview>('POST', `${url}${query}`, { body: { text, contentType: 'text/csv' } });
+      } catch (error) {
+        const stale = error instanceof ApiError && error.status === 409;
+        setMessage({ ok: false, text: stale ? 'The table changed since you checked the file. Check it again.' : errorMessage(error) });
+        if (stale) setPreview(null);
         return;
       }
       if (mode === 'preview') {

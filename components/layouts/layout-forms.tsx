@@ -8,6 +8,7 @@ import { createLayout, deleteLayout, updateLayout } from '@/app/(app)/railways/[
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { Field, inputClass } from '@/components/ui/field';
+import { ApiError, apiCall, errorMessage } from '@/lib/client/api';
 import type { ActionState } from '@/lib/errors';
 import { SCALES } from '@/lib/planning';
 import { CUSTOM_SCALE, layoutFields } from '@/lib/validations/layout';
@@ -145,14 +146,12 @@ export function PlanImportForm({ railwayId }: { railwayId: string }) {
       } catch {
         return setMessage({ ok: false, text: 'This file is not valid JSON.' });
       }
-      const res = await fetch('/api/layouts/import', {
-        method: 'POST',
-        headers: { 'Content-Type': 'application/json' },
-        body: JSON.stringify({ railwayId, name: name || undefined, plan }),
-      });
-      const body = await res.json().catch(() => ({ error: 'The server did not answer.' }));
-      if (!res.ok) return setMessage({ ok: false, text: body.error, issues: body.issues });
-      router.push(`/railways/${railwayId}/layouts/${body.id}`);
+      try {
+        const created = await apiCall<{ id: string }>('POST', '/api/layouts/import', { body: { json: { railwayId, name: name || undefined, plan } } });
+        router.push(`/railways/${railwayId}/layouts/${created.id}`);
+      } catch (error) {
+        setMessage({ ok: false, text: errorMessage(error), issues: error instanceof ApiError ? error.body.issues : undefined });
+      }
     });
   return (
     <div className="space-y-3">

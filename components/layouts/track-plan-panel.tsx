@@ -4,6 +4,7 @@ import { useRouter } from 'next/navigation';
 import { useState, useTransition } from 'react';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
+import { apiCall, errorMessage } from '@/lib/client/api';
 
 /** The track-plan image, and for planners a way to upload or remove it (PNG, JPEG, WebP, ≤ 5 MB). */
 export function TrackPlanPanel({ layoutId, version, hasImage, canEdit, name }: { layoutId: string; version: number; hasImage: boolean; canEdit: boolean; name: string }) {
@@ -18,21 +19,23 @@ export function TrackPlanPanel({ layoutId, version, hasImage, canEdit, name }: {
       const form = new FormData();
       form.set('version', String(version));
       form.set('file', file);
-      const res = await fetch(url, { method: 'POST', body: form });
-      const body = await res.json().catch(() => ({ error: 'The server did not answer.' }));
-      if (!res.ok) setMessage({ ok: false, text: body.error });
-      else {
+      try {
+        await apiCall('POST', url, { body: { form } });
         setMessage({ ok: true, text: 'Track plan saved.' });
         router.refresh();
+      } catch (error) {
+        setMessage({ ok: false, text: errorMessage(error) });
       }
     });
   };
   const remove = () =>
     startTransition(async () => {
-      const res = await fetch(`${url}?version=${version}`, { method: 'DELETE' });
-      const body = await res.json().catch(() => ({ error: 'The server did not answer.' }));
-      if (!res.ok) setMessage({ ok: false, text: body.error });
-      else router.refresh();
+      try {
+        await apiCall('DELETE', `${url}?version=${version}`);
+        router.refresh();
+      } catch (error) {
+        setMessage({ ok: false, text: errorMessage(error) });
+      }
     });
   return (
     <div className="space-y-3">

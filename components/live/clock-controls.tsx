@@ -2,7 +2,9 @@
 
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
+import { apiCall } from '@/lib/client/api';
 import type { LiveState } from '@/lib/live/types';
+import { postLive } from './use-live-session';
 
 /** Start, pause, resume and set the shared fast clock (host or planner). */
 export function ClockControls({ state, accept }: { state: LiveState; accept: (s: LiveState) => void }) {
@@ -12,14 +14,10 @@ export function ClockControls({ state, accept }: { state: LiveState; accept: (s:
   const path = `/api/sessions/${state.session.id}/clock`;
   const act = async (body: Record<string, unknown>) => {
     setBusy(true);
-    const res = await fetch(path, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) }).catch(() => null);
-    if (!res) setError('No connection. Try again in a moment.');
-    else if (!res.ok) setError(((await res.json().catch(() => ({}))) as { error?: string }).error ?? `The server answered ${res.status}.`);
-    else {
-      setError(null);
-      // The stream brings the new state; poll once in case it is cut.
-      await refreshState(state.session.id, state.seq, accept);
-    }
+    // The stream brings the new state (the clock's answer carries none to take); poll once in case it is cut.
+    const failed = await postLive(path, body, accept);
+    setError(failed);
+    if (!failed) await refreshState(state.session.id, state.seq, accept);
     setBusy(false);
   };
   const s = state.clock.state;
@@ -45,6 +43,6 @@ export function ClockControls({ state, accept }: { state: LiveState; accept: (s:
 }
 
 async function refreshState(sessionId: string, seq: number, accept: (s: LiveState) => void) {
-  const res = await fetch(`/api/sessions/${sessionId}/live?after=${seq}`, { cache: 'no-store' }).catch(() => null);
-  if (res?.ok) accept(((await res.json()) as { state: LiveState }).state);
+  const answer = await apiCall<{ state: LiveState }>('GET', `/api/sessions/${sessionId}/live?after=${seq}`).catch(() => null);
+  if (answer) accept(answer.state);
 }

@@ -3,6 +3,7 @@
 import { useEffect, useId, useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { inputClass } from '@/components/ui/field';
+import { apiCall } from '@/lib/client/api';
 import type { LiveRun, LiveState, RunReportHistory } from '@/lib/live/types';
 import { fastAt } from './live-format';
 import { postLive } from './use-live-session';
@@ -39,8 +40,7 @@ export function CorrectReports({
   useEffect(() => {
     if (!runId) return;
     let current = true;
-    fetch(`/api/sessions/${sessionId}/runs/${runId}/reports`, { cache: 'no-store' })
-      .then((res) => (res.ok ? (res.json() as Promise<RunReportHistory>) : null))
+    apiCall<RunReportHistory>('GET', `/api/sessions/${sessionId}/runs/${runId}/reports`)
       .then((body) => {
         if (current && body) setHistory(body);
       })

@@ -3,6 +3,7 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { ClockReading } from '@/lib/planning';
 import { readSessionClock } from '@/lib/planning/session-clock';
+import { apiCall, errorMessage } from '@/lib/client/api';
 import type { LiveMessage, LiveState } from '@/lib/live/types';
 
 export type LiveMode = 'connecting' | 'live' | 'polling';
@@ -45,9 +46,9 @@ export function useLiveSession(sessionId: string, initial: LiveState) {
 
   const poll = useCallback(async () => {
     try {
-      const res = await fetch(`/api/sessions/${sessionId}/live?after=${seqRef.current}`, { cache: 'no-store', headers: { accept: 'application/json' } });
-      if (!res.ok) return;
-      const body: { seq: number; events: LiveFeedItem[]; state: LiveState } = await res.json();
+      const body = await apiCall<{ seq: number; events: LiveFeedItem[]; state: LiveState }>('GET', `/api/sessions/${sessionId}/live?after=${seqRef.current}`, {
+        headers: { accept: 'application/json' },
+      });
       addToFeed(body.events);
       accept(body.state);
     } catch {
@@ -126,12 +127,10 @@ export function useClockReading(state: LiveState, offsetMs: number): ClockReadin
 /** Posts JSON to a live route and takes the state from the answer; returns an error message or null. */
 export async function postLive(path: string, body: unknown, accept: (state: LiveState) => void): Promise<string | null> {
   try {
-    const res = await fetch(path, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
-    const answer = await res.json().catch(() => ({}));
-    if (!res.ok) return (answer as { error?: string }).error ?? `The server answered ${res.status}.`;
-    if ((answer as { state?: LiveState }).state) accept((answer as { state: LiveState }).state);
+    const answer = await apiCall<{ state?: LiveState }>('POST', path, { body: { json: body } });
+    if (answer?.state) accept(answer.state);
     return null;
-  } catch {
-    return 'No connection. Try again in a moment.';
+  } catch (error) {
+    return errorMessage(error);
   }
 }

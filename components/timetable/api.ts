@@ -1,32 +1,14 @@
-// The builder's calls to its route handlers. Errors come back as ApiError with the JSON answer.
+// The builder's calls to its route handlers, through the shared client (lib/client/api.ts): errors come back
+// as ApiError with the JSON answer.
+import { apiCall } from '@/lib/client/api';
 import type { CompactLoad } from '@/lib/sessions/compact';
 import type { BuilderChange, BuilderSnapshot, RetimeSuggestion } from '@/lib/sessions/types';
 import type { CreateRunBody, Move, SeriesBody, UpdateRunBody } from '@/lib/runs/schema';
 
-export type ApiErrorBody = { error: string; code?: string; issues?: { path: string; message: string }[]; current?: unknown };
-
-export class ApiError extends Error {
-  constructor(
-    readonly status: number,
-    readonly body: ApiErrorBody,
-  ) {
-    super(body.error);
-  }
-}
-
-async function call<T>(method: string, path: string, body?: unknown, cache: RequestCache = 'no-store'): Promise<T> {
-  const response = await fetch(path, {
-    method,
-    headers: body === undefined ? {} : { 'content-type': 'application/json' },
-    body: body === undefined ? undefined : JSON.stringify(body),
-    cache,
-  });
-  const data = await response.json().catch(() => ({ error: `The server answered ${response.status}.` }));
-  if (!response.ok) throw new ApiError(response.status, data as ApiErrorBody);
-  return data as T;
-}
-
 const base = (sessionId: string) => `/api/sessions/${encodeURIComponent(sessionId)}`;
+
+const call = <T>(method: string, path: string, json?: unknown, cache?: RequestCache) =>
+  apiCall<T>(method, path, { body: json === undefined ? undefined : { json }, cache });
 
 export const timetableApi = {
   snapshot: (sessionId: string) => call<BuilderSnapshot>('GET', `${base(sessionId)}/runs`),

@@ -9,7 +9,8 @@ import type { Highlight } from '@/lib/sessions/highlight';
 import type { SessionClock } from '@/lib/sessions/time-labels';
 import type { BuilderLayout } from '@/lib/sessions/types';
 import { Notice } from '@/components/ui/card';
-import { ApiError, timetableApi } from './api';
+import { errorMessage } from '@/lib/client/api';
+import { timetableApi } from './api';
 import { timetableKeys } from './query-keys';
 
 // The chart library is loaded when the Load view is first opened, not with the builder.
@@ -44,7 +45,7 @@ export function LoadView({
   });
   const load = useMemo(() => (query.data ? expandLoad(query.data.load, layout) : undefined), [query.data, layout]);
   if (query.error) {
-    const message = query.error instanceof ApiError ? query.error.body.error : 'Check your connection and try again.';
+    const message = errorMessage(query.error, 'Check your connection and try again.');
     return <Notice tone="bad">The load profile could not be loaded. {message}</Notice>;
   }
   if (!load) return <p className="p-4 text-sm text-muted">Loading the load profile…</p>;

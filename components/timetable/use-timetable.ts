@@ -3,9 +3,10 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useCallback, useRef, useState } from 'react';
 import type { BuilderChange, BuilderSnapshot } from '@/lib/sessions/types';
+import { ApiError } from '@/lib/client/api';
 import { restoreEdit, runFieldsOf, shiftTiming } from '@/lib/runs/fields';
 import type { CreateRunBody, Move, Run, UpdateRunBody } from '@/lib/runs/schema';
-import { ApiError, timetableApi } from './api';
+import { timetableApi } from './api';
 import { timetableKeys } from './query-keys';
 
 /** One change the builder can make; each knows how to take itself back. */
