@@ -6,8 +6,8 @@ export type Role = (typeof ROLES)[number];
 export const SESSION_STATUSES = ['draft', 'published', 'cancelled'] as const;
 export type SessionStatus = (typeof SESSION_STATUSES)[number];
 
-export const RSVP_STATES = ['needs-action', 'accepted', 'tentative', 'declined'] as const;
-export type RsvpState = (typeof RSVP_STATES)[number];
+export const REPLY_STATES = ['needs-action', 'accepted', 'tentative', 'declined'] as const;
+export type ReplyState = (typeof REPLY_STATES)[number];
 
 export const OUTBOX_STATUSES = ['queued', 'sending', 'sent', 'failed'] as const;
 

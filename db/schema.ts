@@ -8,7 +8,7 @@ import {
   uniqueIndex,
   type AnySQLiteColumn,
 } from 'drizzle-orm/sqlite-core';
-import { CLOCK_ACTIONS, OUTBOX_STATUSES, REPORT_KINDS, RSVP_STATES, ROLES, SESSION_STATUSES, STOP_REASONS } from './enums';
+import { CLOCK_ACTIONS, OUTBOX_STATUSES, REPORT_KINDS, REPLY_STATES, ROLES, SESSION_STATUSES, STOP_REASONS } from './enums';
 
 /** Times are stored as Unix milliseconds (UTC) unless a column says otherwise. */
 const id = () =>
@@ -450,7 +450,7 @@ export const invitations = sqliteTable(
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
     email: text('email').notNull(),
-    rsvp: text('rsvp', { enum: RSVP_STATES }).notNull().default('needs-action'),
+    reply: text('rsvp', { enum: REPLY_STATES }).notNull().default('needs-action'),
     respondedAt: integer('responded_at', { mode: 'timestamp_ms' }),
     /** Raised with every answer so that a reply link is usable once per answer change. */
     replyNonce: integer('reply_nonce').notNull().default(0),

@@ -18,7 +18,7 @@ export function CrewLoad({ runs, layout, ratio }: { runs: Run[]; layout: Builder
     entry.seconds += run.arriveS - run.departS;
     load.set(run.operatorId, entry);
   }
-  const crew = layout.operators.filter((o) => load.has(o.id) || o.rsvp !== null);
+  const crew = layout.operators.filter((o) => load.has(o.id) || o.reply !== null);
   return (
     <section className="rounded-plate border border-line bg-surface p-4 shadow-sm" data-testid="crew-load">
       <h2 className="mb-2 font-display text-lg font-bold">Crew</h2>
@@ -30,8 +30,8 @@ export function CrewLoad({ runs, layout, ratio }: { runs: Run[]; layout: Builder
             <li key={o.id} className="flex flex-wrap items-center justify-between gap-2">
               <span>
                 {o.name}
-                {o.rsvp === 'declined' && l ? <Badge tone="bad">declined, still has runs</Badge> : null}
-                {o.rsvp === 'declined' && !l ? <span className="ml-1"><Badge tone="neutral">declined</Badge></span> : null}
+                {o.reply === 'declined' && l ? <Badge tone="bad">declined, still has runs</Badge> : null}
+                {o.reply === 'declined' && !l ? <span className="ml-1"><Badge tone="neutral">declined</Badge></span> : null}
               </span>
               <span className="tabular-nums text-muted">
                 {l ? `${l.runs} run${l.runs === 1 ? '' : 's'} · ${Math.round((l.seconds * ratio) / 60)} fast min` : 'no runs'}

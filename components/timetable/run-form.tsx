@@ -146,7 +146,7 @@ export function RunForm({
           <Select name="run-operator" value={operatorId} onChange={(e) => setOperatorId(e.target.value)}>
             <option value="">None yet</option>
             {layout.operators.map((o) => (
-              <option key={o.id} value={o.id}>{o.name}{o.rsvp === 'declined' ? ' (declined)' : ''}</option>
+              <option key={o.id} value={o.id}>{o.name}{o.reply === 'declined' ? ' (declined)' : ''}</option>
             ))}
           </Select>
         </Field>

@@ -208,7 +208,7 @@ const RunRow = memo(
               >
                 <option value="">No operator</option>
                 {layout.operators.map((o) => (
-                  <option key={o.id} value={o.id}>{o.name}{o.rsvp === 'declined' ? ' (declined)' : ''}</option>
+                  <option key={o.id} value={o.id}>{o.name}{o.reply === 'declined' ? ' (declined)' : ''}</option>
                 ))}
               </select>
             </>
@@ -217,7 +217,7 @@ const RunRow = memo(
               {layout.cabs.find((c) => c.id === run.cabId)?.name} · {operator?.name ?? 'no operator'}
             </span>
           )}
-          {operator?.rsvp === 'declined' ? <Badge tone="bad">operator declined</Badge> : null}
+          {operator?.reply === 'declined' ? <Badge tone="bad">operator declined</Badge> : null}
           {canEdit ? (
             <span className="flex gap-1">
               <Button type="button" variant="ghost" className="px-2 py-1" aria-expanded={open === 'steps'} onClick={() => onToggle(run.id, 'steps')}>

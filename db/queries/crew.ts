@@ -14,7 +14,7 @@ export function listInvitedSessions(userId: string, from: Date, statuses: ('publ
       railwayName: railways.name,
       role: memberships.role,
       invitationId: invitations.id,
-      rsvp: invitations.rsvp,
+      reply: invitations.reply,
       respondedAt: invitations.respondedAt,
       sentSequence: invitations.sentSequence,
     })

@@ -1,7 +1,7 @@
 import 'server-only';
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import { getDb, writeTransaction } from '@/db';
-import { invitations, outbox, railways, sessions, users, type RsvpState } from '@/db/schema';
+import { invitations, outbox, railways, sessions, users, type ReplyState } from '@/db/schema';
 
 /** Runs `fn` in one write transaction on the process's one connection (so every query inside joins it). */
 export function runInTransaction<T>(fn: () => T): T {
@@ -44,7 +44,7 @@ export function listSessionInvitations(sessionId: string) {
       userId: invitations.userId,
       email: invitations.email,
       name: users.name,
-      rsvp: invitations.rsvp,
+      reply: invitations.reply,
       respondedAt: invitations.respondedAt,
       replyNonce: invitations.replyNonce,
       sentSequence: invitations.sentSequence,
@@ -121,12 +121,12 @@ export function insertInvitations(sessionId: string, invitees: { userId: string;
  * that two requests with one link cannot both count; `comment` replaces the note with the reply
  * (undefined leaves it). Returns the updated row, or undefined.
  */
-export function recordAnswer(invitationId: string, expectedNonce: number | null, answer: RsvpState, now = new Date(), comment?: string) {
+export function recordAnswer(invitationId: string, expectedNonce: number | null, answer: ReplyState, now = new Date(), comment?: string) {
   const where = [eq(invitations.id, invitationId)];
   if (expectedNonce !== null) where.push(eq(invitations.replyNonce, expectedNonce));
   return getDb()
     .update(invitations)
-    .set({ rsvp: answer, respondedAt: now, replyNonce: sql`${invitations.replyNonce} + 1`, ...(comment === undefined ? {} : { comment }) })
+    .set({ reply: answer, respondedAt: now, replyNonce: sql`${invitations.replyNonce} + 1`, ...(comment === undefined ? {} : { comment }) })
     .where(and(...where))
     .returning()
     .get();

@@ -20,14 +20,14 @@ export function isInvited(sessionId: string, userId: string): boolean {
 }
 
 /** The RSVP of each invitee of a session, by user id. */
-export function rsvpByUser(sessionId: string): Map<string, string> {
+export function replyByUser(sessionId: string): Map<string, string> {
   return new Map(
     getDb()
-      .select({ userId: invitations.userId, rsvp: invitations.rsvp })
+      .select({ userId: invitations.userId, reply: invitations.reply })
       .from(invitations)
       .where(eq(invitations.sessionId, sessionId))
       .all()
-      .map((r) => [r.userId, r.rsvp]),
+      .map((r) => [r.userId, r.reply]),
   );
 }
 

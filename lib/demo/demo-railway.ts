@@ -394,7 +394,7 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
           email: DEMO_USERS.find((u) => u.key === key)!.email,
           // Invited but not e-mailed yet (the host's first step in the demo is to send them), so no
           // one has replied: a reply without an invitation sent would contradict the tracker.
-          rsvp: 'needs-action',
+          reply: 'needs-action',
         })
         .run();
     }

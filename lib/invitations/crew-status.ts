@@ -17,9 +17,9 @@ export function crewStatus(session: Session, now = new Date()) {
   const withRuns = new Set(rows.runs.map((r) => r.operatorId).filter((id): id is string => id !== null));
   const standings = sessionStandings(session, invitations, describeRuns(rows));
   return {
-    declinedWithRuns: invitations.filter((i) => i.rsvp === 'declined' && withRuns.has(i.userId)).map((i) => i.name),
+    declinedWithRuns: invitations.filter((i) => i.reply === 'declined' && withRuns.has(i.userId)).map((i) => i.name),
     affected: invitations.filter((i) => standings.get(i.id)?.affected).length,
-    noReply: invitations.filter((i) => i.rsvp === 'needs-action' && i.mailCount > 0).length,
+    noReply: invitations.filter((i) => i.reply === 'needs-action' && i.mailCount > 0).length,
     pastDeadline: session.replyBy !== null && session.replyBy.getTime() < now.getTime(),
   };
 }

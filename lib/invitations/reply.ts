@@ -31,7 +31,7 @@ export function inspectReplyToken(token: string, now = Date.now()) {
   if (!check.ok) return { ok: false as const, error: REFUSED[check.reason] };
   const found = getInvitationWithSession(check.claim.invitationId);
   if (!found || found.session.railwayId !== check.claim.railwayId) return { ok: false as const, error: REFUSED.forged };
-  if (found.invitation.replyNonce !== check.claim.nonce) return { ok: false as const, error: REFUSED.used, current: found.invitation.rsvp };
+  if (found.invitation.replyNonce !== check.claim.nonce) return { ok: false as const, error: REFUSED.used, current: found.invitation.reply };
   return { ok: true as const, found };
 }
 
@@ -68,7 +68,7 @@ export function recordReply(token: string, answer: Answer, now = new Date(), com
       nonce: updated.replyNonce,
       expiresAt: replyExpiry(found.session.endsAt, now.getTime()),
     });
-    return { answer: updated.rsvp, sessionTitle: found.session.title, railwayName: found.railwayName, joined, nextToken, late: isLate(found.session.replyBy, now) };
+    return { answer: updated.reply, sessionTitle: found.session.title, railwayName: found.railwayName, joined, nextToken, late: isLate(found.session.replyBy, now) };
   });
 }
 
@@ -81,6 +81,6 @@ export function answerOwnInvitation(input: { userId: string; invitationId: strin
     const updated = recordAnswer(found.invitation.id, null, input.answer, input.now);
     if (!updated) throw notFound('That invitation');
     recordAudit({ railwayId: found.session.railwayId, userId: input.userId, action: 'reply', entity: 'invitation', entityId: updated.id, detail: { answer: input.answer, via: 'my-runs' } });
-    return { answer: updated.rsvp };
+    return { answer: updated.reply };
   });
 }

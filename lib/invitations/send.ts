@@ -314,8 +314,8 @@ export function nextReminderAt(inv: { remindedAt: Date | null }): Date | null {
 }
 
 /** Invitees a reminder may go to now: sent an invitation, no answer yet, not reminded within the gap. */
-export function remindable<T extends { rsvp: string; mailCount: number; remindedAt: Date | null }>(invitations: T[], now: Date): T[] {
-  return invitations.filter((i) => i.rsvp === 'needs-action' && i.mailCount > 0 && (nextReminderAt(i)?.getTime() ?? 0) <= now.getTime());
+export function remindable<T extends { reply: string; mailCount: number; remindedAt: Date | null }>(invitations: T[], now: Date): T[] {
+  return invitations.filter((i) => i.reply === 'needs-action' && i.mailCount > 0 && (nextReminderAt(i)?.getTime() ?? 0) <= now.getTime());
 }
 
 /**
@@ -329,7 +329,7 @@ export function remindUnanswered(input: { railwayId: string; sessionId: string; 
     const session = loadSession(input.railwayId, input.sessionId);
     requirePublished(session, now);
     const all = listSessionInvitations(session.id);
-    const unanswered = all.filter((i) => i.rsvp === 'needs-action' && i.mailCount > 0);
+    const unanswered = all.filter((i) => i.reply === 'needs-action' && i.mailCount > 0);
     const due = remindable(unanswered, now);
     const result = queueNotices({ session, host: input.host, invitations: due, method: 'REQUEST', reminder: true, now });
     const tooSoon = unanswered.length - due.length;

@@ -1,4 +1,4 @@
-import type { RsvpState, SessionStatus } from '@/db/enums';
+import type { ReplyState, SessionStatus } from '@/db/enums';
 
 export type Delivery = 'not-sent' | 'queued' | 'retrying' | 'sent' | 'failed';
 
@@ -10,7 +10,7 @@ export const DELIVERY_LABELS: Record<Delivery, string> = {
   failed: 'failed',
 };
 
-export const RSVP_LABELS: Record<RsvpState, string> = {
+export const REPLY_LABELS: Record<ReplyState, string> = {
   'needs-action': 'no reply yet',
   accepted: 'accepted',
   tentative: 'maybe',
@@ -18,7 +18,7 @@ export const RSVP_LABELS: Record<RsvpState, string> = {
 };
 
 type TrackedInvitation = {
-  rsvp: RsvpState;
+  reply: ReplyState;
   sentSequence: number | null;
   mailCount: number;
   mail: { status: 'queued' | 'sending' | 'sent' | 'failed'; lastError: string | null; calendarMethod: string | null } | null;
@@ -40,10 +40,10 @@ export function needsCancel(inv: TrackedInvitation, session: { status: SessionSt
 /** Counts per delivery state and per reply, for the tracker's tiles. */
 export function countStates(invitations: TrackedInvitation[]) {
   const delivery: Record<Delivery, number> = { 'not-sent': 0, queued: 0, retrying: 0, sent: 0, failed: 0 };
-  const replies: Record<RsvpState, number> = { 'needs-action': 0, accepted: 0, tentative: 0, declined: 0 };
+  const replies: Record<ReplyState, number> = { 'needs-action': 0, accepted: 0, tentative: 0, declined: 0 };
   for (const inv of invitations) {
     delivery[deliveryOf(inv)] += 1;
-    replies[inv.rsvp] += 1;
+    replies[inv.reply] += 1;
   }
   return { delivery, replies, total: invitations.length };
 }

@@ -1,6 +1,6 @@
 import 'server-only';
 import { loadSessionRows } from '@/db/queries/plan-data';
-import { rsvpByUser } from '@/db/queries/session-records';
+import { replyByUser } from '@/db/queries/session-records';
 import type { Session } from '@/db/schema';
 import { AppError, notFound } from '@/lib/errors';
 import {
@@ -109,7 +109,7 @@ export function builderLayout(rows: SessionRows): BuilderLayout {
   const topSpeed = new Map(rows.locomotives.map((l) => [l.id, l.topSpeedKmh]));
   const consist = new Map<string, number[]>();
   for (const c of rows.consists) consist.set(c.trainId, [...(consist.get(c.trainId) ?? []), topSpeed.get(c.locomotiveId) ?? Infinity]);
-  const rsvp = rsvpByUser(rows.session.id);
+  const reply = replyByUser(rows.session.id);
   return {
     scaleRatio: rows.layout?.scaleRatio ?? 87,
     blocks: rows.blocks.map((b) => ({ id: b.id, name: b.name, lengthMm: b.lengthMm, positionMm: b.positionMm, ...(b.reversingPlace ? { reversingPlace: true } : {}), ...(b.reversingSection ? { reversingSection: true } : {}) })),
@@ -122,7 +122,7 @@ export function builderLayout(rows: SessionRows): BuilderLayout {
       const top = speeds.length ? Math.min(...speeds) : Infinity;
       return { id: t.id, name: t.name, lengthMm: t.lengthMm, topSpeedKmh: Number.isFinite(top) ? top : null };
     }),
-    operators: rows.operators.map((o) => ({ id: o.id, name: o.name, rsvp: rsvp.get(o.id) ?? null })),
+    operators: rows.operators.map((o) => ({ id: o.id, name: o.name, reply: reply.get(o.id) ?? null })),
   };
 }
 

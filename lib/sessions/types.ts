@@ -61,7 +61,7 @@ export type BuilderLayout = {
   drivers: { id: string; name: string; supplyId: string }[];
   supplies: { id: string; name: string }[];
   trains: { id: string; name: string; lengthMm: number; topSpeedKmh: number | null }[];
-  operators: { id: string; name: string; rsvp: string | null }[];
+  operators: { id: string; name: string; reply: string | null }[];
 };
 
 export type RetimeSuggestion = {

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { RSVP_STATES } from '@/db/enums';
+import { REPLY_STATES } from '@/db/enums';
 import { emailSchema } from '@/lib/validations/account';
 
 const idSchema = z.string().trim().min(1, 'Missing id.').max(100, 'That id is too long.');
@@ -9,7 +9,7 @@ export const sessionIdSchema = idSchema;
 export const invitationIdSchema = idSchema;
 
 /** The answers a person can give; "needs-action" is only the state before any answer. */
-export const ANSWERS = RSVP_STATES.filter((s) => s !== 'needs-action') as ['accepted', 'tentative', 'declined'];
+export const ANSWERS = REPLY_STATES.filter((s) => s !== 'needs-action') as ['accepted', 'tentative', 'declined'];
 export type Answer = (typeof ANSWERS)[number];
 export const answerSchema = z.enum(ANSWERS, { error: 'Choose accept, maybe or decline.' });
 

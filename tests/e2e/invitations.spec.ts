@@ -55,7 +55,7 @@ test('the host invites the crew, the operator accepts from their own mail, and t
   await operatorContext.close();
 
   await tracker.goto(railwayId, sessionId);
-  await expect(tracker.row(DEMO.operator).getByTestId('rsvp')).toHaveText('accepted');
+  await expect(tracker.row(DEMO.operator).getByTestId('reply')).toHaveText('accepted');
   await expect(tracker.count('accepted')).toHaveText('1'); // no one had replied in the seed (nothing was sent)
   await screenshotBoth(page, 'invitations-tracker-after');
   await expect(page.getByTestId('railway-name')).toHaveText(DEMO_RAILWAY);

@@ -18,7 +18,7 @@ test('an operator on a phone sees their next session, their runs, cab and train,
   // No horizontal scrolling on a phone.
   expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(VIEWPORTS.phone.width);
 
-  const maybe = next.getByTestId('my-rsvp').getByRole('button', { name: 'Maybe' });
+  const maybe = next.getByTestId('my-reply').getByRole('button', { name: 'Maybe' });
   await maybe.click();
   await expect(maybe).toHaveAttribute('aria-pressed', 'true');
   await expect(page.getByTestId('feed-url')).toHaveValue(/\/api\/calendar\/[A-Za-z0-9_-]{16,}$/);

@@ -39,7 +39,7 @@ describe('demo railway seed', () => {
     expect(rows.length).toBe(6);
     for (const row of rows) {
       expect(deliveryOf(row)).toBe('not-sent');
-      expect(row.rsvp).toBe('needs-action'); // a reply needs an invitation to reply to
+      expect(row.reply).toBe('needs-action'); // a reply needs an invitation to reply to
       expect(row.respondedAt).toBeNull();
     }
   });

@@ -236,7 +236,7 @@ describe('reminders, the reply deadline and notes with replies', () => {
     const late = recordReply(token, 'declined', new Date(dayBefore.getTime() + 60_000), 'Sorry, work trip.');
     expect(late).toMatchObject({ answer: 'declined', late: true });
     const after = listSessionInvitations(session.id).find((i) => i.id === inv.id)!;
-    expect(after.rsvp).toBe('declined');
+    expect(after.reply).toBe('declined');
     expect(isLate(getRailwaySession(w.railway.id, session.id)!.replyBy, after.respondedAt)).toBe(true);
     expect(after.comment).toBe('Sorry, work trip.');
     // Clearing the deadline: nothing is late any more.
@@ -251,7 +251,7 @@ describe('reminders, the reply deadline and notes with replies', () => {
     const inv = () => listSessionInvitations(session.id).find((i) => i.email === w.operator.email)!;
     const tokenNow = () => signReplyToken({ railwayId: w.railway.id, invitationId: inv().id, nonce: inv().replyNonce, expiresAt: session.endsAt.getTime() });
     expect(await replyByToken(null, formData({ token: tokenNow(), answer: 'tentative', comment: 'x'.repeat(281) }))).toMatchObject({ ok: false, status: 400 });
-    expect(inv().rsvp).toBe('needs-action'); // refused input changes nothing
+    expect(inv().reply).toBe('needs-action'); // refused input changes nothing
     expect(await replyByToken(null, formData({ token: tokenNow(), answer: 'tentative', comment: ' Late\u0007 train\r\nhome ' }))).toMatchObject({ ok: true });
     expect(inv().comment).toBe('Late train\nhome');
     // Another operator's view of the session (their runs page, the calendar file) never carries the note.

@@ -16,7 +16,7 @@ const layout: BuilderLayout = {
   drivers: [{ id: 'drv-1', name: 'Driver A', supplyId: 'sup-1' }],
   supplies: [{ id: 'sup-1', name: 'Bench supply' }],
   trains: [{ id: 'train-1', name: 'Stopper', lengthMm: 600, topSpeedKmh: 80 }],
-  operators: [{ id: 'op-1', name: 'Ann', rsvp: null }],
+  operators: [{ id: 'op-1', name: 'Ann', reply: null }],
 };
 
 const snapshot: BuilderSnapshot = {

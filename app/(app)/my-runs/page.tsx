@@ -4,7 +4,7 @@ import { redirect } from 'next/navigation';
 import { getCalendarToken } from '@/db/queries/calendar-feed';
 import { FeedLinks } from '@/components/crew/feed-links';
 import { MyLiveRunsSlot } from '@/components/live/my-live-runs-slot';
-import { RsvpButtons } from '@/components/crew/rsvp-buttons';
+import { ReplyButtons } from '@/components/crew/reply-buttons';
 import { RunCard } from '@/components/crew/run-card';
 import { Card } from '@/components/ui/card';
 import { currentUser } from '@/lib/current-user';
@@ -45,7 +45,7 @@ function SessionBlock({ entry, first, viewerId }: { entry: MyRunsSession; first:
           </ul>
         ) : null}
         <div className="mt-4">
-          <RsvpButtons invitationId={entry.invitationId} current={entry.rsvp} />
+          <ReplyButtons invitationId={entry.invitationId} current={entry.reply} />
         </div>
         <div className="mt-4 flex flex-wrap gap-x-4 gap-y-2 text-sm font-semibold">
           {/* Not prefetched: the builder's code is for those who open it, not for every phone that shows My runs. */}

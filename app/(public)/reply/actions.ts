@@ -16,8 +16,8 @@ export type ReplyResult = { answer: string; sessionTitle: string; railwayName: s
  */
 export const replyByToken = action(['state', 'form'], async (_prev, formData): Promise<ActionState<ReplyResult>> => {
   const token = String(formData.get('token') ?? '');
-  rateLimit(`rsvp-ip:${await clientAddress()}`, 60, 60_000);
-  rateLimit(`rsvp:${claimedInvitationId(token)}`, 10, 60_000);
+  rateLimit(`reply-ip:${await clientAddress()}`, 60, 60_000);
+  rateLimit(`reply:${claimedInvitationId(token)}`, 10, 60_000);
   const input = parseOrThrow(replyByTokenSchema, { token, answer: formData.get('answer'), comment: formData.get('comment') ?? '' });
   // No revalidatePath: re-rendering this page would re-read the now spent link and hide the answer;
   // the host's tracker is rendered fresh on every request and refreshes itself.

@@ -48,7 +48,7 @@ export default async function ReplyPage({ searchParams }: { searchParams: Promis
             <ReplyForm
               token={token}
               chosen={chosen}
-              currentLabel={ANSWER_LABELS[inspected.found.invitation.rsvp]}
+              currentLabel={ANSWER_LABELS[inspected.found.invitation.reply]}
               comment={inspected.found.invitation.comment}
               maxComment={MAX_REPLY_COMMENT}
             />

@@ -13,7 +13,7 @@ import { describeChange, summariseChanges } from '@/lib/invitations/changes';
 import { isLate } from '@/lib/invitations/reply';
 import { nextReminderAt, remindable, sessionStandings } from '@/lib/invitations/send';
 import { utcToZoned } from '@/lib/time-zone';
-import { countStates, DELIVERY_LABELS, deliveryOf, needsCancel, RSVP_LABELS, type Delivery } from '@/lib/invitations/tracker';
+import { countStates, DELIVERY_LABELS, deliveryOf, needsCancel, REPLY_LABELS, type Delivery } from '@/lib/invitations/tracker';
 import { memberForPage } from '@/lib/auth/pages';
 
 export const metadata: Metadata = { title: 'Invitations' };
@@ -26,7 +26,7 @@ const DELIVERY_TONE: Record<Delivery, 'neutral' | 'info' | 'warn' | 'good' | 'ba
   sent: 'good',
   failed: 'bad',
 };
-const RSVP_TONE = { 'needs-action': 'neutral', accepted: 'good', tentative: 'warn', declined: 'bad' } as const;
+const REPLY_TONE = { 'needs-action': 'neutral', accepted: 'good', tentative: 'warn', declined: 'bad' } as const;
 const STATUS_TONE = { draft: 'neutral', published: 'good', cancelled: 'bad' } as const;
 
 export default async function InvitationTrackerPage({ params }: { params: Promise<{ railwayId: string; sessionId: string }> }) {
@@ -59,7 +59,7 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
   const now = new Date();
   const ended = session.endsAt.getTime() < now.getTime();
   const open = session.status === 'published' && !ended;
-  const unanswered = invitations.filter((i) => i.rsvp === 'needs-action' && i.mailCount > 0);
+  const unanswered = invitations.filter((i) => i.reply === 'needs-action' && i.mailCount > 0);
   const due = remindable(unanswered, now);
   const waiting = unanswered.filter((i) => !due.includes(i));
   const lastReminded = invitations.reduce<Date | null>((max, i) => (i.remindedAt && (!max || i.remindedAt > max) ? i.remindedAt : max), null);
@@ -168,12 +168,12 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
                           {inv.mail?.lastError ? <span className="block max-w-xs truncate text-xs text-signal" title={inv.mail.lastError}>{inv.mail.lastError}</span> : null}
                         </td>
                         <td className="whitespace-nowrap py-2 pr-3">
-                          <span data-testid="rsvp">
-                            <Badge tone={RSVP_TONE[inv.rsvp]}>
-                              {inv.rsvp === 'declined' && runCount.get(inv.userId) ? 'declined, still has runs' : RSVP_LABELS[inv.rsvp]}
+                          <span data-testid="reply">
+                            <Badge tone={REPLY_TONE[inv.reply]}>
+                              {inv.reply === 'declined' && runCount.get(inv.userId) ? 'declined, still has runs' : REPLY_LABELS[inv.reply]}
                             </Badge>
                           </span>
-                          {inv.rsvp === 'declined' && runCount.get(inv.userId) ? (
+                          {inv.reply === 'declined' && runCount.get(inv.userId) ? (
                             <span className="block text-xs text-signal">
                               {runCount.get(inv.userId)} run{runCount.get(inv.userId) === 1 ? '' : 's'} to hand to someone else
                             </span>

@@ -15,7 +15,7 @@ import { makeSessionWorld } from './authz/invitations';
 import { signInAs } from './caller';
 import { formData, makeWorld } from './world';
 
-process.env.NEXTAUTH_SECRET = 'rsvp-test-secret-0123456789abcdef';
+process.env.NEXTAUTH_SECRET = 'reply-test-secret-0123456789abcdef';
 
 beforeAll(() => resetEnvCache());
 beforeEach(() => {
@@ -39,7 +39,7 @@ describe('replying with a link, without signing in', () => {
     const state = await reply(tokenFor(), 'accepted');
     expect(state).toMatchObject({ ok: true, data: { answer: 'accepted', sessionTitle: 'Test running evening' } });
     const row = listSessionInvitations(session.id).find((i) => i.id === invitation.id)!;
-    expect(row.rsvp).toBe('accepted');
+    expect(row.reply).toBe('accepted');
     expect(row.respondedAt).toBeInstanceOf(Date);
     expect(row.replyNonce).toBe(1);
   });
@@ -47,7 +47,7 @@ describe('replying with a link, without signing in', () => {
   it('opening the link changes nothing (a mail scanner cannot answer for the reader)', () => {
     const { session, invitation, tokenFor } = setup();
     expect(inspectReplyToken(tokenFor())).toMatchObject({ ok: true });
-    expect(listSessionInvitations(session.id).find((i) => i.id === invitation.id)).toMatchObject({ rsvp: 'needs-action', replyNonce: 0 });
+    expect(listSessionInvitations(session.id).find((i) => i.id === invitation.id)).toMatchObject({ reply: 'needs-action', replyNonce: 0 });
   });
 
   it('a link works once per answer change; the fresh link from the answer page changes it again', async () => {
@@ -72,7 +72,7 @@ describe('replying with a link, without signing in', () => {
     const otherSecret = crypto.createHmac('sha256', 'some-other-secret-0123456789').update(`fishplate-rsvp\n${claim}`).digest('base64url');
     expect(await reply(`${Buffer.from(claim).toString('base64url')}.${otherSecret}`, 'accepted')).toMatchObject({ ok: false, status: 400 });
     expect(await reply('x'.repeat(40), 'accepted')).toMatchObject({ ok: false, status: 400 });
-    expect(listSessionInvitations(session.id)[0]!.rsvp).toBe('needs-action');
+    expect(listSessionInvitations(session.id)[0]!.reply).toBe('needs-action');
   });
 
   it('refuses a token reused for another invitation (the id swapped, the signature kept)', async () => {
@@ -81,7 +81,7 @@ describe('replying with a link, without signing in', () => {
     const [, sig] = tokenFor().split('.') as [string, string];
     const swapped = Buffer.from([w.railway.id, other.id, '0', String(session.endsAt.getTime())].join('\n')).toString('base64url');
     expect(await reply(`${swapped}.${sig}`, 'accepted')).toMatchObject({ ok: false, status: 400 });
-    expect(getDb().select().from(t.invitations).where(eq(t.invitations.id, other.id)).get()!.rsvp).toBe('needs-action');
+    expect(getDb().select().from(t.invitations).where(eq(t.invitations.id, other.id)).get()!.reply).toBe('needs-action');
   });
 
   it('refuses an expired token', async () => {
@@ -141,7 +141,7 @@ describe('replying with a link, without signing in', () => {
     expect(await answerInvitation(invitation.id, null, formData({ answer: 'declined' }))).toMatchObject({ ok: true });
     signInAs(null);
     expect(await reply(token, 'accepted')).toMatchObject({ ok: false, status: 409 });
-    expect(getDb().select().from(t.invitations).where(eq(t.invitations.id, invitation.id)).get()!.rsvp).toBe('declined');
+    expect(getDb().select().from(t.invitations).where(eq(t.invitations.id, invitation.id)).get()!.reply).toBe('declined');
   });
 
   it('on My runs nobody can answer someone else’s invitation', async () => {

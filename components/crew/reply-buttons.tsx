@@ -4,7 +4,7 @@ import { useActionState } from 'react';
 import { answerInvitation } from '@/app/(app)/my-runs/actions';
 import { Button } from '@/components/ui/button';
 
-type Rsvp = 'needs-action' | 'accepted' | 'tentative' | 'declined';
+type Reply = 'needs-action' | 'accepted' | 'tentative' | 'declined';
 const OPTIONS = [
   ['accepted', 'Accept'],
   ['tentative', 'Maybe'],
@@ -12,10 +12,10 @@ const OPTIONS = [
 ] as const;
 
 /** My answer to one invitation, as three buttons with the current one pressed. */
-export function RsvpButtons({ invitationId, current }: { invitationId: string; current: Rsvp }) {
+export function ReplyButtons({ invitationId, current }: { invitationId: string; current: Reply }) {
   const [state, action, pending] = useActionState(answerInvitation.bind(null, invitationId), null);
   return (
-    <form action={action} className="space-y-2" data-testid="my-rsvp">
+    <form action={action} className="space-y-2" data-testid="my-reply">
       <div className="grid grid-cols-3 gap-2" role="group" aria-label="My answer">
         {OPTIONS.map(([value, label]) => (
           <Button
