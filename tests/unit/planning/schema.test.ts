@@ -164,3 +164,46 @@ describe('plan interchange version 2', () => {
     expect(issues({ ...goodPlan(), trains: [{ ...goodPlan().trains[0]!, locoIds: ['l9'] }] })).toEqual(['trains[0].locoIds[0]: unknown loco "l9"']);
   });
 });
+
+describe('cross-references and electrical sense, one bad field at a time', () => {
+  const issues = (edit: (plan: Plan) => void) => {
+    const plan = goodPlan();
+    edit(plan);
+    const result = planSchema.safeParse(plan);
+    return result.success ? [] : formatPlanIssues(result.error);
+  };
+
+  it('takes the good plan', () => {
+    expect(issues(() => {})).toEqual([]);
+  });
+
+  it('names a link end that is no block', () => {
+    expect(issues((p) => (p.links[0]!.a = 'Z'))).toEqual(['links[0].a: unknown block "Z"']);
+  });
+
+  it('names a duplicate id with its list and the first holder', () => {
+    expect(issues((p) => p.supplies.push({ ...p.supplies[0]! }))).toEqual(['supplies[1].id: duplicate supply id "s1" (also supplies[0])']);
+    expect(issues((p) => p.cabs.push({ ...p.cabs[0]!, channel: 1 }))).toContain('cabs[2].id: duplicate cab id "c1" (also cabs[0])');
+    expect(issues((p) => p.operators.push({ ...p.operators[0]! }))).toEqual(['operators[1].id: duplicate operator id "o1" (also operators[0])']);
+    expect(issues((p) => p.trains.push({ ...p.trains[0]! }))).toEqual(['trains[1].id: duplicate train id "t1" (also trains[0])']);
+  });
+
+  it('wants a bridge drop, and a least drop line at or below the greatest (the datasheets give typical ≤ maximum)', () => {
+    expect(issues((p) => delete (p.drivers[0] as { dropVolts?: number }).dropVolts)).toEqual(['drivers[0].drop: give the bridge drop (drop or dropVolts)']);
+    const line = (fixedVolts: number, ohms: number) => ({ fixedVolts, ohms });
+    const withDrop = (min: { fixedVolts: number; ohms: number }, max: { fixedVolts: number; ohms: number }) => (p: Plan) => {
+      Object.assign(p.drivers[0]!, { drop: { min, max } });
+    };
+    // Invented lines (fixed volts + ohms × amps): least 1.4 V + 1.2 Ω, greatest 1.8 V + 1.3 Ω; equal lines are fine.
+    expect(issues(withDrop(line(1.4, 1.2), line(1.8, 1.3)))).toEqual([]);
+    expect(issues(withDrop(line(1.8, 1.2), line(1.8, 1.2)))).toEqual([]);
+    expect(issues(withDrop(line(1.9, 1.2), line(1.8, 1.3)))).toEqual(['drivers[0].drop: the minimum drop line must lie at or below the maximum one']);
+    expect(issues(withDrop(line(1.4, 1.4), line(1.8, 1.3)))).toEqual(['drivers[0].drop: the minimum drop line must lie at or below the maximum one']);
+  });
+
+  it('wants a start voltage below the rated voltage (a loco that moves only at full voltage has no speed range)', () => {
+    expect(issues((p) => Object.assign(p.locos[0]!, { startVolts: 11.9 }))).toEqual([]);
+    expect(issues((p) => Object.assign(p.locos[0]!, { startVolts: null }))).toEqual([]);
+    expect(issues((p) => Object.assign(p.locos[0]!, { startVolts: 12 }))).toEqual(['locos[0].startVolts: start voltage 12 V must be below the rated 12 V']);
+  });
+});
