@@ -230,7 +230,7 @@ describe('CSV import and export', () => {
 });
 
 describe('plan files', () => {
-  it('export is a valid version-1 plan without runs, and imports back into a new layout unchanged', async () => {
+  it('export is a valid version-2 plan without runs, and imports back into a new layout unchanged', async () => {
     const w = makeWorld();
     const seed = seedLayout(w.railway.id);
     signInAs(w.planner);
@@ -238,6 +238,7 @@ describe('plan files', () => {
     expect(res.headers.get('content-disposition')).toMatch(/attachment; filename="Seed-layout-plan.json"/);
     const plan = await res.json();
     expect(planSchema.safeParse(plan).success).toBe(true);
+    expect(plan.version).toBe(2); // every export writes version 2
     expect(plan.runs).toEqual([]);
     const post = await importPlan(
       new Request('http://t/api', { method: 'POST', body: JSON.stringify({ railwayId: w.railway.id, name: 'Copy', plan }), headers: JSON_TYPE }),

@@ -230,3 +230,82 @@ describe('runs', () => {
     expect((await listRuns(new Request(url(`/api/sessions/${theirs}/runs`)), ctx({ sessionId: theirs }))).status).toBe(404);
   });
 });
+
+describe('runs on the engine’s model of issue 12', () => {
+  const body = (s: ReturnType<typeof setup>['s'], depart: string, waypoints: string[]) => ({
+    trainId: s.layout.trains.t1,
+    cabId: s.layout.cabs.c1,
+    depart,
+    waypoints,
+    speedKmh: 60,
+  });
+
+  it('the route finder follows the track’s ends: each stored step keeps its direction, and a reversal at a junction is refused naming it unless the block is a reversing place', async () => {
+    const { s, sid } = setup();
+    const db = getDb();
+    const { A, B, C } = s.layout.blocks as Record<'A' | 'B' | 'C', string>;
+    // A siding leaves Block B's b end beside Block C: a facing turnout for trains from A, a trailing
+    // one for trains from C (common practice).
+    const siding = db.insert(t.blocks).values({ layoutId: s.layout.layoutId, name: 'Siding', lengthMm: 1000, positionMm: 1500 }).returning().get().id;
+    db.insert(t.links).values({ layoutId: s.layout.layoutId, blockAId: B, blockBId: siding, blockAEnd: 'b', blockBEnd: 'a' }).run();
+    const post = (depart: string, waypoints: string[]) => createRun(json('POST', `/api/sessions/${sid}/runs`, body(s, depart, waypoints)), ctx({ sessionId: sid }));
+
+    // From C the siding is reached only by running into B and reversing there.
+    const refused = await post('09:00', [C, siding]);
+    expect(refused.status).toBe(400);
+    expect((await refused.json()).issues).toEqual([{ path: 'waypoints', message: expect.stringMatching(/^Every way from Block C to Siding needs the train to reverse \(at Block B\)/) }]);
+    expect((await snapshot(sid)).runs).toHaveLength(2);
+
+    // From A it runs in through the facing turnout; each step records the ends it enters and leaves by.
+    const straight = await post('09:00', [A, siding]);
+    expect(straight.status).toBe(201);
+    const first: BuilderChange = await straight.json();
+    const ends = (runId: string) => getRun(sid, runId)!.steps.map((st) => [st.blockId, st.fromEnd, st.toEnd]);
+    expect(ends(first.run!.id)).toEqual([
+      [A, 'a', 'b'],
+      [B, 'a', 'b'],
+      [siding, 'a', 'b'],
+    ]);
+
+    // Marked as a reversing place, B lets the train from C turn there: in at its b end and out by it again.
+    db.update(t.blocks).set({ reversingPlace: true }).where(eq(t.blocks.id, B)).run();
+    const turned = await post('10:00', [C, siding]);
+    expect(turned.status).toBe(201);
+    expect(ends(((await turned.json()) as BuilderChange).run!.id)).toEqual([
+      [C, 'b', 'a'],
+      [B, 'b', 'b'],
+      [siding, 'a', 'b'],
+    ]);
+  });
+
+  it('a turnaround shorter than the default stands plus the headway (60 + 120 + 30 = 210 s) is no clash, and the repair moves nothing', async () => {
+    const { s, sid } = setup();
+    // Only this train's two runs on the timetable.
+    getDb().delete(t.runs).where(eq(t.runs.sessionId, sid)).run();
+    const { A, D } = s.layout.blocks as Record<'A' | 'D', string>;
+    const post = async (depart: string, waypoints: string[]) => {
+      const res = await createRun(json('POST', `/api/sessions/${sid}/runs`, body(s, depart, waypoints)), ctx({ sessionId: sid }));
+      expect(res.status).toBe(201);
+      return (await res.json()) as BuilderChange;
+    };
+    // No stand times given: the builder's defaults, 60 s before departure and 120 s after arrival.
+    const out = await post('09:00', [A, D]);
+    const arriveS = out.run!.arriveS;
+    // Back 100 s after arriving. The clock runs 4:1 from 06:00, so 100 real seconds are 400 fast ones.
+    const fast = 6 * 3600 + Math.ceil((arriveS + 100) * 4);
+    const hhmmss = [Math.floor(fast / 3600), Math.floor(fast / 60) % 60, fast % 60].map((n) => String(n).padStart(2, '0')).join(':');
+    const back = await post(hhmmss, [D, A]);
+    const gap = back.run!.departS - arriveS;
+    expect(gap).toBeGreaterThanOrEqual(100);
+    expect(gap).toBeLessThan(101);
+    // Both stands are in D and overlap: the first run holds it until 120 s after arriving, the next from 60 s before leaving.
+    expect(out.run!.steps.at(-1)!.blockId).toBe(D);
+    expect(back.run!.steps[0]!.blockId).toBe(D);
+    expect(out.run!.steps.at(-1)!.exitS).toBeGreaterThan(back.run!.steps[0]!.enterS + 30);
+    // One train's consecutive runs never clash with each other (the engine before issue 12 called this
+    // "Morning stopper and Morning stopper … apart" and the repair delayed the second run).
+    expect(back.findings.filter((f) => f.severity === 'error')).toEqual([]);
+    const res = await suggest(new Request(url(`/api/sessions/${sid}/retime`)), ctx({ sessionId: sid }));
+    expect(((await res.json()) as { moves: RetimeSuggestion[] }).moves).toEqual([]);
+  });
+});

@@ -8,7 +8,7 @@ import { getDb } from '@/db';
 import { addMember } from '@/db/queries/memberships';
 import { insertRailway } from '@/db/queries/railways';
 import { getSessionById } from '@/db/queries/session-records';
-import { blocks, runs, sessions } from '@/db/schema';
+import { blocks, drivers, runs, sessions } from '@/db/schema';
 import { resetRateLimits } from '@/lib/rate-limit';
 import { checkCounts } from '@/lib/sessions/error-counts';
 import { eq } from 'drizzle-orm';
@@ -271,6 +271,23 @@ describe('sessions', () => {
     const bad = await get('?only=findings');
     expect(bad.status).toBe(400);
     expect((await get('?only=load&extra=1')).status).toBe(400);
+  });
+
+  it('the load charts’ data carries the driver’s heat against its package rating, and the findings say when it is over', async () => {
+    const w = makeWorld();
+    const { session, layout } = makeSessionWorld(w);
+    getDb().update(drivers).set({ packageWatts: 1.5 }).where(eq(drivers.layoutId, layout.layoutId)).run();
+    signInAs(w.operator);
+    const get = async (query: string) => (await getCheck(new Request(url(`/api/sessions/${session.id}/check${query}`)), ctx({ sessionId: session.id }))).json();
+    const heat = (await get('?only=load')).load.drivers[0].heat;
+    expect(heat.limitWatts).toBe(1.5);
+    // The two trains run at once for a while, one on each channel, 0.3 A each through the board's
+    // fixed 2.6 V drop: dissipation is drop × current summed over channels, 2 × 2.6 V × 0.3 A = 1.56 W.
+    expect(heat.maxHighWatts).toBeCloseTo(1.56, 4);
+    expect(heat.maxLowWatts).toBeCloseTo(1.56, 4);
+    const over = (await get('')).findings.filter((f: { kind: string }) => f.kind === 'driver-heat');
+    expect(over.map((f: { ids: string[] }) => f.ids)).toEqual([[getDb().select().from(drivers).where(eq(drivers.layoutId, layout.layoutId)).get()!.id]]);
+    expect(over[0].message).toMatch(/1\.56 W/);
   });
 
   it('POST /api/plans/check checks a posted plan for planners, refuses bad ones, and is rate-limited', async () => {
