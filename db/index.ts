@@ -43,6 +43,22 @@ export function getDb(): Db {
   return globalForDb.fishplateDb;
 }
 
+/**
+ * Statements built once per database handle and reused on every call: `build` makes Drizzle queries
+ * with `sql.placeholder(…)` for their values and ends each with `.prepare()`, so a hot path neither
+ * builds the query nor has SQLite compile it again. Kept per handle, so a reopened database (tests,
+ * scripts that switch DATABASE_URL) gets its own.
+ */
+export function preparedStatements<T extends object>(build: (db: Db) => T): () => T {
+  const built = new WeakMap<Db, T>();
+  return () => {
+    const db = getDb();
+    let statements = built.get(db);
+    if (!statements) built.set(db, (statements = build(db)));
+    return statements;
+  };
+}
+
 type Transaction = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 /**

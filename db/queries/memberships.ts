@@ -1,6 +1,6 @@
 import 'server-only';
 import { and, asc, eq, gt, inArray, ne, or, lte, sql } from 'drizzle-orm';
-import { getDb, writeTransaction } from '@/db';
+import { getDb, preparedStatements, writeTransaction } from '@/db';
 import {
   crewAssignments,
   invitations,
@@ -14,13 +14,18 @@ import {
   type Role,
 } from '@/db/schema';
 
-/** The caller's membership of one railway, or undefined. */
-export function getMembership(railwayId: string, userId: string) {
-  return getDb()
+// requireMember reads it on every request for railway data, so it is built and compiled once.
+const membershipStatement = preparedStatements((db) => ({
+  membership: db
     .select()
     .from(memberships)
-    .where(and(eq(memberships.railwayId, railwayId), eq(memberships.userId, userId)))
-    .get();
+    .where(and(eq(memberships.railwayId, sql.placeholder('railwayId')), eq(memberships.userId, sql.placeholder('userId'))))
+    .prepare(),
+}));
+
+/** The caller's membership of one railway, or undefined. */
+export function getMembership(railwayId: string, userId: string) {
+  return membershipStatement().membership.get({ railwayId, userId });
 }
 
 /** Every railway the user belongs to, with their role there. */

@@ -1,34 +1,35 @@
 import 'server-only';
-import { and, eq, inArray } from 'drizzle-orm';
-import { getDb, writeTransaction } from '@/db';
+import { and, eq, inArray, sql } from 'drizzle-orm';
+import { getDb, preparedStatements, writeTransaction } from '@/db';
 import { invitations, layouts, runs, runSteps, sessions, type Session, type SessionStatus } from '@/db/schema';
+
+// Every session page and handler asks these (the access check, the builder's crew), so they are built and compiled once.
+const statements = preparedStatements((db) => {
+  const sessionId = sql.placeholder('sessionId');
+  return {
+    session: db.select().from(sessions).where(eq(sessions.id, sessionId)).prepare(),
+    invited: db
+      .select({ id: invitations.id })
+      .from(invitations)
+      .where(and(eq(invitations.sessionId, sessionId), eq(invitations.userId, sql.placeholder('userId'))))
+      .prepare(),
+    replies: db.select({ userId: invitations.userId, reply: invitations.reply }).from(invitations).where(eq(invitations.sessionId, sessionId)).prepare(),
+  };
+});
 
 /** One session by id, whatever railway it belongs to; callers check the railway with requireMember. */
 export function getSessionById(sessionId: string): Session | undefined {
-  return getDb().select().from(sessions).where(eq(sessions.id, sessionId)).get();
+  return statements().session.get({ sessionId });
 }
 
 /** Whether the user has an invitation to the session. */
 export function isInvited(sessionId: string, userId: string): boolean {
-  return (
-    getDb()
-      .select({ id: invitations.id })
-      .from(invitations)
-      .where(and(eq(invitations.sessionId, sessionId), eq(invitations.userId, userId)))
-      .get() !== undefined
-  );
+  return statements().invited.get({ sessionId, userId }) !== undefined;
 }
 
 /** The RSVP of each invitee of a session, by user id. */
 export function replyByUser(sessionId: string): Map<string, string> {
-  return new Map(
-    getDb()
-      .select({ userId: invitations.userId, reply: invitations.reply })
-      .from(invitations)
-      .where(eq(invitations.sessionId, sessionId))
-      .all()
-      .map((r) => [r.userId, r.reply]),
-  );
+  return new Map(statements().replies.all({ sessionId }).map((r) => [r.userId, r.reply]));
 }
 
 /** A layout of the railway, or undefined when the id names another railway's layout. */

@@ -1,6 +1,6 @@
 import 'server-only';
 import { and, eq, gt, isNull, lte, sql } from 'drizzle-orm';
-import { getDb, writeTransaction } from '@/db';
+import { getDb, preparedStatements, writeTransaction } from '@/db';
 import { authTokens, endedSessions, users, type User } from '@/db/schema';
 
 /** Finds a user by e-mail address (addresses are stored lower-case). */
@@ -8,9 +8,15 @@ export function getUserByEmail(email: string): User | undefined {
   return getDb().select().from(users).where(eq(users.email, email.toLowerCase())).get();
 }
 
+// Read on every signed-in request (lib/current-user.ts), so built and compiled once.
+const everyRequest = preparedStatements((db) => ({
+  userById: db.select().from(users).where(eq(users.id, sql.placeholder('id'))).prepare(),
+  endedSession: db.select({ id: endedSessions.sessionId }).from(endedSessions).where(eq(endedSessions.sessionId, sql.placeholder('sessionId'))).prepare(),
+}));
+
 /** Finds a user by id. */
 export function getUserById(id: string): User | undefined {
-  return getDb().select().from(users).where(eq(users.id, id)).get();
+  return everyRequest().userById.get({ id });
 }
 
 /** Creates a user; the e-mail must not be taken (callers check first). */
@@ -101,5 +107,5 @@ export function endSession(sessionId: string, userId: string, expiresAt: Date, n
 
 /** Whether this session was signed out. */
 export function isSessionEnded(sessionId: string): boolean {
-  return Boolean(getDb().select({ id: endedSessions.sessionId }).from(endedSessions).where(eq(endedSessions.sessionId, sessionId)).get());
+  return Boolean(everyRequest().endedSession.get({ sessionId }));
 }
