@@ -9,6 +9,10 @@ describe('niceTicks', () => {
     expect(niceTicks(0.3)).toEqual([0, 0.1, 0.2, 0.3]);
     expect(niceTicks(7.9)).toEqual([0, 2, 4, 6, 8]);
     expect(niceTicks(0)).toEqual([0, 1]);
+    // A maximum of exactly `count` nice steps takes that step, not the next one up (common practice:
+    // the axis ends at the maximum rather than past it).
+    expect(niceTicks(8)).toEqual([0, 2, 4, 6, 8]);
+    expect(niceTicks(100, 5)).toEqual([0, 20, 40, 60, 80, 100]);
     for (const max of [0.07, 0.45, 1.15, 2.3, 3.9, 12.6, 47]) {
       const ticks = niceTicks(max);
       const steps = ticks.slice(1).map((t, i) => Math.round((t - ticks[i]!) * 1e9) / 1e9);
