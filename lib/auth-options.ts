@@ -18,6 +18,25 @@ function dummyHash(): string {
   return (dummy ??= bcrypt.hashSync(`no account ${Math.random()}`, 10));
 }
 
+/** What the session keeps of a signed-in user. */
+function sessionUser(user: { id: string; email: string; name: string; sessionVersion: number }) {
+  return { id: user.id, email: user.email, name: user.name, sessionVersion: user.sessionVersion };
+}
+
+/** Signs in with a one-time token from a link: `spend` uses the token up and names its user, or null. */
+function oneTimeLinkProvider(id: string, name: string, spend: (token: string) => string | null) {
+  return CredentialsProvider({
+    id,
+    name,
+    credentials: { token: { type: 'text' } },
+    async authorize(credentials) {
+      const userId = spend(String(credentials?.token ?? ''));
+      const user = userId ? getUserById(userId) : undefined;
+      return user ? sessionUser(user) : null;
+    },
+  });
+}
+
 export const authOptions: NextAuthOptions = {
   session: { strategy: 'jwt', maxAge: SESSION_MAX_AGE_S, updateAge: 24 * 60 * 60 },
   pages: { signIn: '/sign-in', error: '/sign-in' },
@@ -41,33 +60,20 @@ export const authOptions: NextAuthOptions = {
           return null;
         }
         recordSignInSuccess(email, client);
-        return { id: user.id, email: user.email, name: user.name, sessionVersion: user.sessionVersion };
+        return sessionUser(user);
       },
     }),
-    CredentialsProvider({
-      id: 'link',
-      name: 'Sign-in link',
-      credentials: { token: { type: 'text' } },
-      async authorize(credentials) {
-        const userId = spendAuthToken(String(credentials?.token ?? ''), 'sign-in');
-        if (!userId) return null;
-        const user = getUserById(userId);
-        if (!user) return null;
-        markEmailVerified(user.id);
-        return { id: user.id, email: user.email, name: user.name, sessionVersion: user.sessionVersion };
-      },
+    oneTimeLinkProvider('link', 'Sign-in link', (token) => {
+      const userId = spendAuthToken(token, 'sign-in');
+      if (!userId) return null;
+      markEmailVerified(userId);
+      return userId;
     }),
-    CredentialsProvider({
-      id: 'sign-up',
-      name: 'Finish creating an account',
-      credentials: { token: { type: 'text' } },
-      async authorize(credentials) {
-        const pending = spendSignUpToken(String(credentials?.token ?? ''));
-        if (!pending) return null;
-        completeSignUp(pending.userId, pending.passwordHash, pending.name);
-        const user = getUserById(pending.userId);
-        return user ? { id: user.id, email: user.email, name: user.name, sessionVersion: user.sessionVersion } : null;
-      },
+    oneTimeLinkProvider('sign-up', 'Finish creating an account', (token) => {
+      const pending = spendSignUpToken(token);
+      if (!pending) return null;
+      completeSignUp(pending.userId, pending.passwordHash, pending.name);
+      return pending.userId;
     }),
   ],
   callbacks: {

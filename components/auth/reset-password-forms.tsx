@@ -3,23 +3,13 @@
 import Link from 'next/link';
 import { useActionState } from 'react';
 import { requestPasswordReset, resetPassword } from '@/app/(auth)/reset-password/actions';
+import { EmailLinkForm } from '@/components/auth/email-link-form';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { Field, TextInput } from '@/components/ui/field';
 
 export function ResetRequestForm() {
-  const [state, action, pending] = useActionState(requestPasswordReset, null);
-  return (
-    <form action={action} className="space-y-4" noValidate>
-      {state?.ok ? <Notice tone="good">{state.message}</Notice> : null}
-      <Field label="E-mail address" name="email" error={state && !state.ok ? state.error : undefined}>
-        <TextInput name="email" type="email" autoComplete="email" required />
-      </Field>
-      <Button type="submit" disabled={pending} className="w-full">
-        {pending ? 'Sending…' : 'E-mail me a reset link'}
-      </Button>
-    </form>
-  );
+  return <EmailLinkForm action={requestPasswordReset} label="E-mail address" inputId="email" submitLabel="E-mail me a reset link" />;
 }
 
 export function NewPasswordForm({ token }: { token: string }) {

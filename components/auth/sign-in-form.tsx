@@ -2,8 +2,9 @@
 
 import { signIn } from 'next-auth/react';
 import { useRouter } from 'next/navigation';
-import { useActionState, useState } from 'react';
+import { useState } from 'react';
 import { requestSignInLink } from '@/app/(auth)/sign-in/actions';
+import { EmailLinkForm } from '@/components/auth/email-link-form';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { Field, TextInput } from '@/components/ui/field';
@@ -51,16 +52,7 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
 }
 
 export function LinkRequestForm() {
-  const [state, action, pending] = useActionState(requestSignInLink, null);
   return (
-    <form action={action} className="space-y-3" noValidate>
-      {state?.ok ? <Notice tone="good">{state.message}</Notice> : null}
-      <Field label="E-mail address for the link" name="link-email" error={state && !state.ok ? state.error : undefined}>
-        <TextInput name="email" id="link-email" type="email" autoComplete="email" required />
-      </Field>
-      <Button type="submit" variant="secondary" disabled={pending} className="w-full">
-        {pending ? 'Sending…' : 'E-mail me a sign-in link'}
-      </Button>
-    </form>
+    <EmailLinkForm action={requestSignInLink} label="E-mail address for the link" inputId="link-email" submitLabel="E-mail me a sign-in link" secondary />
   );
 }

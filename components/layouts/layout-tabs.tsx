@@ -1,7 +1,4 @@
-'use client';
-
-import Link from 'next/link';
-import { usePathname } from 'next/navigation';
+import { NavTabs } from '@/components/ui/nav-tabs';
 
 const TABS = [
   { href: '', label: 'Overview' },
@@ -12,26 +9,5 @@ const TABS = [
 ];
 
 export function LayoutTabs({ base }: { base: string }) {
-  const pathname = usePathname();
-  return (
-    <nav aria-label="Layout">
-      <ul className="flex flex-wrap gap-1">
-        {TABS.map((tab) => {
-          const href = `${base}${tab.href}`;
-          const active = tab.href === '' ? pathname === base : pathname.startsWith(href);
-          return (
-            <li key={tab.label}>
-              <Link
-                href={href}
-                aria-current={active ? 'page' : undefined}
-                className={`block whitespace-nowrap rounded-plate px-3 py-1.5 text-sm font-semibold ${active ? 'bg-verdigris-soft text-verdigris-strong' : 'text-muted hover:bg-sunken hover:text-ink'}`}
-              >
-                {tab.label}
-              </Link>
-            </li>
-          );
-        })}
-      </ul>
-    </nav>
-  );
+  return <NavTabs label="Layout" base={base} tabs={TABS} look="pills" />;
 }

@@ -16,6 +16,15 @@ export function storeCaughtMail(message: {
   return getDb().insert(caughtMail).values(message).onConflictDoNothing().run().changes > 0;
 }
 
+/** What a list of caught mail shows of each message. */
+const LISTED = {
+  id: caughtMail.id,
+  toAddresses: caughtMail.toAddresses,
+  subject: caughtMail.subject,
+  text: caughtMail.text,
+  receivedAt: caughtMail.receivedAt,
+};
+
 /**
  * Messages the local server caught that this railway sent, newest first: matched by the stable
  * Message-ID of this railway's own outbox rows, never by recipient — so another railway's mail to a
@@ -24,13 +33,7 @@ export function storeCaughtMail(message: {
  */
 export function listCaughtMailForRailway(railwayId: string, limit = 50) {
   return getDb()
-    .select({
-      id: caughtMail.id,
-      toAddresses: caughtMail.toAddresses,
-      subject: caughtMail.subject,
-      text: caughtMail.text,
-      receivedAt: caughtMail.receivedAt,
-    })
+    .select(LISTED)
     .from(caughtMail)
     .innerJoin(outbox, eq(caughtMail.messageId, sql`'<' || ${outbox.id} || '@fishplate.local>'`))
     .where(eq(outbox.railwayId, railwayId))
@@ -42,13 +45,7 @@ export function listCaughtMailForRailway(railwayId: string, limit = 50) {
 /** Messages the local server caught for one address, newest first (the owner's own view). */
 export function listCaughtMailTo(email: string, limit = 50) {
   return getDb()
-    .select({
-      id: caughtMail.id,
-      toAddresses: caughtMail.toAddresses,
-      subject: caughtMail.subject,
-      text: caughtMail.text,
-      receivedAt: caughtMail.receivedAt,
-    })
+    .select(LISTED)
     .from(caughtMail)
     .where(sql`instr(${caughtMail.toAddresses}, ${`,${email.toLowerCase()},`}) > 0`)
     .orderBy(desc(caughtMail.receivedAt))

@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
 import { listCaughtMailTo } from '@/db/queries/caught-mail';
-import { MailText } from '@/components/mail/mail-text';
+import { CaughtMailList } from '@/components/mail/caught-mail-list';
 import { Card, Notice } from '@/components/ui/card';
 import { requireUser } from '@/lib/auth';
 import { env } from '@/lib/env';
@@ -27,27 +27,10 @@ export default async function MyMailPage() {
         was sent to <strong className="break-all">{user.email}</strong>, and to no one else.
       </Notice>
       <Card title={`Caught for you (${mail.length})`}>
-        {mail.length === 0 ? (
-          <p className="text-sm text-muted">Nothing yet. Messages appear here a second or two after they are sent.</p>
-        ) : (
-          <ul className="space-y-3" data-testid="my-mail">
-            {mail.map((m) => (
-              <li key={m.id} className="rounded-plate border border-line">
-                <details>
-                  <summary className="cursor-pointer p-3">
-                    <span className="font-semibold">{m.subject}</span>
-                    <span className="block text-xs text-muted">{formatInZone(m.receivedAt, 'UTC')} UTC</span>
-                  </summary>
-                  <div className="border-t border-line p-3">
-                    <pre className="whitespace-pre-wrap break-words font-sans text-sm">
-                      <MailText text={m.text} />
-                    </pre>
-                  </div>
-                </details>
-              </li>
-            ))}
-          </ul>
-        )}
+        <CaughtMailList
+          testId="my-mail"
+          items={mail.map((m) => ({ id: m.id, subject: m.subject, meta: `${formatInZone(m.receivedAt, 'UTC')} UTC`, text: m.text }))}
+        />
       </Card>
     </div>
   );

@@ -4,8 +4,9 @@ import { listMembers } from '@/db/queries/memberships';
 import { getRailwaySession } from '@/db/queries/invitation-records';
 import { listOutbox } from '@/db/queries/outbox';
 import { listRailwaySessions } from '@/db/queries/sessions';
-import { Badge, Card } from '@/components/ui/card';
-import { formatDateInZone, formatInZone } from '@/lib/time-zone';
+import { Card } from '@/components/ui/card';
+import { SessionStatusBadge, SessionSummary } from '@/components/sessions/session-status';
+import { formatDateInZone } from '@/lib/time-zone';
 import { crewStatus } from '@/lib/invitations/crew-status';
 import { memberForPage } from '@/lib/auth/pages';
 import { roleAtLeast } from '@/lib/roles';
@@ -14,8 +15,6 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 
 export const metadata: Metadata = { title: 'Overview' };
-
-const STATUS_TONE = { draft: 'neutral', published: 'good', cancelled: 'bad' } as const;
 
 export default async function RailwayDashboard({ params }: { params: Promise<{ railwayId: string }> }) {
   const { railwayId } = await params;
@@ -116,15 +115,8 @@ export default async function RailwayDashboard({ params }: { params: Promise<{ r
           <ul className="divide-y divide-line" data-testid="upcoming-sessions">
             {sessions.map((s) => (
               <li key={s.id} className="flex flex-col items-start gap-1 py-3 sm:flex-row sm:items-center sm:justify-between">
-                <div>
-                  <Link href={`/railways/${railwayId}/sessions/${s.id}`} className="font-semibold text-verdigris hover:underline">
-                    {s.title}
-                  </Link>
-                  <p className="text-sm text-muted">
-                    {formatInZone(s.startsAt, s.timeZone)} · {s.layoutName} · {s.runCount} runs
-                  </p>
-                </div>
-                <Badge tone={STATUS_TONE[s.status]}>{s.status}</Badge>
+                <SessionSummary railwayId={railwayId} session={s} />
+                <SessionStatusBadge status={s.status} />
               </li>
             ))}
           </ul>

@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import { listCaughtMailForRailway } from '@/db/queries/caught-mail';
 import { listOutbox } from '@/db/queries/outbox';
-import { MailText } from '@/components/mail/mail-text';
+import { CaughtMailList } from '@/components/mail/caught-mail-list';
 import { NotAllowed } from '@/components/railway/not-allowed';
 import { Badge, Card, Notice } from '@/components/ui/card';
 import { env } from '@/lib/env';
@@ -70,27 +70,15 @@ export default async function MailPage({ params }: { params: Promise<{ railwayId
       </Card>
       {localCatcher ? (
         <Card title={`Caught on this machine (${caught.length})`}>
-          {caught.length === 0 ? (
-            <p className="text-sm text-muted">Nothing yet. Messages appear here a second or two after they are sent.</p>
-          ) : (
-            <ul className="space-y-3" data-testid="caught-mail">
-              {caught.map((m) => (
-                <li key={m.id} className="rounded-plate border border-line">
-                  <details>
-                    <summary className="cursor-pointer p-3">
-                      <span className="font-semibold">{m.subject}</span>
-                      <span className="block text-xs text-muted">
-                        to {m.toAddresses.replace(/^,|,$/g, '').replaceAll(',', ', ')} · {formatInZone(m.receivedAt, zone)}
-                      </span>
-                    </summary>
-                    <div className="border-t border-line p-3">
-                      <pre className="whitespace-pre-wrap break-words font-sans text-sm"><MailText text={maskPersonalLinks(m.text)} /></pre>
-                    </div>
-                  </details>
-                </li>
-              ))}
-            </ul>
-          )}
+          <CaughtMailList
+            testId="caught-mail"
+            items={caught.map((m) => ({
+              id: m.id,
+              subject: m.subject,
+              meta: `to ${m.toAddresses.replace(/^,|,$/g, '').replaceAll(',', ', ')} · ${formatInZone(m.receivedAt, zone)}`,
+              text: maskPersonalLinks(m.text),
+            }))}
+          />
         </Card>
       ) : null}
     </div>

@@ -6,14 +6,12 @@ import { getRailway } from '@/db/queries/railways';
 import { listRailwaySessions } from '@/db/queries/sessions';
 import { DuplicateForm, SessionForm } from '@/components/sessions/session-form';
 import { Badge, Card } from '@/components/ui/card';
-import { formatInZone } from '@/lib/time-zone';
+import { SessionStatusBadge, SessionSummary } from '@/components/sessions/session-status';
 import { memberForPage } from '@/lib/auth/pages';
 import { roleAtLeast } from '@/lib/roles';
 import { errorCounts } from '@/lib/sessions/error-counts';
 
 export const metadata: Metadata = { title: 'Sessions' };
-
-const STATUS_TONE = { draft: 'neutral', published: 'good', cancelled: 'bad' } as const;
 
 export default async function SessionsPage({ params }: { params: Promise<{ railwayId: string }> }) {
   const { railwayId } = await params;
@@ -37,17 +35,10 @@ export default async function SessionsPage({ params }: { params: Promise<{ railw
         {items.map((s) => (
           <li key={s.id} className="space-y-2 py-3" data-testid="session-row">
             <div className="flex flex-col gap-1 sm:flex-row sm:items-center sm:justify-between">
-              <div>
-                <Link href={`/railways/${railwayId}/sessions/${s.id}`} className="font-semibold text-verdigris hover:underline">
-                  {s.title}
-                </Link>
-                <p className="text-sm text-muted">
-                  {formatInZone(s.startsAt, s.timeZone)} · {s.layoutName} · {s.runCount} runs
-                </p>
-              </div>
+              <SessionSummary railwayId={railwayId} session={s} />
               <div className="flex items-center gap-2">
                 {errors.get(s.id) ? <Badge tone="bad">{errors.get(s.id)} errors</Badge> : planner ? <Badge tone="good">checks out</Badge> : null}
-                <Badge tone={STATUS_TONE[s.status]}>{s.status}</Badge>
+                <SessionStatusBadge status={s.status} />
               </div>
             </div>
             {planner ? (

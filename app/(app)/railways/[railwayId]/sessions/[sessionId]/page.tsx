@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { TimetableBuilder } from '@/components/timetable/timetable-builder';
-import { Badge } from '@/components/ui/card';
+import { SessionStatusBadge } from '@/components/sessions/session-status';
 import { formatInZone, formatTimeInZone } from '@/lib/time-zone';
 import { memberForPage } from '@/lib/auth/pages';
 import { roleAtLeast } from '@/lib/roles';
@@ -10,8 +10,6 @@ import { builderPageProps, loadSessionPlan } from '@/lib/sessions/builder';
 import { sessionForPage } from '@/lib/auth/pages';
 
 export const metadata: Metadata = { title: 'Timetable' };
-
-const STATUS_TONE = { draft: 'neutral', published: 'good', cancelled: 'bad' } as const;
 
 export default async function SessionBuilderPage({ params }: { params: Promise<{ railwayId: string; sessionId: string }> }) {
   const { railwayId, sessionId } = await params;
@@ -32,7 +30,7 @@ export default async function SessionBuilderPage({ params }: { params: Promise<{
             <Link href={`/railways/${railwayId}/sessions`} className="text-verdigris hover:underline">Sessions</Link>
           </p>
           <h1 className="flex flex-wrap items-center gap-2 font-display text-xl font-bold sm:text-2xl" data-testid="session-title">
-            {session.title} <Badge tone={STATUS_TONE[session.status]}>{session.status}</Badge>
+            {session.title} <SessionStatusBadge status={session.status} />
           </h1>
           <p className="text-sm text-muted">
             {dateLabel} · {rows.layout?.name} · fast clock {session.clockRatio}:1 from {session.fastStart}

@@ -8,6 +8,7 @@ import { AutoRefresh } from '@/components/invitations/auto-refresh';
 import { InviteCrewForm, NoticeActions, RemindButton, ReplyDeadlineForm, ResendButton } from '@/components/invitations/tracker-forms';
 import { NotAllowed } from '@/components/railway/not-allowed';
 import { Badge, Card, Notice } from '@/components/ui/card';
+import { SessionStatusBadge } from '@/components/sessions/session-status';
 import { formatInZone } from '@/lib/time-zone';
 import { describeChange, summariseChanges } from '@/lib/invitations/changes';
 import { isLate } from '@/lib/invitations/reply';
@@ -27,8 +28,6 @@ const DELIVERY_TONE: Record<Delivery, 'neutral' | 'info' | 'warn' | 'good' | 'ba
   failed: 'bad',
 };
 const REPLY_TONE = { 'needs-action': 'neutral', accepted: 'good', tentative: 'warn', declined: 'bad' } as const;
-const STATUS_TONE = { draft: 'neutral', published: 'good', cancelled: 'bad' } as const;
-
 export default async function InvitationTrackerPage({ params }: { params: Promise<{ railwayId: string; sessionId: string }> }) {
   const { railwayId, sessionId } = await params;
   const path = `/railways/${railwayId}/sessions/${sessionId}/invitations`;
@@ -80,7 +79,7 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
           <h1 className="font-display text-xl font-bold">Invitations</h1>
           <p className="text-sm text-muted">
             {formatInZone(session.startsAt, zone)} – {formatInZone(session.endsAt, zone, { weekday: undefined, day: undefined, month: undefined, year: undefined })} · {zone} ·{' '}
-            <Badge tone={STATUS_TONE[session.status]}>{session.status}</Badge> · calendar sequence {session.sequence}
+            <SessionStatusBadge status={session.status} /> · calendar sequence {session.sequence}
           </p>
         </div>
         <a href={`/api/sessions/${sessionId}/calendar.ics`} className="text-sm font-semibold text-verdigris hover:underline">
