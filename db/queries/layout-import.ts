@@ -39,11 +39,11 @@ export function insertLayoutFromImport(railwayId: string, data: LayoutImport) {
       keep('driver', key, tx.insert(t.drivers).values({ ...d, supplyId: idOf('supply', d.supplyId), layoutId }).returning({ id: t.drivers.id }).get().id);
     }
     for (const { key, ...c } of data.cabs) keep('cab', key, tx.insert(t.cabs).values({ ...c, driverId: idOf('driver', c.driverId), layoutId }).returning({ id: t.cabs.id }).get().id);
-    for (const { key, ...l } of data.locomotives) keep('loco', key, tx.insert(t.locomotives).values({ ...l, layoutId }).returning({ id: t.locomotives.id }).get().id);
+    for (const { key, ...l } of data.locomotives) keep('locomotive', key, tx.insert(t.locomotives).values({ ...l, layoutId }).returning({ id: t.locomotives.id }).get().id);
     for (const { key, locomotiveIds, ...tr } of data.trains) {
       const trainId = tx.insert(t.trains).values({ ...tr, layoutId }).returning({ id: t.trains.id }).get().id;
       keep('train', key, trainId);
-      locomotiveIds.forEach((locoKey, position) => tx.insert(t.trainLocomotives).values({ trainId, locomotiveId: idOf('loco', locoKey), position }).run());
+      locomotiveIds.forEach((locomotiveKey, position) => tx.insert(t.trainLocomotives).values({ trainId, locomotiveId: idOf('locomotive', locomotiveKey), position }).run());
     }
     return layout;
   });

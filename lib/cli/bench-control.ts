@@ -27,7 +27,7 @@ async function main() {
     plan,
     wiring: control.wiring,
     runSpeedKmh: Object.fromEntries(rows.runs.map((r) => [r.id, r.speedKmh])),
-    locoTopSpeedKmh: Object.fromEntries(rows.locomotives.map((l) => [l.id, l.topSpeedKmh])),
+    locomotiveTopSpeedKmh: Object.fromEntries(rows.locomotives.map((l) => [l.id, l.topSpeedKmh])),
   };
   const times: number[] = [];
   let entries = 0;

@@ -16,6 +16,7 @@ import {
   planSchema,
   suggestRetime,
   timeRun,
+  toPlanJson,
   type Plan,
 } from '@/lib/planning';
 import { identicalRunsPlan } from './identical-runs-plan';
@@ -53,7 +54,7 @@ function buildPlan(targetSteps: number, seed: number): Plan {
     cabs: [],
     blocks: [],
     links: [],
-    locos: [],
+    locomotives: [],
     trains: [],
     operators: [],
     runs: [],
@@ -79,9 +80,9 @@ function buildPlan(targetSteps: number, seed: number): Plan {
     const at: number[] = [0, 1, 2];
     for (let t = 0; t < 3; t++) {
       for (const n of [0, 1]) {
-        plan.locos.push({ id: `${p}T${t}-L${n}`, name: `Loco ${n}`, runningAmps: 0.4, stallAmps: 0.9, ratedVolts: 12 });
+        plan.locomotives.push({ id: `${p}T${t}-L${n}`, name: `Loco ${n}`, runningAmps: 0.4, stallAmps: 0.9, ratedVolts: 12 });
       }
-      plan.trains.push({ id: `${p}T${t}`, name: `Train ${t}`, locoIds: [`${p}T${t}-L0`, `${p}T${t}-L1`], lightingAmps: 0.1, lengthMm: 1000 });
+      plan.trains.push({ id: `${p}T${t}`, name: `Train ${t}`, locomotiveIds: [`${p}T${t}-L0`, `${p}T${t}-L1`], lightingAmps: 0.1, lengthMm: 1000 });
     }
     const offset = rand() * SLOT_S;
     let free = 3;
@@ -143,7 +144,7 @@ for (const [target, reps] of [
   const plan = buildPlan(target, target);
   const steps = plan.runs.reduce((sum, run) => sum + run.steps.length, 0);
   if (target <= 60_000) {
-    const parsed = planSchema.safeParse(plan);
+    const parsed = planSchema.safeParse(toPlanJson(plan));
     if (!parsed.success) throw new Error(`bench plan is invalid: ${parsed.error.issues[0]?.message}`);
   }
   const allSteps = plan.runs.flatMap((run) => run.steps);

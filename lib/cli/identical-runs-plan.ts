@@ -22,8 +22,8 @@ export function identicalRunsPlan(count: number): Plan {
       { a: 'A', b: 'B' },
       { a: 'B', b: 'C' },
     ],
-    locos: [{ id: 'l1', name: 'Loco', runningAmps: 0.3, stallAmps: 0.9, ratedVolts: 12 }],
-    trains: Array.from({ length: count }, (_, i) => ({ id: `t${i}`, name: `Train ${i}`, locoIds: ['l1'], lightingAmps: 0.05, lengthMm: 1000 })),
+    locomotives: [{ id: 'l1', name: 'Loco', runningAmps: 0.3, stallAmps: 0.9, ratedVolts: 12 }],
+    trains: Array.from({ length: count }, (_, i) => ({ id: `t${i}`, name: `Train ${i}`, locomotiveIds: ['l1'], lightingAmps: 0.05, lengthMm: 1000 })),
     operators: [{ id: 'o1', name: 'Ann' }],
     runs: Array.from({ length: count }, (_, i) => ({
       id: `r${i}`,

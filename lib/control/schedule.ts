@@ -64,13 +64,13 @@ export interface ControlSchedule {
 
 /**
  * What the schedule needs beyond the plan: the wiring, each run's scale speed (null: taken from the
- * run's steps) and each loco's top speed at its rated voltage.
+ * run's steps) and each locomotive's top speed at its rated voltage.
  */
 export interface ControlInput {
   plan: Plan;
   wiring: WiringSheet;
   runSpeedKmh: Readonly<Record<string, number | null>>;
-  locoTopSpeedKmh: Readonly<Record<string, number>>;
+  locomotiveTopSpeedKmh: Readonly<Record<string, number>>;
 }
 
 const KIND_ORDER: Record<ControlEntry['kind'], number> = { feed: 0, polarity: 1, direction: 2, speed: 3 };
@@ -149,7 +149,7 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
   const cabById = new Map(plan.cabs.map((c) => [c.id, c]));
   const blockById = new Map(plan.blocks.map((b) => [b.id, b]));
   const trainById = new Map(plan.trains.map((t) => [t.id, t]));
-  const locoById = new Map(plan.locos.map((l) => [l.id, l]));
+  const locomotiveById = new Map(plan.locomotives.map((l) => [l.id, l]));
   const driverById = new Map(plan.drivers.map((d) => [d.id, d]));
   const supplyById = new Map(plan.supplies.map((s) => [s.id, s]));
   const blockName = (id: string) => blockById.get(id)?.name ?? id;
@@ -245,7 +245,7 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
       continue;
     }
 
-    // PWM from the driver model: the loco that needs the most duty sets the cab's value.
+    // PWM from the driver model: the locomotive that needs the most duty sets the cab's value.
     const driver = driverById.get(cabById.get(run.cabId)?.driverId ?? '');
     const supply = supplyById.get(driver?.supplyId ?? '');
     // The train's ramps (scale km/h per second), the scale's common practice where it has none.
@@ -260,12 +260,12 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
     let stillPwm = 0;
     let pwmProblem: string | null = null;
     // The bridge's greatest drop at the train's running current, so the duty is enough (see dutyFor).
-    const runningAmps = trainAmps(train.lightingAmps, train.locoIds.map((id) => locoById.get(id)).filter((l) => l !== undefined)).runningAmps;
-    for (const locoId of train.locoIds) {
-      const loco = locoById.get(locoId);
-      const top = input.locoTopSpeedKmh[locoId];
-      if (!loco || !driver || !supply || top === undefined) {
-        pwmProblem = 'its locos, driver or supply are missing';
+    const runningAmps = trainAmps(train.lightingAmps, train.locomotiveIds.map((id) => locomotiveById.get(id)).filter((l) => l !== undefined)).runningAmps;
+    for (const locomotiveId of train.locomotiveIds) {
+      const locomotive = locomotiveById.get(locomotiveId);
+      const top = input.locomotiveTopSpeedKmh[locomotiveId];
+      if (!locomotive || !driver || !supply || top === undefined) {
+        pwmProblem = 'its locomotives, driver or supply are missing';
         break;
       }
       // The duty at each end of the ramps: at the cruise, and standing (dutyFor gives 0 at 0 km/h).
@@ -273,15 +273,15 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
         dutyFor({
           supplyVolts: supply.volts,
           dropVolts: dropAt(driverDrop(driver).max, runningAmps),
-          ratedVolts: loco.ratedVolts,
+          ratedVolts: locomotive.ratedVolts,
           topSpeedKmh: top,
-          startVolts: loco.startVolts ?? 0,
+          startVolts: locomotive.startVolts ?? 0,
           targetSpeedKmh,
         });
       const duty = dutyAt(Math.round(speedKmh * 10) / 10);
       const still = dutyAt(0);
       if (!duty.ok || !still.ok) {
-        pwmProblem = `${loco.name}: ${duty.ok ? (still.ok ? '' : still.reason) : duty.reason}`;
+        pwmProblem = `${locomotive.name}: ${duty.ok ? (still.ok ? '' : still.reason) : duty.reason}`;
         break;
       }
       stillPwm = Math.max(stillPwm, still.pwm8);

@@ -76,7 +76,7 @@ const BLOCK_WIRING: Record<string, { positiveRail?: 'left'; reversingSection?: t
   G6: { reversingSection: true },
 };
 
-const INDOOR_LOCOS = [
+const INDOOR_LOCOMOTIVES = [
   // key, name, running A, stall A, rated V, top scale km/h at rated V, start V (common practice: 1.5–3 V on small can motors)
   ['tank41', 'Tank engine No. 41', 0.35, 0.9, 12, 80, 2.0],
   ['diesel7', 'Mixed-traffic diesel No. 7', 0.45, 1.0, 12, 120, 1.8],
@@ -88,13 +88,13 @@ const INDOOR_LOCOS = [
   // The stone train's second engine, the same class and just as unmeasured: a locomotive runs in one train.
   ['freight318', 'Open-frame freight diesel No. 318', 0.6, 1.6, 12, 90, null],
 ] as const;
-const GARDEN_LOCOS = [
+const GARDEN_LOCOMOTIVES = [
   ['mogul', 'Garden 2-6-0 "Thistle"', 1.5, 3.0, 18, 50, 3.0],
   ['railbus', 'Garden railbus', 0.8, 2.0, 18, 45, 2.5],
 ] as const;
 
 const INDOOR_TRAINS = [
-  // key, name, locos, lighting A, length mm
+  // key, name, locomotives, lighting A, length mm
   ['stopper', 'Wrenhollow stopper', ['tank41'], 0.09, 900],
   ['express', 'Fernwick express', ['express88'], 0.15, 1300],
   ['goods', 'Pick-up goods', ['freight205'], 0, 1100],
@@ -325,27 +325,27 @@ export function seedDemoRailway(db: Db, options: { now?: Date; passwordHash?: st
 
     const insertStock = (
       layoutId: string,
-      locoRows: readonly (readonly [string, string, number, number, number, number, number | null])[],
+      locomotiveRows: readonly (readonly [string, string, number, number, number, number, number | null])[],
       trainRows: readonly (readonly [string, string, readonly string[], number, number])[],
     ) => {
-      const locoIds: Record<string, string> = {};
-      for (const [key, name, runningAmps, stallAmps, ratedVolts, topSpeedKmh, startVolts] of locoRows) {
-        locoIds[key] = tx
+      const locomotiveIds: Record<string, string> = {};
+      for (const [key, name, runningAmps, stallAmps, ratedVolts, topSpeedKmh, startVolts] of locomotiveRows) {
+        locomotiveIds[key] = tx
           .insert(t.locomotives)
           .values({ layoutId, name, runningAmps, stallAmps, ratedVolts, topSpeedKmh, startVolts })
           .returning({ id: t.locomotives.id })
           .get().id;
       }
       const trainIds: Record<string, { id: string; lengthMm: number }> = {};
-      for (const [key, name, locos, lightingAmps, lengthMm] of trainRows) {
+      for (const [key, name, locomotives, lightingAmps, lengthMm] of trainRows) {
         const id = tx.insert(t.trains).values({ layoutId, name, lightingAmps, lengthMm }).returning({ id: t.trains.id }).get().id;
-        locos.forEach((loco, position) => tx.insert(t.trainLocomotives).values({ trainId: id, locomotiveId: locoIds[loco]!, position }).run());
+        locomotives.forEach((locomotive, position) => tx.insert(t.trainLocomotives).values({ trainId: id, locomotiveId: locomotiveIds[locomotive]!, position }).run());
         trainIds[key] = { id, lengthMm };
       }
       return trainIds;
     };
-    const indoorTrains = insertStock(indoor.layoutId, INDOOR_LOCOS, INDOOR_TRAINS);
-    insertStock(garden.layoutId, GARDEN_LOCOS, GARDEN_TRAINS);
+    const indoorTrains = insertStock(indoor.layoutId, INDOOR_LOCOMOTIVES, INDOOR_TRAINS);
+    insertStock(garden.layoutId, GARDEN_LOCOMOTIVES, GARDEN_TRAINS);
 
     const startsAt = demoSessionStart(options.now);
     const sessionId = tx

@@ -27,7 +27,7 @@ const lower = (s: string) => s.trim().toLowerCase();
 /** The layout's rows of one table as CSV, in the form the import reads back. */
 export function exportCsv(table: CsvTable, rows: LayoutRows): string {
   const blockName = new Map(rows.blocks.map((b) => [b.id, b.name]));
-  const locoName = new Map(rows.locomotives.map((l) => [l.id, l.name]));
+  const locomotiveName = new Map(rows.locomotives.map((l) => [l.id, l.name]));
   switch (table) {
     case 'blocks':
       return toCsv(table, rows.blocks.map((b) => ({ name: b.name, length: b.lengthMm, unit: 'mm', position: b.positionMm })));
@@ -55,7 +55,7 @@ export function exportCsv(table: CsvTable, rows: LayoutRows): string {
       );
     case 'trains': {
       const consist = new Map<string, string[]>();
-      for (const c of rows.consists) consist.set(c.trainId, [...(consist.get(c.trainId) ?? []), locoName.get(c.locomotiveId) ?? '']);
+      for (const c of rows.consists) consist.set(c.trainId, [...(consist.get(c.trainId) ?? []), locomotiveName.get(c.locomotiveId) ?? '']);
       return toCsv(
         table,
         rows.trains.map((tr) => ({
@@ -231,13 +231,13 @@ export function planCsvImport(table: CsvTable, text: string, rows: LayoutRows): 
     }
     case 'trains': {
       const existing = new Map(rows.trains.map((tr) => [lower(tr.name), tr]));
-      const locoByName = new Map(rows.locomotives.map((l) => [lower(l.name), l]));
+      const locomotiveByName = new Map(rows.locomotives.map((l) => [lower(l.name), l]));
       const consist = new Map<string, string[]>();
       for (const c of rows.consists) consist.set(c.trainId, [...(consist.get(c.trainId) ?? []), c.locomotiveId]);
       const list: CsvChange<{ name: string; lightingAmps: number; lengthMm: number; accelKmhPerS: number | null; brakingKmhPerS: number | null; locomotiveIds: string[] }>[] = [];
       for (const { row, cells } of records) {
         const names = (cells.locomotives ?? '').split(CONSIST_SEPARATOR).map((n) => n.trim()).filter(Boolean);
-        const unknown = names.filter((n) => !locoByName.has(lower(n)));
+        const unknown = names.filter((n) => !locomotiveByName.has(lower(n)));
         if (unknown.length) {
           issues.push({
             row,
@@ -247,7 +247,7 @@ export function planCsvImport(table: CsvTable, text: string, rows: LayoutRows): 
         }
         const parsed = trainSchema.safeParse({
           name: cells.name,
-          locomotiveIds: names.map((n) => locoByName.get(lower(n))?.id ?? n),
+          locomotiveIds: names.map((n) => locomotiveByName.get(lower(n))?.id ?? n),
           lightingAmps: cells.lighting_amps,
           length: cells.length,
           unit: cells.unit,

@@ -25,7 +25,7 @@ const extras = z.object({
   layout: z.object({ name: z.string().optional(), setting: z.enum(['indoor', 'outdoor']).optional(), notes: z.string().optional() }).optional(),
   blocks: z.array(z.object({ positionMm: z.number().min(0).optional() })),
   drivers: z.array(z.object({ presetId: z.string().nullable().optional(), partNumber: z.string().nullable().optional() })),
-  // Older exports carried the top speed here; the plan's locos now carry it themselves.
+  // Older exports carried the top speed here; the plan's locomotives now carry it themselves.
   locos: z.array(z.object({ topSpeedKmh: z.number().nullable().optional() })).optional(),
   locomotives: z.array(z.object({ topSpeedKmh: z.number().nullable().optional() })).optional(),
 });
@@ -81,7 +81,10 @@ export function planToImport(input: unknown, name: string | undefined): { data: 
       else seen.set(key, i);
     });
   };
-  for (const scope of ['blocks', 'supplies', 'drivers', 'cabs', 'locos', 'trains'] as const) unique(plan[scope], scope);
+  // Issues name the fields of the version read: version 1 calls the locomotives `locos`.
+  const locomotivesPath = plan.version === 2 ? 'locomotives' : 'locos';
+  for (const scope of ['blocks', 'supplies', 'drivers', 'cabs', 'trains'] as const) unique(plan[scope], scope);
+  unique(plan.locomotives, locomotivesPath);
   // The same range as the layout form: a ratio of 1e308 once timed every run to hours beyond any session.
   if (!inScaleRange(plan.scale.ratio)) issues.push({ path: 'scale.ratio', message: SCALE_RATIO_MESSAGE });
 
@@ -112,19 +115,19 @@ export function planToImport(input: unknown, name: string | undefined): { data: 
     const v = check(cabSchema, { name: c.name, driverId: c.driverId, channel: c.channel }, `cabs[${i}]`);
     return v && { ...v, key: c.id };
   });
-  const locomotives = plan.locos.map((l, i) => {
+  const locomotives = plan.locomotives.map((l, i) => {
     const top = l.topSpeedKmh ?? (ext.locomotives ?? ext.locos)?.[i]?.topSpeedKmh ?? undefined;
     if (top === undefined) {
-      issues.push({ path: `${plan.version === 2 ? 'locomotives' : 'locos'}[${i}].topSpeedKmh`, message: 'missing: Fishplate needs each locomotive’s top scale speed (km/h) to work out PWM duty' });
+      issues.push({ path: `${locomotivesPath}[${i}].topSpeedKmh`, message: 'missing: Fishplate needs each locomotive’s top scale speed (km/h) to work out PWM duty' });
       return null;
     }
-    const v = check(locomotiveSchema, { name: l.name, runningAmps: l.runningAmps, stallAmps: l.stallAmps, ratedVolts: l.ratedVolts, topSpeedKmh: top, startVolts: l.startVolts ?? null }, `${plan.version === 2 ? 'locomotives' : 'locos'}[${i}]`);
+    const v = check(locomotiveSchema, { name: l.name, runningAmps: l.runningAmps, stallAmps: l.stallAmps, ratedVolts: l.ratedVolts, topSpeedKmh: top, startVolts: l.startVolts ?? null }, `${locomotivesPath}[${i}]`);
     return v && { ...v, key: l.id };
   });
   const trains = plan.trains.map((tr, i) => {
     const v = check(
       trainSchema,
-      { name: tr.name, locomotiveIds: tr.locoIds, lightingAmps: tr.lightingAmps, length: tr.lengthMm, unit: 'mm', accelKmhPerS: tr.accelKmhPerS ?? null, brakingKmhPerS: tr.brakingKmhPerS ?? null },
+      { name: tr.name, locomotiveIds: tr.locomotiveIds, lightingAmps: tr.lightingAmps, length: tr.lengthMm, unit: 'mm', accelKmhPerS: tr.accelKmhPerS ?? null, brakingKmhPerS: tr.brakingKmhPerS ?? null },
       `trains[${i}]`,
     );
     return v && { ...v, key: tr.id };

@@ -115,23 +115,23 @@ export interface PowerBudget {
 
 /** Lighting plus every locomotive of the consist, running and at start (see startAmps). */
 export function trainLoads(input: Pick<BudgetInput, 'locomotives' | 'trains'>): TrainLoad[] {
-  const locoOf = new Map(input.locomotives.map((l) => [l.id, l]));
+  const locomotiveOf = new Map(input.locomotives.map((l) => [l.id, l]));
   return input.trains.map((train) => {
-    const locos = train.locomotiveIds.map((id) => locoOf.get(id)).filter((l) => l !== undefined);
+    const locomotives = train.locomotiveIds.map((id) => locomotiveOf.get(id)).filter((l) => l !== undefined);
     const parts = [
-      ...locos.map((l) => ({ label: l.name, runningAmps: l.runningAmps, stallAmps: l.stallAmps, startAmps: startAmps(l) })),
+      ...locomotives.map((l) => ({ label: l.name, runningAmps: l.runningAmps, stallAmps: l.stallAmps, startAmps: startAmps(l) })),
       ...(train.lightingAmps > 0
         ? [{ label: 'lighting', runningAmps: train.lightingAmps, stallAmps: train.lightingAmps, startAmps: train.lightingAmps }]
         : []),
     ];
-    const amps = trainAmps(train.lightingAmps, locos);
+    const amps = trainAmps(train.lightingAmps, locomotives);
     return {
       id: train.id,
       name: train.name,
       runningAmps: round(amps.runningAmps),
       surgeAmps: round(amps.startAmps),
       parts,
-      topSpeedKmh: locos.length ? Math.min(...locos.map((l) => l.topSpeedKmh)) : null,
+      topSpeedKmh: locomotives.length ? Math.min(...locomotives.map((l) => l.topSpeedKmh)) : null,
     };
   });
 }
@@ -333,7 +333,7 @@ export function dutySpeeds(topSpeedKmh: number): number[] {
  * a consist gets the same duty, so the cab must give the one that needs the most; that one is named.
  */
 export function dutyTables(input: BudgetInput): DutyTable[] {
-  const locoOf = new Map(input.locomotives.map((l) => [l.id, l]));
+  const locomotiveOf = new Map(input.locomotives.map((l) => [l.id, l]));
   const driverOf = new Map(input.drivers.map((d) => [d.id, d]));
   const supplyOf = new Map(input.supplies.map((s) => [s.id, s]));
   const cabs = input.cabs
@@ -345,30 +345,30 @@ export function dutyTables(input: BudgetInput): DutyTable[] {
     .filter((c) => c !== null);
   const loads = new Map(trainLoads(input).map((l) => [l.id, l]));
   return input.trains.map((train) => {
-    const locos = train.locomotiveIds.map((id) => locoOf.get(id)).filter((l) => l !== undefined);
-    const top = locos.length ? Math.min(...locos.map((l) => l.topSpeedKmh)) : null;
+    const locomotives = train.locomotiveIds.map((id) => locomotiveOf.get(id)).filter((l) => l !== undefined);
+    const top = locomotives.length ? Math.min(...locomotives.map((l) => l.topSpeedKmh)) : null;
     const speeds = top === null ? [] : dutySpeeds(top);
     // The bridge's greatest drop at this train's running current, so the duty is enough.
     const amps = loads.get(train.id)?.runningAmps ?? 0;
     const dropOf = (driver: DriverValues) => dropAt(planDriverElectrics(storedElectrics(driver)).drop!.max, amps);
     const rows = speeds.map((speed) =>
       cabs.map(({ driver, supply }): DutyCell => {
-        let best: { duty: number; pwm8: number; loco: string } | null = null;
-        for (const loco of locos) {
+        let best: { duty: number; pwm8: number; locomotive: string } | null = null;
+        for (const locomotive of locomotives) {
           const r = dutyFor({
             supplyVolts: supply.volts,
             dropVolts: dropOf(driver),
-            ratedVolts: loco.ratedVolts,
-            topSpeedKmh: loco.topSpeedKmh,
-            startVolts: loco.startVolts ?? 0,
+            ratedVolts: locomotive.ratedVolts,
+            topSpeedKmh: locomotive.topSpeedKmh,
+            startVolts: locomotive.startVolts ?? 0,
             targetSpeedKmh: speed,
           });
-          if (!r.ok) return { ok: false, duty: null, pwm8: null, note: locos.length > 1 ? `${loco.name}: ${r.reason}` : r.reason };
-          if (best === null || r.duty > best.duty) best = { duty: r.duty, pwm8: r.pwm8, loco: loco.name };
+          if (!r.ok) return { ok: false, duty: null, pwm8: null, note: locomotives.length > 1 ? `${locomotive.name}: ${r.reason}` : r.reason };
+          if (best === null || r.duty > best.duty) best = { duty: r.duty, pwm8: r.pwm8, locomotive: locomotive.name };
         }
         if (best === null) return { ok: false, duty: null, pwm8: null, note: 'no locomotive' };
-        const mixed = new Set(locos.map((l) => `${l.ratedVolts}/${l.topSpeedKmh}/${l.startVolts ?? 0}`)).size > 1;
-        return { ok: true, duty: best.duty, pwm8: best.pwm8, note: mixed ? `set by ${best.loco}` : '' };
+        const mixed = new Set(locomotives.map((l) => `${l.ratedVolts}/${l.topSpeedKmh}/${l.startVolts ?? 0}`)).size > 1;
+        return { ok: true, duty: best.duty, pwm8: best.pwm8, note: mixed ? `set by ${best.locomotive}` : '' };
       }),
     );
     return {

@@ -105,7 +105,7 @@ class FindingList implements FindingSink {
  *   after its last (to `sessionEndS`); the stand is named by the run before it (the first run for
  *   the wait before it). A retime cannot clear these: a train standing all session needs another
  *   route or block.
- * - `loco-in-two-trains` (error) `[locoId, trainA, trainB]`: see findLocoInTwoTrains.
+ * - `locomotive-in-two-trains` (error) `[locomotiveId, trainA, trainB]`: see findLocomotiveInTwoTrains.
  * - `step-gap` (error) `[runId, blockA, blockB]`: a run's step begins more than 1 ms after the
  *   step before it ended.
  * - `cab-double-booked`, `operator-double-booked`, `train-double-booked` (errors)
@@ -159,7 +159,7 @@ export function checkPlan(plan: Plan, options: CheckOptions = {}): PlanCheck {
   inBudget();
   // The other checks add to the list as they go (each kind comes from one check only), writing
   // messages only for findings it lists.
-  findLocoInTwoTrains(plan, index, names, sessionEnd, list);
+  findLocomotiveInTwoTrains(plan, index, names, sessionEnd, list);
   findContinuityBreaks(plan, trainRuns, names, list);
   findRouteGaps(plan, index, names, list);
   findStepGaps(plan, index, names, list);
@@ -439,11 +439,11 @@ function findDoubleBookings(
 }
 
 /**
- * `loco-in-two-trains` `[locoId, trainA, trainB]` (error): a locomotive in the consists of two
+ * `locomotive-in-two-trains` `[locomotiveId, trainA, trainB]` (error): a locomotive in the consists of two
  * trains that are on the track at the same moment. A train with runs is on the track from the
  * session's start (or its first step, if earlier) to the session's end.
  */
-function findLocoInTwoTrains(plan: Plan, index: PlanIndex, names: PlanNames, sessionEnd: number, list: FindingList): void {
+function findLocomotiveInTwoTrains(plan: Plan, index: PlanIndex, names: PlanNames, sessionEnd: number, list: FindingList): void {
   const firstEnter = new Float64Array(plan.trains.length).fill(Infinity);
   const lastExit = new Float64Array(plan.trains.length).fill(-Infinity);
   for (let r = 0; r < plan.runs.length; r++) {
@@ -454,46 +454,46 @@ function findLocoInTwoTrains(plan: Plan, index: PlanIndex, names: PlanNames, ses
     if (first < firstEnter[t]!) firstEnter[t] = first;
     if (last > lastExit[t]!) lastExit[t] = last;
   }
-  const locoOf = new Map(plan.locos.map((loco, i) => [loco.id, i]));
-  const loco: number[] = [];
+  const locomotiveOf = new Map(plan.locomotives.map((locomotive, i) => [locomotive.id, i]));
+  const locomotive: number[] = [];
   const train: number[] = [];
   const start: number[] = [];
   const end: number[] = [];
   plan.trains.forEach((t, i) => {
     if (firstEnter[i] === Infinity) return;
-    for (const locoId of new Set(t.locoIds)) {
-      const l = locoOf.get(locoId);
+    for (const locomotiveId of new Set(t.locomotiveIds)) {
+      const l = locomotiveOf.get(locomotiveId);
       if (l === undefined) continue;
-      loco.push(l);
+      locomotive.push(l);
       train.push(i);
       start.push(Math.min(0, firstEnter[i]!));
       end.push(Math.max(sessionEnd, lastExit[i]!) - TIME_TOLERANCE_S);
     }
   });
-  const group = Int32Array.from(loco, (l, i) => (end[i]! > start[i]! ? l : -1));
-  const total = countOverlapsInGroups(group, plan.locos.length, start, end).reduce((a, b) => a + b, 0);
-  let room = Math.min(list.room('loco-in-two-trains'), total);
+  const group = Int32Array.from(locomotive, (l, i) => (end[i]! > start[i]! ? l : -1));
+  const total = countOverlapsInGroups(group, plan.locomotives.length, start, end).reduce((a, b) => a + b, 0);
+  let room = Math.min(list.room('locomotive-in-two-trains'), total);
   if (room > 0) {
     const order = orderByKey(start);
-    forEachOverlapInGroups(order, group, plan.locos.length, start, end, (p, q) => {
-      const locoId = plan.locos[loco[p]!]!.id;
+    forEachOverlapInGroups(order, group, plan.locomotives.length, start, end, (p, q) => {
+      const locomotiveId = plan.locomotives[locomotive[p]!]!.id;
       const [trainA, trainB] = orderedPair(plan.trains[train[p]!]!.id, plan.trains[train[q]!]!.id);
       const fromS = Math.max(start[p]!, start[q]!);
       const toS = Math.min(end[p]!, end[q]!) + TIME_TOLERANCE_S;
       list.add({
-        kind: 'loco-in-two-trains',
+        kind: 'locomotive-in-two-trains',
         severity: 'error',
-        ids: [locoId, trainA, trainB],
+        ids: [locomotiveId, trainA, trainB],
         fromS,
         toS,
         message:
-          `${withNoun('locomotive', names.loco(locoId))} is in ${withNoun('train', names.train(trainA))} and ` +
+          `${withNoun('locomotive', names.locomotive(locomotiveId))} is in ${withNoun('train', names.train(trainA))} and ` +
           `${withNoun('train', names.train(trainB))}, which are both on the track ${names.span(fromS, toS)}`,
       });
       return --room > 0;
     });
   }
-  list.countAll('loco-in-two-trains', total, 'error');
+  list.countAll('locomotive-in-two-trains', total, 'error');
 }
 
 /** `step-gap` `[runId, blockA, blockB]` (error): a run's next step begins after its step before ended. */

@@ -6,11 +6,11 @@ export interface DutyInput {
    * `dropAt(driverDrop(driver).max, trainAmps)` (the most it may lose, so the duty is enough).
    */
   dropVolts: number;
-  /** The loco's rated voltage, at which it reaches its top speed, V. */
+  /** The locomotive's rated voltage, at which it reaches its top speed, V. */
   ratedVolts: number;
   /** Calibration: scale top speed at rated voltage, km/h. */
   topSpeedKmh: number;
-  /** Calibration: average voltage below which the loco does not move, V; 0 when not measured. */
+  /** Calibration: average voltage below which the locomotive does not move, V; 0 when not measured. */
   startVolts?: number;
   /** Scale speed wanted, km/h. */
   targetSpeedKmh: number;
@@ -23,11 +23,11 @@ export type DutyResult =
       duty: number;
       /** The duty as an 8-bit PWM value 0..255 (duty = value / 255): round(duty × 255). */
       pwm8: number;
-      /** The least duty at which the loco moves (its start voltage over the track voltage), 0..1. */
+      /** The least duty at which the locomotive moves (its start voltage over the track voltage), 0..1. */
       startDuty: number;
       /** Voltage at the rails at full throttle: supply − drop. */
       trackVolts: number;
-      /** Average voltage the loco needs for the target speed. */
+      /** Average voltage the locomotive needs for the target speed. */
       neededVolts: number;
     }
   | {
@@ -44,7 +44,7 @@ export function pwm8Of(duty: number): number {
 /**
  * The PWM duty cycle a cab needs for a target scale speed, and its 8-bit PWM value.
  *
- * The model: a loco does not move below its start voltage; above it, speed grows in proportion to
+ * The model: a locomotive does not move below its start voltage; above it, speed grows in proportion to
  * the average voltage beyond the start voltage, reaching `topSpeedKmh` at `ratedVolts`. So a target
  * above 0 needs `startVolts + (ratedVolts − startVolts) × target / top` volts on average (with no
  * start voltage measured, simply `ratedVolts × target / top`). PWM gives an average of duty × the
@@ -53,7 +53,7 @@ export function pwm8Of(duty: number): number {
  * duty = needed / (supply − drop). Motors slow under load, so treat the figure as a first setting to
  * trim by eye.
  *
- * Not reachable when the target is above the loco's top speed (that would over-drive it) or when
+ * Not reachable when the target is above the locomotive's top speed (that would over-drive it) or when
  * the rails cannot get the voltage needed; a target equal to the top speed on rails that get exactly
  * the rated voltage is reachable at duty 1 (PWM 255).
  */
@@ -78,7 +78,7 @@ export function dutyFor(input: DutyInput): DutyResult {
     return {
       ok: false,
       code: 'above-top-speed',
-      reason: `${targetSpeedKmh} km/h is above the loco's top speed of ${topSpeedKmh} km/h at ${ratedVolts} V`,
+      reason: `${targetSpeedKmh} km/h is above the locomotive's top speed of ${topSpeedKmh} km/h at ${ratedVolts} V`,
     };
   }
   const neededVolts = targetSpeedKmh === 0 ? 0 : startVolts + ((ratedVolts - startVolts) * targetSpeedKmh) / topSpeedKmh;

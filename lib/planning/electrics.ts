@@ -1,4 +1,4 @@
-import type { Driver, Loco } from './schema';
+import type { Driver, Locomotive } from './schema';
 
 /**
  * A straight-line fit of a bridge's voltage drop against the current through it:
@@ -59,31 +59,31 @@ export function surgeLimit(
 
 /**
  * A locomotive's current while it starts under a PWM ramp. The motor stands still until the ramp's
- * average voltage reaches the loco's start voltage; standing still it is a plain resistance, so it
+ * average voltage reaches the locomotive's start voltage; standing still it is a plain resistance, so it
  * draws its stall current (measured at rated volts) scaled by that voltage:
  * `stallAmps × startVolts / ratedVolts`. Never less than its running current (it goes on to run), and
- * the full stall current when the loco has no start voltage recorded (nothing says how gently it
+ * the full stall current when the locomotive has no start voltage recorded (nothing says how gently it
  * starts).
  */
-export function startAmps(loco: Pick<Loco, 'runningAmps' | 'stallAmps' | 'ratedVolts' | 'startVolts'>): number {
-  if (loco.startVolts === undefined || loco.startVolts === null) return loco.stallAmps;
-  const share = Math.min(1, Math.max(0, loco.startVolts / loco.ratedVolts));
-  return Math.max(loco.runningAmps, loco.stallAmps * share);
+export function startAmps(locomotive: Pick<Locomotive, 'runningAmps' | 'stallAmps' | 'ratedVolts' | 'startVolts'>): number {
+  if (locomotive.startVolts === undefined || locomotive.startVolts === null) return locomotive.stallAmps;
+  const share = Math.min(1, Math.max(0, locomotive.startVolts / locomotive.ratedVolts));
+  return Math.max(locomotive.runningAmps, locomotive.stallAmps * share);
 }
 
 /**
  * The one train-current sum: a train's lighting plus each of its locomotives, running and at start
- * (startAmps). Lighting first, then the locos in order, so every caller adds in the same order.
+ * (startAmps). Lighting first, then the locomotives in order, so every caller adds in the same order.
  */
 export function trainAmps(
   lightingAmps: number,
-  locos: Iterable<Pick<Loco, 'runningAmps' | 'stallAmps' | 'ratedVolts' | 'startVolts'>>,
+  locomotives: Iterable<Pick<Locomotive, 'runningAmps' | 'stallAmps' | 'ratedVolts' | 'startVolts'>>,
 ): { runningAmps: number; startAmps: number } {
   let running = lightingAmps;
   let start = lightingAmps;
-  for (const loco of locos) {
-    running += loco.runningAmps;
-    start += startAmps(loco);
+  for (const locomotive of locomotives) {
+    running += locomotive.runningAmps;
+    start += startAmps(locomotive);
   }
   return { runningAmps: running, startAmps: start };
 }

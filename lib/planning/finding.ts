@@ -5,7 +5,7 @@ export type FindingKind =
   | 'cab-double-booked'
   | 'operator-double-booked'
   | 'train-double-booked'
-  | 'loco-in-two-trains'
+  | 'locomotive-in-two-trains'
   | 'train-continuity'
   | 'route-gap'
   | 'step-gap'
@@ -32,7 +32,7 @@ export const FINDING_KINDS: readonly FindingKind[] = [
   'cab-double-booked',
   'operator-double-booked',
   'train-double-booked',
-  'loco-in-two-trains',
+  'locomotive-in-two-trains',
   'train-continuity',
   'route-gap',
   'step-gap',

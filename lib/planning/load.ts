@@ -66,15 +66,15 @@ export interface LoadProfile {
 
 /**
  * A run's current: running throughout its movement, its start current (startAmps, summed over the
- * train's locos, plus lighting) for the first surgeS seconds.
+ * train's locomotives, plus lighting) for the first surgeS seconds.
  */
 export function runCurrents(plan: Plan): { runningAmps: Float64Array; stallAmps: Float64Array } {
-  const locoOf = new Map<string, Plan['locos'][number]>();
-  for (const loco of plan.locos) if (!locoOf.has(loco.id)) locoOf.set(loco.id, loco);
+  const locomotiveOf = new Map<string, Plan['locomotives'][number]>();
+  for (const locomotive of plan.locomotives) if (!locomotiveOf.has(locomotive.id)) locomotiveOf.set(locomotive.id, locomotive);
   const totals = new Map<string, [number, number]>();
   for (const train of plan.trains) {
-    const locos = train.locoIds.map((id) => locoOf.get(id)).filter((loco) => loco !== undefined);
-    const amps = trainAmps(train.lightingAmps, locos);
+    const locomotives = train.locomotiveIds.map((id) => locomotiveOf.get(id)).filter((locomotive) => locomotive !== undefined);
+    const amps = trainAmps(train.lightingAmps, locomotives);
     if (!totals.has(train.id)) totals.set(train.id, [amps.runningAmps, amps.startAmps]);
   }
   const runningAmps = new Float64Array(plan.runs.length);

@@ -11,7 +11,7 @@ export interface PlanNames {
   train(trainId: string): string;
   driver(driverId: string): string;
   supply(supplyId: string): string;
-  loco(locoId: string): string;
+  locomotive(locomotiveId: string): string;
   /** A real session time on the fast clock's face, `HH:MM`. */
   fast(realS: number): string;
   /** `from HH:MM to HH:MM fast` (one time when both fall in the same fast minute). */
@@ -35,7 +35,7 @@ export function planNames(plan: Plan): PlanNames {
   const trains = namesOf(plan.trains);
   const drivers = namesOf(plan.drivers);
   const supplies = namesOf(plan.supplies);
-  const locos = namesOf(plan.locos);
+  const locomotives = namesOf(plan.locomotives);
   const runs = new Map<string, { trainId: string; departS: number }>();
   for (const run of plan.runs) if (!runs.has(run.id)) runs.set(run.id, run);
   const lookup = (map: Map<string, string>) => (id: string) => {
@@ -55,7 +55,7 @@ export function planNames(plan: Plan): PlanNames {
     train,
     driver: lookup(drivers),
     supply: lookup(supplies),
-    loco: lookup(locos),
+    locomotive: lookup(locomotives),
     fast,
     span: (fromS, toS) => {
       const from = fast(fromS);

@@ -116,22 +116,25 @@ export const blockSchema = z.object({
  */
 export const linkSchema = z.object({ a: id, b: id, aEnd: blockEndSchema.optional(), bEnd: blockEndSchema.optional() });
 
-export const locoSchema = z.object({
+export const locomotiveSchema = z.object({
   id,
   name,
   runningAmps: zeroTo(100),
   stallAmps: zeroTo(100),
   ratedVolts: upTo(100),
-  /** Calibration: the average voltage below which the loco does not move, V (below ratedVolts). */
+  /** Calibration: the average voltage below which the locomotive does not move, V (below ratedVolts). */
   startVolts: zeroTo(100).nullable().optional(),
   /** Calibration: scale top speed at ratedVolts, km/h. */
   topSpeedKmh: upTo(1000).nullable().optional(),
 });
 
+/** A consist: one to sixteen locomotives; `noun` is the word the interchange version uses. */
+const consistOf = (noun: string) => z.array(id).min(1, `a train needs at least one ${noun}`).max(16, `a train has at most 16 ${noun}s`);
+
 export const trainSchema = z.object({
   id,
   name,
-  locoIds: z.array(id).min(1, 'a train needs at least one loco').max(16, 'a train has at most 16 locos'),
+  locomotiveIds: consistOf('locomotive'),
   lightingAmps: zeroTo(100),
   lengthMm: upTo(100_000),
   /** Scale km/h gained per second from a stand (motion.ts defaultRamps gives common practice). */
@@ -187,54 +190,32 @@ const planFields = {
 };
 
 /** Version 1 of the interchange (still read): `locos`, trains' `locoIds`, ramps optional. */
-const planShapeV1 = z.object({ version: z.literal(1), ...planFields, locos: listOf(locoSchema), trains: listOf(trainSchema) });
+const trainSchemaV1 = trainSchema.omit({ locomotiveIds: true }).extend({ locoIds: consistOf('loco') });
+const planShapeV1 = z.object({ version: z.literal(1), ...planFields, locos: listOf(locomotiveSchema), trains: listOf(trainSchemaV1) });
 
 /** Version 2: one name per concept (`locomotives`, `locomotiveIds`), and every train's ramps. */
-export const trainSchemaV2 = trainSchema.omit({ locoIds: true, accelKmhPerS: true, brakingKmhPerS: true }).extend({
-  locomotiveIds: trainSchema.shape.locoIds,
-  accelKmhPerS: upTo(1000),
-  brakingKmhPerS: upTo(1000),
-});
-const planShapeV2 = z.object({ version: z.literal(2), ...planFields, locomotives: listOf(locoSchema), trains: listOf(trainSchemaV2) });
+export const trainSchemaV2 = trainSchema.extend({ accelKmhPerS: upTo(1000), brakingKmhPerS: upTo(1000) });
+const planShapeV2 = z.object({ version: z.literal(2), ...planFields, locomotives: listOf(locomotiveSchema), trains: listOf(trainSchemaV2) });
 
 /**
- * The engine's model of a plan: version 1's field names (`locos`, `locoIds`), and `version` saying
- * which interchange version it was read from. Plans built in code may leave a train's ramps out
- * (it reaches its speed at once); plans read by planSchema always carry them.
+ * The engine's model of a plan: version 2's field names (`locomotives`, `locomotiveIds`), and
+ * `version` saying which interchange version it was read from. Plans built in code may leave a
+ * train's ramps out (it reaches its speed at once); plans read by planSchema always carry them.
  */
-type PlanShape = Omit<z.infer<typeof planShapeV1>, 'version'> & { version: 1 | 2 };
+type PlanShape = Omit<z.infer<typeof planShapeV2>, 'version' | 'trains'> & { version: 1 | 2; trains: z.infer<typeof trainSchema>[] };
 type IssuePath = (string | number)[];
 /** The interchange as written, version 2. */
 export type PlanJson = z.infer<typeof planShapeV2>;
 
 /**
- * Version 1 read as the model: every train without ramps gets the common-practice figures for
- * the plan's scale (defaultRamps): version 1 plans were timed at constant speed, but the trains
- * they describe do not stop at once.
+ * Version 1 read as the model: its names become version 2's, and every train without ramps gets
+ * the common-practice figures for the plan's scale (defaultRamps): version 1 plans were timed at
+ * constant speed, but the trains they describe do not stop at once.
  */
 function upgradeV1(plan: z.infer<typeof planShapeV1>): PlanShape {
+  const { locos, trains, ...rest } = plan;
   const ramps = defaultRamps(plan.scale.ratio);
   return {
-    ...plan,
-    trains: plan.trains.map((train) => ({
-      ...train,
-      accelKmhPerS: train.accelKmhPerS ?? ramps.accelKmhPerS,
-      brakingKmhPerS: train.brakingKmhPerS ?? ramps.brakingKmhPerS,
-    })),
-  };
-}
-
-function fromV2(plan: PlanJson): PlanShape {
-  const { locomotives, trains, ...rest } = plan;
-  return { ...rest, locos: locomotives, trains: trains.map(({ locomotiveIds, ...train }) => ({ ...train, locoIds: locomotiveIds })) };
-}
-
-/** The model as interchange version 2 (what every export writes); trains without ramps get defaultRamps. */
-export function toPlanJson(plan: PlanShape): PlanJson {
-  const { locos, trains, version: _version, ...rest } = plan;
-  const ramps = defaultRamps(plan.scale.ratio);
-  return {
-    version: 2,
     ...rest,
     locomotives: locos,
     trains: trains.map(({ locoIds, ...train }) => ({
@@ -246,29 +227,44 @@ export function toPlanJson(plan: PlanShape): PlanJson {
   };
 }
 
-/** A version-2 plan's issues name its own fields: `locomotives[0]`, `trains[1].locomotiveIds[0]`. */
-function v2Path(path: IssuePath): IssuePath {
-  return path.map((key) => (key === 'locos' ? 'locomotives' : key === 'locoIds' ? 'locomotiveIds' : key));
+/** The model as interchange version 2 (what every export writes); trains without ramps get defaultRamps. */
+export function toPlanJson(plan: PlanShape): PlanJson {
+  const { version: _version, ...rest } = plan;
+  const ramps = defaultRamps(plan.scale.ratio);
+  return {
+    version: 2,
+    ...rest,
+    trains: plan.trains.map((train) => ({
+      ...train,
+      accelKmhPerS: train.accelKmhPerS ?? ramps.accelKmhPerS,
+      brakingKmhPerS: train.brakingKmhPerS ?? ramps.brakingKmhPerS,
+    })),
+  };
 }
+
+/** The words a reference issue uses: each interchange version names the locomotive its own way. */
+type PlanWords = { locomotive: string; locomotives: string; locomotiveIds: string };
+const V1_WORDS: PlanWords = { locomotive: 'loco', locomotives: 'locos', locomotiveIds: 'locoIds' };
+const V2_WORDS: PlanWords = { locomotive: 'locomotive', locomotives: 'locomotives', locomotiveIds: 'locomotiveIds' };
 
 /**
  * The plan interchange: version 2, or version 1 (upgraded, see upgradeV1), told apart by
  * `version`. The object shape checks each field on its own; the refinement checks what needs the
  * whole plan: unique ids, references that resolve, channel numbers, and the time order inside
- * each run. The result is the engine's model (PlanShape): version 1's field names, either version.
+ * each run. The result is the engine's model (PlanShape): version 2's field names, either version;
+ * issues name the fields and words of the version read.
  */
 export const planSchema = z
   .discriminatedUnion('version', [planShapeV1, planShapeV2], { error: 'version must be 1 or 2' })
-  .transform((plan): PlanShape => (plan.version === 2 ? fromV2(plan) : upgradeV1(plan)))
+  .transform((plan): PlanShape => (plan.version === 2 ? plan : upgradeV1(plan)))
   .superRefine((plan, ctx) => {
-    const report = (path: IssuePath, message: string) =>
-      ctx.addIssue({ code: 'custom', path: plan.version === 2 ? v2Path(path) : path, message: plan.version === 2 ? message.replace(/\bloco\b/g, 'locomotive') : message });
+    const report = (path: IssuePath, message: string) => ctx.addIssue({ code: 'custom', path, message });
     const steps = plan.runs.reduce((sum, run) => sum + run.steps.length, 0);
     if (steps > PLAN_LIMITS.steps) {
       report(['runs'], `the runs have ${steps} steps in all; a plan holds at most ${PLAN_LIMITS.steps}`);
       return;
     }
-    checkPlanReferences(plan, report);
+    checkPlanReferences(plan, plan.version === 2 ? V2_WORDS : V1_WORDS, report);
   });
 
 export type Plan = PlanShape;
@@ -281,7 +277,7 @@ export type Cab = Plan['cabs'][number];
 export type Block = Plan['blocks'][number];
 export type Link = Plan['links'][number];
 export type BlockEnd = z.infer<typeof blockEndSchema>;
-export type Loco = Plan['locos'][number];
+export type Locomotive = Plan['locomotives'][number];
 export type Train = Plan['trains'][number];
 export type Operator = Plan['operators'][number];
 export type Run = Plan['runs'][number];
@@ -302,12 +298,12 @@ function indexIds(
   return index;
 }
 
-function checkPlanReferences(plan: PlanShape, report: (path: IssuePath, message: string) => void): void {
+function checkPlanReferences(plan: PlanShape, words: PlanWords, report: (path: IssuePath, message: string) => void): void {
   const supplies = indexIds(plan.supplies, 'supplies', 'supply', report);
   const drivers = indexIds(plan.drivers, 'drivers', 'driver', report);
   const cabs = indexIds(plan.cabs, 'cabs', 'cab', report);
   const blocks = indexIds(plan.blocks, 'blocks', 'block', report);
-  const locos = indexIds(plan.locos, 'locos', 'loco', report);
+  const locomotives = indexIds(plan.locomotives, words.locomotives, words.locomotive, report);
   const trains = indexIds(plan.trains, 'trains', 'train', report);
   const operators = indexIds(plan.operators, 'operators', 'operator', report);
   indexIds(plan.runs, 'runs', 'run', report);
@@ -321,9 +317,9 @@ function checkPlanReferences(plan: PlanShape, report: (path: IssuePath, message:
     }
   });
 
-  plan.locos.forEach((loco, i) => {
-    if (loco.startVolts !== undefined && loco.startVolts !== null && !(loco.startVolts < loco.ratedVolts)) {
-      report(['locos', i, 'startVolts'], `start voltage ${loco.startVolts} V must be below the rated ${loco.ratedVolts} V`);
+  plan.locomotives.forEach((locomotive, i) => {
+    if (locomotive.startVolts !== undefined && locomotive.startVolts !== null && !(locomotive.startVolts < locomotive.ratedVolts)) {
+      report([words.locomotives, i, 'startVolts'], `start voltage ${locomotive.startVolts} V must be below the rated ${locomotive.ratedVolts} V`);
     }
   });
 
@@ -356,11 +352,12 @@ function checkPlanReferences(plan: PlanShape, report: (path: IssuePath, message:
 
   plan.trains.forEach((train, i) => {
     const seen = new Set<string>();
-    train.locoIds.forEach((locoId, j) => {
-      if (!locos.has(locoId)) report(['trains', i, 'locoIds', j], `unknown loco "${locoId}"`);
-      // One loco cannot be coupled into the same consist twice; counting it twice would double its current.
-      else if (seen.has(locoId)) report(['trains', i, 'locoIds', j], `loco "${locoId}" is already in this train`);
-      seen.add(locoId);
+    train.locomotiveIds.forEach((locomotiveId, j) => {
+      const path = ['trains', i, words.locomotiveIds, j];
+      if (!locomotives.has(locomotiveId)) report(path, `unknown ${words.locomotive} "${locomotiveId}"`);
+      // One locomotive cannot be coupled into the same consist twice; counting it twice would double its current.
+      else if (seen.has(locomotiveId)) report(path, `${words.locomotive} "${locomotiveId}" is already in this train`);
+      seen.add(locomotiveId);
     });
   });
 

@@ -60,9 +60,9 @@ export function plannedSpeedKmh(plan: Plan, run: Plan['runs'][number], blockLeng
  * The voltage findings, all warnings and all judged at full throttle, where the rails get the
  * supply less the bridge's drop at the train's running current (see driverDrop):
  *
- * - `track-voltage-high`, ids `[cabId, locoId]`: a loco runs on a cab whose full-throttle track
- *   voltage, with the bridge's *least* drop at the train's running current, is above the loco's
- *   ratedVolts, so full throttle over-drives it. One finding per cab and loco over all its runs, from
+ * - `track-voltage-high`, ids `[cabId, locomotiveId]`: a locomotive runs on a cab whose full-throttle track
+ *   voltage, with the bridge's *least* drop at the train's running current, is above the locomotive's
+ *   ratedVolts, so full throttle over-drives it. One finding per cab and locomotive over all its runs, from
  *   the first departure to the last arrival. PWM is judged by its average voltage (NEM 630 Table 2),
  *   so the message gives the largest safe duty.
  * - `track-voltage-low`, ids `[cabId]`: a cab with runs whose full-throttle track voltage, with the
@@ -70,25 +70,25 @@ export function plannedSpeedKmh(plan: Plan, run: Plan['runs'][number], blockLeng
  *   S-9 I.A), is below the NEM 630 Table 1 nominal for the plan's gauge (12 V for 6.5–32 mm gauge,
  *   which NMRA S-9 I.A also sets as the least full-throttle voltage at the rails). Skipped when the
  *   plan's scale is not in the scale table, since there is no standard gauge to judge by.
- * - `speed-not-reachable`, ids `[runId, locoId]`: a run's planned speed (plannedSpeedKmh) needs more
- *   than the loco can give (above its top speed) or more duty than its cab can give (dutyFor with the
- *   greatest drop at the train's running current). Only for locos with a top speed recorded.
+ * - `speed-not-reachable`, ids `[runId, locomotiveId]`: a run's planned speed (plannedSpeedKmh) needs more
+ *   than the locomotive can give (above its top speed) or more duty than its cab can give (dutyFor with the
+ *   greatest drop at the train's running current). Only for locomotives with a top speed recorded.
  */
 export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: FindingSink, names: PlanNames = planNames(plan)): void {
   const gauge = gaugeForScale(plan.scale);
   const nominal = gauge === null ? null : nominalTrackVolts(gauge);
-  const locoOf = new Map<string, number>();
-  plan.locos.forEach((loco, i) => {
-    if (!locoOf.has(loco.id)) locoOf.set(loco.id, i);
+  const locomotiveOf = new Map<string, number>();
+  plan.locomotives.forEach((locomotive, i) => {
+    if (!locomotiveOf.has(locomotive.id)) locomotiveOf.set(locomotive.id, i);
   });
   const drops = plan.drivers.map((driver) => driverDrop(driver));
   const blockLength = new Map<string, number>();
   for (const block of plan.blocks) if (!blockLength.has(block.id)) blockLength.set(block.id, block.lengthMm);
   const { runningAmps } = runCurrents(plan);
 
-  // Per cab: span of its runs and its heaviest train; per cab and loco: span, run count, highest volts.
+  // Per cab: span of its runs and its heaviest train; per cab and locomotive: span, run count, highest volts.
   const cabLoad = new Map<number, { fromS: number; toS: number; amps: number }>();
-  const overDriven = new Map<number, { cab: number; loco: number; fromS: number; toS: number; runs: number; track: number; amps: number }>();
+  const overDriven = new Map<number, { cab: number; locomotive: number; fromS: number; toS: number; runs: number; track: number; amps: number }>();
   plan.runs.forEach((run, r) => {
     const cab = index.runCab[r]!;
     const driver = plan.drivers[index.runDriver[r]!];
@@ -107,18 +107,18 @@ export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Findin
     const drop = drops[index.runDriver[r]!]!;
     const highest = trackVoltsOf(supply.volts, dropAt(drop.min, amps));
     let speed: number | null | undefined;
-    for (const locoId of train.locoIds) {
-      const l = locoOf.get(locoId);
+    for (const locomotiveId of train.locomotiveIds) {
+      const l = locomotiveOf.get(locomotiveId);
       if (l === undefined) continue;
-      const loco = plan.locos[l]!;
-      if (loco.topSpeedKmh !== undefined && loco.topSpeedKmh !== null) {
+      const locomotive = plan.locomotives[l]!;
+      if (locomotive.topSpeedKmh !== undefined && locomotive.topSpeedKmh !== null) {
         speed ??= plannedSpeedKmh(plan, run, blockLength, train);
-        if (speed !== null) reachFinding(run, loco, loco.topSpeedKmh, speed, supply.volts, dropAt(drop.max, amps), names, findings);
+        if (speed !== null) reachFinding(run, locomotive, locomotive.topSpeedKmh, speed, supply.volts, dropAt(drop.max, amps), names, findings);
       }
-      if (!(highest > loco.ratedVolts + VOLTS_TOLERANCE)) continue;
-      const key = cab * plan.locos.length + l;
+      if (!(highest > locomotive.ratedVolts + VOLTS_TOLERANCE)) continue;
+      const key = cab * plan.locomotives.length + l;
       const entry = overDriven.get(key);
-      if (entry === undefined) overDriven.set(key, { cab, loco: l, fromS: run.departS, toS: run.arriveS, runs: 1, track: highest, amps });
+      if (entry === undefined) overDriven.set(key, { cab, locomotive: l, fromS: run.departS, toS: run.arriveS, runs: 1, track: highest, amps });
       else {
         entry.fromS = Math.min(entry.fromS, run.departS);
         entry.toS = Math.max(entry.toS, run.arriveS);
@@ -133,17 +133,17 @@ export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Findin
 
   for (const entry of overDriven.values()) {
     const cab = plan.cabs[entry.cab]!;
-    const loco = plan.locos[entry.loco]!;
-    const safeDuty = Math.floor((loco.ratedVolts / entry.track) * 100);
+    const locomotive = plan.locomotives[entry.locomotive]!;
+    const safeDuty = Math.floor((locomotive.ratedVolts / entry.track) * 100);
     findings.push({
       kind: 'track-voltage-high',
       severity: 'warning',
-      ids: [cab.id, loco.id],
+      ids: [cab.id, locomotive.id],
       fromS: entry.fromS,
       toS: entry.toS,
       message: !willList(findings, 'track-voltage-high')
         ? ''
-        : `${withNoun('cab', names.cab(cab.id))} puts up to ${volts(entry.track)} on the rails at full throttle (the bridge's least drop at ${ampsText(entry.amps)}), above the ${volts(loco.ratedVolts)} rating of ${names.loco(loco.id)} ` +
+        : `${withNoun('cab', names.cab(cab.id))} puts up to ${volts(entry.track)} on the rails at full throttle (the bridge's least drop at ${ampsText(entry.amps)}), above the ${volts(locomotive.ratedVolts)} rating of ${names.locomotive(locomotive.id)} ` +
         `(${entry.runs} run${entry.runs === 1 ? '' : 's'}); keep its duty at or below ${safeDuty} % (NEM 630 Table 2 judges PWM by its average voltage)`,
     });
   }
@@ -172,7 +172,7 @@ export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Findin
 
 function reachFinding(
   run: Plan['runs'][number],
-  loco: Plan['locos'][number],
+  locomotive: Plan['locomotives'][number],
   topSpeedKmh: number,
   speedKmh: number,
   supplyVolts: number,
@@ -183,9 +183,9 @@ function reachFinding(
   const result = dutyFor({
     supplyVolts,
     dropVolts,
-    ratedVolts: loco.ratedVolts,
+    ratedVolts: locomotive.ratedVolts,
     topSpeedKmh,
-    startVolts: loco.startVolts ?? 0,
+    startVolts: locomotive.startVolts ?? 0,
     // A speed that rounds to the top speed is the top speed (times are stored to the millisecond).
     targetSpeedKmh: Math.abs(speedKmh - topSpeedKmh) < 1e-6 * topSpeedKmh ? topSpeedKmh : speedKmh,
   });
@@ -193,11 +193,11 @@ function reachFinding(
   findings.push({
     kind: 'speed-not-reachable',
     severity: 'warning',
-    ids: [run.id, loco.id],
+    ids: [run.id, locomotive.id],
     fromS: run.departS,
     toS: run.arriveS,
     message: !willList(findings, 'speed-not-reachable')
       ? ''
-      : `${names.run(run.id)} is planned at ${Math.round(speedKmh * 10) / 10} km/h, more than ${names.loco(loco.id)} can give on its cab: ${result.reason}`,
+      : `${names.run(run.id)} is planned at ${Math.round(speedKmh * 10) / 10} km/h, more than ${names.locomotive(locomotive.id)} can give on its cab: ${result.reason}`,
   });
 }

@@ -1,7 +1,7 @@
 import 'server-only';
 import type { Session } from '@/db/schema';
 import { AppError, type Issue } from '@/lib/errors';
-import { formatIssuePath, planSchema, routeThrough, timeRun, type Plan, type TimedRun } from '@/lib/planning';
+import { formatIssuePath, planSchema, routeThrough, timeRun, toPlanJson, type Plan, type TimedRun } from '@/lib/planning';
 import { planBlockOf, planLinkOf } from '@/lib/layouts/track-rows';
 import { sessionLengthS, type SessionRows } from '@/lib/sessions/builder';
 import { trainRamps } from '@/lib/sessions/to-plan';
@@ -76,7 +76,8 @@ export function assertRunsValid(plan: Plan, runIds: ReadonlySet<string>, session
   const named = plan.runs.filter((r) => runIds.has(r.id));
   const outside = named.flatMap((r) => outsideWindow(r, lengthS));
   if (outside.length) throw new AppError('bad_request', `${outside[0]!.path}: ${outside[0]!.message}`, { issues: outside });
-  const result = planSchema.safeParse(plan);
+  // The schema reads the interchange, so the model is written as it first (the run paths are the same).
+  const result = planSchema.safeParse(toPlanJson(plan));
   if (result.success) return;
   const issues: Issue[] = [];
   for (const issue of result.error.issues) {

@@ -37,7 +37,7 @@ export function layoutWiringSheet(layoutId: string): { sheet: WiringSheet; versi
 
 /**
  * The control schedule of a session the caller may edit (the caller checks access first): the plan,
- * the layout's wiring and each run's speed and each loco's top speed go into compileSchedule.
+ * the layout's wiring and each run's speed and each locomotive's top speed go into compileSchedule.
  */
 export function sessionControl(session: Session): SessionControl {
   const { plan, wiring, schedule } = scheduleOf(session);
@@ -64,7 +64,7 @@ function scheduleOf(session: Session): { plan: Plan; wiring: WiringSheet; schedu
     plan,
     wiring,
     runSpeedKmh: Object.fromEntries(rows.runs.map((r) => [r.id, r.speedKmh])),
-    locoTopSpeedKmh: Object.fromEntries(rows.locomotives.map((l) => [l.id, l.topSpeedKmh])),
+    locomotiveTopSpeedKmh: Object.fromEntries(rows.locomotives.map((l) => [l.id, l.topSpeedKmh])),
   });
   return { plan, wiring, schedule };
 }

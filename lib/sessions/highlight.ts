@@ -37,7 +37,7 @@ export function highlightOf(finding: Finding, runs: readonly RunLike[], layout: 
     case 'train-continuity':
       [b, c].forEach((id) => id && h.runIds.add(id));
       break;
-    case 'loco-in-two-trains':
+    case 'locomotive-in-two-trains':
       for (const run of runs) if (run.trainId === b || run.trainId === c) h.runIds.add(run.id);
       break;
     case 'route-gap':
@@ -105,7 +105,7 @@ export const FINDING_LABELS: Record<Finding['kind'], string> = {
   'cab-double-booked': 'Cab booked twice',
   'operator-double-booked': 'Operator booked twice',
   'train-double-booked': 'Train booked twice',
-  'loco-in-two-trains': 'Locomotive in two trains',
+  'locomotive-in-two-trains': 'Locomotive in two trains',
   'train-continuity': 'Train not where it ended',
   'route-gap': 'Route gap',
   'step-gap': 'Gap between steps',

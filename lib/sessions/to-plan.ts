@@ -6,12 +6,12 @@ import type { loadLayoutRows, loadSessionRows } from '@/db/queries/plan-data';
 type LayoutRows = ReturnType<typeof loadLayoutRows>;
 type SessionRows = NonNullable<ReturnType<typeof loadSessionRows>>;
 
-/** A layout's rows as the engine's plan interchange, version 1, with no runs. */
+/** A layout's rows as the engine's model of a plan (toPlanJson writes it as the interchange), with no runs. */
 export function layoutToPlan(rows: LayoutRows, extra: Pick<Plan, 'clock' | 'rules'> & { operators?: Plan['operators'] }): Plan {
   const layout = rows.layout;
   if (!layout) throw new Error('layoutToPlan: layout rows without a layout');
-  const locosOf = new Map<string, string[]>();
-  for (const c of rows.consists) locosOf.set(c.trainId, [...(locosOf.get(c.trainId) ?? []), c.locomotiveId]);
+  const locomotivesOf = new Map<string, string[]>();
+  for (const c of rows.consists) locomotivesOf.set(c.trainId, [...(locomotivesOf.get(c.trainId) ?? []), c.locomotiveId]);
   return {
     version: 1,
     scale: { name: layout.scaleName, ratio: layout.scaleRatio },
@@ -31,7 +31,7 @@ export function layoutToPlan(rows: LayoutRows, extra: Pick<Plan, 'clock' | 'rule
     cabs: rows.cabs.map((c) => ({ id: c.id, name: c.name, driverId: c.driverId, channel: c.channel })),
     blocks: rows.blocks.map(planBlockOf),
     links: rows.links.map(planLinkOf),
-    locos: rows.locomotives.map((l) => ({
+    locomotives: rows.locomotives.map((l) => ({
       id: l.id,
       name: l.name,
       runningAmps: l.runningAmps,
@@ -45,7 +45,7 @@ export function layoutToPlan(rows: LayoutRows, extra: Pick<Plan, 'clock' | 'rule
     trains: rows.trains.map((tr) => ({
       id: tr.id,
       name: tr.name,
-      locoIds: locosOf.get(tr.id) ?? [],
+      locomotiveIds: locomotivesOf.get(tr.id) ?? [],
       lightingAmps: tr.lightingAmps,
       lengthMm: tr.lengthMm,
       ...trainRamps(tr, layout.scaleRatio),
@@ -55,7 +55,7 @@ export function layoutToPlan(rows: LayoutRows, extra: Pick<Plan, 'clock' | 'rule
   };
 }
 
-/** A stored session as the engine's plan interchange, version 1. */
+/** A stored session as the engine's model of a plan. */
 export function sessionToPlan(rows: SessionRows): Plan {
   const stepsOf = new Map<string, Plan['runs'][number]['steps']>();
   for (const s of rows.steps) {

@@ -75,14 +75,14 @@ test('a new layout: the scale reads whole, locomotives start from stated figures
   await expect(supplyBudget).not.toContainText('no cab on this supply');
 
   await layout.openTab('Rolling stock');
-  const locoRow = page.getByTestId('locomotive-new-row');
+  const locomotiveRow = page.getByTestId('locomotive-new-row');
   // Real starting figures, said as such (common practice for a modern HO can motor; NEM 630 Table 1: 12 V for 16.5 mm gauge).
   await expect(page.getByTestId('locomotive-defaults')).toContainText('0.5 A running and 0.9 A stalled');
   await expect(page.getByTestId('locomotive-defaults')).toContainText('rated 12 V (NEM 630 for 16.5 mm gauge)');
-  await expect(locoRow.getByLabel('Running of new locomotive', { exact: true })).toHaveValue('0.5');
-  await expect(locoRow.getByLabel('Stall of new locomotive', { exact: true })).toHaveValue('0.9');
-  await expect(locoRow.getByLabel('Rated of new locomotive', { exact: true })).toHaveValue('12');
-  for (const field of ['Running', 'Stall', 'Rated']) await expect(locoRow.getByLabel(`${field} of new locomotive`, { exact: true })).not.toHaveAttribute('placeholder');
+  await expect(locomotiveRow.getByLabel('Running of new locomotive', { exact: true })).toHaveValue('0.5');
+  await expect(locomotiveRow.getByLabel('Stall of new locomotive', { exact: true })).toHaveValue('0.9');
+  await expect(locomotiveRow.getByLabel('Rated of new locomotive', { exact: true })).toHaveValue('12');
+  for (const field of ['Running', 'Stall', 'Rated']) await expect(locomotiveRow.getByLabel(`${field} of new locomotive`, { exact: true })).not.toHaveAttribute('placeholder');
   await layout.addRow('locomotive', { Name: 'Mill shunter', 'Top speed at rated': '40' });
   await expect(page.getByLabel('Rated of locomotive Mill shunter', { exact: true })).toHaveValue('12');
   await screenshotBoth(page, 'stock-new-layout');

@@ -65,7 +65,7 @@ test('a planner builds a small layout, fixes a CSV import by its row number and 
   await page.getByTestId('cab-new-row').getByRole('button', { name: 'Add cab' }).click();
   await expect(page.getByTestId('cab-row')).toHaveCount(2);
 
-  // Rolling stock: a loco by hand, a train, then more locos from CSV.
+  // Rolling stock: a locomotive by hand, a train, then more locomotives from CSV.
   await layout.openTab('Rolling stock');
   // Calibration: top speed at the rated voltage, and the voltage at which it starts to move (common practice 1.5–3 V).
   await layout.addRow('locomotive', { Name: 'Harbour tank', Running: '0.35', Stall: '0.9', Rated: '12', 'Top speed at rated': '60', 'Starts moving at': '2' });

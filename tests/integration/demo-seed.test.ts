@@ -6,7 +6,7 @@ import { listRailwaySessions } from '@/db/queries/sessions';
 import * as t from '@/db/schema';
 import { DEMO_USERS, demoSessionStart, hasDemoData, seedDemoRailway } from '@/lib/demo/demo-railway';
 import { deliveryOf } from '@/lib/invitations/tracker';
-import { checkPlan, formatFast, planSchema, type Finding } from '@/lib/planning';
+import { checkPlan, formatFast, planSchema, toPlanJson, type Finding } from '@/lib/planning';
 import { layoutToPlan, sessionToPlan } from '@/lib/sessions/to-plan';
 
 describe('demo railway seed', () => {
@@ -59,7 +59,7 @@ describe('demo railway seed', () => {
 
   it('is a valid plan whose deliberate clashes the checker finds: a shared block, a double-booked cab, an overloaded channel, a polarity short', () => {
     const session = seeded();
-    const parsed = planSchema.safeParse(sessionToPlan(loadSessionRows(session.id)!));
+    const parsed = planSchema.safeParse(toPlanJson(sessionToPlan(loadSessionRows(session.id)!)));
     expect(parsed.success).toBe(true);
     if (!parsed.success) return;
     const findings = checkPlan(parsed.data).findings;
@@ -85,11 +85,11 @@ describe('demo railway seed', () => {
 
   it('finds exactly the deliberate set: each finding by severity, kind and what it names (runs by train and departure)', () => {
     const session = seeded();
-    const plan = planSchema.parse(sessionToPlan(loadSessionRows(session.id)!));
+    const plan = planSchema.parse(toPlanJson(sessionToPlan(loadSessionRows(session.id)!)));
     const runLabel = new Map(plan.runs.map((r) => [r.id, `${plan.trains.find((tr) => tr.id === r.trainId)!.name} ${formatFast(r.departS, plan.clock)}`]));
     const names = new Map<string, string>([
       ...runLabel,
-      ...[...plan.blocks, ...plan.cabs, ...plan.drivers, ...plan.locos, ...plan.trains].map((x): [string, string] => [x.id, x.name]),
+      ...[...plan.blocks, ...plan.cabs, ...plan.drivers, ...plan.locomotives, ...plan.trains].map((x): [string, string] => [x.id, x.name]),
     ]);
     // What a finding names, in its order, then the runs it names (by train and departure, sorted: a
     // finding lists its runs by id). One that names no run (the electrics, the layout) is placed by its fast time.

@@ -12,7 +12,7 @@ import { HOSTILE_TARGETS } from './hostile';
 import { makeSessionWorld } from './authz/sessions';
 import { makeWorld } from './world';
 import { identicalRunsPlan } from '@/lib/cli/identical-runs-plan';
-import { FINDING_LIMITS, type Plan } from '@/lib/planning';
+import { FINDING_LIMITS, toPlanJson, type Plan } from '@/lib/planning';
 
 const ROOT = path.resolve(__dirname, '../..');
 
@@ -180,7 +180,7 @@ describe('hostile plans (issue 10)', () => {
     signInAs(world.planner);
     resetRateLimits();
     const { POST } = await import('@/app/api/plans/check/route');
-    const plan = identicalRunsPlan(1000);
+    const plan = toPlanJson(identicalRunsPlan(1000));
     const body = JSON.stringify(plan);
     // The report's plan was 148 KiB; this one is of the same kind and size.
     expect(body.length).toBeGreaterThan(100_000);
@@ -193,7 +193,7 @@ describe('hostile plans (issue 10)', () => {
     expect(answer.counts['block-overlap']).toBe(3 * pairs);
     expect(answer.counts['cab-double-booked']).toBe(pairs);
     expect(answer.counts['operator-double-booked']).toBe(pairs);
-    expect(answer.counts['loco-in-two-trains']).toBe(pairs);
+    expect(answer.counts['locomotive-in-two-trains']).toBe(pairs);
     expect(answer.errors).toBeGreaterThanOrEqual(6 * pairs);
   }, 120_000);
 

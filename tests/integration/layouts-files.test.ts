@@ -41,7 +41,7 @@ async function exportCsv(layoutId: string, table: string) {
 function snapshot(layoutId: string) {
   const rows = loadLayoutRows(layoutId);
   const block = new Map(rows.blocks.map((b) => [b.id, b.name]));
-  const loco = new Map(rows.locomotives.map((l) => [l.id, l.name]));
+  const locomotive = new Map(rows.locomotives.map((l) => [l.id, l.name]));
   return {
     blocks: rows.blocks.map(({ name, lengthMm, positionMm }) => ({ name, lengthMm, positionMm })).sort((a, b) => a.name.localeCompare(b.name)),
     links: rows.links.map((l) => [`${block.get(l.blockAId)}:${l.blockAEnd}`, `${block.get(l.blockBId)}:${l.blockBEnd}`].sort().join('|')).sort(),
@@ -49,7 +49,7 @@ function snapshot(layoutId: string) {
     drivers: rows.drivers.map(({ name, presetId, partNumber, channels, channelAmps, channelPeakAmps, totalAmps, dropVolts }) => ({ name, presetId, partNumber, channels, channelAmps, channelPeakAmps, totalAmps, dropVolts })),
     cabs: rows.cabs.map(({ name, channel }) => ({ name, channel })),
     locomotives: rows.locomotives.map(({ name, runningAmps, stallAmps, ratedVolts, topSpeedKmh }) => ({ name, runningAmps, stallAmps, ratedVolts, topSpeedKmh })),
-    trains: rows.trains.map((t) => ({ name: t.name, lightingAmps: t.lightingAmps, lengthMm: t.lengthMm, consist: rows.consists.filter((c) => c.trainId === t.id).map((c) => loco.get(c.locomotiveId)) })),
+    trains: rows.trains.map((t) => ({ name: t.name, lightingAmps: t.lightingAmps, lengthMm: t.lengthMm, consist: rows.consists.filter((c) => c.trainId === t.id).map((c) => locomotive.get(c.locomotiveId)) })),
   };
 }
 
@@ -97,9 +97,9 @@ describe('CSV import and export', () => {
     const again = await csv(seed.layout.id, 'locomotives', file);
     const done = await csv(seed.layout.id, 'locomotives', file, `mode=commit&basis=${again.body.basis}`);
     expect(done.status).toBe(200);
-    const locos = loadLayoutRows(seed.layout.id).locomotives;
-    expect(locos.find((l) => l.name === 'Seed loco')).toMatchObject({ runningAmps: 0.45, stallAmps: 1.1, topSpeedKmh: 95, version: 2 });
-    expect(locos.find((l) => l.name === 'New shunter')).toMatchObject({ runningAmps: 0.25 });
+    const locomotives = loadLayoutRows(seed.layout.id).locomotives;
+    expect(locomotives.find((l) => l.name === 'Seed loco')).toMatchObject({ runningAmps: 0.45, stallAmps: 1.1, topSpeedKmh: 95, version: 2 });
+    expect(locomotives.find((l) => l.name === 'New shunter')).toMatchObject({ runningAmps: 0.25 });
   });
 
   it('trains name their locomotives; an unknown one is a row error on the locomotives column', async () => {

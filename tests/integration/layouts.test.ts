@@ -207,25 +207,25 @@ describe('power', () => {
 describe('rolling stock', () => {
   it('trains keep their consist in order; a loco in a train cannot be deleted; a train needs a loco', async () => {
     const { r, l, seed } = setup();
-    expect(await actions.createTrain(r, l, null, form({ name: 'Double', locomotiveIds: [seed.spareLoco.id, seed.loco.id], lightingAmps: '', length: '120', unit: 'cm' }))).toMatchObject({ ok: true });
+    expect(await actions.createTrain(r, l, null, form({ name: 'Double', locomotiveIds: [seed.spareLocomotive.id, seed.locomotive.id], lightingAmps: '', length: '120', unit: 'cm' }))).toMatchObject({ ok: true });
     const rows = loadLayoutRows(l);
     const double = rows.trains.find((t) => t.name === 'Double')!;
     expect(double).toMatchObject({ lengthMm: 1200, lightingAmps: 0 });
-    expect(rows.consists.filter((c) => c.trainId === double.id).map((c) => c.locomotiveId)).toEqual([seed.spareLoco.id, seed.loco.id]);
+    expect(rows.consists.filter((c) => c.trainId === double.id).map((c) => c.locomotiveId)).toEqual([seed.spareLocomotive.id, seed.locomotive.id]);
     expect(await actions.createTrain(r, l, null, form({ name: 'Empty', lightingAmps: '0', length: '1', unit: 'm' }))).toMatchObject({
       ok: false, fieldErrors: { locomotiveIds: 'A train needs at least one locomotive.' },
     });
-    expect(await actions.deleteLocomotive(r, l, null, form({ id: seed.loco.id, version: '1' }))).toMatchObject({ ok: false, status: 409 });
-    expect(await actions.updateTrain(r, l, null, form({ id: double.id, version: '1', name: 'Double', locomotiveIds: [seed.loco.id], lightingAmps: '0.1', length: '1.2', unit: 'm' }))).toMatchObject({ ok: true });
-    expect(await actions.updateTrain(r, l, null, form({ id: double.id, version: '1', name: 'Double', locomotiveIds: [seed.spareLoco.id], lightingAmps: '0', length: '1', unit: 'm' }))).toMatchObject({ ok: false, status: 409 });
+    expect(await actions.deleteLocomotive(r, l, null, form({ id: seed.locomotive.id, version: '1' }))).toMatchObject({ ok: false, status: 409 });
+    expect(await actions.updateTrain(r, l, null, form({ id: double.id, version: '1', name: 'Double', locomotiveIds: [seed.locomotive.id], lightingAmps: '0.1', length: '1.2', unit: 'm' }))).toMatchObject({ ok: true });
+    expect(await actions.updateTrain(r, l, null, form({ id: double.id, version: '1', name: 'Double', locomotiveIds: [seed.spareLocomotive.id], lightingAmps: '0', length: '1', unit: 'm' }))).toMatchObject({ ok: false, status: 409 });
     const after = loadLayoutRows(l);
-    expect(after.consists.filter((c) => c.trainId === double.id).map((c) => c.locomotiveId)).toEqual([seed.loco.id]);
+    expect(after.consists.filter((c) => c.trainId === double.id).map((c) => c.locomotiveId)).toEqual([seed.locomotive.id]);
   });
 
   it('a locomotive of another layout cannot join a consist; stall below running is refused', async () => {
     const { w, r, l } = setup();
     const other = seedLayout(w.railway.id);
-    expect(await actions.createTrain(r, l, null, form({ name: 'Borrowed', locomotiveIds: [other.loco.id], lightingAmps: '0', length: '1', unit: 'm' }))).toMatchObject({ ok: false, status: 400 });
+    expect(await actions.createTrain(r, l, null, form({ name: 'Borrowed', locomotiveIds: [other.locomotive.id], lightingAmps: '0', length: '1', unit: 'm' }))).toMatchObject({ ok: false, status: 400 });
     expect(await actions.createLocomotive(r, l, null, form({ name: 'Odd', runningAmps: '0.5', stallAmps: '0.2', ratedVolts: '12', topSpeedKmh: '80' }))).toMatchObject({
       ok: false, fieldErrors: { stallAmps: 'Stall current cannot be below the running current.' },
     });
@@ -239,7 +239,7 @@ describe('rolling stock', () => {
     const rows = loadLayoutRows(l);
     expect(rows.locomotives.find((x) => x.name === 'Calibrated')).toMatchObject({ startVolts: 2.2, topSpeedKmh: 90 });
     expect(rows.locomotives.find((x) => x.name === 'Unmeasured')).toMatchObject({ startVolts: null });
-    const planned = layoutToPlan(rows, { clock: { ratio: 1, fastStart: '00:00' }, rules: defaultRules }).locos.find((x) => x.name === 'Calibrated');
+    const planned = layoutToPlan(rows, { clock: { ratio: 1, fastStart: '00:00' }, rules: defaultRules }).locomotives.find((x) => x.name === 'Calibrated');
     expect(planned).toMatchObject({ startVolts: 2.2, topSpeedKmh: 90 });
     expect(await actions.createLocomotive(r, l, null, form({ name: 'Odd start', runningAmps: '0.3', stallAmps: '0.8', ratedVolts: '12', topSpeedKmh: '90', startVolts: '12' }))).toMatchObject({
       ok: false, fieldErrors: { startVolts: 'The start voltage must be below the rated voltage.' },

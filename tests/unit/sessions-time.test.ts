@@ -66,10 +66,10 @@ function plan(): Plan {
       { id: 'B', name: 'Main', lengthMm: 1000 },
     ],
     links: [{ a: 'A', b: 'B' }],
-    locos: [{ id: 'l1', name: 'Tank', runningAmps: 0.6, stallAmps: 1.2, ratedVolts: 12 }],
+    locomotives: [{ id: 'l1', name: 'Tank', runningAmps: 0.6, stallAmps: 1.2, ratedVolts: 12 }],
     trains: [
-      { id: 't1', name: 'Stopper', locoIds: ['l1'], lightingAmps: 0, lengthMm: 500 },
-      { id: 't2', name: '', locoIds: ['l1'], lightingAmps: 0, lengthMm: 500 },
+      { id: 't1', name: 'Stopper', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 500 },
+      { id: 't2', name: '', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 500 },
     ],
     operators: [{ id: 'o1', name: 'Ada' }],
     runs: [

@@ -208,14 +208,14 @@ describe('drivers and locomotives: ratings that must agree', () => {
     expect(refusedOn(driverSchema, { ...driver, dropOhms: '0.5', dropMaxOhms: '0.4' }, 'dropMaxOhms')).toMatch(SENTENCE);
   });
 
-  const loco = { name: 'Tank engine', runningAmps: '0.3', stallAmps: '1', ratedVolts: '12', topSpeedKmh: '80', startVolts: '' };
+  const locomotive = { name: 'Tank engine', runningAmps: '0.3', stallAmps: '1', ratedVolts: '12', topSpeedKmh: '80', startVolts: '' };
 
   it('stall current may equal but not be below the running current; the start voltage is below the rated one', () => {
-    expect(parsed(locomotiveSchema, { ...loco, stallAmps: '0.3' }).stallAmps).toBe(0.3);
-    expect(refusedOn(locomotiveSchema, { ...loco, stallAmps: '0.2' }, 'stallAmps')).toMatch(SENTENCE);
-    expect(parsed(locomotiveSchema, loco).startVolts).toBeNull();
-    expect(parsed(locomotiveSchema, { ...loco, startVolts: '3.5' }).startVolts).toBe(3.5);
-    expect(refusedOn(locomotiveSchema, { ...loco, startVolts: '12' }, 'startVolts')).toMatch(SENTENCE);
+    expect(parsed(locomotiveSchema, { ...locomotive, stallAmps: '0.3' }).stallAmps).toBe(0.3);
+    expect(refusedOn(locomotiveSchema, { ...locomotive, stallAmps: '0.2' }, 'stallAmps')).toMatch(SENTENCE);
+    expect(parsed(locomotiveSchema, locomotive).startVolts).toBeNull();
+    expect(parsed(locomotiveSchema, { ...locomotive, startVolts: '3.5' }).startVolts).toBe(3.5);
+    expect(refusedOn(locomotiveSchema, { ...locomotive, startVolts: '12' }, 'startVolts')).toMatch(SENTENCE);
   });
 });
 

@@ -30,14 +30,14 @@ export function makeSessionWorld(w: World, options: SessionOptions = {}) {
     .get();
   const cabA = db.insert(t.cabs).values({ layoutId: layout.id, driverId: driver.id, name: 'Cab A', channel: 1 }).returning().get();
   const cabB = db.insert(t.cabs).values({ layoutId: layout.id, driverId: driver.id, name: 'Cab B', channel: 2 }).returning().get();
-  const loco = db
+  const locomotive = db
     .insert(t.locomotives)
     .values({ layoutId: layout.id, name: 'Tank engine', runningAmps: 0.3, stallAmps: 0.9, ratedVolts: 12, topSpeedKmh: 80 })
     .returning()
     .get();
   const trainOf = (name: string) => {
     const train = db.insert(t.trains).values({ layoutId: layout.id, name, lengthMm: 300 }).returning().get();
-    db.insert(t.trainLocomotives).values({ trainId: train.id, locomotiveId: loco.id, position: 0 }).run();
+    db.insert(t.trainLocomotives).values({ trainId: train.id, locomotiveId: locomotive.id, position: 0 }).run();
     return train;
   };
   const local = trainOf('Local');

@@ -7,7 +7,7 @@ import type { ActionState } from '@/lib/errors';
 import { formData } from '../world';
 import { actionStatus, anyMember, plannerUp, type AuthzCase, type AuthzExemption, type Expect, type World } from './shared';
 
-/** A small layout in `railwayId`: two linked blocks, a supply, a driver, a cab, a loco and a train. */
+/** A small layout in `railwayId`: two linked blocks, a supply, a driver, a cab, a locomotive and a train. */
 export function seedLayout(railwayId: string) {
   const layout = insertLayout(railwayId, { name: 'Seed layout', scaleName: 'H0 (NEM)', scaleRatio: 87, setting: 'indoor', notes: '' });
   const blockA = insertBlock(layout.id, { name: 'Seed east', lengthMm: 1500, positionMm: 0 });
@@ -39,10 +39,10 @@ export function seedLayout(railwayId: string) {
     dropVolts: 2.6,
   });
   const cab = insertCab(layout.id, { name: 'Seed cab', driverId: driver.id, channel: 1 });
-  const loco = insertLocomotive(layout.id, { name: 'Seed loco', runningAmps: 0.4, stallAmps: 0.9, ratedVolts: 12, topSpeedKmh: 80 });
-  const spareLoco = insertLocomotive(layout.id, { name: 'Spare loco', runningAmps: 0.3, stallAmps: 0.8, ratedVolts: 12, topSpeedKmh: 60 });
-  const train = insertTrain(layout.id, { name: 'Seed train', lightingAmps: 0.05, lengthMm: 900 }, [loco.id]);
-  return { layout, blockA, blockB, blockC, link, supply, spare, driver, idle, cab, loco, spareLoco, train };
+  const locomotive = insertLocomotive(layout.id, { name: 'Seed loco', runningAmps: 0.4, stallAmps: 0.9, ratedVolts: 12, topSpeedKmh: 80 });
+  const spareLocomotive = insertLocomotive(layout.id, { name: 'Spare loco', runningAmps: 0.3, stallAmps: 0.8, ratedVolts: 12, topSpeedKmh: 60 });
+  const train = insertTrain(layout.id, { name: 'Seed train', lightingAmps: 0.05, lengthMm: 900 }, [locomotive.id]);
+  return { layout, blockA, blockB, blockC, link, supply, spare, driver, idle, cab, locomotive, spareLocomotive, train };
 }
 
 const ACTIONS = 'app/(app)/railways/[railwayId]/layouts/[layoutId]/actions.ts';
@@ -130,10 +130,10 @@ export const LAYOUT_CASES: AuthzCase[] = [
   actionCase('updateCab', (s) => ({ id: s.cab.id, version: '1', name: 'Cab one', driverId: s.driver.id, channel: '2' })),
   actionCase('deleteCab', (s) => ({ id: s.cab.id, version: '1' })),
   actionCase('createLocomotive', () => ({ name: 'New loco', runningAmps: '0.3', stallAmps: '0.8', ratedVolts: '12', topSpeedKmh: '90' })),
-  actionCase('updateLocomotive', (s) => ({ id: s.loco.id, version: '1', name: 'Seed loco', runningAmps: '0.35', stallAmps: '0.9', ratedVolts: '12', topSpeedKmh: '85' })),
-  actionCase('deleteLocomotive', (s) => ({ id: s.spareLoco.id, version: '1' })),
-  actionCase('createTrain', (s) => ({ name: 'New train', locomotiveIds: [s.loco.id, s.spareLoco.id], lightingAmps: '0', length: '1.2', unit: 'm' })),
-  actionCase('updateTrain', (s) => ({ id: s.train.id, version: '1', name: 'Seed train', locomotiveIds: [s.spareLoco.id], lightingAmps: '0.02', length: '800', unit: 'mm' })),
+  actionCase('updateLocomotive', (s) => ({ id: s.locomotive.id, version: '1', name: 'Seed loco', runningAmps: '0.35', stallAmps: '0.9', ratedVolts: '12', topSpeedKmh: '85' })),
+  actionCase('deleteLocomotive', (s) => ({ id: s.spareLocomotive.id, version: '1' })),
+  actionCase('createTrain', (s) => ({ name: 'New train', locomotiveIds: [s.locomotive.id, s.spareLocomotive.id], lightingAmps: '0', length: '1.2', unit: 'm' })),
+  actionCase('updateTrain', (s) => ({ id: s.train.id, version: '1', name: 'Seed train', locomotiveIds: [s.spareLocomotive.id], lightingAmps: '0.02', length: '800', unit: 'mm' })),
   actionCase('deleteTrain', (s) => ({ id: s.train.id, version: '1' })),
   {
     target: 'app/api/layouts/[layoutId]/csv/[table]/route.ts#GET',

@@ -2,14 +2,14 @@ import { getDb } from '@/db';
 import { insertRuns } from '@/db/queries/runs';
 import * as t from '@/db/schema';
 import { DEFAULT_TIMING, type WiringSheet } from '@/lib/control';
-import { timeRun } from '@/lib/planning';
+import { timeRun, toPlanJson } from '@/lib/planning';
 import { formData } from '../world';
 import { actionStatus, anyMember, plannerUp, type AuthzCase, type AuthzExemption, type Expect, type World } from './shared';
 
 /**
  * A small layout on a railway: four blocks in a line (A–B–C–D, 1 m each), one 14.6 V supply, a
  * 1 A-class driver with 2.6 V drop (so exactly 12 V at the rails, NMRA S-9 I.A), two cabs, two
- * locos and two trains. Returns ids by key.
+ * locomotives and two trains. Returns ids by key.
  */
 export function makeLayout(railwayId: string) {
   const db = getDb();
@@ -31,14 +31,14 @@ export function makeLayout(railwayId: string) {
     c1: db.insert(t.cabs).values({ layoutId, driverId, name: 'Cab 1', channel: 1 }).returning().get().id,
     c2: db.insert(t.cabs).values({ layoutId, driverId, name: 'Cab 2', channel: 2 }).returning().get().id,
   };
-  const loco = (name: string) =>
+  const locomotive = (name: string) =>
     db.insert(t.locomotives).values({ layoutId, name, runningAmps: 0.3, stallAmps: 0.8, ratedVolts: 12, topSpeedKmh: 100 }).returning().get().id;
-  const train = (name: string, locoId: string) => {
+  const train = (name: string, locomotiveId: string) => {
     const id = db.insert(t.trains).values({ layoutId, name, lightingAmps: 0, lengthMm: 500 }).returning().get().id;
-    db.insert(t.trainLocomotives).values({ trainId: id, locomotiveId: locoId, position: 0 }).run();
+    db.insert(t.trainLocomotives).values({ trainId: id, locomotiveId: locomotiveId, position: 0 }).run();
     return id;
   };
-  const trains = { t1: train('Morning stopper', loco('Tank one')), t2: train('Evening goods', loco('Diesel two')) };
+  const trains = { t1: train('Morning stopper', locomotive('Tank one')), t2: train('Evening goods', locomotive('Diesel two')) };
   // A wiring sheet on one 40-pin-header board, so the control routes have something to compile.
   const keys = ['A', 'B', 'C', 'D'];
   const sheet: WiringSheet = {
@@ -184,7 +184,7 @@ export const SESSION_CASES: AuthzCase[] = [
       const { session } = makeSessionWorld(w);
       const { loadSessionPlan } = await import('@/lib/sessions/builder');
       const { POST } = await import('@/app/api/sessions/[sessionId]/plan/route');
-      const body = loadSessionPlan(session.id).plan;
+      const body = toPlanJson(loadSessionPlan(session.id).plan);
       return (await POST(json('POST', `/api/sessions/${session.id}/plan`, body), ctx({ sessionId: session.id }))).status;
     },
     expect: plannerUp,
@@ -305,7 +305,7 @@ export const SESSION_CASES: AuthzCase[] = [
       const { resetRateLimits } = await import('@/lib/rate-limit');
       resetRateLimits();
       const { POST } = await import('@/app/api/plans/check/route');
-      return (await POST(json('POST', '/api/plans/check', loadSessionPlan(session.id).plan), ctx({}))).status;
+      return (await POST(json('POST', '/api/plans/check', toPlanJson(loadSessionPlan(session.id).plan)), ctx({}))).status;
     },
     expect: plannerAnywhere,
   },

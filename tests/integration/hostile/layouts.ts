@@ -138,7 +138,7 @@ export const LAYOUT_HOSTILE: HostileTarget[] = [
     guard: (f) => refused(f, accepts(locomotiveSchema), blankName),
   }),
   layoutAction('updateLocomotive', ['name', 'runningAmps', 'stallAmps', 'ratedVolts', 'topSpeedKmh', 'startVolts', 'version'], {
-    fixed: (s) => ({ id: s.loco.id }),
+    fixed: (s) => ({ id: s.locomotive.id }),
     guard: (f) => refused(f, accepts(locomotiveEditSchema), blankName),
   }),
   layoutAction('deleteLocomotive', ['id', 'version']),

@@ -42,8 +42,8 @@ const controlCase = fc
     const plan = engine ? { ...generated, blocks: generated.blocks.map((b, i) => ({ ...b, positiveRail: rails[i % rails.length] })) } : generated;
     const wiring = wiringFor(plan, towards, reversing, engine);
     const runSpeedKmh = Object.fromEntries(plan.runs.map((r, i) => [r.id, speeds[i % speeds.length] ?? null]));
-    const locoTopSpeedKmh = Object.fromEntries(plan.locos.map((l) => [l.id, 120]));
-    return { plan, wiring, schedule: compileSchedule({ plan, wiring, runSpeedKmh, locoTopSpeedKmh }) };
+    const locomotiveTopSpeedKmh = Object.fromEntries(plan.locomotives.map((l) => [l.id, 120]));
+    return { plan, wiring, schedule: compileSchedule({ plan, wiring, runSpeedKmh, locomotiveTopSpeedKmh }) };
   });
 
 const sToMs = (schedule: ControlSchedule, s: number) => (s - schedule.originS) * 1000;

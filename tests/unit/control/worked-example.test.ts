@@ -13,7 +13,7 @@ import { compileSchedule, type ControlEntry, type WiringSheet } from '@/lib/cont
  *   v = 60 km/h = 60 ÷ 3.6 × 1000 ÷ 87 = 191.57 mm/s in the model; D = 2000 + 2000 = 4000 mm
  *   D/v = 4000 × 87 × 3.6 ÷ 60 000 = 20.88 s; v/2a = 4 s ÷ 2 = 2 s; v/2b = 3 s ÷ 2 = 1.5 s
  *   T = 20.88 + 2 + 1.5 = 24.38 s
- * PWM at each end (dutyFor): standing, 0 V needed → 0; at 60 km/h a 12 V, 120 km/h loco needs
+ * PWM at each end (dutyFor): standing, 0 V needed → 0; at 60 km/h a 12 V, 120 km/h locomotive needs
  *   12 × 60 ÷ 120 = 6 V on average; the rails get 15 − 1.5 = 13.5 V; duty 6 ÷ 13.5 = 0.444;
  *   × 255 = 113.3 → 113.
  * Direction (NEM 631 2.3: the right-hand rail is positive in the direction of travel): every block
@@ -33,7 +33,7 @@ function plan(): Plan {
     steps: blocks.map((blockId, i) => ({ blockId, enterS: departS + (i * T) / 3, exitS: departS + ((i + 1) * T) / 3 + (i < 2 ? 1 : 0) })),
   });
   return planSchema.parse({
-    version: 1,
+    version: 2,
     scale: { name: 'H0', ratio: 87 },
     clock: { ratio: 1, fastStart: '07:00' },
     rules: { headwayS: 0, surgeS: 0, derate: 1 },
@@ -45,8 +45,8 @@ function plan(): Plan {
       { a: 'b1', b: 'b2', aEnd: 'b', bEnd: 'a' },
       { a: 'b2', b: 'b3', aEnd: 'b', bEnd: 'a' },
     ],
-    locos: [{ id: 'l', name: 'Loco', runningAmps: 0.3, stallAmps: 0.6, ratedVolts: 12, startVolts: 0, topSpeedKmh: 120 }],
-    trains: [{ id: 't', name: 'Goods', locoIds: ['l'], lightingAmps: 0, lengthMm: 300, accelKmhPerS: 15, brakingKmhPerS: 20 }],
+    locomotives: [{ id: 'l', name: 'Loco', runningAmps: 0.3, stallAmps: 0.6, ratedVolts: 12, startVolts: 0, topSpeedKmh: 120 }],
+    trains: [{ id: 't', name: 'Goods', locomotiveIds: ['l'], lightingAmps: 0, lengthMm: 300, accelKmhPerS: 15, brakingKmhPerS: 20 }],
     operators: [],
     runs: [go('out', 10, ['b1', 'b2', 'b3']), go('back', 100, ['b3', 'b2', 'b1'])],
   });
@@ -68,7 +68,7 @@ const wiring: WiringSheet = {
 type Speed = Extract<ControlEntry, { kind: 'speed' }>;
 
 describe('control schedule worked example (H0, common-practice ramps, NEM 631 2.3)', () => {
-  const schedule = compileSchedule({ plan: plan(), wiring, runSpeedKmh: { out: null, back: null }, locoTopSpeedKmh: { l: 120 } });
+  const schedule = compileSchedule({ plan: plan(), wiring, runSpeedKmh: { out: null, back: null }, locomotiveTopSpeedKmh: { l: 120 } });
   const atS = (ms: number) => ms / 1000 + schedule.originS;
 
   it('schedules both runs at the speed the engine planned (plannedSpeedKmh) and its dutyFor value', () => {
@@ -104,7 +104,7 @@ describe('control schedule worked example (H0, common-practice ramps, NEM 631 2.
     const old = plan();
     old.links = old.links.map(({ a, b }) => ({ a, b }));
     old.blocks = old.blocks.map(({ positiveRail: _, ...b }) => b);
-    const legacy = compileSchedule({ plan: old, wiring, runSpeedKmh: { out: null, back: null }, locoTopSpeedKmh: { l: 120 } });
+    const legacy = compileSchedule({ plan: old, wiring, runSpeedKmh: { out: null, back: null }, locomotiveTopSpeedKmh: { l: 120 } });
     // The sheet says forward towards b2 and b3: out is forward, back is reverse.
     expect(legacy.runs.map((r) => r.directions[0])).toEqual(['forward', 'reverse']);
   });
@@ -115,10 +115,10 @@ describe('control schedule worked example (H0, common-practice ramps, NEM 631 2.
     const loop = plan();
     loop.blocks = loop.blocks.map((b) => (b.id === 'b3' ? { ...b, positiveRail: 'right' } : b.id === 'b2' ? { ...b, reversingSection: true } : b));
     loop.runs = [loop.runs[0]!];
-    const noRelay = compileSchedule({ plan: loop, wiring, runSpeedKmh: { out: null }, locoTopSpeedKmh: { l: 120 } });
+    const noRelay = compileSchedule({ plan: loop, wiring, runSpeedKmh: { out: null }, locomotiveTopSpeedKmh: { l: 120 } });
     expect(noRelay.findings.map((f) => f.message)).toEqual([expect.stringContaining('B2 is a reversing section on the layout but the wiring sheet gives it no polarity relay')]);
     const relay = { ...wiring, blocks: wiring.blocks.map((b) => (b.blockId === 'b2' ? { ...b, polarityPin: 'GPIO19' } : b)) };
-    const flipped = compileSchedule({ plan: loop, wiring: relay, runSpeedKmh: { out: null }, locoTopSpeedKmh: { l: 120 } });
+    const flipped = compileSchedule({ plan: loop, wiring: relay, runSpeedKmh: { out: null }, locomotiveTopSpeedKmh: { l: 120 } });
     expect(flipped.runs[0]!.directions).toEqual(['reverse', 'forward', 'forward']);
     const polarity = flipped.entries.filter((e) => e.kind === 'polarity').map((e) => (e.kind === 'polarity' ? e.polarity : ''));
     // b2 needs reverse heading for b: the cab gives reverse on entry (normal), forward after the flip (swapped).

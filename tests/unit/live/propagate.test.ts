@@ -17,7 +17,7 @@ function plan(runs: { id: string; train: string; cab: string; op: string | null;
     cabs: [],
     blocks: [],
     links: [],
-    locos: [],
+    locomotives: [],
     trains: [],
     operators: [],
     runs: runs.map((r) => ({ id: r.id, trainId: r.train, cabId: r.cab, operatorId: r.op, departS: r.dep, arriveS: r.arr, steps: [{ blockId: 'b1', enterS: r.dep, exitS: r.arr }] })),

@@ -6,6 +6,7 @@ import {
   driverFromPreset,
   gaugeForScale,
   planSchema,
+  toPlanJson,
   type Finding,
   type LoadSeries,
   type Plan,
@@ -30,7 +31,7 @@ const key = (f: OracleFinding | Finding) => `${f.kind}|${f.severity}|${f.ids.joi
 const keysOf = (findings: readonly (OracleFinding | Finding)[], kinds: readonly string[]) =>
   findings.filter((f) => kinds.includes(f.kind)).map(key).sort();
 
-const CLASH_KINDS = ['block-overlap', 'block-occupied', 'cab-double-booked', 'operator-double-booked', 'train-double-booked', 'loco-in-two-trains'];
+const CLASH_KINDS = ['block-overlap', 'block-occupied', 'cab-double-booked', 'operator-double-booked', 'train-double-booked', 'locomotive-in-two-trains'];
 const SHAPE_KINDS = ['train-continuity', 'route-gap', 'train-too-long', 'step-gap'];
 const POWER_KINDS = ['channel-overload', 'channel-peak-overload', 'driver-overload', 'supply-overload', 'supply-derate'];
 const VOLTAGE_KINDS = ['track-voltage-high', 'track-voltage-low'];
@@ -43,7 +44,7 @@ describe('checkPlan against brute force', () => {
       it('generated plans are valid plans', () => {
         fc.assert(
           fc.property(plans, (plan) => {
-            expect(planSchema.safeParse(plan).success).toBe(true);
+            expect(planSchema.safeParse(toPlanJson(plan)).success).toBe(true);
           }),
           { numRuns: 100 },
         );
@@ -201,8 +202,8 @@ function basePlan(overrides: Partial<Plan> = {}): Plan {
       { a: 'A', b: 'B' },
       { a: 'B', b: 'C' },
     ],
-    locos: [{ id: 'l1', name: 'Loco', runningAmps: 0.3, stallAmps: 0.9, ratedVolts: 12 }],
-    trains: [{ id: 't1', name: 'Train', locoIds: ['l1'], lightingAmps: 0, lengthMm: 1000 }],
+    locomotives: [{ id: 'l1', name: 'Loco', runningAmps: 0.3, stallAmps: 0.9, ratedVolts: 12 }],
+    trains: [{ id: 't1', name: 'Train', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 }],
     operators: [{ id: 'o1', name: 'Ann' }],
     runs: [],
     ...overrides,
@@ -227,8 +228,8 @@ describe('checkPlan examples', () => {
   it('reports a headway breach with the gap, the overlap window, and run ids in string order', () => {
     const plan = basePlan({
       trains: [
-        { id: 't1', name: 'One', locoIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
-        { id: 't2', name: 'Two', locoIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
+        { id: 't1', name: 'One', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
+        { id: 't2', name: 'Two', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
       ],
       runs: [
         run('r2', 0, 40, { cabId: 'c1' }),
@@ -295,8 +296,8 @@ describe('checkPlan examples', () => {
   it('counts a load equal to its limit as within it, and surge only for surgeS', () => {
     // 0.5 + 0.5 A running on a 1.0 A channel: exactly at the limit, so no channel-overload.
     const plan = basePlan({
-      locos: [{ id: 'l1', name: 'Loco', runningAmps: 0.5, stallAmps: 1.5, ratedVolts: 12 }],
-      trains: [{ id: 't1', name: 'Train', locoIds: ['l1'], lightingAmps: 0, lengthMm: 1000 }],
+      locomotives: [{ id: 'l1', name: 'Loco', runningAmps: 0.5, stallAmps: 1.5, ratedVolts: 12 }],
+      trains: [{ id: 't1', name: 'Train', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 }],
       rules: { headwayS: 0, surgeS: 2, derate: 1 },
       drivers: [{ id: 'd1', name: 'Driver', supplyId: 's1', channels: 2, channelAmps: 1, channelPeakAmps: 2, totalAmps: null, dropVolts: 0 }],
       runs: [
@@ -321,7 +322,7 @@ describe('checkPlan examples', () => {
         // of 19 V less the 2 A-class bridge's 4.9 V drop leaves 14.1 V, inside that band.
         supplies: [{ id: 's1', name: 'Outdoor supply', volts: 19, amps: 5 }],
         drivers: [driverFromPreset(preset, { id: 'd1', supplyId: 's1' })],
-        locos: [{ id: 'l1', name: 'Large-scale loco', runningAmps: 1.5, stallAmps: 2.2, ratedVolts: 18 }],
+        locomotives: [{ id: 'l1', name: 'Large-scale loco', runningAmps: 1.5, stallAmps: 2.2, ratedVolts: 18 }],
         rules: { headwayS: 30, surgeS: 0, derate: 0.8 },
         runs: [run('r1', 0, 60)],
       });
@@ -332,14 +333,14 @@ describe('checkPlan examples', () => {
 
   it('common practice: a 1 A-class chip drives two indoor HO motors, one per channel', () => {
     const oneAmp = DRIVER_PRESETS.find((p) => p.id === 'bipolar-quad-half-h-1a')!;
-    // Common practice: modern HO, plan on 0.5 A at most per loco.
+    // Common practice: modern HO, plan on 0.5 A at most per locomotive.
     const plan = basePlan({
       drivers: [driverFromPreset(oneAmp, { id: 'd1', supplyId: 's1' })],
       supplies: [{ id: 's1', name: 'Supply', volts: 15, amps: 2 }],
-      locos: [{ id: 'l1', name: 'HO loco', runningAmps: 0.5, stallAmps: 0.9, ratedVolts: 12 }],
+      locomotives: [{ id: 'l1', name: 'HO loco', runningAmps: 0.5, stallAmps: 0.9, ratedVolts: 12 }],
       trains: [
-        { id: 't1', name: 'One', locoIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
-        { id: 't2', name: 'Two', locoIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
+        { id: 't1', name: 'One', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
+        { id: 't2', name: 'Two', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
       ],
       runs: [
         run('r1', 0, 60),

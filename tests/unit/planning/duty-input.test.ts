@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { dutyFor } from '@/lib/planning';
 
-// dutyFor's guards, one bad figure at a time from a good input (12 V loco, 80 km/h at 12 V, 15 V
+// dutyFor's guards, one bad figure at a time from a good input (12 V locomotive, 80 km/h at 12 V, 15 V
 // supply, 2.6 V drop: TI SLRS007B's typical drop at 1 A).
 const good = { supplyVolts: 15, dropVolts: 2.6, ratedVolts: 12, topSpeedKmh: 80, targetSpeedKmh: 40, startVolts: 2 };
 
@@ -40,7 +40,7 @@ describe('dutyFor refuses figures it cannot use', () => {
     const none = { ...good, supplyVolts: 2.6 }; // the drop takes the whole supply
     expect(dutyFor({ ...none, targetSpeedKmh: 0 })).toMatchObject({ ok: true, duty: 0, pwm8: 0, startDuty: 0 });
     expect(dutyFor(none)).toEqual({ ok: false, code: 'no-track-voltage', reason: 'the bridge drop of 2.6 V leaves nothing of the 2.6 V supply for the track' });
-    // Standing still needs 0 V even with a start voltage: the loco is not asked to move.
+    // Standing still needs 0 V even with a start voltage: the locomotive is not asked to move.
     expect(dutyFor({ ...good, targetSpeedKmh: 0 })).toMatchObject({ ok: true, duty: 0, neededVolts: 0 });
   });
 });

@@ -5,6 +5,7 @@ import {
   driverFromPreset,
   dutyFor,
   planSchema,
+  toPlanJson,
   plannedSpeedKmh,
   startAmps,
   timeRun,
@@ -21,13 +22,13 @@ const QUAD = preset('bipolar-quad-half-h-1a'); // TI SLRS007B
 const MODULE = preset('bipolar-dual-full-bridge-2a'); // ST dual full-bridge, Multiwatt15
 const SINGLE = preset('mosfet-single-high-current-3-6a'); // TI DRV8871 SLVSCY9B
 
-type Loco = Plan['locos'][number];
+type Locomotive = Plan['locomotives'][number];
 
 /** One supply, one driver from a preset, two cabs, three 2 m blocks in a row; H0 (1:87). */
 function plan(options: {
   driver: (typeof DRIVER_PRESETS)[number];
   volts: number;
-  locos: Loco[];
+  locomotives: Locomotive[];
   trains?: Plan['trains'];
   runs: Plan['runs'];
   surgeS?: number;
@@ -49,12 +50,12 @@ function plan(options: {
       { a: 'A', b: 'B' },
       { a: 'B', b: 'C' },
     ],
-    locos: options.locos,
-    trains: options.trains ?? options.locos.map((l, i) => ({ id: `t${i + 1}`, name: `Train ${i + 1}`, locoIds: [l.id], lightingAmps: 0, lengthMm: 1000 })),
+    locomotives: options.locomotives,
+    trains: options.trains ?? options.locomotives.map((l, i) => ({ id: `t${i + 1}`, name: `Train ${i + 1}`, locomotiveIds: [l.id], lightingAmps: 0, lengthMm: 1000 })),
     operators: [],
     runs: options.runs,
   };
-  expect(planSchema.safeParse(built).success).toBe(true);
+  expect(planSchema.safeParse(toPlanJson(built)).success).toBe(true);
   return built;
 }
 
@@ -73,8 +74,8 @@ const of = (findings: Finding[], kind: Finding['kind']) => findings.filter((f) =
 
 describe('bridge drop against current', () => {
   it('DRV8871 SLVSCY9B: a 0.45 A H0 train at 12 V sees 12 − 0.45 × 0.565 = 11.75 V, not 9.97 V', () => {
-    const loco: Loco = { id: 'l1', name: 'H0 loco', runningAmps: 0.45, stallAmps: 0.9, ratedVolts: 12 };
-    const found = checkPlan(plan({ driver: SINGLE, volts: 12, locos: [loco], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
+    const locomotive: Locomotive = { id: 'l1', name: 'H0 loco', runningAmps: 0.45, stallAmps: 0.9, ratedVolts: 12 };
+    const found = checkPlan(plan({ driver: SINGLE, volts: 12, locomotives: [locomotive], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
     const low = of(found, 'track-voltage-low');
     // 11.75 V is still below NMRA S-9 I.A's 12 V "at maximum anticipated load", so the warning stays,
     // with the true figure (12 − 0.45 × 0.565 = 11.746 V).
@@ -86,8 +87,8 @@ describe('bridge drop against current', () => {
   it('ST dual full-bridge: at light load the least drop (1.8 V at 1 A, scaled) lets the rails over-drive a 12 V loco', () => {
     // 15 V supply, 0.3 A train: least drop 0.84 + 0.96 × 0.3 = 1.128 V, so 13.87 V > 12 V rated.
     // The old fixed 4.9 V (the worst case at 2 A) gave 10.1 V and hid it.
-    const loco: Loco = { id: 'l1', name: 'Light loco', runningAmps: 0.3, stallAmps: 0.8, ratedVolts: 12 };
-    const found = checkPlan(plan({ driver: MODULE, volts: 15, locos: [loco], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
+    const locomotive: Locomotive = { id: 'l1', name: 'Light loco', runningAmps: 0.3, stallAmps: 0.8, ratedVolts: 12 };
+    const found = checkPlan(plan({ driver: MODULE, volts: 15, locomotives: [locomotive], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
     const high = of(found, 'track-voltage-high');
     expect(high).toMatchObject([{ ids: ['c1', 'l1'], severity: 'warning' }]);
     expect(high[0]!.message).toContain('13.87 V');
@@ -98,12 +99,12 @@ describe('bridge drop against current', () => {
   it('NMRA S-9 I.A: under-voltage is judged at the heaviest train with the greatest drop', () => {
     // Quad half-H (SLRS007B) on 15 V: greatest drop at 1 A is 3.6 V, so 11.4 V < 12 V; a 0.2 A train
     // alone gets 15 − (2.6 + 0.2) = 12.2 V, enough.
-    const light: Loco = { id: 'l1', name: 'Light', runningAmps: 0.2, stallAmps: 0.4, ratedVolts: 12, startVolts: 2 };
-    const heavy: Loco = { id: 'l2', name: 'Heavy', runningAmps: 1, stallAmps: 1, ratedVolts: 12, startVolts: 2 };
-    const lightOnly = checkPlan(plan({ driver: QUAD, volts: 15, locos: [light], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
+    const light: Locomotive = { id: 'l1', name: 'Light', runningAmps: 0.2, stallAmps: 0.4, ratedVolts: 12, startVolts: 2 };
+    const heavy: Locomotive = { id: 'l2', name: 'Heavy', runningAmps: 1, stallAmps: 1, ratedVolts: 12, startVolts: 2 };
+    const lightOnly = checkPlan(plan({ driver: QUAD, volts: 15, locomotives: [light], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
     expect(of(lightOnly, 'track-voltage-low')).toEqual([]);
     const both = checkPlan(
-      plan({ driver: QUAD, volts: 15, locos: [light, heavy], runs: [standing('r1', 't1', 'c1', 0, 60), standing('r2', 't2', 'c1', 100, 160)] }),
+      plan({ driver: QUAD, volts: 15, locomotives: [light, heavy], runs: [standing('r1', 't1', 'c1', 0, 60), standing('r2', 't2', 'c1', 100, 160)] }),
     ).findings;
     const low = of(both, 'track-voltage-low');
     expect(low).toMatchObject([{ ids: ['c1'], fromS: 0, toS: 160 }]);
@@ -112,31 +113,31 @@ describe('bridge drop against current', () => {
 });
 
 describe('peak ratings hold for their pulse width only', () => {
-  const surging: Loco = { id: 'l1', name: 'Old motor', runningAmps: 0.5, stallAmps: 1.9, ratedVolts: 12 };
+  const surging: Locomotive = { id: 'l1', name: 'Old motor', runningAmps: 0.5, stallAmps: 1.9, ratedVolts: 12 };
 
   it('SLRS007B: 1.9 A for 2 s on the 1 A class fails (the 2 A peak holds for 5 ms)', () => {
-    const found = checkPlan(plan({ driver: QUAD, volts: 15, locos: [surging], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
+    const found = checkPlan(plan({ driver: QUAD, volts: 15, locomotives: [surging], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
     const peak = of(found, 'channel-peak-overload');
     expect(peak).toMatchObject([{ ids: ['c1'], fromS: 0, toS: 2, peakAmps: 1.9, limitAmps: 1 }]);
     expect(peak[0]!.message).toContain('continuous');
   });
 
   it('SLRS007B: a surge within 5 ms is judged against the 2 A peak', () => {
-    const found = checkPlan(plan({ driver: QUAD, volts: 15, locos: [surging], surgeS: 0.005, runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
+    const found = checkPlan(plan({ driver: QUAD, volts: 15, locomotives: [surging], surgeS: 0.005, runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
     expect(of(found, 'channel-peak-overload')).toEqual([]);
   });
 
   it('ST dual full-bridge: the 2.5 A repetitive peak holds for 10 ms; a 2 s surge of 2.4 A is judged against 2 A', () => {
-    const big: Loco = { id: 'l1', name: 'Large-scale loco', runningAmps: 1.5, stallAmps: 2.4, ratedVolts: 18 };
-    const long = checkPlan(plan({ driver: MODULE, volts: 19, locos: [big], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
+    const big: Locomotive = { id: 'l1', name: 'Large-scale loco', runningAmps: 1.5, stallAmps: 2.4, ratedVolts: 18 };
+    const long = checkPlan(plan({ driver: MODULE, volts: 19, locomotives: [big], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
     expect(of(long, 'channel-peak-overload')).toMatchObject([{ peakAmps: 2.4, limitAmps: 2 }]);
-    const short = checkPlan(plan({ driver: MODULE, volts: 19, locos: [big], surgeS: 0.01, runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
+    const short = checkPlan(plan({ driver: MODULE, volts: 19, locomotives: [big], surgeS: 0.01, runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
     expect(of(short, 'channel-peak-overload')).toEqual([]);
   });
 
   it('DRV8871: no pulse width for its 3.6 A, so a surge is judged against the derived 1.9 A', () => {
-    const loco: Loco = { id: 'l1', name: 'Big', runningAmps: 1, stallAmps: 3, ratedVolts: 12 };
-    const found = checkPlan(plan({ driver: SINGLE, volts: 15, locos: [loco], surgeS: 0.001, runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
+    const locomotive: Locomotive = { id: 'l1', name: 'Big', runningAmps: 1, stallAmps: 3, ratedVolts: 12 };
+    const found = checkPlan(plan({ driver: SINGLE, volts: 15, locomotives: [locomotive], surgeS: 0.001, runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
     expect(of(found, 'channel-peak-overload')).toMatchObject([{ peakAmps: 3, limitAmps: 1.9 }]);
   });
 });
@@ -152,35 +153,35 @@ describe('start current under a PWM ramp', () => {
   });
 
   it('a train draws its lighting plus each loco: currents of loads in parallel add (Kirchhoff’s current law)', () => {
-    const locos = [
+    const locomotives = [
       { runningAmps: 0.5, stallAmps: 3, ratedVolts: 12, startVolts: 6 },
       { runningAmps: 0.25, stallAmps: 1.9, ratedVolts: 12 },
     ];
     // Running: 0.125 + 0.5 + 0.25; at start: 0.125 + 3 × 6 / 12 + 1.9 (binary fractions, so exact sums).
-    expect(trainAmps(0.125, locos)).toEqual({ runningAmps: 0.875, startAmps: 0.125 + 1.5 + 1.9 });
+    expect(trainAmps(0.125, locomotives)).toEqual({ runningAmps: 0.875, startAmps: 0.125 + 1.5 + 1.9 });
     expect(trainAmps(0.125, [])).toEqual({ runningAmps: 0.125, startAmps: 0.125 });
   });
 
   it('SLRS007B: the same 1.9 A motor started by a ramp with a 2.4 V start voltage passes the 1 A class', () => {
-    const ramped: Loco = { id: 'l1', name: 'Old motor', runningAmps: 0.5, stallAmps: 1.9, ratedVolts: 12, startVolts: 2.4 };
-    const found = checkPlan(plan({ driver: QUAD, volts: 15, locos: [ramped], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
+    const ramped: Locomotive = { id: 'l1', name: 'Old motor', runningAmps: 0.5, stallAmps: 1.9, ratedVolts: 12, startVolts: 2.4 };
+    const found = checkPlan(plan({ driver: QUAD, volts: 15, locomotives: [ramped], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
     expect(of(found, 'channel-peak-overload')).toEqual([]);
-    const hard: Loco = { ...ramped, stallAmps: 3, startVolts: 6 };
-    const over = checkPlan(plan({ driver: QUAD, volts: 15, locos: [hard], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
+    const hard: Locomotive = { ...ramped, stallAmps: 3, startVolts: 6 };
+    const over = checkPlan(plan({ driver: QUAD, volts: 15, locomotives: [hard], runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
     expect(of(over, 'channel-peak-overload')).toMatchObject([{ peakAmps: 1.5, limitAmps: 1 }]);
   });
 });
 
 describe('driver heat', () => {
-  const loco: Loco = { id: 'l1', name: 'H0 loco', runningAmps: 0.5, stallAmps: 0.9, ratedVolts: 12, startVolts: 2 };
+  const locomotive: Locomotive = { id: 'l1', name: 'H0 loco', runningAmps: 0.5, stallAmps: 0.9, ratedVolts: 12, startVolts: 2 };
   const two = (runs: Plan['runs']) =>
     plan({
       driver: QUAD,
       volts: 15,
-      locos: [loco],
+      locomotives: [locomotive],
       trains: [
-        { id: 't1', name: 'One', locoIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
-        { id: 't2', name: 'Two', locoIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
+        { id: 't1', name: 'One', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
+        { id: 't2', name: 'Two', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
       ],
       runs,
     });
@@ -209,13 +210,13 @@ describe('driver heat', () => {
 describe('load maxima at coincident events', () => {
   it('a train arriving as the next one departs on the same cab: peak 1.0 A and running 0.5 A, not 1.5 A and 1 A', () => {
     // Common practice figures: 0.5 A running, 1.0 A stalled (no start voltage: full stall).
-    const loco: Loco = { id: 'l1', name: 'Loco', runningAmps: 0.5, stallAmps: 1, ratedVolts: 12 };
+    const locomotive: Locomotive = { id: 'l1', name: 'Loco', runningAmps: 0.5, stallAmps: 1, ratedVolts: 12 };
     const trains = [
-      { id: 't1', name: 'One', locoIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
-      { id: 't2', name: 'Two', locoIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
+      { id: 't1', name: 'One', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
+      { id: 't2', name: 'Two', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
     ];
     // The later run is listed first, so its departure is processed before the other's arrival.
-    const { load } = checkPlan(plan({ driver: QUAD, volts: 15, locos: [loco], trains, runs: [standing('b', 't2', 'c1', 10, 20, 'C'), standing('a', 't1', 'c1', 0, 10)] }));
+    const { load } = checkPlan(plan({ driver: QUAD, volts: 15, locomotives: [locomotive], trains, runs: [standing('b', 't2', 'c1', 10, 20, 'C'), standing('a', 't1', 'c1', 0, 10)] }));
     const cab = load.cabs[0]!;
     expect(cab.maxPeakAmps).toBe(1);
     expect(cab.maxRunningAmps).toBe(0.5);
@@ -243,10 +244,10 @@ describe('planned speed against what a cab can give', () => {
     };
   };
   // Calibration: 2 V start, 100 km/h at 12 V rated.
-  const loco: Loco = { id: 'l1', name: 'Express loco', runningAmps: 0.5, stallAmps: 1, ratedVolts: 12, startVolts: 2, topSpeedKmh: 100 };
+  const locomotive: Locomotive = { id: 'l1', name: 'Express loco', runningAmps: 0.5, stallAmps: 1, ratedVolts: 12, startVolts: 2, topSpeedKmh: 100 };
 
   it('recovers the planned speed from the steps', () => {
-    const p = plan({ driver: QUAD, volts: 12, locos: [loco], runs: [timedAt(90)] });
+    const p = plan({ driver: QUAD, volts: 12, locomotives: [locomotive], runs: [timedAt(90)] });
     expect(plannedSpeedKmh(p, p.runs[0]!, new Map(p.blocks.map((b) => [b.id, b.lengthMm])))).toBeCloseTo(90, 9);
   });
 
@@ -256,7 +257,7 @@ describe('planned speed against what a cab can give', () => {
     const timed = timeRun({ blocks, scaleRatio: 87, trainLengthMm: 1000, route: ['A', 'B', 'C'], departS: 0, speedKmh: 90, ...ramps });
     // 90 km/h: 287.36 mm/s; 4000 / 287.36 = 13.92 s, + 90/30 + 90/40 = 3 + 2.25 s of ramps = 19.17 s.
     expect(timed.arriveS).toBeCloseTo(4000 / ((90 / 3.6) * 1000 / 87) + 5.25, 9);
-    const p = plan({ driver: QUAD, volts: 12, locos: [loco], runs: [{ id: 'r1', trainId: 't1', cabId: 'c1', operatorId: null, ...timed }] });
+    const p = plan({ driver: QUAD, volts: 12, locomotives: [locomotive], runs: [{ id: 'r1', trainId: 't1', cabId: 'c1', operatorId: null, ...timed }] });
     const lengths = new Map(p.blocks.map((b) => [b.id, b.lengthMm]));
     expect(plannedSpeedKmh(p, p.runs[0]!, lengths, ramps)).toBeCloseTo(90, 6);
     // Without the ramps the average, 4000 mm / 19.17 s = 208.7 mm/s = 65.35 km/h, understates the cruise.
@@ -264,15 +265,15 @@ describe('planned speed against what a cab can give', () => {
   });
 
   it('SLRS007B at 12 V: 90 km/h needs 2 + 10 × 0.9 = 11 V but the rails get 12 − 3.1 = 8.9 V; 60 km/h (8 V) fits', () => {
-    const fast = checkPlan(plan({ driver: QUAD, volts: 12, locos: [loco], runs: [timedAt(90)] })).findings;
+    const fast = checkPlan(plan({ driver: QUAD, volts: 12, locomotives: [locomotive], runs: [timedAt(90)] })).findings;
     expect(of(fast, 'speed-not-reachable')).toMatchObject([{ ids: ['r1', 'l1'], severity: 'warning' }]);
     expect(of(fast, 'speed-not-reachable')[0]!.message).toContain('8.9 V');
-    const slow = checkPlan(plan({ driver: QUAD, volts: 12, locos: [loco], runs: [timedAt(60)] })).findings;
+    const slow = checkPlan(plan({ driver: QUAD, volts: 12, locomotives: [locomotive], runs: [timedAt(60)] })).findings;
     expect(of(slow, 'speed-not-reachable')).toEqual([]);
   });
 
   it('a speed above the top speed is out of reach on any cab', () => {
-    const found = checkPlan(plan({ driver: QUAD, volts: 24, locos: [loco], runs: [timedAt(101)] })).findings;
+    const found = checkPlan(plan({ driver: QUAD, volts: 24, locomotives: [locomotive], runs: [timedAt(101)] })).findings;
     expect(of(found, 'speed-not-reachable')[0]!.message).toContain('above the loco');
   });
 });
@@ -306,7 +307,7 @@ describe('dutyFor with calibration', () => {
     expect(result).toMatchObject({ ok: true, neededVolts: 7, pwm8: 149 });
     if (result.ok) {
       expect(result.duty).toBeCloseTo(7 / 12, 12);
-      expect(result.startDuty).toBeCloseTo(2 / 12, 12); // the loco stands below this duty
+      expect(result.startDuty).toBeCloseTo(2 / 12, 12); // the locomotive stands below this duty
     }
     expect(dutyFor({ supplyVolts: 12, dropVolts: 0, ratedVolts: 12, topSpeedKmh: 100, startVolts: 12, targetSpeedKmh: 50 })).toMatchObject({
       ok: false,

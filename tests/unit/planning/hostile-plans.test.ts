@@ -3,7 +3,7 @@
  * is named after the finding it keeps closed.
  */
 import { describe, expect, it } from 'vitest';
-import { checkPlan, CheckBudgetError, FINDING_KINDS, FINDING_LIMITS, formatPlanIssues, PLAN_LIMITS, planSchema, type Plan } from '@/lib/planning';
+import { checkPlan, CheckBudgetError, FINDING_KINDS, FINDING_LIMITS, formatPlanIssues, PLAN_LIMITS, planSchema, toPlanJson, type Plan } from '@/lib/planning';
 import { identicalRunsPlan } from '@/lib/cli/identical-runs-plan';
 
 const pairs = (n: number) => (n * (n - 1)) / 2;
@@ -11,13 +11,13 @@ const pairs = (n: number) => (n * (n - 1)) / 2;
 describe('issue 10 finding 3: quadratic stall', () => {
   it('1,000 identical runs: every clash counted exactly, the list capped and marked truncated', () => {
     const plan = identicalRunsPlan(1000);
-    expect(planSchema.safeParse(plan).success).toBe(true);
+    expect(planSchema.safeParse(toPlanJson(plan)).success).toBe(true);
     const check = checkPlan(plan);
     // Every pair of the 1,000 runs meets in each of the three blocks and shares cab, operator and locomotive.
     expect(check.counts['block-overlap']).toBe(3 * pairs(1000));
     expect(check.counts['cab-double-booked']).toBe(pairs(1000));
     expect(check.counts['operator-double-booked']).toBe(pairs(1000));
-    expect(check.counts['loco-in-two-trains']).toBe(pairs(1000));
+    expect(check.counts['locomotive-in-two-trains']).toBe(pairs(1000));
     expect(check.truncated).toBe(true);
     expect(check.findings.length).toBe(FINDING_LIMITS.total);
     for (const kind of FINDING_KINDS) {
@@ -37,7 +37,7 @@ describe('issue 10 finding 3: quadratic stall', () => {
     expect(check.findings).toHaveLength(12);
     expect(check.truncated).toBe(true);
     for (const kind of FINDING_KINDS) expect(check.findings.filter((f) => f.kind === kind).length).toBeLessThanOrEqual(5);
-    expect(check.counts['loco-in-two-trains']).toBe(pairs(40));
+    expect(check.counts['locomotive-in-two-trains']).toBe(pairs(40));
   });
 
   it('lists exactly the per-kind cap of each kind that has more, and counts every finding in the totals by severity', () => {
@@ -67,14 +67,14 @@ describe('issue 10 finding 3: quadratic stall', () => {
 
   it('refuses plans past the run and step limits in the schema', () => {
     const many = identicalRunsPlan(PLAN_LIMITS.runs + 1);
-    expect(formatPlanIssues(planSchema.safeParse(many).error!)).toContain(`runs: must hold ${PLAN_LIMITS.runs} or fewer`);
+    expect(formatPlanIssues(planSchema.safeParse(toPlanJson(many)).error!)).toContain(`runs: must hold ${PLAN_LIMITS.runs} or fewer`);
     const long = identicalRunsPlan(1);
     long.runs[0]!.steps = Array.from({ length: PLAN_LIMITS.stepsPerRun + 1 }, (_, k) => ({ blockId: 'A', enterS: k, exitS: k + 1 }));
     long.runs[0]!.arriveS = PLAN_LIMITS.stepsPerRun;
-    expect(formatPlanIssues(planSchema.safeParse(long).error!)).toContain(`runs[0].steps: a run has at most ${PLAN_LIMITS.stepsPerRun} steps`);
+    expect(formatPlanIssues(planSchema.safeParse(toPlanJson(long)).error!)).toContain(`runs[0].steps: a run has at most ${PLAN_LIMITS.stepsPerRun} steps`);
     const wide = identicalRunsPlan(PLAN_LIMITS.steps / 250 + 1);
     for (const run of wide.runs) run.steps = Array.from({ length: 250 }, (_, k) => ({ blockId: 'A', enterS: k / 10, exitS: k / 10 + 1 }));
-    expect(formatPlanIssues(planSchema.safeParse(wide).error!)[0]).toMatch(/^runs: the runs have \d+ steps in all; a plan holds at most 100000$/);
+    expect(formatPlanIssues(planSchema.safeParse(toPlanJson(wide)).error!)[0]).toMatch(/^runs: the runs have \d+ steps in all; a plan holds at most 100000$/);
   });
 
   it('gives up with CheckBudgetError once the time budget is spent', () => {
@@ -96,7 +96,7 @@ describe('issue 10 finding 2: times and sizes in the plan schema are bounded', (
   const refusal = (edit: (plan: Plan) => void) => {
     const plan = identicalRunsPlan(1);
     edit(plan);
-    const result = planSchema.safeParse(plan);
+    const result = planSchema.safeParse(toPlanJson(plan));
     return result.success ? [] : formatPlanIssues(result.error);
   };
 
@@ -119,7 +119,7 @@ describe('issue 10 finding 2: times and sizes in the plan schema are bounded', (
     expect(refusal((p) => void (p.scale.ratio = 1e308))).toContain('scale.ratio: must be 1000 or less');
     expect(refusal((p) => void (p.blocks[0]!.lengthMm = 1e12))).toContain('blocks[0].lengthMm: must be 1000000 or less');
     expect(refusal((p) => void (p.trains[0]!.lengthMm = 1e9))).toContain('trains[0].lengthMm: must be 100000 or less');
-    expect(refusal((p) => void (p.locos[0]!.stallAmps = 1e6))).toContain('locos[0].stallAmps: must be 100 or less');
+    expect(refusal((p) => void (p.locomotives[0]!.stallAmps = 1e6))).toContain('locomotives[0].stallAmps: must be 100 or less');
     expect(refusal((p) => void (p.clock.ratio = 1e6))).toContain('clock.ratio: must be 60 or less');
   });
 
@@ -138,7 +138,7 @@ describe('issue 10 finding 6: calendar injection through ids', () => {
   const idRefused = (edit: (plan: Plan, bad: string) => void, bad: string) => {
     const plan = identicalRunsPlan(1);
     edit(plan, bad);
-    return planSchema.safeParse(plan).success === false;
+    return planSchema.safeParse(toPlanJson(plan)).success === false;
   };
   const hostile = [
     'r1\r\nBEGIN:VALARM\r\nACTION:DISPLAY\r\nEND:VALARM',

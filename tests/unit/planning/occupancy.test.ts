@@ -27,13 +27,13 @@ function plan(runs: RunSpec[], over: Partial<Plan> = {}): Plan {
       { a: 'B', b: 'C' },
       { a: 'C', b: 'D' },
     ],
-    locos: [
+    locomotives: [
       { id: 'l1', name: 'Loco 1', runningAmps: 0.1, stallAmps: 0.2, ratedVolts: 12 },
       { id: 'l2', name: 'Loco 2', runningAmps: 0.1, stallAmps: 0.2, ratedVolts: 12 },
     ],
     trains: [
-      { id: 'T1', name: 'T1', locoIds: ['l1'], lightingAmps: 0, lengthMm: 500 },
-      { id: 'T2', name: 'T2', locoIds: ['l2'], lightingAmps: 0, lengthMm: 500 },
+      { id: 'T1', name: 'T1', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 500 },
+      { id: 'T2', name: 'T2', locomotiveIds: ['l2'], lightingAmps: 0, lengthMm: 500 },
     ],
     operators: [],
     runs: runs.map((r) => ({
@@ -127,8 +127,8 @@ describe('issue 12 item 1: locomotives, step gaps and the 1 ms tolerance', () =>
       { id: 'r1', train: 'T1', steps: [['A', 0, 20], ['B', 10, 60]] },
       { id: 'r2', train: 'T2', steps: [['D', 1000, 1020], ['C', 1010, 1060]] },
     ]);
-    p.trains[1]!.locoIds = ['l1'];
-    const found = checkPlan(p).findings.filter((f) => f.kind === 'loco-in-two-trains');
+    p.trains[1]!.locomotiveIds = ['l1'];
+    const found = checkPlan(p).findings.filter((f) => f.kind === 'locomotive-in-two-trains');
     expect(found.map((f) => f.ids)).toEqual([['l1', 'T1', 'T2']]);
     expect(found[0]!.message).toContain('Loco 1');
   });

@@ -145,10 +145,10 @@ export function oracleClashes(plan: Plan): OracleFinding[] {
   }
   // A locomotive in two trains: every train with runs is on the track for the whole session.
   const onTrack = trains.filter((t) => runs.some((r) => r.trainId === t.id));
-  for (const loco of plan.locos) {
-    const inIt = onTrack.filter((t) => t.locoIds.includes(loco.id));
+  for (const locomotive of plan.locomotives) {
+    const inIt = onTrack.filter((t) => t.locomotiveIds.includes(locomotive.id));
     for (let i = 0; i < inIt.length; i++) {
-      for (let j = i + 1; j < inIt.length; j++) out.push({ kind: 'loco-in-two-trains', severity: 'error', ids: [loco.id, ...pair(inIt[i]!.id, inIt[j]!.id)] });
+      for (let j = i + 1; j < inIt.length; j++) out.push({ kind: 'locomotive-in-two-trains', severity: 'error', ids: [locomotive.id, ...pair(inIt[i]!.id, inIt[j]!.id)] });
     }
   }
   return out;
@@ -199,7 +199,7 @@ export function oracleContinuityAndRoutes(plan: Plan): OracleFinding[] {
 }
 
 /**
- * A run's running current, and its start current: each loco's stall current scaled by its start
+ * A run's running current, and its start current: each locomotive's stall current scaled by its start
  * voltage over its rated voltage (a stalled motor is a resistance), at least its running current;
  * the full stall current when no start voltage is recorded.
  */
@@ -207,11 +207,11 @@ export function runAmps(plan: Plan, run: Plan['runs'][number]): { running: numbe
   const train = plan.trains.find((t) => t.id === run.trainId)!;
   let running = train.lightingAmps;
   let stall = train.lightingAmps;
-  for (const id of train.locoIds) {
-    const loco = plan.locos.find((l) => l.id === id)!;
-    running += loco.runningAmps;
-    const sv = loco.startVolts;
-    stall += sv === undefined || sv === null ? loco.stallAmps : Math.max(loco.runningAmps, (loco.stallAmps * Math.min(sv, loco.ratedVolts)) / loco.ratedVolts);
+  for (const id of train.locomotiveIds) {
+    const locomotive = plan.locomotives.find((l) => l.id === id)!;
+    running += locomotive.runningAmps;
+    const sv = locomotive.startVolts;
+    stall += sv === undefined || sv === null ? locomotive.stallAmps : Math.max(locomotive.runningAmps, (locomotive.stallAmps * Math.min(sv, locomotive.ratedVolts)) / locomotive.ratedVolts);
   }
   return { running, stall };
 }
@@ -340,8 +340,8 @@ export function oracleHeat(plan: Plan): OracleFinding[] {
 }
 
 /**
- * Voltage: full-throttle track volts = supply − drop. High: above a loco's rating, per cab and
- * loco. Low: below NEM 630 Table 1's nominal for the scale's gauge (8 / 12 / 16 V), per cab with runs.
+ * Voltage: full-throttle track volts = supply − drop. High: above a locomotive's rating, per cab and
+ * locomotive. Low: below NEM 630 Table 1's nominal for the scale's gauge (8 / 12 / 16 V), per cab with runs.
  */
 export function oracleVoltage(plan: Plan, gaugeMm: number | null): OracleFinding[] {
   const out: OracleFinding[] = [];
@@ -357,13 +357,13 @@ export function oracleVoltage(plan: Plan, gaugeMm: number | null): OracleFinding
       const amps = runAmps(plan, run).running;
       return supply.volts - (min.fixedVolts + min.ohms * amps);
     };
-    for (const loco of plan.locos) {
-      const on = runs.filter((run) => plan.trains.find((t) => t.id === run.trainId)!.locoIds.includes(loco.id) && highest(run) > loco.ratedVolts + TOL);
+    for (const locomotive of plan.locomotives) {
+      const on = runs.filter((run) => plan.trains.find((t) => t.id === run.trainId)!.locomotiveIds.includes(locomotive.id) && highest(run) > locomotive.ratedVolts + TOL);
       if (on.length > 0) {
         out.push({
           kind: 'track-voltage-high',
           severity: 'warning',
-          ids: [cab.id, loco.id],
+          ids: [cab.id, locomotive.id],
           fromS: Math.min(...on.map((r) => r.departS)),
           toS: Math.max(...on.map((r) => r.arriveS)),
         });
@@ -407,7 +407,7 @@ function cruiseFor(distance: number, seconds: number, a: number, b: number): num
 /**
  * Speed: a run's cruise scale speed (head distance = every block after the first, over the
  * movement time, less the ramps' cost when the train has ramps; km/h = mm/s × ratio × 3.6 / 1000)
- * against each loco's top speed and against the track voltage with the greatest drop at the
+ * against each locomotive's top speed and against the track voltage with the greatest drop at the
  * train's current.
  */
 export function oracleSpeed(plan: Plan): OracleFinding[] {
@@ -429,12 +429,12 @@ export function oracleSpeed(plan: Plan): OracleFinding[] {
     const amps = runAmps(plan, run).running;
     const { max } = dropLines(driver);
     const track = supply.volts - (max.fixedVolts + max.ohms * amps);
-    for (const id of train.locoIds) {
-      const loco = plan.locos.find((l) => l.id === id)!;
-      if (loco.topSpeedKmh === undefined || loco.topSpeedKmh === null) continue;
-      const sv = loco.startVolts ?? 0;
-      const needed = sv + ((loco.ratedVolts - sv) * Math.min(kmh, loco.topSpeedKmh)) / loco.topSpeedKmh;
-      if (kmh > loco.topSpeedKmh * (1 + 1e-6) || needed > track) out.push({ kind: 'speed-not-reachable', severity: 'warning', ids: [run.id, id], fromS: run.departS, toS: run.arriveS });
+    for (const id of train.locomotiveIds) {
+      const locomotive = plan.locomotives.find((l) => l.id === id)!;
+      if (locomotive.topSpeedKmh === undefined || locomotive.topSpeedKmh === null) continue;
+      const sv = locomotive.startVolts ?? 0;
+      const needed = sv + ((locomotive.ratedVolts - sv) * Math.min(kmh, locomotive.topSpeedKmh)) / locomotive.topSpeedKmh;
+      if (kmh > locomotive.topSpeedKmh * (1 + 1e-6) || needed > track) out.push({ kind: 'speed-not-reachable', severity: 'warning', ids: [run.id, id], fromS: run.departS, toS: run.arriveS });
     }
   }
   return out;

@@ -59,7 +59,7 @@ export function planArbitrary(options: PlanArbitraryOptions = {}): fc.Arbitrary<
       ),
       blocks: fc.array(fc.integer({ min: 2, max: 12 }), { minLength: 2, maxLength: 6 }),
       links: fc.array(fc.tuple(fc.nat(), fc.nat()), { maxLength: 8 }),
-      locos: fc.array(
+      locomotives: fc.array(
         fc.record({
           runningAmps: fc.integer({ min: 0, max: 4 }),
           stallAmps: fc.integer({ min: 0, max: 8 }),
@@ -71,7 +71,7 @@ export function planArbitrary(options: PlanArbitraryOptions = {}): fc.Arbitrary<
       ),
       trains: fc.array(
         fc.record({
-          locos: fc.array(fc.nat(), { minLength: 1, maxLength: 2 }),
+          locomotives: fc.array(fc.nat(), { minLength: 1, maxLength: 2 }),
           lightingAmps: fc.integer({ min: 0, max: 2 }),
           lengthMm: fc.integer({ min: 2, max: 12 }),
           ramps: fc.constantFrom(undefined, { accelKmhPerS: 15, brakingKmhPerS: 20 }, { accelKmhPerS: 2, brakingKmhPerS: 40 }),
@@ -127,7 +127,7 @@ export function planArbitrary(options: PlanArbitraryOptions = {}): fc.Arbitrary<
       );
       const blocks = raw.blocks.map((length, i) => ({ id: `b${i}`, name: `Block ${i}`, lengthMm: length * 100 }));
       const links = raw.links.map(([a, b]) => ({ a: blocks[a % blocks.length]!.id, b: blocks[b % blocks.length]!.id }));
-      const locos = raw.locos.map((l, i) => ({
+      const locomotives = raw.locomotives.map((l, i) => ({
         id: `l${i}`,
         name: `Loco ${i}`,
         runningAmps: quarter(l.runningAmps),
@@ -139,7 +139,7 @@ export function planArbitrary(options: PlanArbitraryOptions = {}): fc.Arbitrary<
       const trains = raw.trains.map((tr, i) => ({
         id: `t${i}`,
         name: `Train ${i}`,
-        locoIds: [...new Set(tr.locos.map((n) => locos[n % locos.length]!.id))],
+        locomotiveIds: [...new Set(tr.locomotives.map((n) => locomotives[n % locomotives.length]!.id))],
         lightingAmps: quarter(tr.lightingAmps),
         lengthMm: tr.lengthMm * 100,
         ...tr.ramps,
@@ -176,7 +176,7 @@ export function planArbitrary(options: PlanArbitraryOptions = {}): fc.Arbitrary<
         cabs,
         blocks,
         links,
-        locos,
+        locomotives,
         trains,
         operators,
         runs,

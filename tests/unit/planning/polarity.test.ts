@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { checkJointParity, checkPlan, jointAgrees, neededOutput, planSchema, routeThrough, type Plan } from '@/lib/planning';
+import { checkJointParity, checkPlan, jointAgrees, neededOutput, planSchema, routeThrough, toPlanJson, type Plan } from '@/lib/planning';
 
 type End = 'a' | 'b';
 type Rail = 'right' | 'left';
@@ -36,13 +36,13 @@ function basePlan(overrides: Partial<Plan>): Plan {
     ],
     blocks: [],
     links: [],
-    locos: [
+    locomotives: [
       { id: 'l', name: 'Loco', runningAmps: 0.3, stallAmps: 0.5, ratedVolts: 12 },
       { id: 'l2', name: 'Railcar motor', runningAmps: 0.2, stallAmps: 0.4, ratedVolts: 12 },
     ],
     trains: [
-      { id: 't', name: 'Goods', locoIds: ['l'], lightingAmps: 0, lengthMm: 1000 },
-      { id: 'u', name: 'Railcar', locoIds: ['l2'], lightingAmps: 0, lengthMm: 400 },
+      { id: 't', name: 'Goods', locomotiveIds: ['l'], lightingAmps: 0, lengthMm: 1000 },
+      { id: 'u', name: 'Railcar', locomotiveIds: ['l2'], lightingAmps: 0, lengthMm: 400 },
     ],
     operators: [],
     runs: [],
@@ -140,7 +140,7 @@ describe('polarity and direction (NEM 631 2.3)', () => {
           const plan = basePlan({ blocks, links, runs: [run('r', 't', 'c1', route.steps.map((s) => s.blockId))] });
           // Record the route's own ends on the steps, as the builder does.
           plan.runs[0]!.steps.forEach((step, i) => Object.assign(step, { fromEnd: route.steps[i]!.fromEnd, toEnd: route.steps[i]!.toEnd }));
-          expect(planSchema.safeParse(plan).success).toBe(true);
+          expect(planSchema.safeParse(toPlanJson(plan)).success).toBe(true);
           const expected: string[] = [];
           route.steps.forEach((step, i) => {
             if (i === 0) return;

@@ -75,10 +75,10 @@ describe('suggestRetime examples', () => {
       { id: 'B', name: 'B', lengthMm: 2000 },
     ],
     links: [{ a: 'A', b: 'B' }],
-    locos: [{ id: 'l1', name: 'Loco', runningAmps: 0.3, stallAmps: 0.9, ratedVolts: 12 }],
+    locomotives: [{ id: 'l1', name: 'Loco', runningAmps: 0.3, stallAmps: 0.9, ratedVolts: 12 }],
     trains: [
-      { id: 'long', name: 'Long', locoIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
-      { id: 'short', name: 'Short', locoIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
+      { id: 'long', name: 'Long', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
+      { id: 'short', name: 'Short', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
     ],
     operators: [],
     runs: [

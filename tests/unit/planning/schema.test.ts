@@ -1,7 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { formatIssuePath, formatPlanIssues, planSchema, toPlanJson, type Plan } from '@/lib/planning';
+import type { z } from 'zod';
+import { formatIssuePath, formatPlanIssues, planSchema, toPlanJson } from '@/lib/planning';
 
-function goodPlan(): Plan {
+/** Version 1 of the interchange, as a file holds it: `locos` and trains' `locoIds`. */
+type PlanV1 = Extract<z.input<typeof planSchema>, { version: 1 }>;
+
+function goodPlan(): PlanV1 {
   return {
     version: 1,
     scale: { name: 'H0', ratio: 87 },
@@ -37,7 +41,7 @@ function goodPlan(): Plan {
 }
 
 /** The formatted issues for a plan edited by `edit`. */
-function refusal(edit: (plan: Plan) => void): string[] {
+function refusal(edit: (plan: PlanV1) => void): string[] {
   const plan = goodPlan();
   edit(plan);
   const result = planSchema.safeParse(plan);
@@ -55,7 +59,7 @@ describe('planSchema', () => {
     expect(formatIssuePath([])).toBe('');
   });
 
-  const cases: [string, (plan: Plan) => void, string][] = [
+  const cases: [string, (plan: PlanV1) => void, string][] = [
     ['an unknown cab', (p) => void (p.runs[3]!.cabId = 'c9'), 'runs[3].cabId: unknown cab "c9"'],
     ['an unknown train', (p) => void (p.runs[1]!.trainId = 'tX'), 'runs[1].trainId: unknown train "tX"'],
     ['an unknown operator', (p) => void (p.runs[0]!.operatorId = 'nobody'), 'runs[0].operatorId: unknown operator "nobody"'],
@@ -115,7 +119,7 @@ describe('planSchema', () => {
 });
 
 describe('plan interchange version 2', () => {
-  const asV2 = (plan: Plan) => {
+  const asV2 = (plan: PlanV1) => {
     const { locos, trains, ...rest } = plan;
     return {
       ...rest,
@@ -125,10 +129,10 @@ describe('plan interchange version 2', () => {
     };
   };
 
-  it('reads version 1 upgraded: a train without ramps gets the common-practice figures for its scale (H0: 15 up, 20 down)', () => {
+  it('reads version 1 upgraded with version 2 names: a train without ramps gets the common-practice figures for its scale (H0: 15 up, 20 down)', () => {
     const parsed = planSchema.parse(goodPlan());
     expect(parsed.version).toBe(1);
-    expect(parsed.trains[0]).toMatchObject({ locoIds: ['l1'], accelKmhPerS: 15, brakingKmhPerS: 20 });
+    expect(parsed.trains[0]).toMatchObject({ locomotiveIds: ['l1'], accelKmhPerS: 15, brakingKmhPerS: 20 });
     const n = { ...goodPlan(), scale: { name: 'N', ratio: 160 } };
     expect(planSchema.parse(n).trains[0]).toMatchObject({ accelKmhPerS: 20, brakingKmhPerS: 25 });
   });
@@ -136,8 +140,8 @@ describe('plan interchange version 2', () => {
   it('reads version 2 with one name per concept, and toPlanJson writes it back unchanged', () => {
     const json = asV2(goodPlan());
     const parsed = planSchema.parse(json);
-    expect(parsed.locos).toEqual(json.locomotives);
-    expect(parsed.trains[0]).toMatchObject({ locoIds: ['l1'], accelKmhPerS: 12, brakingKmhPerS: 18 });
+    expect(parsed.locomotives).toEqual(json.locomotives);
+    expect(parsed.trains[0]).toMatchObject({ locomotiveIds: ['l1'], accelKmhPerS: 12, brakingKmhPerS: 18 });
     expect(toPlanJson(parsed)).toEqual(json);
   });
 
@@ -166,7 +170,7 @@ describe('plan interchange version 2', () => {
 });
 
 describe('cross-references and electrical sense, one bad field at a time', () => {
-  const issues = (edit: (plan: Plan) => void) => {
+  const issues = (edit: (plan: PlanV1) => void) => {
     const plan = goodPlan();
     edit(plan);
     const result = planSchema.safeParse(plan);
@@ -191,7 +195,7 @@ describe('cross-references and electrical sense, one bad field at a time', () =>
   it('wants a bridge drop, and a least drop line at or below the greatest (the datasheets give typical ≤ maximum)', () => {
     expect(issues((p) => delete (p.drivers[0] as { dropVolts?: number }).dropVolts)).toEqual(['drivers[0].drop: give the bridge drop (drop or dropVolts)']);
     const line = (fixedVolts: number, ohms: number) => ({ fixedVolts, ohms });
-    const withDrop = (min: { fixedVolts: number; ohms: number }, max: { fixedVolts: number; ohms: number }) => (p: Plan) => {
+    const withDrop = (min: { fixedVolts: number; ohms: number }, max: { fixedVolts: number; ohms: number }) => (p: PlanV1) => {
       Object.assign(p.drivers[0]!, { drop: { min, max } });
     };
     // Invented lines (fixed volts + ohms × amps): least 1.4 V + 1.2 Ω, greatest 1.8 V + 1.3 Ω; equal lines are fine.

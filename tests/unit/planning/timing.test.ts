@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { defaultRamps, modelRateMmPerS2, modelSpeedMmPerS, Movement, planSchema, timeRun, type Plan } from '@/lib/planning';
+import { defaultRamps, modelRateMmPerS2, modelSpeedMmPerS, Movement, planSchema, timeRun, toPlanJson, type Plan } from '@/lib/planning';
 
 const blocks = [
   { id: 'A', lengthMm: 2000 },
@@ -180,8 +180,8 @@ describe('timeRun properties', () => {
     cabs: [{ id: 'c', name: '', driverId: 'd', channel: 1 }],
     blocks: trackBlocks,
     links: [],
-    locos: [{ id: 'l', name: '', runningAmps: 0, stallAmps: 0, ratedVolts: 12 }],
-    trains: [{ id: 't', name: '', locoIds: ['l'], lightingAmps: 0, lengthMm: trainLengthMm }],
+    locomotives: [{ id: 'l', name: '', runningAmps: 0, stallAmps: 0, ratedVolts: 12 }],
+    trains: [{ id: 't', name: '', locomotiveIds: ['l'], lightingAmps: 0, lengthMm: trainLengthMm }],
     operators: [],
     runs: [{ id: 'r', trainId: 't', cabId: 'c', operatorId: null, ...timed }],
   });
@@ -205,7 +205,7 @@ describe('timeRun properties', () => {
           const dwellS = Object.fromEntries(dwells.map((s, i) => [`b${i}`, s]));
           const timed = timeRun({ blocks: trackBlocks, scaleRatio, trainLengthMm, route, departS, speedKmh, standBeforeS, standAfterS, dwellS, ...ramps });
           expect(timed.steps.map((s) => s.blockId)).toEqual(route);
-          expect(planSchema.safeParse(plainPlan(scaleRatio, trackBlocks, trainLengthMm, timed)).success).toBe(true);
+          expect(planSchema.safeParse(toPlanJson(plainPlan(scaleRatio, trackBlocks, trainLengthMm, timed))).success).toBe(true);
           // Without dwells the head runs every block after the first.
           if (dwells.every((s) => s === 0)) {
             const run = blockLengths.slice(1).reduce((sum, l) => sum + l, 0);

@@ -63,8 +63,8 @@ export default async function RailwayDashboard({ params }: { params: Promise<{ r
   }
 
   const totals = layouts.reduce(
-    (t, l) => ({ blocks: t.blocks + l.blockCount, cabs: t.cabs + l.cabCount, locos: t.locos + l.locomotiveCount, trains: t.trains + l.trainCount }),
-    { blocks: 0, cabs: 0, locos: 0, trains: 0 },
+    (t, l) => ({ blocks: t.blocks + l.blockCount, cabs: t.cabs + l.cabCount, locomotives: t.locomotives + l.locomotiveCount, trains: t.trains + l.trainCount }),
+    { blocks: 0, cabs: 0, locomotives: 0, trains: 0 },
   );
 
   // A new railway's next steps, in the order the work goes; shown until each is done.
@@ -143,7 +143,7 @@ export default async function RailwayDashboard({ params }: { params: Promise<{ r
               ['Members', members.length],
               ['Blocks', totals.blocks],
               ['Cabs', totals.cabs],
-              ['Locomotives', totals.locos],
+              ['Locomotives', totals.locomotives],
               ['Trains', totals.trains],
             ].map(([label, value]) => (
               <div key={label} className="rounded-plate bg-sunken p-3">
