@@ -60,6 +60,11 @@ test('a planner sees the seeded clashes, repairs timing, and brings a clash back
 
   await timetable.showView('Load');
   await expect(page.locator('[data-testid="load-chart"][data-overloaded="true"]').first()).toBeVisible();
+  // Below the main line board's currents, the heat in its bridge against the package rating, marked
+  // where the demo's driver-heat warnings are (the stone train, and the express at the greatest drop).
+  const boardHeat = page.locator('[data-testid="load-chart"]').filter({ hasText: 'Main line board' }).getByTestId('heat-chart');
+  await expect(boardHeat).toBeVisible();
+  await expect(boardHeat).toContainText(/Heat in the bridge: up to [\d.]+ W–[\d.]+ W · package rating [\d.]+ W/);
   await screenshotBoth(page, 'timetable-load');
   await screenshotView(page, 'timetable-load');
 
