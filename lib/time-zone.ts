@@ -80,10 +80,25 @@ export function floatingIso(utcMs: number, timeZone: string): string {
 
 // ---- Showing an instant in a zone, for people (en-GB, 24-hour) ----
 
+// Building an Intl.DateTimeFormat costs far more than formatting with one (the builder page formats
+// a few hundred times: every time label and finding span), so each zone and set of options gets one.
+const FORMATTERS_KEPT = 256; // zones × option sets in use; a full cache starts again rather than grow
+const peopleFormatters = new Map<string, Intl.DateTimeFormat>();
+
+function peopleFormatter(timeZone: string, options: Intl.DateTimeFormatOptions): Intl.DateTimeFormat {
+  const key = `${timeZone}\n${JSON.stringify(options)}`;
+  let f = peopleFormatters.get(key);
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-GB', { timeZone, ...options });
+    if (peopleFormatters.size >= FORMATTERS_KEPT) peopleFormatters.clear();
+    peopleFormatters.set(key, f);
+  }
+  return f;
+}
+
 /** A session's real date and time in its own zone, e.g. "Sat 12 Dec 2026, 14:00". */
 export function formatInZone(date: Date, timeZone: string, options: Intl.DateTimeFormatOptions = {}): string {
-  return new Intl.DateTimeFormat('en-GB', {
-    timeZone,
+  return peopleFormatter(timeZone, {
     weekday: 'short',
     day: 'numeric',
     month: 'short',
@@ -96,10 +111,10 @@ export function formatInZone(date: Date, timeZone: string, options: Intl.DateTim
 }
 
 export function formatTimeInZone(date: Date, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-GB', { timeZone, hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }).format(date);
+  return peopleFormatter(timeZone, { hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }).format(date);
 }
 
 /** A session's date alone in its zone, e.g. "Sat 12 Dec 2026". */
 export function formatDateInZone(date: Date, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-GB', { timeZone, weekday: 'short', day: 'numeric', month: 'short', year: 'numeric' }).format(date);
+  return peopleFormatter(timeZone, { weekday: 'short', day: 'numeric', month: 'short', year: 'numeric' }).format(date);
 }
