@@ -140,6 +140,15 @@ describe('peak ratings hold for their pulse width only', () => {
     const found = checkPlan(plan({ driver: SINGLE, volts: 15, locomotives: [locomotive], surgeS: 0.001, runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
     expect(of(found, 'channel-peak-overload')).toMatchObject([{ peakAmps: 3, limitAmps: 1.9 }]);
   });
+
+  it('DRV8871 SLVSCY9B: 2.5 A running is over the 1.9 A continuous derived from its thermal figures, though under the 3.6 A limit', () => {
+    // The preset's source line: (150 − 25) °C / ≈ 40 °C/W ≈ 3.1 W; √(3.1 W / (1.5 × 0.565 Ω)) ≈ 1.9 A.
+    // The engine before issue 12 took the 3.6 A current limit as the continuous rating and found nothing.
+    const locomotive: Locomotive = { id: 'l1', name: 'Garden loco', runningAmps: 2.5, stallAmps: 2.5, ratedVolts: 12 };
+    const found = checkPlan(plan({ driver: SINGLE, volts: 15, locomotives: [locomotive], surgeS: 0, runs: [standing('r1', 't1', 'c1', 0, 60)] })).findings;
+    expect(of(found, 'channel-overload')).toMatchObject([{ ids: ['c1'], fromS: 0, toS: 60, peakAmps: 2.5, limitAmps: 1.9 }]);
+    expect(SINGLE.channelPeakAmps).toBe(3.6);
+  });
 });
 
 describe('start current under a PWM ramp', () => {

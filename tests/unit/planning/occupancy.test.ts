@@ -53,6 +53,7 @@ const kinds = (p: Plan) => checkPlan(p).findings.map((f) => f.kind);
 
 describe('issue 12 item 1: a train standing between its runs holds its block', () => {
   it('a second train timetabled into the block where the first stands is a block-occupied error', () => {
+    // Common practice (block working): one train in a block at a time, standing or moving.
     const p = plan([
       { id: 'r1', train: 'T1', steps: [['A', 0, 20], ['B', 10, 60]] },
       // T1 waits in B from 60 s until it leaves again at 400 s.
@@ -89,6 +90,7 @@ describe('issue 12 item 1: a train standing between its runs holds its block', (
   });
 
   it('a wait covered by hand is not "T1 and T1 … 0 s apart", and the repair moves nothing', () => {
+    // Common practice: headway separates two trains; a train cannot be too close to itself.
     const p = plan([
       { id: 'r1', train: 'T1', steps: [['A', 0, 20], ['B', 10, 60]] },
       // The planner covers the wait in B by a run of its own that only stands.
@@ -100,6 +102,8 @@ describe('issue 12 item 1: a train standing between its runs holds its block', (
   });
 
   it('a turnaround shorter than the stand times plus the headway (210 s by default) is no clash', () => {
+    // The builder's defaults: 60 s stand before a departure and 120 s after an arrival (lib/runs/schema.ts),
+    // 30 s headway (defaultRules, common practice); integration/runs.test.ts times the same through the API.
     // Arrives in B at 60 s, stands 120 s after arrival; departs again 100 s later, standing 60 s before.
     const p = plan([
       { id: 'r1', train: 'T1', steps: [['A', 0, 20], ['B', 10, 180]], arriveS: 60 },
@@ -109,6 +113,7 @@ describe('issue 12 item 1: a train standing between its runs holds its block', (
   });
 
   it('two runs of one train that really overlap are train-double-booked only, not a block overlap too', () => {
+    // Common practice: one clash, one finding; the train being in two places is what is wrong.
     const p = plan([
       { id: 'r1', train: 'T1', steps: [['A', 0, 20], ['B', 10, 60]] },
       { id: 'r2', train: 'T1', steps: [['A', 30, 50], ['B', 40, 90]] },
@@ -123,6 +128,7 @@ describe('issue 12 item 1: a train standing between its runs holds its block', (
 
 describe('issue 12 item 1: locomotives, step gaps and the 1 ms tolerance', () => {
   it('a locomotive in two trains that are on the track at once is an error', () => {
+    // Common practice: a locomotive is in one consist at a time.
     const p = plan([
       { id: 'r1', train: 'T1', steps: [['A', 0, 20], ['B', 10, 60]] },
       { id: 'r2', train: 'T2', steps: [['D', 1000, 1020], ['C', 1010, 1060]] },
@@ -134,6 +140,7 @@ describe('issue 12 item 1: locomotives, step gaps and the 1 ms tolerance', () =>
   });
 
   it('a time gap between two steps of one run is reported with the run named', () => {
+    // Common practice: a moving train's head enters the next block as it leaves the last; 5 s in no block is an error in the steps.
     const p = plan([{ id: 'r1', train: 'T1', steps: [['A', 0, 10], ['B', 15, 60]] }]);
     const found = checkPlan(p).findings.filter((f) => f.kind === 'step-gap');
     expect(found.map((f) => f.ids)).toEqual([['r1', 'A', 'B']]);
@@ -141,6 +148,7 @@ describe('issue 12 item 1: locomotives, step gaps and the 1 ms tolerance', () =>
   });
 
   it('a floating-point "overlap" of 5.5e-17 s is no clash', () => {
+    // IEEE 754 binary64 (what JavaScript numbers are): 0.1 + 0.2 rounds to 0.30000000000000004.
     const end = 0.1 + 0.2; // 0.30000000000000004
     expect(end - 0.3).toBeCloseTo(5.55e-17, 18);
     const p = plan(
@@ -169,5 +177,13 @@ describe('issue 12 item 1: locomotives, step gaps and the 1 ms tolerance', () =>
     // 29.9995 s falls short of the headway by less than the 1 ms tolerance: no clash.
     p.runs[1]!.steps[1]!.enterS = 129.9995;
     expect(checkPlan(p).findings).toEqual([]);
+    // The issue's own 29.999 s ("30 s apart; headway 30 s" before) is 1 ms short, within the tolerance: no clash either.
+    p.runs[1]!.steps[1]!.enterS = 129.999;
+    expect(checkPlan(p).findings).toEqual([]);
+    // 29.99 s is a clash, and says so (rounded down to the millisecond, never up to the headway).
+    p.runs[1]!.steps[1]!.enterS = 129.99;
+    const near = checkPlan(p).findings.find((f) => f.kind === 'block-overlap' && f.ids[0] === 'C')!;
+    expect(near.message).toContain('only 29.99 s apart');
+    expect(near.message).not.toContain(' 30 s apart');
   });
 });

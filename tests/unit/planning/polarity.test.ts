@@ -178,6 +178,9 @@ describe('reversing loops, reversing sections and shorts across a rail gap', () 
     });
 
   it('detects a reversing loop without a reversing section, and none once the loop has one', () => {
+    // NEM 631 2.3 fixes the positive rail by the direction of travel; round a loop the train comes back
+    // facing the other way, so the rail that was positive meets the negative one at the turnout. Common
+    // practice: gap the loop and give it its own polarity switch (a reversing section).
     const found = kinds(balloon(false), 'reversing-loop');
     expect(found).toHaveLength(1);
     expect(found[0]!.severity).toBe('error');
@@ -205,6 +208,7 @@ describe('reversing loops, reversing sections and shorts across a rail gap', () 
   });
 
   it('a train round the loop passes when it fits wholly inside the reversing section, and is reported when it does not', () => {
+    // Common practice: the section is longer than the train, and flips only while the whole train is inside it.
     // In at the loop's a end, round, and out at its b end back into M: M → L → M.
     const through = (loopMm: number) => {
       const plan = balloon(true, loopMm);
@@ -219,6 +223,21 @@ describe('reversing loops, reversing sections and shorts across a rail gap', () 
     const short = kinds(through(800), 'reversing-section-short');
     expect(short.map((f) => f.ids)).toEqual([['r', 'L']]);
     expect(short[0]!.message).toMatch(/800 mm, shorter than the train's 1000 mm/);
+  });
+
+  it('a train round a loop without a reversing section shorts the supply where it bridges the joint that closes the loop', () => {
+    // NEM 631 2.3: in at the loop's a end with the cab forward; out at its b end into M's b end, where
+    // M needs reverse for the right-hand rail to stay positive. The wheels bridge the gap while the
+    // 1000 mm train crosses it (steps M 38 s, L until 40 s): a short across the rail gap.
+    const plan = balloon(false);
+    plan.runs = [run('r', 't', 'c1', ['M', 'L', 'M'], 0, 20, 2)];
+    const shorts = kinds(plan, 'joint-short');
+    expect(shorts.map((f) => [f.ids, f.fromS, f.toS])).toEqual([[['r', 'L', 'M'], 38, 40]]);
+    expect(shorts[0]!.message).toMatch(/needs reverse .*NEM 631 2\.3.*short the supply across the gap/);
+    // The same run with the loop a reversing section (its own polarity switch, common practice): no short.
+    const switched = balloon(true);
+    switched.runs = plan.runs;
+    expect(kinds(switched, 'joint-short')).toEqual([]);
   });
 
   it('a train bridging a joint whose blocks need opposite cab outputs shorts the supply', () => {
