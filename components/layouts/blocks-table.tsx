@@ -60,6 +60,7 @@ export function BlocksTable({
       },
       {
         id: 'positiveRail',
+        under: true,
         // NEM 631 2.3: the right-hand rail is positive in the direction of travel.
         header: 'Cab + feeds (looking to end b)',
         sortValue: (b) => b.positiveRail,
@@ -67,12 +68,14 @@ export function BlocksTable({
       },
       {
         id: 'reversingSection',
+        under: true,
         header: 'Reversing section',
         sortValue: (b) => (b.reversingSection ? 1 : 0),
         field: { name: 'reversingSection', kind: 'select', options: YES_NO, toInput: (b) => (b.reversingSection ? 'yes' : 'no') },
       },
       {
         id: 'reversingPlace',
+        under: true,
         header: 'Trains may reverse here',
         sortValue: (b) => (b.reversingPlace ? 1 : 0),
         field: { name: 'reversingPlace', kind: 'select', options: YES_NO, toInput: (b) => (b.reversingPlace ? 'yes' : 'no') },

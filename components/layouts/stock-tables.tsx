@@ -162,6 +162,7 @@ function rampColumn(name: 'accelKmhPerS' | 'brakingKmhPerS', header: string, fal
   return {
     id: name,
     header,
+    under: true,
     sortValue: (r) => r[name] ?? fallback,
     field: { name, kind: 'number', suffix: 'km/h/s', width: 'w-20', placeholder: String(fallback), toInput: (r) => (r[name] === null ? '' : String(r[name])) },
     render: (r) => (r[name] === null ? `${fallback} km/h/s, common practice` : `${r[name]} km/h/s`),

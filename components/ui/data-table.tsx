@@ -22,7 +22,9 @@ export const STICKY_END = 'sticky right-0 z-10 shadow-[-10px_0_8px_-8px_rgb(0_0_
 
 /**
  * A table with sorting (click a heading), a filter over every column and paging. `renderRow` may
- * draw a row itself (an editable row); the columns still decide sorting and filtering.
+ * draw a row itself (an editable row) as its own `<tbody>`, so one entry may take two lines; the
+ * columns still decide sorting and filtering. `hiddenColumns` sort and filter but get no heading
+ * (their row draws them elsewhere), and `wrap` lets cells wrap to keep the table within its card.
  */
 export function DataTable<T>({
   data,
@@ -33,16 +35,20 @@ export function DataTable<T>({
   empty = 'Nothing here yet.',
   pageSize = 25,
   testId,
+  hiddenColumns,
+  wrap = false,
 }: {
   data: T[];
   columns: ColumnDef<T, unknown>[];
   label: string;
   renderRow?: (row: Row<T>) => ReactNode;
-  /** Rows drawn above the data, e.g. the row that adds a new entry. */
+  /** Rows drawn above the data, e.g. the row that adds a new entry (a `<tbody>` when rows are drawn by `renderRow`). */
   before?: ReactNode;
   empty?: string;
   pageSize?: number;
   testId?: string;
+  hiddenColumns?: readonly string[];
+  wrap?: boolean;
 }) {
   const [sorting, setSorting] = useState<SortingState>([]);
   const [filter, setFilter] = useState('');
@@ -56,12 +62,20 @@ export function DataTable<T>({
     getSortedRowModel: getSortedRowModel(),
     getFilteredRowModel: getFilteredRowModel(),
     getPaginationRowModel: getPaginationRowModel(),
-    initialState: { pagination: { pageSize } },
+    initialState: { pagination: { pageSize }, columnVisibility: Object.fromEntries((hiddenColumns ?? []).map((id) => [id, false])) },
     autoResetPageIndex: false,
   });
   const rows = table.getRowModel().rows;
   const pages = table.getPageCount();
   const filtered = table.getFilteredRowModel().rows.length;
+  const emptyRow =
+    rows.length === 0 ? (
+      <tr>
+        <td colSpan={table.getVisibleLeafColumns().length} className="px-2 py-3 text-muted">
+          {data.length === 0 ? empty : 'Nothing matches the filter.'}
+        </td>
+      </tr>
+    ) : null;
   return (
     <div className="space-y-3">
       {data.length > 5 ? (
@@ -88,7 +102,7 @@ export function DataTable<T>({
         </div>
       ) : null}
       <div className="-mx-4 overflow-x-auto px-4 sm:mx-0 sm:px-0">
-        <table className="w-full min-w-max text-left text-sm" data-testid={testId} aria-label={label}>
+        <table className={`w-full text-left text-sm ${wrap ? '' : 'min-w-max'}`} data-testid={testId} aria-label={label}>
           <thead className="text-xs uppercase tracking-wide text-muted">
             {table.getHeaderGroups().map((group) => (
               <tr key={group.id} className="border-b border-line">
@@ -116,12 +130,16 @@ export function DataTable<T>({
               </tr>
             ))}
           </thead>
-          <tbody className="divide-y divide-line">
-            {before}
-            {rows.map((row) =>
-              renderRow ? (
-                renderRow(row)
-              ) : (
+          {renderRow ? (
+            <>
+              {before}
+              {rows.map((row) => renderRow(row))}
+              {emptyRow ? <tbody>{emptyRow}</tbody> : null}
+            </>
+          ) : (
+            <tbody className="divide-y divide-line">
+              {before}
+              {rows.map((row) => (
                 <tr key={row.id}>
                   {row.getVisibleCells().map((cell) => (
                     <td key={cell.id} className="px-2 py-2 align-top">
@@ -129,16 +147,10 @@ export function DataTable<T>({
                     </td>
                   ))}
                 </tr>
-              ),
-            )}
-            {rows.length === 0 ? (
-              <tr>
-                <td colSpan={columns.length} className="px-2 py-3 text-muted">
-                  {data.length === 0 ? empty : 'Nothing matches the filter.'}
-                </td>
-              </tr>
-            ) : null}
-          </tbody>
+              ))}
+              {emptyRow}
+            </tbody>
+          )}
         </table>
       </div>
       {pages > 1 ? (

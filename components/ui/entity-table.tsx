@@ -31,6 +31,11 @@ export type EntityColumn<T> = {
   sortValue: (row: T) => string | number;
   field?: FieldSpec<T>;
   render?: (row: T) => ReactNode;
+  /**
+   * Drawn on a second line under the row's main cells, labelled, instead of in a column of its own:
+   * a table with many fields then keeps within its card at laptop width, Add button in sight.
+   */
+  under?: boolean;
 };
 
 type Submit = (formData: FormData) => Promise<ActionState>;
@@ -77,6 +82,7 @@ export function EntityTable<T extends { id: string; version?: number }>(props: P
   const { rows, columns, canEdit, label, testId } = props;
   const [removed, setRemoved] = useState<Set<string>>(new Set());
   const visible = useMemo(() => rows.filter((r) => !removed.has(r.id)), [rows, removed]);
+  const underIds = useMemo(() => columns.filter((c) => c.under).map((c) => c.id), [columns]);
   const tableColumns = useMemo<ColumnDef<T, unknown>[]>(
     () => [
       ...columns.map((c) => ({
@@ -96,6 +102,8 @@ export function EntityTable<T extends { id: string; version?: number }>(props: P
       label={label}
       testId={testId}
       pageSize={props.pageSize}
+      hiddenColumns={underIds}
+      wrap={underIds.length > 0}
       empty={canEdit ? `No ${label} yet: type the first one in the row above.` : `No ${label} yet.`}
       before={canEdit ? <RowForm {...props} mode="create" /> : null}
       renderRow={(r) => (
@@ -209,15 +217,10 @@ function RowForm<T extends { id: string; version?: number }>({
     });
   };
 
-  const cells = columns.map((c, i) => {
+  /** A column's content: its input (or its value, read-only) with the field's error under it. */
+  const contentOf = (c: EntityColumn<T>, i: number): ReactNode => {
     const f = c.field;
-    if (!f || readOnly) {
-      return (
-        <td key={c.id} className="px-2 py-2 align-top">
-          {mode === 'edit' && row ? (c.render ? c.render(row) : f ? displayOf(f, row) : null) : null}
-        </td>
-      );
-    }
+    if (!f || readOnly) return mode === 'edit' && row ? (c.render ? c.render(row) : f ? displayOf(f, row) : null) : null;
     const error = form.formState.errors[f.name]?.message;
     const id = `${noun}-${row?.id ?? 'new'}-${f.name}`;
     const common = {
@@ -268,7 +271,7 @@ function RowForm<T extends { id: string; version?: number }>({
       );
     }
     return (
-      <td key={c.id} className="px-2 py-1.5 align-top">
+      <>
         {input}
         {mode === 'edit' && row && c.render ? <div className="mt-1 text-xs text-muted">{c.render(row)}</div> : null}
         {error ? (
@@ -276,22 +279,48 @@ function RowForm<T extends { id: string; version?: number }>({
             {error}
           </p>
         ) : null}
-      </td>
+      </>
     );
-  });
+  };
+  const main = columns.filter((c) => !c.under);
+  const under = columns.filter((c) => c.under);
+  const width = main.length + (canEdit ? 1 : 0);
+  const cells = main.map((c) => (
+    <td key={c.id} className={`px-2 align-top ${c.field && !readOnly ? 'py-1.5' : 'py-2'}`}>
+      {contentOf(c, columns.indexOf(c))}
+    </td>
+  ));
+  // The columns drawn under the main cells: each with its heading as a visible label.
+  const underRow = under.length ? (
+    <tr>
+      <td colSpan={width} className="px-2 pb-2">
+        <div className="flex flex-wrap items-start gap-x-5 gap-y-2">
+          {under.map((c) => (
+            <div key={c.id} className="flex flex-col gap-0.5" data-column={c.id}>
+              <span className="text-xs font-semibold uppercase tracking-wide text-muted" aria-hidden>
+                {c.header}
+              </span>
+              <div className="text-sm">{contentOf(c, columns.indexOf(c))}</div>
+            </div>
+          ))}
+        </div>
+      </td>
+    </tr>
+  ) : null;
 
+  // One entry is one <tbody>: its main row, the line of columns drawn under it, and its notice.
   return (
-    <>
-      <tr
-        className={mode === 'create' ? 'bg-sunken/60' : dirty ? 'bg-brass-soft/40' : undefined}
-        data-testid={mode === 'create' ? `${noun}-new-row` : `${noun}-row`}
-        onKeyDown={(e) => {
-          if (e.key === 'Enter' && !readOnly && (e.target as HTMLElement).tagName !== 'BUTTON') {
-            e.preventDefault();
-            void save();
-          }
-        }}
-      >
+    <tbody
+      className={`border-b border-line ${mode === 'create' ? 'bg-sunken/60' : dirty ? 'bg-brass-soft/40' : ''}`}
+      data-testid={mode === 'create' ? `${noun}-new-row` : `${noun}-row`}
+      onKeyDown={(e) => {
+        if (e.key === 'Enter' && !readOnly && (e.target as HTMLElement).tagName !== 'BUTTON') {
+          e.preventDefault();
+          void save();
+        }
+      }}
+    >
+      <tr>
         {cells}
         {canEdit ? (
           <td className={`whitespace-nowrap px-2 py-1.5 text-right align-top ${STICKY_END} ${mode === 'create' ? 'bg-sunken' : dirty ? 'bg-brass-soft' : 'bg-surface'}`}>
@@ -314,9 +343,10 @@ function RowForm<T extends { id: string; version?: number }>({
           </td>
         ) : null}
       </tr>
+      {underRow}
       {notice ? (
         <tr>
-          <td colSpan={columns.length + (canEdit ? 1 : 0)} className="px-2 pb-2">
+          <td colSpan={width} className="px-2 pb-2">
             <p role={notice.tone === 'bad' ? 'alert' : 'status'} className={`text-sm ${notice.tone === 'bad' ? 'text-signal' : 'text-verdigris-strong'}`}>
               {notice.text}{' '}
               {notice.stale ? (
@@ -328,7 +358,7 @@ function RowForm<T extends { id: string; version?: number }>({
           </td>
         </tr>
       ) : null}
-    </>
+    </tbody>
   );
 }
 

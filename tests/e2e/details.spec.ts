@@ -31,6 +31,21 @@ test('the crew card fits a phone, says stand times are real, and tells a host wi
   await expect(mail).toHaveText('Mail outbox');
 });
 
+test('issue 13 point 13: an operator’s builder page on a phone starts with their timetable, not the planner’s counts and files', async ({ page, signInAs, railwayPage }) => {
+  await page.setViewportSize(VIEWPORTS.phone);
+  await signInAs('operator');
+  await railwayPage.openFromList(DEMO_RAILWAY);
+  await new TimetablePage(page).openFromSessions(page.url(), SESSION);
+  await expect(page.getByRole('link', { name: 'Plan (JSON)' })).toHaveCount(0);
+  await expect(page.getByTestId('publish-panel')).toHaveCount(0);
+  // The views come first; the findings wait folded in the sheet at the bottom.
+  await expect(page.getByRole('tab', { name: 'Train graph' })).toBeInViewport();
+  await expect(page.getByTestId('findings-sheet-toggle')).toHaveAttribute('aria-expanded', 'false');
+  await expect(page.getByTestId('findings-panel')).toBeHidden();
+  expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(VIEWPORTS.phone.width);
+  await screenshotBoth(page, 'builder-operator');
+});
+
 test('the load charts have evenly spaced ticks, the favicon is served, and cab colours are our own', async ({ page, signInAs, railwayPage, request }) => {
   const icon = await request.get('/icon.svg');
   expect(icon.status()).toBe(200);
@@ -44,9 +59,12 @@ test('the load charts have evenly spaced ticks, the favicon is served, and cab c
   await expect(page.getByRole('list', { name: 'Colours' }).getByRole('listitem').first().locator('span').first()).toHaveCSS('background-color', 'rgb(29, 111, 99)');
   await timetable.showView('Load');
   const charts = page.locator('[data-ticks]');
-  await expect(charts.first()).toBeVisible();
-  for (const ticks of await charts.evaluateAll((els) => els.map((el) => el.getAttribute('data-ticks')!.split(' ').map(Number)))) {
-    const steps = ticks.slice(1).map((t, i) => Math.round((t - ticks[i]!) * 1e6));
-    expect(new Set(steps).size).toBe(1);
+  for (const size of Object.values(VIEWPORTS)) {
+    await page.setViewportSize(size);
+    await expect(charts.first()).toBeVisible();
+    for (const ticks of await charts.evaluateAll((els) => els.map((el) => el.getAttribute('data-ticks')!.split(' ').map(Number)))) {
+      const steps = ticks.slice(1).map((t, i) => Math.round((t - ticks[i]!) * 1e6));
+      expect(new Set(steps).size).toBe(1);
+    }
   }
 });

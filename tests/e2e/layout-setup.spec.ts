@@ -9,6 +9,19 @@ async function expectButtonInView(page: Page, button: Locator) {
   await expect(button).toBeInViewport({ ratio: 0.9 });
 }
 
+/** Tables of the open tab whose box scrolls sideways (content wider than the card gives it). */
+async function tablesScrollingSideways(page: Page, testIds: readonly string[]) {
+  const out: string[] = [];
+  for (const id of testIds) {
+    const box = page.getByTestId(id).locator('xpath=..');
+    const { scroll, client } = await box.evaluate((el) => ({ scroll: el.scrollWidth, client: el.clientWidth }));
+    if (scroll > client) out.push(`${id}: ${scroll} px in ${client} px`);
+  }
+  return out;
+}
+
+const TABLES = { 'Blocks & links': ['blocks-table'], Power: ['supplies-table', 'drivers-table', 'cabs-table'], 'Rolling stock': ['locomotives-table', 'trains-table'] } as const;
+
 test('wide tables keep their Add buttons in view at laptop and phone widths', async ({ page, signInAs, railwayPage }) => {
   await signInAs('planner');
   await railwayPage.openFromList(DEMO_RAILWAY);
@@ -23,10 +36,37 @@ test('wide tables keep their Add buttons in view at laptop and phone widths', as
     await expectButtonInView(page, page.getByTestId('driver-new-row').getByRole('button', { name: 'Add driver' }));
     await expectButtonInView(page, page.getByRole('button', { name: /^Delete driver/ }).first());
     await layout.openTab('Rolling stock');
+    await expectButtonInView(page, page.getByTestId('locomotive-new-row').getByRole('button', { name: 'Add locomotive' }));
     await expectButtonInView(page, page.getByTestId('train-new-row').getByRole('button', { name: 'Add train' }));
   }
   await layout.openTab('Power');
   await screenshotBoth(page, 'power-tables');
+});
+
+test('issue 13 point 5: at laptop width no table of either demo layout scrolls sideways inside its card', async ({ page, signInAs, railwayPage }) => {
+  await signInAs('planner');
+  await railwayPage.openFromList(DEMO_RAILWAY);
+  const railwayUrl = page.url();
+  const layout = new LayoutPage(page);
+  await page.setViewportSize(VIEWPORTS.laptop);
+  for (const name of ['Kestrel Vale branch (H0)', 'Quillon garden line (IIm)']) {
+    await page.goto(`${railwayUrl}/layouts`);
+    await page.getByTestId('layout-list').getByRole('link', { name }).click();
+    await expect(page.getByTestId('layout-name')).toHaveText(name);
+    for (const [tab, ids] of Object.entries(TABLES)) {
+      await layout.openTab(tab);
+      for (const id of ids) await expect(page.getByTestId(id)).toBeVisible();
+      expect(await tablesScrollingSideways(page, ids), `${name}, ${tab}`).toEqual([]);
+    }
+  }
+  // The driver's further ratings sit on a line under its main cells, each with its heading, and still edit.
+  await layout.openTab('Power');
+  const driver = page.getByTestId('driver-row').first();
+  await expect(driver.getByText('Peak holds', { exact: true })).toBeVisible();
+  await expect(driver.getByRole('textbox', { name: /^Peak holds of driver/ })).toBeVisible();
+  await expect(page.getByTestId('drivers-table').getByRole('columnheader', { name: /Peak holds/ })).toHaveCount(0);
+  await layout.openTab('Blocks & links');
+  await screenshotBoth(page, 'blocks-table-garden');
 });
 
 test('a new layout: the scale reads whole, locomotives start from stated figures, cabs take free channels', async ({ page, signInAs, railwayPage }) => {
@@ -73,6 +113,10 @@ test('a new layout: the scale reads whole, locomotives start from stated figures
   await expect(supplyBudget).toContainText('no trains yet');
   await expect(supplyBudget).toContainText('(2 cabs)');
   await expect(supplyBudget).not.toContainText('no cab on this supply');
+  await page.setViewportSize(VIEWPORTS.phone);
+  await expect(supplyBudget).toBeVisible();
+  await expect(cabRow.getByLabel('Channel of new cab')).toHaveValue('');
+  await page.setViewportSize(VIEWPORTS.laptop);
 
   await layout.openTab('Rolling stock');
   const locomotiveRow = page.getByTestId('locomotive-new-row');
@@ -85,5 +129,10 @@ test('a new layout: the scale reads whole, locomotives start from stated figures
   for (const field of ['Running', 'Stall', 'Rated']) await expect(locomotiveRow.getByLabel(`${field} of new locomotive`, { exact: true })).not.toHaveAttribute('placeholder');
   await layout.addRow('locomotive', { Name: 'Mill shunter', 'Top speed at rated': '40' });
   await expect(page.getByLabel('Rated of locomotive Mill shunter', { exact: true })).toHaveValue('12');
+  // On a phone the stated figures are read above the table, and Add stays in reach.
+  await page.setViewportSize(VIEWPORTS.phone);
+  await expect(page.getByTestId('locomotive-defaults')).toBeVisible();
+  await expectButtonInView(page, locomotiveRow.getByRole('button', { name: 'Add locomotive' }));
+  await page.setViewportSize(VIEWPORTS.laptop);
   await screenshotBoth(page, 'stock-new-layout');
 });

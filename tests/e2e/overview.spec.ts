@@ -1,4 +1,4 @@
-import { DEMO_RAILWAY, expect, screenshotBoth, test } from './fixtures';
+import { DEMO_RAILWAY, VIEWPORTS, expect, screenshotBoth, test } from './fixtures';
 import { TimetablePage } from './pages/timetable-page';
 
 const SESSION = 'December running evening';
@@ -16,6 +16,9 @@ test.describe('a new railway', () => {
     await expect(page.getByText('Host · Pacific/Auckland')).toBeVisible();
     const next = page.getByTestId('next-step');
     await expect(next).toHaveText('Next: Add a layout: its name and scale');
+    await page.setViewportSize(VIEWPORTS.phone);
+    await expect(next).toBeInViewport();
+    await page.setViewportSize(VIEWPORTS.laptop);
     await screenshotBoth(page, 'overview-new-railway');
     await next.click();
     await expect(page).toHaveURL(/\/layouts$/);
@@ -57,6 +60,11 @@ test('Needs attention names each session by title and date, links to it, and lea
   expect(new Set(texts).size).toBe(texts.length);
   await expect(items.filter({ hasText: /Sat,? 8 Mar 2031/ }).first()).toBeVisible();
   for (const item of await items.all()) await expect(item.getByRole('link')).toHaveCount(1);
+  // On a phone the items read whole: the list fits the width and its links are there to tap.
+  await page.setViewportSize(VIEWPORTS.phone);
+  await expect(items.first().getByRole('link')).toBeVisible();
+  expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(VIEWPORTS.phone.width);
+  await page.setViewportSize(VIEWPORTS.laptop);
   await screenshotBoth(page, 'overview-attention');
   // Other tests leave drafts of their own; the copy is the draft of this date.
   await items.filter({ hasText: 'still a draft' }).filter({ hasText: /Sat,? 8 Mar 2031/ }).getByRole('link').click();

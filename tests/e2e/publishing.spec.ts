@@ -1,4 +1,4 @@
-import { DEMO_RAILWAY, expect, screenshotBoth, test } from './fixtures';
+import { DEMO_RAILWAY, VIEWPORTS, expect, screenshotBoth, test } from './fixtures';
 import { TimetablePage } from './pages/timetable-page';
 
 const SESSION = 'December running evening';
@@ -20,6 +20,12 @@ test('publishing a timetable with errors asks first, and cancelling asks and sit
   expect(errors).toBe(17);
   await screenshotBoth(page, 'publish-panel');
   const publish = panel.getByRole('button', { name: 'Publish…' });
+  // On a phone the panel comes first, above the views: Publish and the count are in sight without scrolling.
+  await page.setViewportSize(VIEWPORTS.phone);
+  await page.evaluate(() => window.scrollTo(0, 0));
+  await expect(publish).toBeInViewport();
+  await expect(summary).toBeInViewport();
+  await page.setViewportSize(VIEWPORTS.laptop);
   await publish.click();
   const dialog = page.getByRole('alertdialog');
   await expect(dialog).toContainText(`Publish with ${errors} errors?`);
