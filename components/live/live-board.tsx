@@ -6,7 +6,8 @@ import { Button } from '@/components/ui/button';
 import type { LiveRun, LiveState } from '@/lib/live/types';
 import { ClockControls } from './clock-controls';
 import { CorrectReports } from './correct-reports';
-import { blockAt, delayLabel, fastAt, fastMinutes, isUnderWay, namesOf, notDeparted, reportedRuns } from './live-format';
+import { fastMinutes } from '@/lib/sessions/time-labels';
+import { blockAt, delayLabel, fastAt, isUnderWay, namesOf, notDeparted, reportedRuns } from './live-format';
 import { ReportButtons } from './report-buttons';
 import { postLive, useClockReading, useLiveSession, type LiveMode } from './use-live-session';
 

@@ -1,12 +1,8 @@
 import type { FastClock } from '@/lib/planning';
 import { formatFast } from '@/lib/planning/clock';
 import { blockAtTime } from '@/lib/live/blocks';
+import { fastMinutes } from '@/lib/sessions/time-labels';
 import type { LiveRun, LiveState } from '@/lib/live/types';
-
-/** Real seconds as whole fast minutes (rounded). */
-export function fastMinutes(realS: number, clock: FastClock): number {
-  return Math.round((realS * clock.ratio) / 60);
-}
 
 export function fastAt(sessionS: number, clock: FastClock): string {
   return formatFast(sessionS, clock);

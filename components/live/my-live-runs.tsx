@@ -4,7 +4,8 @@ import Link from 'next/link';
 import type { LiveState } from '@/lib/live/types';
 import { Badge } from '@/components/ui/card';
 import { CorrectReports } from './correct-reports';
-import { blockAt, delayLabel, fastAt, fastMinutes, namesOf, reportedRuns } from './live-format';
+import { fastMinutes } from '@/lib/sessions/time-labels';
+import { blockAt, delayLabel, fastAt, namesOf, reportedRuns } from './live-format';
 import { ReportButtons } from './report-buttons';
 import { useClockReading, useLiveSession } from './use-live-session';
 

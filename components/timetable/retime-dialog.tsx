@@ -83,7 +83,7 @@ function RetimeProposal({ sessionId, clock, runLabel, onApply, pending }: Props)
                     {fastLabel(m.newDepartS, clock)} <span className="text-xs font-normal text-muted">({realLabel(m.newDepartS, clock)})</span>
                   </td>
                   <td className="py-1 tabular-nums">
-                    +{Math.round(m.delayS)} s <span className="text-xs text-muted">({fastMinutes(m.delayS, clock.ratio)} fast min)</span>
+                    +{Math.round(m.delayS)} s <span className="text-xs text-muted">({fastMinutes(m.delayS, clock, 1)} fast min)</span>
                   </td>
                 </tr>
               ))}

@@ -73,6 +73,9 @@ void everyFieldPlaced;
 /** The fields outside the plan, as they may come with a posted plan's run (each optional). */
 export const runFieldsOutsidePlanSchema = z.object({ speedKmh: runShape.speedKmh, note: runShape.note }).partial();
 
+/** A posted plan interchange (a session's plan, a plan to check) is read up to this many bytes: a few thousand runs fit well inside. */
+export const PLAN_MAX_BYTES = 5_000_000;
+
 /** A posted plan: the plan interchange, whose runs may carry the fields outside it beside their own. */
 export const postedPlanSchema = planSchema
   .and(z.object({ runs: z.array(runFieldsOutsidePlanSchema).max(PLAN_LIMITS.runs) }))

@@ -43,7 +43,11 @@ export function spanLabel(fromS: number, toS: number, clock: SessionClock): stri
   return `${f1 === f2 ? f1 : `${f1}–${f2}`} fast · ${r1 === r2 ? r1 : `${r1}–${r2}`} real`;
 }
 
-/** A real duration as fast minutes, e.g. `+3 fast min` for 46 s at 4:1. */
-export function fastMinutes(realS: number, ratio: number): number {
-  return Math.round(((realS * ratio) / 60) * 10) / 10;
+/**
+ * A real duration as fast minutes at the clock's ratio, rounded to `decimals` places: 46 s at 4:1
+ * is 3.1 fast minutes to one place, 3 whole.
+ */
+export function fastMinutes(realS: number, clock: Pick<FastClock, 'ratio'>, decimals = 0): number {
+  const scale = 10 ** decimals;
+  return Math.round(((realS * clock.ratio) / 60) * scale) / scale;
 }

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { checkPlan, fastTimeToReal, type Plan } from '@/lib/planning';
 import { planNames, withNoun } from '@/lib/planning/names';
 import { clashingRuns, highlightOf } from '@/lib/sessions/highlight';
-import { fastLabelSeconds, spanLabel } from '@/lib/sessions/time-labels';
+import { fastLabelSeconds, fastMinutes, spanLabel } from '@/lib/sessions/time-labels';
 import { floatingIso, utcToZoned, zonedToUtc } from '@/lib/time-zone';
 
 describe('wall clock in a zone ⇄ UTC', () => {
@@ -122,5 +122,17 @@ describe('highlights', () => {
     expect([...hp.runIds].sort()).toEqual(['r1', 'r2']);
     expect([...clashingRuns(findings, p.runs, layout)].sort()).toEqual(['r1', 'r2']);
     expect(clashingRuns(findings.filter((f) => f.severity === 'warning'), p.runs, layout).size).toBe(0);
+  });
+});
+
+describe('fastMinutes', () => {
+  it('scales a real duration by the clock ratio and rounds to the places asked for', () => {
+    // Common practice: a fast clock at r:1 shows r fast seconds for each real second.
+    expect(fastMinutes(46, { ratio: 4 }, 1)).toBe(3.1);
+    expect(fastMinutes(46, { ratio: 4 })).toBe(3);
+    expect(fastMinutes(60, { ratio: 6 })).toBe(6);
+    expect(fastMinutes(7, { ratio: 4 })).toBe(0);
+    expect(fastMinutes(8, { ratio: 4 })).toBe(1);
+    expect(fastMinutes(-46, { ratio: 4 }, 1)).toBe(-3.1);
   });
 });

@@ -5,7 +5,7 @@ import { parseOrThrow, readJson } from '@/lib/errors';
 import { handler } from '@/lib/http';
 import { revalidateLayout } from '@/lib/layouts/layout-edits';
 import { planToImport } from '@/lib/layouts/plan-io';
-import { PLAN_MAX_BYTES, planImportSchema } from './schema';
+import { LAYOUT_IMPORT_MAX_BYTES, planImportSchema } from './schema';
 
 /**
  * Planner or host: a plan interchange file (version 1) becomes a new layout, all of it in one
@@ -14,7 +14,7 @@ import { PLAN_MAX_BYTES, planImportSchema } from './schema';
 const importLayoutPlan = handler(async (request) => {
   // Signed in before a byte of the body is read (up to 2 MB, counted as it streams in).
   await requireUser();
-  const body = await readJson(request, PLAN_MAX_BYTES);
+  const body = await readJson(request, LAYOUT_IMPORT_MAX_BYTES);
   const railwayId = typeof body === 'object' && body !== null && 'railwayId' in body ? String(body.railwayId) : '';
   // Who is asking comes before what they sent, so an operator learns nothing from a 400.
   const member = await requireMember(railwayId, 'planner', 'import layouts');

@@ -7,5 +7,5 @@ export const planImportSchema = z.object({
   plan: z.unknown().refine((v) => typeof v === 'object' && v !== null, 'Attach a plan file (JSON).'),
 });
 
-/** Plan files are JSON; 2 MB holds thousands of blocks and trains. */
-export const PLAN_MAX_BYTES = 2_000_000;
+/** A plan file to import as a layout: 2 MB holds thousands of blocks and trains (its runs are left out). */
+export const LAYOUT_IMPORT_MAX_BYTES = 2_000_000;

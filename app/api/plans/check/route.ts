@@ -5,7 +5,7 @@ import { handler } from '@/lib/http';
 import { checkInBudget } from '@/lib/sessions/stored-check';
 import { rateLimit } from '@/lib/rate-limit';
 import { roleAtLeast } from '@/lib/roles';
-import { CHECK_MAX_BYTES, CHECKS_PER_MINUTE, checkPlanBodySchema } from './schema';
+import { PLAN_MAX_BYTES, CHECKS_PER_MINUTE, checkPlanBodySchema } from './schema';
 
 export const dynamic = 'force-dynamic';
 
@@ -18,7 +18,7 @@ const check = handler(async (request) => {
   const user = await requireUser();
   if (!listRailwaysOfUser(user.id).some((r) => roleAtLeast(r.role, 'planner'))) throw forbidden('check plans (planners and hosts only)');
   rateLimit(`plans-check:${user.id}`, CHECKS_PER_MINUTE, 60_000);
-  const plan = parseOrThrow(checkPlanBodySchema, await readJson(request, CHECK_MAX_BYTES));
+  const plan = parseOrThrow(checkPlanBodySchema, await readJson(request, PLAN_MAX_BYTES));
   const started = performance.now();
   const { findings, counts, totals, truncated, load } = checkInBudget(plan);
   const { errors, warnings } = totals;

@@ -1,5 +1,5 @@
 export { planSchema as checkPlanBodySchema } from '@/lib/planning';
+export { PLAN_MAX_BYTES } from '@/lib/runs/schema';
 
-export const CHECK_MAX_BYTES = 5_000_000;
 /** Outside tools may check this many plans a minute per user. */
 export const CHECKS_PER_MINUTE = 30;
