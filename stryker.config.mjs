@@ -18,6 +18,9 @@
 //   absorbs floating-point sums such as 0.1 + 0.2; the two forms differ at exactly rating + 1e-9, which no
 //   figure a planner types (two decimals at most) or sums reaches. The edge tests put a load exactly at its
 //   rating, which is where the real `>` vs `>=` question lies, and they pass with either form here.
+// - lib/control/schedule.ts checkInterlocks(): `if (e.cabId === null) lastRelease.set(…)` → `if (true)`: a
+//   connect's time is then also kept as a "release", but a block can only be connected again after a
+//   release (a second connect takes the two-cabs branch), and that release overwrites it first.
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',
