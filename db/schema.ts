@@ -452,7 +452,7 @@ export const invitations = sqliteTable(
     email: text('email').notNull(),
     reply: text('rsvp', { enum: REPLY_STATES }).notNull().default('needs-action'),
     respondedAt: integer('responded_at', { mode: 'timestamp_ms' }),
-    /** Raised with every answer so that a reply link is usable once per answer change. */
+    /** Raised with every reply so that a reply link is usable once per reply change. */
     replyNonce: integer('reply_nonce').notNull().default(0),
     /** The session SEQUENCE last sent to this invitee. */
     sentSequence: integer('sent_sequence'),

@@ -1,27 +1,27 @@
 'use client';
 
 import { useActionState } from 'react';
-import { answerInvitation } from '@/app/(app)/my-runs/actions';
+import { replyToInvitation } from '@/app/(app)/my-runs/actions';
 import { Button } from '@/components/ui/button';
 
-type Reply = 'needs-action' | 'accepted' | 'tentative' | 'declined';
+type ReplyState = 'needs-action' | 'accepted' | 'tentative' | 'declined';
 const OPTIONS = [
   ['accepted', 'Accept'],
   ['tentative', 'Maybe'],
   ['declined', 'Decline'],
 ] as const;
 
-/** My answer to one invitation, as three buttons with the current one pressed. */
-export function ReplyButtons({ invitationId, current }: { invitationId: string; current: Reply }) {
-  const [state, action, pending] = useActionState(answerInvitation.bind(null, invitationId), null);
+/** My reply to one invitation, as three buttons with the current one pressed. */
+export function ReplyButtons({ invitationId, current }: { invitationId: string; current: ReplyState }) {
+  const [state, action, pending] = useActionState(replyToInvitation.bind(null, invitationId), null);
   return (
     <form action={action} className="space-y-2" data-testid="my-reply">
-      <div className="grid grid-cols-3 gap-2" role="group" aria-label="My answer">
+      <div className="grid grid-cols-3 gap-2" role="group" aria-label="My reply">
         {OPTIONS.map(([value, label]) => (
           <Button
             key={value}
             type="submit"
-            name="answer"
+            name="reply"
             value={value}
             disabled={pending}
             aria-pressed={current === value}
@@ -32,7 +32,7 @@ export function ReplyButtons({ invitationId, current }: { invitationId: string; 
           </Button>
         ))}
       </div>
-      {current === 'needs-action' ? <p className="text-xs text-muted">You have not answered yet.</p> : null}
+      {current === 'needs-action' ? <p className="text-xs text-muted">You have not replied yet.</p> : null}
       {state && !state.ok ? <p className="text-sm text-signal" role="alert">{state.error}</p> : null}
     </form>
   );

@@ -7,11 +7,11 @@ import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { inputClass } from '@/components/ui/field';
 
-type Answer = 'accepted' | 'tentative' | 'declined';
-const LABELS: Record<Answer, string> = { accepted: 'Accept', tentative: 'Maybe', declined: 'Decline' };
+type Reply = 'accepted' | 'tentative' | 'declined';
+const LABELS: Record<Reply, string> = { accepted: 'Accept', tentative: 'Maybe', declined: 'Decline' };
 const DONE: Record<string, string> = { accepted: 'accepted', tentative: 'maybe', declined: 'declined' };
 
-/** Three buttons that record an answer with a reply token; after an answer, the fresh token lets the person change it. */
+/** Three buttons that record a reply with a reply token; after a reply, the fresh token lets the person change it. */
 export function ReplyForm({
   token,
   chosen,
@@ -20,7 +20,7 @@ export function ReplyForm({
   maxComment,
 }: {
   token: string;
-  chosen: Answer;
+  chosen: Reply;
   currentLabel: string;
   comment: string;
   maxComment: number;
@@ -32,18 +32,18 @@ export function ReplyForm({
     <div className="space-y-4">
       {!current ? (
         <p className="text-sm">
-          Your answer so far: <strong>{currentLabel}</strong>
+          Your reply so far: <strong>{currentLabel}</strong>
         </p>
       ) : null}
       {current ? (
         <Notice tone="good">
-          <span data-testid="reply-recorded">Your answer is recorded: {DONE[current.answer] ?? current.answer}.</span>
+          <span data-testid="reply-recorded">Your reply is recorded: {DONE[current.reply] ?? current.reply}.</span>
           {current.joined ? ` You are now an operator of ${current.railwayName}: sign in with a link sent to this address to see your runs.` : ''}
           {current.late ? ' It came after the reply deadline, so the host sees it marked late.' : ''}
         </Notice>
       ) : null}
       {state && !state.ok ? <Notice tone="bad">{state.error}</Notice> : null}
-      <p className="text-sm text-muted">{current ? 'Changed your mind? Answer again:' : `Press to confirm your answer (${LABELS[chosen]} is what your link said):`}</p>
+      <p className="text-sm text-muted">{current ? 'Changed your mind? Reply again:' : `Press to confirm your reply (${LABELS[chosen]} is what your link said):`}</p>
       <form action={action} className="space-y-3">
         <input type="hidden" name="token" value={activeToken} />
         <label className="block text-sm">
@@ -51,17 +51,17 @@ export function ReplyForm({
           <textarea name="comment" rows={2} maxLength={maxComment} defaultValue={comment} className={`${inputClass} mt-1`} placeholder="e.g. I can come after 19:00" />
         </label>
         <div className="flex flex-col gap-2 sm:flex-row">
-        {(['accepted', 'tentative', 'declined'] as const).map((answer) => (
+        {(['accepted', 'tentative', 'declined'] as const).map((reply) => (
           <Button
-            key={answer}
+            key={reply}
             type="submit"
-            name="answer"
-            value={answer}
+            name="reply"
+            value={reply}
             disabled={pending}
-            variant={!current && answer === chosen ? 'primary' : answer === 'declined' ? 'danger' : 'secondary'}
+            variant={!current && reply === chosen ? 'primary' : reply === 'declined' ? 'danger' : 'secondary'}
             className="flex-1 py-3"
           >
-            {LABELS[answer]}
+            {LABELS[reply]}
           </Button>
         ))}
         </div>

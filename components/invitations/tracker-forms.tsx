@@ -192,9 +192,9 @@ export function RemindButton({
 }: {
   railwayId: string;
   sessionId: string;
-  /** Unanswered invitees who may be reminded now. */
+  /** Invitees awaiting a reply who may be reminded now. */
   due: number;
-  /** Unanswered invitees reminded within the last day. */
+  /** Invitees awaiting a reply who were reminded within the last day. */
   waiting: number;
   last: string | null;
   next: string | null;

@@ -1,7 +1,7 @@
 'use client';
 
 import { useActionState } from 'react';
-import { answerMemberOffer } from '@/app/(app)/railways/actions';
+import { replyToMemberOffer } from '@/app/(app)/railways/actions';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { ROLE_LABELS, type Role } from '@/lib/roles';
@@ -11,7 +11,7 @@ export function MemberOfferRow({
 }: {
   offer: { id: string; railwayName: string; role: Role; invitedBy: string | null };
 }) {
-  const [state, action, pending] = useActionState(answerMemberOffer, null);
+  const [state, action, pending] = useActionState(replyToMemberOffer, null);
   return (
     <li className="flex flex-col gap-3 py-3 sm:flex-row sm:items-center sm:justify-between" data-testid="member-offer">
       <div>
@@ -23,10 +23,10 @@ export function MemberOfferRow({
       </div>
       <form action={action} className="flex gap-2">
         <input type="hidden" name="invitationId" value={offer.id} />
-        <Button type="submit" name="answer" value="accept" disabled={pending}>
+        <Button type="submit" name="reply" value="accept" disabled={pending}>
           Join {offer.railwayName}
         </Button>
-        <Button type="submit" name="answer" value="decline" variant="secondary" disabled={pending}>
+        <Button type="submit" name="reply" value="decline" variant="secondary" disabled={pending}>
           Decline
         </Button>
       </form>

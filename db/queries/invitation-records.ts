@@ -116,17 +116,17 @@ export function insertInvitations(sessionId: string, invitees: { userId: string;
 }
 
 /**
- * Records an answer if the invitation's reply nonce is still `expectedNonce` (null: whatever it is,
- * for a signed-in member answering on their own page), raising the nonce in the same statement so
+ * Records a reply if the invitation's reply nonce is still `expectedNonce` (null: whatever it is,
+ * for a signed-in member replying on their own page), raising the nonce in the same statement so
  * that two requests with one link cannot both count; `comment` replaces the note with the reply
  * (undefined leaves it). Returns the updated row, or undefined.
  */
-export function recordAnswer(invitationId: string, expectedNonce: number | null, answer: ReplyState, now = new Date(), comment?: string) {
+export function updateInvitationReply(invitationId: string, expectedNonce: number | null, reply: ReplyState, now = new Date(), comment?: string) {
   const where = [eq(invitations.id, invitationId)];
   if (expectedNonce !== null) where.push(eq(invitations.replyNonce, expectedNonce));
   return getDb()
     .update(invitations)
-    .set({ reply: answer, respondedAt: now, replyNonce: sql`${invitations.replyNonce} + 1`, ...(comment === undefined ? {} : { comment }) })
+    .set({ reply, respondedAt: now, replyNonce: sql`${invitations.replyNonce} + 1`, ...(comment === undefined ? {} : { comment }) })
     .where(and(...where))
     .returning()
     .get();

@@ -111,9 +111,9 @@ export function buildInvitationBody(c: InvitationContent): { subject: string; te
     c.method === 'CANCEL'
       ? `${c.host.name} has cancelled this operating session. Your calendar can remove it.`
       : c.isReminder
-        ? `${c.host.name} has not had your answer yet for this operating session.`
+        ? `${c.host.name} has not had your reply yet for this operating session.`
         : c.isUpdate
-          ? `${c.host.name} has changed this operating session. Please check your runs and answer again if your plans changed.`
+          ? `${c.host.name} has changed this operating session. Please check your runs and reply again if your plans changed.`
           : `${c.host.name} invites you to an operating session.`;
   const changes = c.method === 'REQUEST' && c.isUpdate && !c.isReminder ? (c.changes ?? []) : [];
   const changesText = changes.length ? ['What changed for you:', ...changes.map((l) => `- ${l}`), ''] : [];

@@ -2,7 +2,7 @@ import 'server-only';
 import crypto from 'node:crypto';
 import { env } from '@/lib/env';
 
-/** What a reply link proves: this invitation, on this railway, at this answer count, until then. */
+/** What a reply link proves: this invitation, on this railway, at this reply count, until then. */
 export type ReplyClaim = { railwayId: string; invitationId: string; nonce: number; expiresAt: number };
 
 const DEV_SECRET = 'fishplate-development-only-reply-secret';
@@ -20,9 +20,9 @@ function sign(payload: string): Buffer {
 
 /**
  * A reply link's token: the claim in base64url, a dot, and an HMAC-SHA256 of it under
- * NEXTAUTH_SECRET. The answer is not part of it — the same token carries accept, maybe and decline —
- * but the invitation's reply nonce is, and it goes up with every answer, so a link works once per
- * answer change.
+ * NEXTAUTH_SECRET. The reply is not part of it — the same token carries accept, maybe and decline —
+ * but the invitation's reply nonce is, and it goes up with every reply, so a link works once per
+ * reply change.
  */
 export function signReplyToken(claim: ReplyClaim): string {
   const payload = [claim.railwayId, claim.invitationId, String(claim.nonce), String(claim.expiresAt)].join('\n');

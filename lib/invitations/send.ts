@@ -76,8 +76,8 @@ export function invitationDedupeKey(invitationId: string, sequence: number, meth
   return `invitation:${invitationId}:${sequence}:${method}${resend ? `:resend-${resend}` : ''}`;
 }
 
-export function replyUrl(token: string, answer: 'accepted' | 'tentative' | 'declined'): string {
-  return absoluteUrl(`/reply?token=${encodeURIComponent(token)}&answer=${answer}`);
+export function replyUrl(token: string, reply: 'accepted' | 'tentative' | 'declined'): string {
+  return absoluteUrl(`/reply?token=${encodeURIComponent(token)}&reply=${reply}`);
 }
 
 function loadSession(railwayId: string, sessionId: string): Session {
@@ -313,26 +313,26 @@ export function nextReminderAt(inv: { remindedAt: Date | null }): Date | null {
   return inv.remindedAt ? new Date(inv.remindedAt.getTime() + REMINDER_GAP_MS) : null;
 }
 
-/** Invitees a reminder may go to now: sent an invitation, no answer yet, not reminded within the gap. */
+/** Invitees a reminder may go to now: sent an invitation, no reply yet, not reminded within the gap. */
 export function remindable<T extends { reply: string; mailCount: number; remindedAt: Date | null }>(invitations: T[], now: Date): T[] {
   return invitations.filter((i) => i.reply === 'needs-action' && i.mailCount > 0 && (nextReminderAt(i)?.getTime() ?? 0) <= now.getTime());
 }
 
 /**
- * Host: reminds everyone who was sent an invitation and has not answered, at most once per
+ * Host: reminds everyone who was sent an invitation and has not replied, at most once per
  * REMINDER_GAP_MS each (the rest are counted, not sent). A plain e-mail with their runs, the
  * deadline if set and the reply buttons; the calendar event they hold is unchanged.
  */
-export function remindUnanswered(input: { railwayId: string; sessionId: string; host: Host; now?: Date }) {
+export function remindAwaitingReply(input: { railwayId: string; sessionId: string; host: Host; now?: Date }) {
   const now = input.now ?? new Date();
   return runInTransaction(() => {
     const session = loadSession(input.railwayId, input.sessionId);
     requirePublished(session, now);
     const all = listSessionInvitations(session.id);
-    const unanswered = all.filter((i) => i.reply === 'needs-action' && i.mailCount > 0);
-    const due = remindable(unanswered, now);
+    const awaiting = all.filter((i) => i.reply === 'needs-action' && i.mailCount > 0);
+    const due = remindable(awaiting, now);
     const result = queueNotices({ session, host: input.host, invitations: due, method: 'REQUEST', reminder: true, now });
-    const tooSoon = unanswered.length - due.length;
+    const tooSoon = awaiting.length - due.length;
     recordAudit({ railwayId: input.railwayId, userId: input.host.id, action: 'remind', entity: 'session', entityId: session.id, detail: { ...result, tooSoon } });
     return { queued: result.queued, tooSoon };
   });

@@ -8,10 +8,10 @@ export const railwayIdSchema = idSchema;
 export const sessionIdSchema = idSchema;
 export const invitationIdSchema = idSchema;
 
-/** The answers a person can give; "needs-action" is only the state before any answer. */
-export const ANSWERS = REPLY_STATES.filter((s) => s !== 'needs-action') as ['accepted', 'tentative', 'declined'];
-export type Answer = (typeof ANSWERS)[number];
-export const answerSchema = z.enum(ANSWERS, { error: 'Choose accept, maybe or decline.' });
+/** The replies a person can give; "needs-action" is only the state before any reply. */
+export const REPLIES = REPLY_STATES.filter((s) => s !== 'needs-action') as ['accepted', 'tentative', 'declined'];
+export type Reply = (typeof REPLIES)[number];
+export const replySchema = z.enum(REPLIES, { error: 'Choose accept, maybe or decline.' });
 
 export const MAX_GUESTS = 200;
 
@@ -56,7 +56,7 @@ export const replyCommentSchema = z
 
 export const replyByTokenSchema = z.object({
   token: z.string().min(20, 'This reply link is not valid.').max(1000, 'This reply link is not valid.'),
-  answer: answerSchema,
+  reply: replySchema,
   comment: replyCommentSchema.default(''),
 });
 
@@ -72,4 +72,4 @@ export const replyDeadlineSchema = z.object({
 /** Reminders to those who have not replied: at most one per invitee in this time (common practice: once a day). */
 export const REMINDER_GAP_MS = 20 * 3600_000;
 
-export const answerInvitationSchema = z.object({ answer: answerSchema });
+export const replyToInvitationSchema = z.object({ reply: replySchema });

@@ -28,13 +28,13 @@ test('the host invites the crew, the operator accepts from their own mail, and t
   await expect(tracker.count('not-sent-yet')).toHaveText('0');
 
   // The invitation as caught by the local mail server. The host sees what was sent, with the
-  // reply links masked (issue 10, finding 1); the operator answers from their own mail.
+  // reply links masked (issue 10, finding 1); the operator replies from their own mail.
   await railwayPage.openTab('Mail outbox');
   const mail = page.getByTestId('caught-mail').locator('li', { hasText: `to ${DEMO.operator}` }).filter({ hasText: 'Invitation: December running evening' });
   await expect(mail).toHaveCount(1, { timeout: 20_000 });
   await mail.locator('summary').click();
   await expect(mail).toContainText('Your runs (5):');
-  await expect(mail.getByRole('link', { name: /answer=accepted/ })).toHaveCount(0);
+  await expect(mail.getByRole('link', { name: /reply=accepted/ })).toHaveCount(0);
   await expect(mail).toContainText('personal link');
   await screenshotBoth(page, 'invitations-mail');
 
@@ -49,7 +49,7 @@ test('the host invites the crew, the operator accepts from their own mail, and t
   await expect(own).toHaveCount(1);
   await own.locator('summary').click();
   await screenshotBoth(operatorPage, 'my-mail');
-  await own.getByRole('link', { name: /answer=accepted/ }).click();
+  await own.getByRole('link', { name: /reply=accepted/ }).click();
   await new InvitationReplyPage(operatorPage).confirm('Accept');
   await screenshotBoth(operatorPage, 'invitations-reply');
   await operatorContext.close();

@@ -5,7 +5,7 @@ import { inviteMember, removeMember, withdrawMemberOffer } from '@/app/(app)/rai
 import { replyByToken } from '@/app/(public)/reply/actions';
 import { GET as getPlan, POST as postPlan } from '@/app/api/sessions/[sessionId]/plan/route';
 import { PATCH as patchRun } from '@/app/api/sessions/[sessionId]/runs/[runId]/route';
-import { answerMemberOffer } from '@/app/(app)/railways/actions';
+import { replyToMemberOffer } from '@/app/(app)/railways/actions';
 import { requestPasswordReset } from '@/app/(auth)/reset-password/actions';
 import { requestSignInLink } from '@/app/(auth)/sign-in/actions';
 import { getDb } from '@/db';
@@ -81,12 +81,12 @@ describe('finding 1: account takeover through the Mail outbox', () => {
     expect(offer).toMatchObject({ railwayId: w.railway.id, role: 'planner' });
     // Someone else cannot take it, even knowing its id.
     signInAs(w.outsider);
-    expect(await answerMemberOffer(null, formData({ invitationId: offer!.id, answer: 'accept' }))).toMatchObject({ ok: false, status: 404 });
+    expect(await replyToMemberOffer(null, formData({ invitationId: offer!.id, reply: 'accept' }))).toMatchObject({ ok: false, status: 404 });
     // The owner, before proving the address: refused.
     signInAs(newcomer);
-    expect(await answerMemberOffer(null, formData({ invitationId: offer!.id, answer: 'accept' }))).toMatchObject({ ok: false, status: 403 });
+    expect(await replyToMemberOffer(null, formData({ invitationId: offer!.id, reply: 'accept' }))).toMatchObject({ ok: false, status: 403 });
     markEmailVerified(newcomer.id);
-    expect(await answerMemberOffer(null, formData({ invitationId: offer!.id, answer: 'accept' }))).toMatchObject({ ok: true });
+    expect(await replyToMemberOffer(null, formData({ invitationId: offer!.id, reply: 'accept' }))).toMatchObject({ ok: true });
     expect(getMembership(w.railway.id, newcomer.id)?.role).toBe('planner');
     expect(listMemberInvitationsFor(newcomer.email)).toHaveLength(0);
 
@@ -101,7 +101,7 @@ describe('finding 1: account takeover through the Mail outbox', () => {
   });
 
   it("finding 1: links that act for the recipient are masked in a railway's outbox view", () => {
-    const text = 'Accept: http://127.0.0.1:3999/reply?token=abc.def&answer=accepted\nTimetable: http://127.0.0.1:3999/railways/r1/sessions/s1';
+    const text = 'Accept: http://127.0.0.1:3999/reply?token=abc.def&reply=accepted\nTimetable: http://127.0.0.1:3999/railways/r1/sessions/s1';
     const masked = maskPersonalLinks(text);
     expect(masked).not.toContain('token=');
     expect(masked).toContain(PERSONAL_LINK_MASK);
@@ -132,7 +132,7 @@ describe('finding 4: removing a member does not stick', () => {
 
     // The old link: refused, and they stay removed.
     signInAs(null);
-    expect(await replyByToken(null, formData({ token, answer: 'accepted' }))).toMatchObject({ ok: false, status: 400 });
+    expect(await replyByToken(null, formData({ token, reply: 'accepted' }))).toMatchObject({ ok: false, status: 400 });
     expect(getMembership(w.railway.id, crew.id)).toBeUndefined();
 
     // The session changes; the update goes to those still invited, not to the removed member.

@@ -10,7 +10,7 @@ import { authTokens, outbox, users } from '@/db/schema';
 import { authOptions } from '@/lib/auth-options';
 import { issueAuthToken, spendAuthToken } from '@/lib/tokens';
 import { inviteMember } from '@/app/(app)/railways/[railwayId]/members/actions';
-import { answerMemberOffer } from '@/app/(app)/railways/actions';
+import { replyToMemberOffer } from '@/app/(app)/railways/actions';
 import { listMemberInvitationsFor } from '@/db/queries/member-invitations';
 import { getMembership } from '@/db/queries/memberships';
 import { signInAs } from './caller';
@@ -82,7 +82,7 @@ describe('issue 10, findings 8 and 9: sign-up proves the address', () => {
     expect(victim.emailVerifiedAt).toBeNull();
     signInAs({ id: victim.id, email: victim.email, name: victim.name });
     const [offer] = listMemberInvitationsFor(victim.email);
-    expect(await answerMemberOffer(null, formData({ invitationId: offer!.id, answer: 'accept' }))).toMatchObject({ ok: false, status: 403 });
+    expect(await replyToMemberOffer(null, formData({ invitationId: offer!.id, reply: 'accept' }))).toMatchObject({ ok: false, status: 403 });
     expect(getMembership(w.railway.id, victim.id)).toBeUndefined();
     // The real owner signs up and confirms from their mailbox: their password, not the attacker's.
     signInAs(null);

@@ -191,7 +191,7 @@ describe('reminders, the reply deadline and notes with replies', () => {
     const { signReplyToken } = await import('@/lib/invitations/reply-token');
     const { replyByToken } = await import('@/app/(public)/reply/actions');
     const token = signReplyToken({ railwayId: w.railway.id, invitationId: inv(w.operator.email).id, nonce: 0, expiresAt: session.endsAt.getTime() });
-    expect(await replyByToken(null, formData({ token, answer: 'accepted' }))).toMatchObject({ ok: true });
+    expect(await replyByToken(null, formData({ token, reply: 'accepted' }))).toMatchObject({ ok: true });
 
     expect(await remindCrew(w.railway.id, session.id, null, formData({}))).toMatchObject({ ok: true, message: '2 reminders queued.' });
     expect(await remindCrew(w.railway.id, session.id, null, formData({}))).toMatchObject({ ok: true, message: 'No reminder sent. 2 people reminded in the last day left out.' });
@@ -206,9 +206,9 @@ describe('reminders, the reply deadline and notes with replies', () => {
     expect(reminder.attachments.filter((a) => a.contentType === 'text/calendar')).toHaveLength(0);
     expect(caughtFor(w.operator.email)).toHaveLength(1);
     // A day later the gap has passed: the two are due again (the service takes the time it is given).
-    const { remindUnanswered } = await import('@/lib/invitations/send');
+    const { remindAwaitingReply } = await import('@/lib/invitations/send');
     const later = new Date(Date.now() + 21 * 3600_000);
-    expect(remindUnanswered({ railwayId: w.railway.id, sessionId: session.id, host: w.host, now: later })).toEqual({ queued: 2, tooSoon: 0 });
+    expect(remindAwaitingReply({ railwayId: w.railway.id, sessionId: session.id, host: w.host, now: later })).toEqual({ queued: 2, tooSoon: 0 });
     expect(inv(w.planner.email).reminderCount).toBe(2);
   });
 
@@ -234,7 +234,7 @@ describe('reminders, the reply deadline and notes with replies', () => {
     const inv = listSessionInvitations(session.id).find((i) => i.email === w.operator.email)!;
     const token = signReplyToken({ railwayId: w.railway.id, invitationId: inv.id, nonce: inv.replyNonce, expiresAt: session.endsAt.getTime() });
     const late = recordReply(token, 'declined', new Date(dayBefore.getTime() + 60_000), 'Sorry, work trip.');
-    expect(late).toMatchObject({ answer: 'declined', late: true });
+    expect(late).toMatchObject({ reply: 'declined', late: true });
     const after = listSessionInvitations(session.id).find((i) => i.id === inv.id)!;
     expect(after.reply).toBe('declined');
     expect(isLate(getRailwaySession(w.railway.id, session.id)!.replyBy, after.respondedAt)).toBe(true);
@@ -250,9 +250,9 @@ describe('reminders, the reply deadline and notes with replies', () => {
     const { signReplyToken } = await import('@/lib/invitations/reply-token');
     const inv = () => listSessionInvitations(session.id).find((i) => i.email === w.operator.email)!;
     const tokenNow = () => signReplyToken({ railwayId: w.railway.id, invitationId: inv().id, nonce: inv().replyNonce, expiresAt: session.endsAt.getTime() });
-    expect(await replyByToken(null, formData({ token: tokenNow(), answer: 'tentative', comment: 'x'.repeat(281) }))).toMatchObject({ ok: false, status: 400 });
+    expect(await replyByToken(null, formData({ token: tokenNow(), reply: 'tentative', comment: 'x'.repeat(281) }))).toMatchObject({ ok: false, status: 400 });
     expect(inv().reply).toBe('needs-action'); // refused input changes nothing
-    expect(await replyByToken(null, formData({ token: tokenNow(), answer: 'tentative', comment: ' Late\u0007 train\r\nhome ' }))).toMatchObject({ ok: true });
+    expect(await replyByToken(null, formData({ token: tokenNow(), reply: 'tentative', comment: ' Late\u0007 train\r\nhome ' }))).toMatchObject({ ok: true });
     expect(inv().comment).toBe('Late train\nhome');
     // Another operator's view of the session (their runs page, the calendar file) never carries the note.
     const other = w.makeUser('another-operator');

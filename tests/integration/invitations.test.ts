@@ -137,7 +137,7 @@ describe('the e-mail over real SMTP', () => {
     expect(parsed.text).toContain('Stand: 2 min real before departure, 3 min real after arrival');
     expect(parsed.text).toMatch(/Cab after you: planner \d+ \(Freight, 07:00\)/);
     expect(parsed.text).toContain('- stand-by: Covers cab B.');
-    expect(parsed.text).toMatch(/Accept: http:\/\/127\.0\.0\.1:3999\/reply\?token=[^&\s]+&answer=accepted/);
+    expect(parsed.text).toMatch(/Accept: http:\/\/127\.0\.0\.1:3999\/reply\?token=[^&\s]+&reply=accepted/);
     expect(parsed.html).toContain('Your runs (2)');
     // RFC 6047 2.4: Content-Type text/calendar with method matching METHOD and charset UTF-8.
     const calendarPart = /Content-Type: text\/calendar;([^\r\n]*(?:\r\n[ \t][^\r\n]*)*)/i.exec(caught[0]!.raw);
@@ -211,7 +211,7 @@ describe('the e-mail over real SMTP', () => {
     expect(c.event.getFirstPropertyValue('uid')).toBe(a.event.getFirstPropertyValue('uid')); // RFC 5546 3.2.5: same UID
     expect(c.event.getFirstPropertyValue('sequence')).toBe(2); // RFC 5546 3.2.5: SEQUENCE raised
     expect(/Content-Type: text\/calendar;[^\r\n]*(\r\n[ \t][^\r\n]*)*/i.exec(mails[2]!.raw)![0]).toMatch(/method=CANCEL/i); // RFC 6047 2.4
-    expect(c.parsed.text).not.toContain('answer=accepted');
+    expect(c.parsed.text).not.toContain('reply=accepted');
     expect(outboxOf(invitation.id).map((m) => m.calendarMethod)).toEqual(expect.arrayContaining(['REQUEST', 'REQUEST', 'CANCEL']));
   });
 

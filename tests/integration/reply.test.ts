@@ -1,7 +1,7 @@
 import crypto from 'node:crypto';
 import { and, eq } from 'drizzle-orm';
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { answerInvitation } from '@/app/(app)/my-runs/actions';
+import { replyToInvitation } from '@/app/(app)/my-runs/actions';
 import { replyByToken } from '@/app/(public)/reply/actions';
 import { inviteCrew } from '@/app/(app)/railways/[railwayId]/sessions/[sessionId]/invitations/actions';
 import { getDb } from '@/db';
@@ -31,26 +31,26 @@ function setup(options: Parameters<typeof makeSessionWorld>[1] = {}) {
   return { w, ...s, tokenFor };
 }
 
-const reply = (token: string, answer: string) => replyByToken(null, formData({ token, answer }));
+const reply = (token: string, choice: string) => replyByToken(null, formData({ token, reply: choice }));
 
 describe('replying with a link, without signing in', () => {
-  it('records the answer, which the host’s tracker shows at once', async () => {
+  it('records the reply, which the host’s tracker shows at once', async () => {
     const { session, invitation, tokenFor } = setup();
     const state = await reply(tokenFor(), 'accepted');
-    expect(state).toMatchObject({ ok: true, data: { answer: 'accepted', sessionTitle: 'Test running evening' } });
+    expect(state).toMatchObject({ ok: true, data: { reply: 'accepted', sessionTitle: 'Test running evening' } });
     const row = listSessionInvitations(session.id).find((i) => i.id === invitation.id)!;
     expect(row.reply).toBe('accepted');
     expect(row.respondedAt).toBeInstanceOf(Date);
     expect(row.replyNonce).toBe(1);
   });
 
-  it('opening the link changes nothing (a mail scanner cannot answer for the reader)', () => {
+  it('opening the link changes nothing (a mail scanner cannot reply for the reader)', () => {
     const { session, invitation, tokenFor } = setup();
     expect(inspectReplyToken(tokenFor())).toMatchObject({ ok: true });
     expect(listSessionInvitations(session.id).find((i) => i.id === invitation.id)).toMatchObject({ reply: 'needs-action', replyNonce: 0 });
   });
 
-  it('a link works once per answer change; the fresh link from the answer page changes it again', async () => {
+  it('a link works once per reply change; the fresh link from the reply page changes it again', async () => {
     const { tokenFor } = setup();
     const token = tokenFor();
     const first = await reply(token, 'accepted');
@@ -58,7 +58,7 @@ describe('replying with a link, without signing in', () => {
     expect(await reply(token, 'declined')).toMatchObject({ ok: false, status: 409, error: expect.stringMatching(/already used/) });
     expect(await reply(token, 'accepted')).toMatchObject({ ok: false, status: 409 });
     const next = first?.ok ? first.data!.nextToken : '';
-    expect(await reply(next, 'tentative')).toMatchObject({ ok: true, data: { answer: 'tentative' } });
+    expect(await reply(next, 'tentative')).toMatchObject({ ok: true, data: { reply: 'tentative' } });
     expect(await reply(next, 'declined')).toMatchObject({ ok: false, status: 409 });
   });
 
@@ -104,9 +104,9 @@ describe('replying with a link, without signing in', () => {
     expect(await reply(tokenFor(), 'accepted')).toMatchObject({ ok: false, status: 400 });
   });
 
-  it('refuses an answer that is not accept, maybe or decline', async () => {
+  it('refuses a reply that is not accept, maybe or decline', async () => {
     const { tokenFor } = setup();
-    expect(await reply(tokenFor(), 'needs-action')).toMatchObject({ ok: false, status: 400, fieldErrors: { answer: expect.any(String) } });
+    expect(await reply(tokenFor(), 'needs-action')).toMatchObject({ ok: false, status: 400, fieldErrors: { reply: expect.any(String) } });
   });
 
   it('limits attempts per invitation (429 after ten a minute)', async () => {
@@ -134,21 +134,21 @@ describe('replying with a link, without signing in', () => {
     expect(roleOf('no-guest@example.org')).toBeUndefined();
   });
 
-  it('an answer on My runs stops the e-mail’s links (the nonce moved on)', async () => {
+  it('a reply on My runs stops the e-mail’s links (the nonce moved on)', async () => {
     const { w, invitation, tokenFor } = setup();
     const token = tokenFor();
     signInAs(w.operator);
-    expect(await answerInvitation(invitation.id, null, formData({ answer: 'declined' }))).toMatchObject({ ok: true });
+    expect(await replyToInvitation(invitation.id, null, formData({ reply: 'declined' }))).toMatchObject({ ok: true });
     signInAs(null);
     expect(await reply(token, 'accepted')).toMatchObject({ ok: false, status: 409 });
     expect(getDb().select().from(t.invitations).where(eq(t.invitations.id, invitation.id)).get()!.reply).toBe('declined');
   });
 
-  it('on My runs nobody can answer someone else’s invitation', async () => {
+  it('on My runs nobody can reply to someone else’s invitation', async () => {
     const { w, invitation } = setup();
     signInAs(w.planner);
-    expect(await answerInvitation(invitation.id, null, formData({ answer: 'declined' }))).toMatchObject({ ok: false, status: 404 });
+    expect(await replyToInvitation(invitation.id, null, formData({ reply: 'declined' }))).toMatchObject({ ok: false, status: 404 });
     signInAs(w.operator);
-    expect(await answerInvitation(invitation.id, null, formData({ answer: 'maybe' }))).toMatchObject({ ok: false, status: 400 });
+    expect(await replyToInvitation(invitation.id, null, formData({ reply: 'maybe' }))).toMatchObject({ ok: false, status: 400 });
   });
 });

@@ -138,7 +138,7 @@ describe('invitation e-mail', () => {
       ].join('\n'),
     )).toBe(true);
     expect(buildInvitationBody(content({ isUpdate: true })).text).toContain(
-      '\nHal has changed this operating session. Please check your runs and answer again if your plans changed.\n',
+      '\nHal has changed this operating session. Please check your runs and reply again if your plans changed.\n',
     );
     const cancel = buildInvitationBody(content({ method: 'CANCEL' }));
     expect(cancel.text).toContain('\nHal has cancelled this operating session. Your calendar can remove it.\n');
@@ -179,7 +179,7 @@ describe('invitation e-mail', () => {
     expect(update.html).toContain('<h3>What changed for you</h3><ul><li>Goods now departs 06:50 fast</li><li>Cab &#60;2&#62; instead of Cab 1</li></ul>');
     const reminder = buildInvitationBody(content({ isUpdate: true, isReminder: true, changes }));
     expect(norm(reminder.subject)).toBe('Reminder, please reply: Winter running <evening> (Sat 12 Dec 2026)');
-    expect(reminder.text).toContain('\nHal has not had your answer yet for this operating session.\n');
+    expect(reminder.text).toContain('\nHal has not had your reply yet for this operating session.\n');
     for (const part of [reminder.text, reminder.html, buildInvitationBody(content({ changes })).text]) expect(part).not.toContain('What changed');
     expect(buildInvitationBody(content({ method: 'CANCEL', isUpdate: true, changes })).text).not.toContain('What changed');
   });

@@ -360,9 +360,9 @@ describe('invitations', () => {
   });
 
   it('a reply link carries a token and one of the three answers (RFC 5545 3.2.12 PARTSTAT)', () => {
-    const reply = { token: 't'.repeat(40), answer: 'tentative' };
+    const reply = { token: 't'.repeat(40), reply: 'tentative' };
     expect(parsed(replyByTokenSchema, reply)).toEqual({ ...reply, comment: '' });
-    expect(refusedOn(replyByTokenSchema, { ...reply, answer: 'needs-action' }, 'answer')).toMatch(SENTENCE);
+    expect(refusedOn(replyByTokenSchema, { ...reply, reply: 'needs-action' }, 'reply')).toMatch(SENTENCE);
   });
 });
 

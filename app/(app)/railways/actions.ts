@@ -20,27 +20,27 @@ export const createRailway = action(['state', 'form'], async (_prev, formData): 
   redirect(`/railways/${railwayId}`);
 });
 
-const offerSchema = z.object({ invitationId: z.string().min(1).max(100), answer: z.enum(['accept', 'decline']) });
+const offerSchema = z.object({ invitationId: z.string().min(1).max(100), reply: z.enum(['accept', 'decline']) });
 
 /**
- * The signed-in owner of an address answers a railway's offer of membership made to it. Only an
+ * The signed-in owner of an address replies to a railway's offer of membership made to it. Only an
  * address the account has proved (a link sent to it was followed) may accept, so an account
  * registered in someone else's name before they arrive never collects their memberships.
  */
-export const answerMemberOffer = action(['state', 'form'], async (_prev, formData): Promise<ActionState> => {
+export const replyToMemberOffer = action(['state', 'form'], async (_prev, formData): Promise<ActionState> => {
   const caller = await requireUser();
-  const input = parseOrThrow(offerSchema, { invitationId: formData.get('invitationId'), answer: formData.get('answer') });
+  const input = parseOrThrow(offerSchema, { invitationId: formData.get('invitationId'), reply: formData.get('reply') });
   const user = getUserById(caller.id);
   if (!user || !listMemberInvitationsFor(user.email).some((o) => o.id === input.invitationId)) throw notFound('That invitation');
-  if (input.answer === 'accept' && !user.emailVerifiedAt) {
+  if (input.reply === 'accept' && !user.emailVerifiedAt) {
     throw new AppError('forbidden', 'Confirm your e-mail address first: follow the link in the message we sent to it, then accept.');
   }
   const offer = takeMemberInvitation(input.invitationId, user.email);
   if (!offer) throw notFound('That invitation');
-  if (input.answer === 'accept') addMember(offer.railwayId, user.id, offer.role);
-  recordAudit({ railwayId: offer.railwayId, userId: user.id, action: `${input.answer}-offer`, entity: 'member', entityId: user.id, detail: { role: offer.role } });
+  if (input.reply === 'accept') addMember(offer.railwayId, user.id, offer.role);
+  recordAudit({ railwayId: offer.railwayId, userId: user.id, action: `${input.reply}-offer`, entity: 'member', entityId: user.id, detail: { role: offer.role } });
   revalidatePath('/railways');
-  return { ok: true, message: input.answer === 'accept' ? 'You joined the railway.' : 'Invitation declined.' };
+  return { ok: true, message: input.reply === 'accept' ? 'You joined the railway.' : 'Invitation declined.' };
 });
 
 /** Ends every session of the signed-in person (this one too) and every sign-in or reset link not used yet. */

@@ -8,19 +8,19 @@ import { claimedInvitationId } from '@/lib/invitations/reply-token';
 import { rateLimit } from '@/lib/rate-limit';
 import { replyByTokenSchema } from '@/lib/validations/invitation';
 
-export type ReplyResult = { answer: string; sessionTitle: string; railwayName: string; joined: boolean; nextToken: string; late: boolean };
+export type ReplyResult = { reply: string; sessionTitle: string; railwayName: string; joined: boolean; nextToken: string; late: boolean };
 
 /**
  * Anyone holding a reply link: records accept, maybe or decline without signing in. The link's
- * signature, expiry, railway and once-per-answer nonce are checked in lib/invitations/reply.ts.
+ * signature, expiry, railway and once-per-reply nonce are checked in lib/invitations/reply.ts.
  */
 export const replyByToken = action(['state', 'form'], async (_prev, formData): Promise<ActionState<ReplyResult>> => {
   const token = String(formData.get('token') ?? '');
   rateLimit(`reply-ip:${await clientAddress()}`, 60, 60_000);
   rateLimit(`reply:${claimedInvitationId(token)}`, 10, 60_000);
-  const input = parseOrThrow(replyByTokenSchema, { token, answer: formData.get('answer'), comment: formData.get('comment') ?? '' });
-  // No revalidatePath: re-rendering this page would re-read the now spent link and hide the answer;
+  const input = parseOrThrow(replyByTokenSchema, { token, reply: formData.get('reply'), comment: formData.get('comment') ?? '' });
+  // No revalidatePath: re-rendering this page would re-read the now spent link and hide the reply;
   // the host's tracker is rendered fresh on every request and refreshes itself.
-  const result = recordReply(input.token, input.answer, new Date(), input.comment);
-  return { ok: true, message: 'Thank you — your answer is recorded.', data: result };
+  const result = recordReply(input.token, input.reply, new Date(), input.comment);
+  return { ok: true, message: 'Thank you — your reply is recorded.', data: result };
 });

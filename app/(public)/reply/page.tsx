@@ -2,17 +2,20 @@ import type { Metadata } from 'next';
 import { ReplyForm } from '@/components/invitations/reply-form';
 import { Card, Notice } from '@/components/ui/card';
 import { formatInZone } from '@/lib/time-zone';
-import { ANSWER_LABELS, inspectReplyToken } from '@/lib/invitations/reply';
-import { ANSWERS, MAX_REPLY_COMMENT, type Answer } from '@/lib/validations/invitation';
+import { inspectReplyToken, REPLY_PAGE_LABELS } from '@/lib/invitations/reply';
+import { MAX_REPLY_COMMENT, REPLIES, type Reply } from '@/lib/validations/invitation';
 
 export const metadata: Metadata = { title: 'Reply to an invitation', robots: { index: false } };
 export const dynamic = 'force-dynamic';
 
-// Opening the link changes nothing: the answer is recorded when the person presses the button,
-// so a mail scanner that follows links ahead of the reader cannot answer for them.
-export default async function ReplyPage({ searchParams }: { searchParams: Promise<{ token?: string; answer?: string }> }) {
-  const { token, answer } = await searchParams;
-  const chosen: Answer = ANSWERS.includes(answer as Answer) ? (answer as Answer) : 'accepted';
+// Opening the link changes nothing: the reply is recorded when the person presses the button,
+// so a mail scanner that follows links ahead of the reader cannot reply for them.
+export default async function ReplyPage({ searchParams }: { searchParams: Promise<{ token?: string; reply?: string; answer?: string }> }) {
+  const params = await searchParams;
+  const token = params.token;
+  // Links sent before the reply had one name say `answer=`; they still choose the button.
+  const reply = params.reply ?? params.answer;
+  const chosen: Reply = REPLIES.includes(reply as Reply) ? (reply as Reply) : 'accepted';
   const inspected = token ? inspectReplyToken(token) : null;
   return (
     <div className="space-y-4">
@@ -21,7 +24,7 @@ export default async function ReplyPage({ searchParams }: { searchParams: Promis
       {inspected && !inspected.ok ? (
         <Notice tone="bad">
           {inspected.error}
-          {'current' in inspected && inspected.current ? ` (Recorded now: ${ANSWER_LABELS[inspected.current]}.)` : ''}
+          {'current' in inspected && inspected.current ? ` (Recorded now: ${REPLY_PAGE_LABELS[inspected.current]}.)` : ''}
         </Notice>
       ) : null}
       {token && inspected?.ok ? (
@@ -37,7 +40,7 @@ export default async function ReplyPage({ searchParams }: { searchParams: Promis
             {inspected.found.session.replyBy ? (
               <p className="text-sm" data-testid="reply-deadline">
                 {inspected.found.session.replyBy.getTime() < Date.now() ? (
-                  <>The reply deadline was {formatInZone(inspected.found.session.replyBy, inspected.found.session.timeZone)}. Your answer still counts; the host sees it marked late.</>
+                  <>The reply deadline was {formatInZone(inspected.found.session.replyBy, inspected.found.session.timeZone)}. Your reply still counts; the host sees it marked late.</>
                 ) : (
                   <>Please reply by <strong>{formatInZone(inspected.found.session.replyBy, inspected.found.session.timeZone)}</strong>.</>
                 )}
@@ -48,7 +51,7 @@ export default async function ReplyPage({ searchParams }: { searchParams: Promis
             <ReplyForm
               token={token}
               chosen={chosen}
-              currentLabel={ANSWER_LABELS[inspected.found.invitation.reply]}
+              currentLabel={REPLY_PAGE_LABELS[inspected.found.invitation.reply]}
               comment={inspected.found.invitation.comment}
               maxComment={MAX_REPLY_COMMENT}
             />

@@ -39,9 +39,9 @@ export class InvitationTrackerPage {
 export class InvitationReplyPage {
   constructor(private readonly page: Page) {}
 
-  async confirm(answer: 'Accept' | 'Maybe' | 'Decline') {
+  async confirm(reply: 'Accept' | 'Maybe' | 'Decline') {
     await expect(this.page.getByRole('heading', { name: 'Reply to an invitation' })).toBeVisible();
-    await this.page.getByRole('button', { name: answer, exact: true }).click();
-    await expect(this.page.getByTestId('reply-recorded')).toBeVisible();
+    await this.page.getByRole('button', { name: reply, exact: true }).click();
+    await expect(this.page.getByTestId('reply-recorded')).toContainText('Your reply is recorded');
   }
 }

@@ -54,15 +54,15 @@ export const FOUNDATION_CASES: AuthzCase[] = [
   },
   {
     // An offer of membership made to the operator's address by the other railway: only the owner
-    // of that address may answer it; anyone else finds nothing.
-    target: 'app/(app)/railways/actions.ts#answerMemberOffer',
+    // of that address may reply to it; anyone else finds nothing.
+    target: 'app/(app)/railways/actions.ts#replyToMemberOffer',
     call: async (w) => {
-      const { answerMemberOffer } = await import('@/app/(app)/railways/actions');
+      const { replyToMemberOffer } = await import('@/app/(app)/railways/actions');
       const { upsertMemberInvitation } = await import('@/db/queries/member-invitations');
       const { markEmailVerified } = await import('@/db/queries/users');
       for (const u of [w.operator, w.planner, w.host, w.outsider]) markEmailVerified(u.id);
       const offer = upsertMemberInvitation({ railwayId: w.otherRailway.id, email: w.operator.email, role: 'operator', invitedById: w.outsider.id });
-      return actionStatus(() => answerMemberOffer(null, formData({ invitationId: offer.id, answer: 'accept' })));
+      return actionStatus(() => replyToMemberOffer(null, formData({ invitationId: offer.id, reply: 'accept' })));
     },
     expect: { anon: 401, outsider: 404, operator: 200, planner: 404, host: 404 },
   },

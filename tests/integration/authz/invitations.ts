@@ -137,15 +137,15 @@ export const INVITATION_CASES: AuthzCase[] = [
     expect: hostOnly,
   },
   {
-    // Each member answers their own invitation; the outsider tries the operator's (404).
-    target: `${MY_RUNS}#answerInvitation`,
+    // Each member replies to their own invitation; the outsider tries the operator's (404).
+    target: `${MY_RUNS}#replyToInvitation`,
     call: async (w) => {
-      const { answerInvitation } = await import('@/app/(app)/my-runs/actions');
+      const { replyToInvitation } = await import('@/app/(app)/my-runs/actions');
       const { session, invitation } = makeSessionWorld(w);
       const all = inviteEveryone(w, session.id);
       const { caller } = await import('../caller');
       const own = all.find((i) => i.userId === caller.user?.id) ?? invitation;
-      return actionStatus(() => answerInvitation(own.id, null, formData({ answer: 'accepted' })));
+      return actionStatus(() => replyToInvitation(own.id, null, formData({ reply: 'accepted' })));
     },
     expect: anyMember,
   },
@@ -166,7 +166,7 @@ export const INVITATION_CASES: AuthzCase[] = [
       const { session, invitation } = makeSessionWorld(w);
       const token = signReplyToken({ railwayId: w.railway.id, invitationId: invitation.id, nonce: 0, expiresAt: session.endsAt.getTime() });
       return actionStatus(async () => {
-        const state = await replyByToken(null, formData({ token, answer: 'tentative' }));
+        const state = await replyByToken(null, formData({ token, reply: 'tentative' }));
         return state?.ok ? { ok: true } : state;
       });
     },

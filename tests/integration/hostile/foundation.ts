@@ -52,12 +52,12 @@ export const FOUNDATION_HOSTILE: HostileTarget[] = [
     },
   },
   {
-    target: 'app/(app)/railways/actions.ts#answerMemberOffer',
+    target: 'app/(app)/railways/actions.ts#replyToMemberOffer',
     kind: 'action',
-    fields: ['invitationId', 'answer'],
+    fields: ['invitationId', 'reply'],
     send: async (_w, f) => {
-      const { answerMemberOffer } = await import('@/app/(app)/railways/actions');
-      return actionStatus(() => answerMemberOffer(null, formData(f)));
+      const { replyToMemberOffer } = await import('@/app/(app)/railways/actions');
+      return actionStatus(() => replyToMemberOffer(null, formData(f)));
     },
   },
   {

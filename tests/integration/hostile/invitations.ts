@@ -1,4 +1,4 @@
-import { answerInvitationSchema, answerSchema, guestEmailsSchema, replyDeadlineSchema, sendNoticesSchema } from '@/lib/validations/invitation';
+import { guestEmailsSchema, replyDeadlineSchema, replySchema, replyToInvitationSchema, sendNoticesSchema } from '@/lib/validations/invitation';
 import { inviteEveryone, makeSessionWorld } from '../authz/invitations';
 import { actionStatus, type World } from '../authz/shared';
 import { formData } from '../world';
@@ -71,15 +71,15 @@ export const INVITATION_HOSTILE: HostileTarget[] = [
     },
   },
   {
-    // The host's own invitation (a real id); the answer is hostile.
-    target: `${MY_RUNS}#answerInvitation`,
+    // The host's own invitation (a real id); the reply is hostile.
+    target: `${MY_RUNS}#replyToInvitation`,
     kind: 'action',
-    fields: ['answer'],
+    fields: ['reply'],
     setup: world,
     send: async (w, f) => {
-      const { answerInvitation } = await import('@/app/(app)/my-runs/actions');
-      const fields = refused(f, (v) => answerInvitationSchema.safeParse(v).success, { answer: '' });
-      return actionStatus(() => answerInvitation(world(w).own.id, null, formData(fields)));
+      const { replyToInvitation } = await import('@/app/(app)/my-runs/actions');
+      const fields = refused(f, (v) => replyToInvitationSchema.safeParse(v).success, { reply: '' });
+      return actionStatus(() => replyToInvitation(world(w).own.id, null, formData(fields)));
     },
   },
   {
@@ -91,20 +91,20 @@ export const INVITATION_HOSTILE: HostileTarget[] = [
     // A hostile token is never signed by us; and a real reply link with a hostile answer.
     target: 'app/(public)/reply/actions.ts#replyByToken',
     kind: 'action',
-    fields: ['token', 'answer', 'comment'],
+    fields: ['token', 'reply', 'comment'],
     setup: world,
     send: async (w, f) => {
       const { replyByToken } = await import('@/app/(public)/reply/actions');
       const { signReplyToken } = await import('@/lib/invitations/reply-token');
       const { session, invitation } = world(w);
       const token = signReplyToken({ railwayId: w.railway.id, invitationId: invitation.id, nonce: 0, expiresAt: session.endsAt.getTime() });
-      const { answer } = refused(f, (v) => answerSchema.safeParse(v.answer).success, { answer: '' });
+      const { reply: choice } = refused(f, (v) => replySchema.safeParse(v.reply).success, { reply: '' });
       const reply = (fields: Record<string, string>) =>
         actionStatus(async () => {
           const state = await replyByToken(null, formData(fields));
           return state?.ok ? { ok: true } : state;
         });
-      return worst([await reply(f), await reply({ token, answer: answer!, comment: f.comment ?? '' })]);
+      return worst([await reply(f), await reply({ token, reply: choice!, comment: f.comment ?? '' })]);
     },
   },
 ];

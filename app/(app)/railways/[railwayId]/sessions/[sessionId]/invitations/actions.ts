@@ -6,7 +6,7 @@ import { parseOrThrow, type ActionState } from '@/lib/errors';
 import { action } from '@/lib/http';
 import {
   inviteToSession,
-  remindUnanswered,
+  remindAwaitingReply,
   queueInvitationAgain,
   queueSessionNotices,
   saveReplyDeadline,
@@ -72,7 +72,7 @@ export const resendInvitation = action(['id', 'id', 'state', 'form'], async (rai
 export const remindCrew = action(['id', 'id', 'state', 'form'], async (railwayId, sessionId): Promise<ActionState> => {
   const host = await requireMember(parseOrThrow(railwayIdSchema, railwayId), 'host', 'send reminders');
   const id = parseOrThrow(sessionIdSchema, sessionId);
-  const result = remindUnanswered({ railwayId: host.railwayId, sessionId: id, host: host.user });
+  const result = remindAwaitingReply({ railwayId: host.railwayId, sessionId: id, host: host.user });
   revalidatePath(trackerPath(host.railwayId, id));
   const later = result.tooSoon ? ` ${result.tooSoon === 1 ? '1 person' : `${result.tooSoon} people`} reminded in the last day left out.` : '';
   return { ok: true, message: result.queued ? `${plural(result.queued, 'reminder')} queued.${later}` : `No reminder sent.${later}` };

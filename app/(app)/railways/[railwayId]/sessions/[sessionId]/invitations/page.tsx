@@ -58,9 +58,9 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
   const now = new Date();
   const ended = session.endsAt.getTime() < now.getTime();
   const open = session.status === 'published' && !ended;
-  const unanswered = invitations.filter((i) => i.reply === 'needs-action' && i.mailCount > 0);
-  const due = remindable(unanswered, now);
-  const waiting = unanswered.filter((i) => !due.includes(i));
+  const awaiting = invitations.filter((i) => i.reply === 'needs-action' && i.mailCount > 0);
+  const due = remindable(awaiting, now);
+  const waiting = awaiting.filter((i) => !due.includes(i));
   const lastReminded = invitations.reduce<Date | null>((max, i) => (i.remindedAt && (!max || i.remindedAt > max) ? i.remindedAt : max), null);
   const nextReminder = waiting.map((i) => nextReminderAt(i)!).sort((a, b) => a.getTime() - b.getTime())[0] ?? null;
   const short = (d: Date) => formatInZone(d, zone, { weekday: undefined, year: undefined });
