@@ -247,6 +247,7 @@ function Builder({ sessionId, initial, layout, canEdit, dateLabel, status }: Pro
                   onSelectRun={selectRun}
                   onMoveRun={move}
                   height={graphHeight.px}
+                  interactive={drawn}
                 />
               </div>
               <GraphResizeHandle height={graphHeight.px} onResize={graphHeight.set} controls="train-graph-area" />

@@ -23,6 +23,12 @@ type Props = {
   onMoveRun: (run: Run, departS: number) => void;
   /** The drawing's height in px (the planner resizes it); without it each stretch of line gets ROW px. */
   height?: number;
+  /**
+   * Whether runs can be pointed at (wide invisible lines with a tooltip, to pick and drag them). The
+   * builder turns it on once the page is live in the browser: before that nothing could answer a
+   * pointer, and the server's HTML stays half the size.
+   */
+  interactive?: boolean;
 };
 
 const TOP = 34;
@@ -66,27 +72,30 @@ type GraphRunProps = {
   moving: boolean;
   canEdit: boolean;
   title: string;
+  interactive: boolean;
 };
 
 /** One run's line (all props are plain values, so an unchanged run is not redrawn after an edit). */
-const GraphRun = memo(function GraphRun({ runId, points, ghost, color, selected, clash, dim, moving, canEdit, title }: GraphRunProps) {
+const GraphRun = memo(function GraphRun({ runId, points, ghost, color, selected, clash, dim, moving, canEdit, title, interactive }: GraphRunProps) {
   return (
     <g opacity={dim ? 0.3 : 1}>
       {clash ? <polyline points={points} fill="none" className="stroke-signal" strokeWidth={selected ? 9 : 6} opacity={0.35} /> : null}
       <polyline points={points} fill="none" stroke={color} strokeWidth={selected ? 4 : 2.25} strokeLinejoin="round" strokeDasharray={moving ? '4 3' : undefined} />
-      <polyline
-        points={points}
-        fill="none"
-        stroke="transparent"
-        strokeWidth={14}
-        data-run-id={runId}
-        data-testid="graph-run"
-        data-clash={clash ? 'true' : 'false'}
-        data-selected={selected ? 'true' : 'false'}
-        className={canEdit ? 'cursor-ew-resize' : 'cursor-pointer'}
-      >
-        <title>{title}</title>
-      </polyline>
+      {interactive ? (
+        <polyline
+          points={points}
+          fill="none"
+          stroke="transparent"
+          strokeWidth={14}
+          data-run-id={runId}
+          data-testid="graph-run"
+          data-clash={clash ? 'true' : 'false'}
+          data-selected={selected ? 'true' : 'false'}
+          className={canEdit ? 'cursor-ew-resize' : 'cursor-pointer'}
+        >
+          <title>{title}</title>
+        </polyline>
+      ) : null}
       {ghost ? <polyline points={ghost} fill="none" stroke={color} strokeWidth={3} opacity={0.8} pointerEvents="none" /> : null}
     </g>
   );
@@ -98,7 +107,7 @@ const GraphRun = memo(function GraphRun({ runId, points, ghost, color, selected,
  * Zoom and pan over time; a planner drags a run sideways to give it a new departure.
  */
 export function TrainGraph(props: Props) {
-  const { layout, runs, findings, clock, sessionLengthS, clashing, highlight, colorOf, trainName, canEdit } = props;
+  const { layout, runs, findings, clock, sessionLengthS, clashing, highlight, colorOf, trainName, canEdit, interactive = true } = props;
   const box = useRef<HTMLDivElement>(null);
   const [width, setWidth] = useState(960);
   const [view, setView] = useState<[number, number]>([0, Math.max(600, sessionLengthS)]);
@@ -166,7 +175,13 @@ export function TrainGraph(props: Props) {
         if (i === steps.length - 1) pts.push([step.exitS, (entry + exit) / 2]);
       }
     }
-    return pts.map(([t, mm]) => `${x(t + shiftS).toFixed(1)},${yOfDistance(mm).toFixed(1)}`).join(' ');
+    // A point repeated (a step leaving where the next one enters) draws nothing: written once.
+    const written: string[] = [];
+    for (const [t, mm] of pts) {
+      const point = `${x(t + shiftS).toFixed(1)},${yOfDistance(mm).toFixed(1)}`;
+      if (point !== written.at(-1)) written.push(point);
+    }
+    return written.join(' ');
   };
 
   const zoom = (factor: number, centerS = (t0 + t1) / 2) => {
@@ -298,7 +313,8 @@ export function TrainGraph(props: Props) {
                   dim={Boolean(dimOthers && !selected)}
                   moving={moving}
                   canEdit={canEdit}
-                  title={`${trainName(run.trainId)} · departs ${fastLabel(run.departS, clock)} fast (${realLabel(run.departS, clock)} real)${clash ? ' · clashes' : ''}`}
+                  interactive={interactive}
+                  title={interactive ? `${trainName(run.trainId)} · departs ${fastLabel(run.departS, clock)} fast (${realLabel(run.departS, clock)} real)${clash ? ' · clashes' : ''}` : ''}
                 />
               );
             })}

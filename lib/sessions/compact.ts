@@ -3,7 +3,8 @@
 // and blocks by their place in the layout the page also sends (ids once), and its steps are one flat
 // array. Each run field has a typed codec (RUN_CODECS) and a place in the tuple (RUN_ORDER); the
 // compiler refuses a run or step field that has neither. Plain functions, no server imports: the page encodes, the builder decodes in the browser.
-import type { LoadProfile, LoadSeries } from '@/lib/planning';
+import type { Finding, LoadProfile, LoadSeries } from '@/lib/planning';
+import { FINDING_KINDS } from '@/lib/planning/finding';
 import type { BuilderLayout, BuilderSnapshot } from '@/lib/sessions/types';
 import type { Run, Step } from '@/lib/runs/schema';
 
@@ -79,7 +80,7 @@ type WireOf<K> = K extends keyof typeof RUN_CODECS ? ReturnType<(typeof RUN_CODE
 /** A run on the wire: each field's wire form in RUN_ORDER (derived, so the two cannot drift apart). */
 export type CompactRun = { -readonly [I in keyof typeof RUN_ORDER]: WireOf<(typeof RUN_ORDER)[I]> };
 
-export type CompactSnapshot = Omit<BuilderSnapshot, 'runs'> & { runs: CompactRun[] };
+export type CompactSnapshot = Omit<BuilderSnapshot, 'runs' | 'findings'> & { runs: CompactRun[]; findings: CompactFindings };
 
 function indexer(list: readonly { id: string }[]): (id: string) => Ref {
   const at = new Map(list.map((item, i) => [item.id, i]));
@@ -104,12 +105,92 @@ export function decodeRun(wire: CompactRun, refs: Decoders): Run {
 
 export function compactSnapshot(snapshot: BuilderSnapshot, layout: BuilderLayout): CompactSnapshot {
   const refs: Encoders = { trains: indexer(layout.trains), cabs: indexer(layout.cabs), operators: indexer(layout.operators), blocks: indexer(layout.blocks) };
-  return { ...snapshot, runs: snapshot.runs.map((r) => encodeRun(r, refs)) };
+  return { ...snapshot, runs: snapshot.runs.map((r) => encodeRun(r, refs)), findings: compactFindings(snapshot.findings, knownIds(snapshot.runs, layout)) };
 }
 
 export function expandSnapshot(compact: CompactSnapshot, layout: BuilderLayout): BuilderSnapshot {
   const refs: Decoders = { trains: resolver(layout.trains), cabs: resolver(layout.cabs), operators: resolver(layout.operators), blocks: resolver(layout.blocks) };
-  return { ...compact, runs: compact.runs.map((r) => decodeRun(r, refs)) };
+  const runs = compact.runs.map((r) => decodeRun(r, refs));
+  return { ...compact, runs, findings: expandFindings(compact.findings, knownIds(runs, layout)) };
+}
+
+// ---- Findings ----
+
+/**
+ * Findings on the wire: every id they name and every piece of their messages once, each finding a
+ * tuple. An id the receiver already holds (a run's, or one of the layout's lists: `knownIds`) is its
+ * place there; any other id is its place in `ids` after those. Messages repeat much of their wording
+ * (a train's name, "fast", a standard's clause), so each is a list of places in `phrases`.
+ */
+export type CompactFindings = { ids: string[]; phrases: string[]; list: CompactFinding[] };
+
+/** Power findings' figures, when the finding has them. */
+type FindingFigures = Pick<Finding, 'peakAmps' | 'limitAmps' | 'peakWatts' | 'limitWatts'>;
+/** [kind's place in FINDING_KINDS, 1 error / 0 warning, ids, fromS, toS, message pieces, figures?] */
+export type CompactFinding =
+  | [kind: number, error: 0 | 1, ids: number[], fromS: number, toS: number, message: number[]]
+  | [kind: number, error: 0 | 1, ids: number[], fromS: number, toS: number, message: number[], figures: FindingFigures];
+
+/** Finding fields the tuple above carries; a new one fails the check until it is carried. */
+type FindingFieldsWritten = 'kind' | 'severity' | 'ids' | 'fromS' | 'toS' | 'message' | keyof FindingFigures;
+const everyFindingFieldWritten: [Exclude<keyof Finding, FindingFieldsWritten>] extends [never] ? true : never = true;
+void everyFindingFieldWritten;
+
+/** The ids a builder already holds, in an order both ends derive the same way: runs, then the layout's lists. */
+export function knownIds(runs: readonly { id: string }[], layout?: BuilderLayout): string[] {
+  const lists = layout ? [layout.blocks, layout.cabs, layout.drivers, layout.supplies, layout.trains, layout.operators] : [];
+  return [runs, ...lists].flatMap((list) => list.map((item) => item.id));
+}
+
+// Message pieces end after "; ", ", " or ": ", or before " (" and after ") ": clauses and asides.
+const PIECES = /(?<=[;,:] )|(?= \()|(?<=\) )/;
+const kindIndex = new Map(FINDING_KINDS.map((kind, i) => [kind, i]));
+
+/** Findings as CompactFindings; `known` are ids the receiver holds (see knownIds). Lossless. */
+export function compactFindings(findings: readonly Finding[], known: readonly string[] = []): CompactFindings {
+  const idAt = new Map<string, number>();
+  known.forEach((id, i) => idAt.has(id) || idAt.set(id, i));
+  const ids: string[] = [];
+  const phraseAt = new Map<string, number>();
+  const phrases: string[] = [];
+  const idRef = (id: string) => {
+    let at = idAt.get(id);
+    if (at === undefined) idAt.set(id, (at = known.length + ids.push(id) - 1));
+    return at;
+  };
+  const phraseRef = (piece: string) => {
+    let at = phraseAt.get(piece);
+    if (at === undefined) phraseAt.set(piece, (at = phrases.push(piece) - 1));
+    return at;
+  };
+  const list = findings.map((f): CompactFinding => {
+    const head: [number, 0 | 1, number[], number, number, number[]] = [
+      kindIndex.get(f.kind) ?? -1,
+      f.severity === 'error' ? 1 : 0,
+      f.ids.map(idRef),
+      f.fromS,
+      f.toS,
+      f.message.split(PIECES).map(phraseRef),
+    ];
+    const figures: FindingFigures = {};
+    for (const key of ['peakAmps', 'limitAmps', 'peakWatts', 'limitWatts'] as const) if (f[key] !== undefined) figures[key] = f[key];
+    return Object.keys(figures).length ? [...head, figures] : head;
+  });
+  return { ids, phrases, list };
+}
+
+/** The findings CompactFindings carries, with the same `known` ids it was made with. */
+export function expandFindings(compact: CompactFindings, known: readonly string[] = []): Finding[] {
+  const idOf = (ref: number) => (ref < known.length ? known[ref]! : (compact.ids[ref - known.length] ?? ''));
+  return compact.list.map(([kind, error, ids, fromS, toS, message, figures]) => ({
+    kind: FINDING_KINDS[kind] ?? FINDING_KINDS[0]!,
+    severity: error ? 'error' : 'warning',
+    ids: ids.map(idOf),
+    fromS,
+    toS,
+    message: message.map((p) => compact.phrases[p] ?? '').join(''),
+    ...figures,
+  }));
 }
 
 /** A load series on the wire: its id once (the name is in the layout), points as arrays. */

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { LoadProfile } from '@/lib/planning';
-import { compactLoad, compactSnapshot, expandLoad, expandSnapshot } from '@/lib/sessions/compact';
+import { compactFindings, compactLoad, compactSnapshot, expandFindings, expandLoad, expandSnapshot, knownIds } from '@/lib/sessions/compact';
+import type { Finding } from '@/lib/planning';
 import type { BuilderLayout, BuilderSnapshot } from '@/lib/sessions/types';
 
 // The builder page's compact props must decode to exactly what the server computed (common practice:
@@ -77,5 +78,28 @@ describe('compact builder props', () => {
     const wire = compactLoad(load);
     expect(JSON.stringify(wire)).not.toContain('Bench supply');
     expect(expandLoad(wire, layout)).toEqual({ ...load, supplies: [load.supplies[0], { ...load.supplies[1], name: 'Unnamed' }] });
+  });
+
+  it('findings name each id and each message piece once and decode to what the engine said', () => {
+    const findings: Finding[] = [
+      { kind: 'cab-double-booked', severity: 'error', ids: ['cab-1', 'run-1', 'run-2'], fromS: 10.5, toS: 20, message: 'Cab 1 is booked for Stopper (06:00 departure) and Stopper (06:08 departure) at once, from 06:01 to 06:02 fast' },
+      { kind: 'channel-peak-overload', severity: 'warning', ids: ['cab-1'], fromS: 30, toS: 31, message: 'Cab 1 draws up to 1.6 A while trains start at 06:02 fast; keep it short (NEM 630 Table 2)', peakAmps: 1.6, limitAmps: 1.2 },
+      { kind: 'driver-heat', severity: 'warning', ids: ['drv-1'], fromS: 40, toS: 50, message: 'Driver A dissipates 2.1 W; keep it short (NEM 630 Table 2)', peakWatts: 2.1, limitWatts: 2 },
+      // An id nobody holds (a locomotive) travels in the findings' own list.
+      { kind: 'train-too-long', severity: 'error', ids: ['loco-9', 'loco-9'], fromS: 0, toS: 0, message: '' },
+    ];
+    const known = knownIds(snapshot.runs, layout);
+    const wire = compactFindings(findings, known);
+    expect(expandFindings(JSON.parse(JSON.stringify(wire)), known)).toEqual(findings);
+    expect(wire.ids).toEqual(['loco-9']);
+    expect(wire.list[3]![2]).toEqual([known.length, known.length]);
+    expect(wire.list[0]![2]).toEqual([known.indexOf('cab-1'), 0, 1]);
+    // A repeated aside is sent once.
+    expect(wire.phrases.filter((p) => p.includes('NEM 630'))).toHaveLength(1);
+    expect(wire.list[0]![0]).not.toBe(wire.list[1]![0]);
+    // Without known ids (an answer read by an outside tool) every id is in the list.
+    expect(expandFindings(compactFindings(findings), [])).toEqual(findings);
+    expect(compactFindings(findings).ids).toEqual(['cab-1', 'run-1', 'run-2', 'drv-1', 'loco-9']);
+    expect(JSON.stringify(wire).length).toBeLessThan(JSON.stringify(findings).length * 0.7);
   });
 });
