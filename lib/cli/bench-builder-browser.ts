@@ -5,7 +5,7 @@
 // an edited departure's Enter key to the re-checked findings in the DOM on the 200-run session.
 // A benchmark, not a test: figures are printed, nothing is asserted. BENCH_PORT moves the server.
 import { chromium, type Browser } from 'playwright-core';
-import { loadAverage, median, signIn, startBenchServer, type BenchServer } from './bench-server';
+import { loadAverage, median, printGoals, signIn, startBenchServer, type BenchServer } from './bench-server';
 
 const PORT = Number(process.env.BENCH_PORT ?? 3630) + 2;
 const COLD_VISITS = Number(process.env.BENCH_VISITS ?? 5);
@@ -120,6 +120,31 @@ try {
       `| ${p.name} | ${p.jsKiB} (${p.jsSentKiB}) | ${p.scripts} | ${p.htmlKiB} (${p.htmlSentKiB}) | ${median(p.fcpMs)} (${Math.min(...p.fcpMs)}–${Math.max(...p.fcpMs)}) |`,
     );
   }
+  const [demo, large, myRuns, card] = pages as [PageFigures, PageFigures, PageFigures, PageFigures];
+  const js = (p: PageFigures) => `${p.jsKiB} KiB (${p.jsSentKiB} KiB sent)`;
+  printGoals(
+    `README table, in Chromium (cold cache, medians of ${COLD_VISITS})`,
+    [
+      { what: 'builder page HTML, 20 runs (decoded)', goal: '≤ 60 KB', figure: `${demo.htmlKiB} KiB (${demo.htmlSentKiB} KiB sent)`, met: demo.htmlKiB * 1024 <= 60_000 },
+      { what: 'builder page HTML, 200 runs (decoded)', goal: 'grows slowly', figure: `${large.htmlKiB} KiB (${large.htmlSentKiB} KiB sent)`, met: null },
+      { what: 'builder JavaScript before a view tab is opened', goal: '≤ 450 KiB', figure: js(demo), met: demo.jsKiB <= 450 },
+      {
+        what: 'builder first contentful paint, cold (demo / 200 runs)',
+        goal: '< 0.8 s',
+        figure: `${median(demo.fcpMs)} / ${median(large.fcpMs)} ms`,
+        met: median(demo.fcpMs) < 800 && median(large.fcpMs) < 800,
+      },
+      { what: 'My runs JavaScript (phone)', goal: '≤ 250 KiB', figure: js(myRuns), met: myRuns.jsKiB <= 250 },
+      { what: 'crew card JavaScript (phone)', goal: '≤ 250 KiB', figure: js(card), met: card.jsKiB <= 250 },
+      {
+        what: 'edit → re-checked findings, 200 runs',
+        goal: '< 300 ms (the builder section)',
+        figure: `${median(edits.editMs)} ms; round trip ${edits.answeredMs.length ? `${median(edits.answeredMs)} ms` : 'not shown'}`,
+        met: median(edits.editMs) < 300,
+      },
+    ],
+    loadAverage(),
+  );
   console.log(
     `\n200-run session, edit a departure → re-checked findings in the DOM: median ${median(edits.editMs)} ms (${edits.editMs.join(', ')}); ` +
       `of which the change's round trip ${edits.answeredMs.length ? `${median(edits.answeredMs)} ms (${edits.answeredMs.join(', ')})` : 'not shown'}`,

@@ -8,7 +8,7 @@ import http from 'node:http';
 import { performance } from 'node:perf_hooks';
 import autocannon from 'autocannon';
 import Database from 'better-sqlite3';
-import { loadAverage, median, signIn, startBenchServer, type BenchServer } from './bench-server';
+import { loadAverage, median, printGoals, signIn, startBenchServer, type BenchServer } from './bench-server';
 
 const smoke = process.argv.includes('--smoke');
 const DURATION_S = smoke ? 2 : 20;
@@ -17,6 +17,10 @@ const SINGLE_REQUESTS = smoke ? 3 : 30;
 // BENCH_PORT moves the servers so that two checkouts can benchmark side by side.
 const PORT = Number(process.env.BENCH_PORT ?? 3610);
 const BARE_PORT = PORT + 10;
+
+const CHECK_DEMO = 'demo session check (20 runs)';
+const BUILDER_DEMO = 'builder page, demo session (server-rendered HTML)';
+const BUILDER_LARGE = 'builder page, 200-run session';
 
 type Row = { name: string; rps: number; p50: number; p99: number; errors: number; non2xx: number; requests: number; singleMs: number; bytes: number; healthRps?: number };
 
@@ -66,10 +70,10 @@ try {
   const health = `${base}/api/health`;
   const targets: [string, string, string | undefined][] = [
     ["operator's sessions (GET /api/sessions)", `${base}/api/sessions`, operator],
-    ['demo session check (20 runs)', `${base}/api/sessions/${app.demoId}/check`, planner],
+    [CHECK_DEMO, `${base}/api/sessions/${app.demoId}/check`, planner],
     ['large session check (200 runs)', `${base}/api/sessions/${app.largeId}/check`, planner],
-    ['builder page, demo session (server-rendered HTML)', `${base}/railways/${app.railwayId}/sessions/${app.demoId}`, planner],
-    ['builder page, 200-run session', `${base}/railways/${app.railwayId}/sessions/${app.largeId}`, planner],
+    [BUILDER_DEMO, `${base}/railways/${app.railwayId}/sessions/${app.demoId}`, planner],
+    [BUILDER_LARGE, `${base}/railways/${app.railwayId}/sessions/${app.largeId}`, planner],
   ];
   const loadBefore = loadAverage();
   const rows: Row[] = [];
@@ -100,6 +104,33 @@ try {
       `| ${r.name} | ${r.singleMs.toFixed(1)} | ${r.bytes} | ${Math.round(r.rps)} | ${vsHealth} | ${r.p50} | ${r.p99} | ${r.errors} | ${r.non2xx} | ${vsBare} |`,
     );
   }
+  const named = (name: string) => rows.find((r) => r.name === name);
+  const ratio = (r: Row | undefined) => (r?.healthRps ? r.rps / r.healthRps : 0);
+  const builder = named(BUILDER_DEMO);
+  const builderLarge = named(BUILDER_LARGE);
+  const check = named(CHECK_DEMO);
+  const kb = (bytes = 0) => `${(bytes / 1024).toFixed(0)} KiB (${bytes.toLocaleString('en-GB')} bytes)`;
+  printGoals(
+    `README table, server side (${CONNECTIONS} connections, ${DURATION_S} s)`,
+    [
+      { what: 'builder page, demo session: one request (median of ' + SINGLE_REQUESTS + ')', goal: '≤ 20 ms', figure: `${builder?.singleMs.toFixed(1)} ms`, met: (builder?.singleMs ?? Infinity) <= 20 },
+      {
+        what: `builder page at ${CONNECTIONS} connections`,
+        goal: '≥ 0.08 × health, p99 < 1.5 s',
+        figure: `${ratio(builder).toFixed(2)} × health, p99 ${builder?.p99} ms, ${builder?.errors} errors`,
+        met: ratio(builder) >= 0.08 && (builder?.p99 ?? Infinity) < 1500 && builder?.errors === 0,
+      },
+      { what: 'builder page HTML, 20 runs (decoded)', goal: '≤ 60 KB', figure: kb(builder?.bytes), met: (builder?.bytes ?? Infinity) <= 60_000 },
+      { what: 'builder page HTML, 200 runs (decoded)', goal: 'grows slowly', figure: kb(builderLarge?.bytes), met: null },
+      {
+        what: '`GET …/check`, demo session',
+        goal: '≥ 0.6 × health, p99 < 150 ms',
+        figure: `${ratio(check).toFixed(2)} × health, p99 ${check?.p99} ms; one request ${check?.singleMs.toFixed(1)} ms`,
+        met: ratio(check) >= 0.6 && (check?.p99 ?? Infinity) < 150,
+      },
+    ],
+    loadAverage(),
+  );
   const bad = rows.filter((r) => r.errors > 0 || r.non2xx > 0);
   if (bad.length) {
     console.log(`\nFAILED: ${bad.map((r) => r.name).join(', ')} had errors or non-2xx answers`);

@@ -115,3 +115,14 @@ export function loadAverage(): string {
     return 'unknown';
   }
 }
+
+/** One row of the README's "Speed where people wait" table: what, the goal, the figure measured now. */
+export type GoalRow = { what: string; goal: string; figure: string; met: boolean | null };
+
+/** Prints the goal rows as the README's table does (goal / figure / met?), with the machine's load. */
+export function printGoals(title: string, rows: GoalRow[], load: string): void {
+  console.log(`\n${title} (load average ${load})\n`);
+  console.log('| What | Goal | Now | Met? |');
+  console.log('|---|---|---|---|');
+  for (const r of rows) console.log(`| ${r.what} | ${r.goal} | ${r.figure} | ${r.met === null ? '—' : r.met ? 'yes' : '**no**'} |`);
+}
