@@ -1,5 +1,5 @@
 import Database from 'better-sqlite3';
-import { DEMO, expect, screenshotBoth, test } from './fixtures';
+import { DEMO, VIEWPORTS, expect, screenshotBoth, test } from './fixtures';
 import { demoSessionIds, InvitationTrackerPage } from './pages/invitation-tracker-page';
 
 type Snapshot = { runs: { id: string; version: number; operatorId: string | null; departS: number }[] };
@@ -37,6 +37,10 @@ test('after a run moves, the host sees who is affected, previews the update and 
   await tracker.goto(railwayId, sessionId);
   await expect(tracker.row(DEMO.operator).getByTestId('changed-since')).toContainText('1 run moved');
   await expect(page.getByTestId('affected-count')).toContainText('Juno Carraway');
+  await page.setViewportSize(VIEWPORTS.phone);
+  await expect(tracker.row(DEMO.operator).getByTestId('changed-since')).toBeVisible();
+  await expect(page.getByRole('button', { name: /^Review and send update to \d+$/ })).toBeVisible();
+  await page.setViewportSize(VIEWPORTS.laptop);
   await screenshotBoth(page, 'invitations-tracker-changed');
 
   await page.getByRole('button', { name: /^Review and send update to \d+$/ }).click();
@@ -87,4 +91,47 @@ test('session settings say "Saved." after saving', async ({ page, signInAs }) =>
   await expect(form.getByText(/^Saved\./)).toBeVisible();
   await page.reload();
   await expect(page.getByTestId('session-form').getByLabel('Place')).toHaveValue(place);
+});
+
+test('issue 13 point 4: an operator who declines but still has runs shows on the tracker and under Needs attention, at both sizes', async ({ page, signInAs }) => {
+  const { railwayId, sessionId } = demoSessionIds();
+  await signInAs('operator');
+  await page.goto('/my-runs');
+  const decline = page.getByTestId('my-session').first().getByTestId('my-reply').getByRole('button', { name: 'Decline' });
+  await decline.click();
+  await expect(decline).toHaveAttribute('aria-pressed', 'true');
+
+  await page.context().clearCookies();
+  await signInAs('host');
+  const tracker = new InvitationTrackerPage(page);
+  await tracker.goto(railwayId, sessionId);
+  // Juno keeps the five runs of the demo timetable (lib/demo/demo-railway.ts).
+  const row = tracker.row(DEMO.operator);
+  await expect(row.getByTestId('reply')).toHaveText('declined, still has runs');
+  await expect(row).toContainText('5 runs to hand to someone else');
+  await page.goto(`/railways/${railwayId}`);
+  const item = page.getByTestId('attention').getByRole('listitem').filter({ hasText: 'declined, still has runs' });
+  await expect(item).toContainText('Juno Carraway');
+  await expect(item.getByRole('link')).toHaveAttribute('href', `/railways/${railwayId}/sessions/${sessionId}`);
+  for (const size of Object.values(VIEWPORTS)) {
+    await page.setViewportSize(size);
+    await expect(item).toBeInViewport();
+    await tracker.goto(railwayId, sessionId);
+    await row.getByTestId('reply').scrollIntoViewIfNeeded();
+    await expect(row.getByTestId('reply')).toBeInViewport();
+    // The table of invitees fits its card: the reply and the row's Send button are not cut off at the side.
+    const table = page.getByTestId('invitation-table').locator('xpath=..');
+    expect(await table.evaluate((el) => el.scrollWidth - el.clientWidth)).toBeLessThanOrEqual(0);
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(size.width);
+    await page.goto(`/railways/${railwayId}`);
+  }
+  await screenshotBoth(page, 'overview-declined');
+
+  // Juno accepts again, as the later tests expect of the demo.
+  await page.context().clearCookies();
+  await signInAs('operator');
+  await page.goto('/my-runs');
+  const accept = page.getByTestId('my-session').first().getByTestId('my-reply').getByRole('button', { name: 'Accept' });
+  await accept.click();
+  await expect(accept).toHaveAttribute('aria-pressed', 'true');
 });

@@ -140,10 +140,10 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
               <table className="w-full text-left text-sm" data-testid="invitation-table">
                 <thead className="text-muted">
                   <tr>
-                    <th className="py-2 pr-3">Invitee</th>
-                    <th className="py-2 pr-3">Delivery</th>
-                    <th className="py-2 pr-3">Reply</th>
-                    <th className="hidden py-2 pr-3 sm:table-cell">Replied</th>
+                    <th className="py-2 pr-2 sm:pr-3">Invitee</th>
+                    <th className="py-2 pr-2 sm:pr-3">Delivery</th>
+                    <th className="py-2 pr-2 sm:pr-3">Reply</th>
+                    <th className="hidden py-2 pr-2 sm:pr-3 sm:table-cell">Replied</th>
                     <th className="py-2"><span className="sr-only">Actions</span></th>
                   </tr>
                 </thead>
@@ -152,11 +152,11 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
                     const delivery = deliveryOf(inv);
                     return (
                       <tr key={inv.id} data-testid="invitation-row" data-email={inv.email}>
-                        <td className="py-2 pr-3">
+                        <td className="py-2 pr-2 sm:pr-3">
                           <span className="font-semibold">{inv.name}</span>
                           <span className="hidden text-xs text-muted sm:block">{inv.email}</span>
                         </td>
-                        <td className="whitespace-nowrap py-2 pr-3">
+                        <td className="py-2 pr-2 sm:whitespace-nowrap sm:pr-3">
                           <Badge tone={DELIVERY_TONE[delivery]}>{DELIVERY_LABELS[delivery]}</Badge>
                           {inv.mail?.calendarMethod === 'CANCEL' ? <span className="ml-1 text-xs text-muted">cancellation</span> : null}
                           {open && standings.get(inv.id)?.affected ? (
@@ -166,7 +166,7 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
                           ) : null}
                           {inv.mail?.lastError ? <span className="block max-w-xs truncate text-xs text-signal" title={inv.mail.lastError}>{inv.mail.lastError}</span> : null}
                         </td>
-                        <td className="whitespace-nowrap py-2 pr-3">
+                        <td className="py-2 pr-2 sm:whitespace-nowrap sm:pr-3">
                           <span data-testid="reply">
                             <Badge tone={REPLY_TONE[inv.reply]}>
                               {inv.reply === 'declined' && runCount.get(inv.userId) ? 'declined, still has runs' : REPLY_LABELS[inv.reply]}
@@ -192,7 +192,7 @@ export default async function InvitationTrackerPage({ params }: { params: Promis
                             </span>
                           ) : null}
                         </td>
-                        <td className="hidden py-2 pr-3 text-muted sm:table-cell">{inv.respondedAt ? formatInZone(inv.respondedAt, zone) : '—'}</td>
+                        <td className="hidden py-2 pr-2 sm:pr-3 text-muted sm:table-cell">{inv.respondedAt ? formatInZone(inv.respondedAt, zone) : '—'}</td>
                         <td className="py-2 text-right">
                           {(open || (session.status === 'cancelled' && inv.mailCount > 0)) && delivery !== 'queued' ? (
                             <ResendButton
