@@ -65,3 +65,45 @@ describe('one name per function (DEVELOPERS.md, names of actions, services and q
     }
   });
 });
+
+// One word per concept from screen to table (DEVELOPERS.md, "Words"): the screen says locomotive and
+// reply, so the code does too. Names are read from the code alone: comments and string literals are
+// left out, so a demo train may still be called "Loco 1" and an error may still say "answers 409".
+
+/** The code of a file without its comments and string literals. */
+function codeOf(file: string): string {
+  const source = fs.readFileSync(path.join(root, file), 'utf8');
+  return source.replace(/\/\*[\s\S]*?\*\/|\/\/[^\n]*|'(?:\\.|[^'\\\n])*'|"(?:\\.|[^"\\\n])*"|`(?:\\.|[^`\\])*`/g, ' ');
+}
+
+const productFiles = ['app', 'components', 'lib', 'db'].flatMap(walk);
+
+/** `file: name` for every identifier `pattern` finds, leaving out the names `allowed` gives a file. */
+function namesMatching(files: string[], pattern: RegExp, allowed: Record<string, string[]> = {}): string[] {
+  return files.flatMap((file) =>
+    [...new Set(codeOf(file).match(pattern) ?? [])].filter((name) => !(allowed[file] ?? []).includes(name)).map((name) => `${file}: ${name}`),
+  );
+}
+
+describe('one word per concept (DEVELOPERS.md, words)', () => {
+  it('reads code, not comments or strings', () => {
+    expect(codeOf('tests/unit/names.test.ts')).not.toContain('Loco 1');
+    expect(namesMatching(['lib/planning/schema.ts'], /\w*[Ll]oco(?!motive)\w*/g)).toEqual(
+      expect.arrayContaining(['lib/planning/schema.ts: locos', 'lib/planning/schema.ts: locoIds']),
+    );
+  });
+
+  it('calls the locomotive a locomotive everywhere but in version 1 of the plan interchange', () => {
+    // Version 1 files say `locos` and `locoIds`: its schema and upgrade, and the layout import's extras.
+    const v1 = ['locos', 'locoIds'];
+    expect(namesMatching(productFiles, /\w*[Ll]oco(?!motive)\w*/g, { 'lib/planning/schema.ts': v1, 'lib/layouts/plan-io.ts': v1 })).toEqual([]);
+  });
+
+  it('calls an invitee’s accept, maybe or decline a reply', () => {
+    // "answer" is left for what a server answers; in the invitation code it would be the reply's other name.
+    // The reply page still reads `answer=` from links sent before the rename.
+    const invitationFiles = productFiles.filter((f) => /invitation|reply|my-runs|member-offer|crew|railways\/actions\.ts$/.test(f));
+    expect(invitationFiles.length).toBeGreaterThan(10);
+    expect(namesMatching(invitationFiles, /\w*[Aa]nswer\w*|\w*ANSWER\w*/g, { 'app/(public)/reply/page.tsx': ['answer'] })).toEqual([]);
+  });
+});
