@@ -7,7 +7,8 @@ import type { Highlight } from '@/lib/sessions/highlight';
 import { fastLabel, realLabel, type SessionClock } from '@/lib/sessions/time-labels';
 
 const amps = (v: number) => `${Math.round(v * 100) / 100} A`;
-const watts = (v: number) => `${Math.round(v * 100) / 100} W`;
+// Three decimals: a package rating such as 2075 mW (SLRS007B) must not read as rounded up.
+const watts = (v: number) => `${Math.round(v * 1000) / 1000} W`;
 
 const POWER_KINDS = new Set<Finding['kind']>(['channel-overload', 'channel-peak-overload', 'driver-overload', 'supply-overload', 'supply-derate', 'driver-heat']);
 
