@@ -13,6 +13,13 @@ import { makeWorld, ROLE_KEYS } from './world';
 const ownWorld = new Set(['app/api/sessions/[sessionId]/calendar.ics/route.ts#GET']);
 const operatorRows = AUTHZ_CASES.filter((c) => c.expect.operator === 200 && c.target.includes('[sessionId]') && !ownWorld.has(c.target));
 
+// Route handlers that name a session without its railway and refuse an operator with 403 on their own
+// published session (they may see it, not change it): on a session they may not see, the refusal is a
+// 404, so a change request does not tell them the session exists (lib/auth/sessions.ts requireSession).
+// The invitation actions are left out on purpose: they refuse by railway role before reading the session
+// id, so their 403 is the same whether the session exists or not.
+const operatorRefusedRows = AUTHZ_CASES.filter((c) => c.expect.operator === 403 && c.target.startsWith('app/api/sessions/[sessionId]/') && !ownWorld.has(c.target));
+
 const variants = [
   { name: 'a draft session they are invited to', status: 'draft', inviteOperator: true },
   { name: 'a cancelled session they are invited to', status: 'cancelled', inviteOperator: true },
@@ -25,6 +32,21 @@ describe('authorization matrix: what an operator may not see', () => {
   it('has session rows an operator passes on their published session', () => {
     expect(operatorRows.map((c) => c.target)).toEqual(expect.arrayContaining(['app/api/sessions/[sessionId]/plan/route.ts#GET']));
   });
+
+  it('has session rows an operator is refused on their published session', () => {
+    expect(operatorRefusedRows.length).toBeGreaterThan(0);
+  });
+
+  for (const variant of variants) {
+    for (const testCase of operatorRefusedRows) {
+      it(`${testCase.target} on ${variant.name} as operator → 404, not 403`, async () => {
+        Object.assign(sessionWorldDefaults, { status: variant.status, inviteOperator: variant.inviteOperator });
+        const world = makeWorld();
+        signInAs(world.users.operator);
+        expect(await testCase.call(world)).toBe(404);
+      });
+    }
+  }
 
   for (const variant of variants) {
     for (const testCase of operatorRows) {
