@@ -1,11 +1,11 @@
 'use client';
 
-import type { BuilderLayout } from '@/lib/sessions/types';
+import type { TimetableLayout } from '@/lib/sessions/types';
 import type { Run } from '@/lib/runs/schema';
 import { Badge } from '@/components/ui/card';
 
 /** Each operator's share of the session: runs, minutes at the controls (real), and whether they declined. */
-export function CrewLoad({ runs, layout, ratio }: { runs: Run[]; layout: BuilderLayout; ratio: number }) {
+export function CrewLoad({ runs, layout, ratio }: { runs: Run[]; layout: TimetableLayout; ratio: number }) {
   const load = new Map<string, { runs: number; seconds: number }>();
   let unassigned = 0;
   for (const run of runs) {

@@ -7,7 +7,7 @@ import type { Finding } from '@/lib/planning';
 import { expandLoad, type CompactLoad } from '@/lib/sessions/compact';
 import type { Highlight } from '@/lib/sessions/highlight';
 import type { SessionClock } from '@/lib/sessions/time-labels';
-import type { BuilderLayout } from '@/lib/sessions/types';
+import type { TimetableLayout } from '@/lib/sessions/types';
 import { Notice } from '@/components/ui/card';
 import { errorMessage } from '@/lib/client/api';
 import { timetableApi } from './api';
@@ -31,7 +31,7 @@ export function LoadView({
 }: {
   sessionId: string;
   revision: number;
-  layout: BuilderLayout;
+  layout: TimetableLayout;
   findings: Finding[];
   clock: SessionClock;
   lengthS: number;

@@ -1,7 +1,7 @@
 'use client';
 
 import { fastLabel, realLabel, type SessionClock } from '@/lib/sessions/time-labels';
-import type { BuilderLayout } from '@/lib/sessions/types';
+import type { TimetableLayout } from '@/lib/sessions/types';
 import type { Run } from '@/lib/runs/schema';
 import { Button } from '@/components/ui/button';
 import { routeSummary } from './run-names';
@@ -18,7 +18,7 @@ export function PrintView({
   title: string;
   dateLabel: string;
   runs: Run[];
-  layout: BuilderLayout;
+  layout: TimetableLayout;
   clock: SessionClock;
   clashing: Set<string>;
 }) {

@@ -2,7 +2,7 @@
 export const timetableKeys = {
   all: ['timetable'] as const,
   session: (sessionId: string) => ['timetable', sessionId] as const,
-  /** The stored runs with findings: BuilderSnapshot. */
+  /** The stored runs with findings: TimetableSnapshot. */
   builder: (sessionId: string) => ['timetable', sessionId, 'builder'] as const,
   /** The load profile (GET …/check?only=load), fetched when the Load view is opened. */
   load: (sessionId: string) => ['timetable', sessionId, 'load'] as const,

@@ -6,7 +6,7 @@ import type { FastClock } from '@/lib/planning';
 import { parseTimeOfDay } from '@/lib/planning/time-of-day';
 import { routeThrough } from '@/lib/planning/route';
 import { carryOnFrom } from '@/lib/sessions/carry-on';
-import type { BuilderLayout } from '@/lib/sessions/types';
+import type { TimetableLayout } from '@/lib/sessions/types';
 import type { CreateRunBody, Run } from '@/lib/runs/schema';
 import { Button } from '@/components/ui/button';
 import { Field, Select, TextInput } from '@/components/ui/field';
@@ -33,7 +33,7 @@ export function RunForm({
   onSubmit,
   pending,
 }: {
-  layout: BuilderLayout;
+  layout: TimetableLayout;
   /** The session's runs, to carry on from. */
   runs: readonly Run[];
   clock: FastClock;

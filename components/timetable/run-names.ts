@@ -1,8 +1,8 @@
-import type { BuilderLayout } from '@/lib/sessions/types';
+import type { TimetableLayout } from '@/lib/sessions/types';
 import type { Run } from '@/lib/runs/schema';
 
 /** `First block → last block` with the blocks between when there are few, else `via N blocks`. */
-export function routeSummary(run: Run, layout: BuilderLayout): string {
+export function routeSummary(run: Run, layout: TimetableLayout): string {
   const names = run.steps.map((s) => layout.blocks.find((b) => b.id === s.blockId)?.name ?? '?');
   if (names.length <= 2) return names.join(' → ');
   return `${names[0]} → ${names[names.length - 1]} (via ${names.length - 2} block${names.length === 3 ? '' : 's'})`;

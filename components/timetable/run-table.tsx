@@ -3,7 +3,7 @@
 import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import { fastLabel, fastLabelSeconds, realLabel, type SessionClock } from '@/lib/sessions/time-labels';
 import { fastTimeToReal } from '@/lib/planning/clock';
-import type { BuilderLayout } from '@/lib/sessions/types';
+import type { TimetableLayout } from '@/lib/sessions/types';
 import type { Run } from '@/lib/runs/schema';
 import { Button } from '@/components/ui/button';
 import { Badge } from '@/components/ui/card';
@@ -54,7 +54,7 @@ function DepartureInput({ run, clock, onPatch, label }: { run: Run; clock: Sessi
   );
 }
 
-function StepsEditor({ run, layout, clock, onPatch }: { run: Run; layout: BuilderLayout; clock: SessionClock; onPatch: Actions['onPatch'] }) {
+function StepsEditor({ run, layout, clock, onPatch }: { run: Run; layout: TimetableLayout; clock: SessionClock; onPatch: Actions['onPatch'] }) {
   const [rows, setRows] = useState(() => run.steps.map((s) => ({ blockId: s.blockId, enter: fastLabelSeconds(s.enterS, clock), exit: fastLabelSeconds(s.exitS, clock) })));
   const [error, setError] = useState<string>();
   const save = () => {
@@ -147,7 +147,7 @@ function SeriesForm({ run, onSeries }: { run: Run; onSeries: Actions['onSeries']
 
 type RowProps = {
   run: Run;
-  layout: BuilderLayout;
+  layout: TimetableLayout;
   clock: SessionClock;
   clash: boolean;
   lit: boolean;
@@ -265,7 +265,7 @@ export function RunTable({
   actions,
 }: {
   runs: Run[];
-  layout: BuilderLayout;
+  layout: TimetableLayout;
   clock: SessionClock;
   clashing: Set<string>;
   highlighted: Set<string>;

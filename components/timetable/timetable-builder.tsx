@@ -8,7 +8,7 @@ import type { Finding } from '@/lib/planning';
 import { clashingRuns, highlightOf, type Highlight } from '@/lib/sessions/highlight';
 import { fastLabel, viewLengthS, type SessionClock } from '@/lib/sessions/time-labels';
 import { expandSnapshot, type CompactSnapshot } from '@/lib/sessions/compact';
-import type { BuilderLayout, SessionStatus } from '@/lib/sessions/types';
+import type { TimetableLayout, SessionStatus } from '@/lib/sessions/types';
 import type { Run } from '@/lib/runs/schema';
 import { CheckSummary, StatusForm } from '@/components/sessions/session-form';
 import { Button } from '@/components/ui/button';
@@ -63,7 +63,7 @@ type Props = {
   sessionId: string;
   /** The session's runs and findings, compact (the page sends them once; see lib/sessions/compact.ts). */
   initial: CompactSnapshot;
-  layout: BuilderLayout;
+  layout: TimetableLayout;
   canEdit: boolean;
   dateLabel: string;
   /** The session's status as the page last rendered it (a status change re-renders the page). */

@@ -4,7 +4,7 @@ import { useMemo, useState } from 'react';
 import { trainPositionsAt } from '@/lib/planning/positions';
 import { fastTimeToReal } from '@/lib/planning/clock';
 import { fastLabel, type SessionClock } from '@/lib/sessions/time-labels';
-import type { BuilderLayout } from '@/lib/sessions/types';
+import type { TimetableLayout } from '@/lib/sessions/types';
 import type { Run } from '@/lib/runs/schema';
 import { TrackDiagram, type DiagramMark } from '@/components/layouts/track-diagram';
 import { Field, TextInput } from '@/components/ui/field';
@@ -24,7 +24,7 @@ export function TrackView({
   colorOf,
   trainName,
 }: {
-  layout: BuilderLayout;
+  layout: TimetableLayout;
   runs: readonly Run[];
   clock: SessionClock;
   lengthS: number;

@@ -4,12 +4,12 @@ import { memo, useEffect, useMemo, useRef, useState, type PointerEvent as ReactP
 import type { Finding } from '@/lib/planning';
 import type { Highlight } from '@/lib/sessions/highlight';
 import { fastLabel, realLabel, type SessionClock } from '@/lib/sessions/time-labels';
-import type { BuilderLayout } from '@/lib/sessions/types';
+import type { TimetableLayout } from '@/lib/sessions/types';
 import type { Run } from '@/lib/runs/schema';
 import { Button } from '@/components/ui/button';
 
 type Props = {
-  layout: BuilderLayout;
+  layout: TimetableLayout;
   runs: Run[];
   findings: Finding[];
   clock: SessionClock;
@@ -38,7 +38,7 @@ const ROW = 30;
 const MIN_ROW = 16;
 
 /** A label per distinct stretch of line: blocks side by side (a loop's two roads) share one row. */
-function rowsOf(blocks: BuilderLayout['blocks']) {
+function rowsOf(blocks: TimetableLayout['blocks']) {
   const byPosition = new Map<string, { from: number; to: number; names: string[]; ids: string[] }>();
   for (const b of blocks) {
     const key = `${b.positionMm}:${b.lengthMm}`;

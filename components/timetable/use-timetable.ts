@@ -2,7 +2,7 @@
 
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useCallback, useRef, useState } from 'react';
-import type { BuilderChange, BuilderSnapshot } from '@/lib/sessions/types';
+import type { TimetableChange, TimetableSnapshot } from '@/lib/sessions/types';
 import { ApiError } from '@/lib/client/api';
 import { restoreEdit, runFieldsOf, shiftTiming } from '@/lib/runs/fields';
 import type { CreateRunBody, Move, Run, UpdateRunBody } from '@/lib/runs/schema';
@@ -21,7 +21,7 @@ export type TimetableAction =
 
 export type Undoable = { label: string; action: TimetableAction };
 
-function snapshotPart(change: BuilderChange): BuilderSnapshot {
+function snapshotPart(change: TimetableChange): TimetableSnapshot {
   return {
     session: change.session,
     runs: change.runs,
@@ -33,7 +33,7 @@ function snapshotPart(change: BuilderChange): BuilderSnapshot {
   };
 }
 
-async function perform(sessionId: string, action: TimetableAction): Promise<BuilderChange> {
+async function perform(sessionId: string, action: TimetableAction): Promise<TimetableChange> {
   switch (action.type) {
     case 'create':
       return timetableApi.createRun(sessionId, action.body);
@@ -48,7 +48,7 @@ async function perform(sessionId: string, action: TimetableAction): Promise<Buil
     case 'undo-retime':
       return timetableApi.undoRetime(sessionId, action.moves);
     case 'delete-many': {
-      let last: BuilderChange | undefined;
+      let last: TimetableChange | undefined;
       for (const run of action.runs) last = await timetableApi.deleteRun(sessionId, run.id, run.version);
       return last!;
     }
@@ -56,7 +56,7 @@ async function perform(sessionId: string, action: TimetableAction): Promise<Buil
 }
 
 /** The change that takes `action` back, given what the server answered. */
-function undoOf(action: TimetableAction, change: BuilderChange): Undoable | undefined {
+function undoOf(action: TimetableAction, change: TimetableChange): Undoable | undefined {
   switch (action.type) {
     case 'create':
       return change.run ? { label: `Added ${action.label}`, action: { type: 'delete', run: change.run, label: action.label } } : undefined;
@@ -89,7 +89,7 @@ function undoOf(action: TimetableAction, change: BuilderChange): Undoable | unde
 }
 
 /** Shows the change at once, before the server has answered (moves and deletes). */
-function optimistic(snapshot: BuilderSnapshot, action: TimetableAction): BuilderSnapshot | undefined {
+function optimistic(snapshot: TimetableSnapshot, action: TimetableAction): TimetableSnapshot | undefined {
   if (action.type === 'delete') return { ...snapshot, runs: snapshot.runs.filter((r) => r.id !== action.run.id) };
   if (action.type === 'patch') {
     const { run } = action;
@@ -117,7 +117,7 @@ export function describeError(error: unknown): string {
  * The builder's data and its one mutation. Every change answers with the re-checked session, which
  * replaces the cached snapshot; moves and deletes show at once and roll back if refused.
  */
-export function useTimetable(sessionId: string, initial: BuilderSnapshot) {
+export function useTimetable(sessionId: string, initial: TimetableSnapshot) {
   const queryClient = useQueryClient();
   const key = timetableKeys.builder(sessionId);
   const query = useQuery({
@@ -141,7 +141,7 @@ export function useTimetable(sessionId: string, initial: BuilderSnapshot) {
       startedAt.current = performance.now();
       setError(undefined);
       await queryClient.cancelQueries({ queryKey: key });
-      const previous = queryClient.getQueryData<BuilderSnapshot>(key);
+      const previous = queryClient.getQueryData<TimetableSnapshot>(key);
       const next = previous ? optimistic(previous, action) : undefined;
       if (next) queryClient.setQueryData(key, next);
       return { previous };

@@ -34,7 +34,7 @@ async function main() {
   (globalThis as unknown as { fishplateDb?: typeof db }).fishplateDb = db;
   const { sessionId } = seedDemoRailway(db, { passwordHash: 'not-used' });
 
-  const { snapshotOf, loadSessionPlan } = await import('@/lib/sessions/builder');
+  const { snapshotOf, loadSessionPlan } = await import('@/lib/sessions/timetable');
   const { assertRunsValid } = await import('@/lib/runs/rules');
   const { shiftTiming } = await import('@/lib/runs/schema');
   const { copySession } = await import('@/db/queries/session-records');

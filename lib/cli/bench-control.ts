@@ -19,7 +19,7 @@ async function main() {
   const { sessionId, runCount } = seedLargeSession(db, 10);
   const { sessionControl } = await import('@/lib/sessions/control');
   const { compileSchedule } = await import('@/lib/control');
-  const { loadSessionPlan } = await import('@/lib/sessions/builder');
+  const { loadSessionPlan } = await import('@/lib/sessions/timetable');
   const session = db.select().from(t.sessions).all().find((s) => s.id === sessionId)!;
   const control = sessionControl(session);
   const { rows, plan } = loadSessionPlan(session.id);

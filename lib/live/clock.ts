@@ -4,7 +4,7 @@ import type { ClockEvent, Session } from '@/db/schema';
 import type { Member } from '@/lib/auth';
 import { AppError } from '@/lib/errors';
 import { clockActionRefusal, formatFast, formatTimeOfDay, readSessionClock, type ClockReading, type ClockRecord, type FastClock } from '@/lib/planning';
-import { departureFromFastTime } from '@/lib/sessions/builder';
+import { departureFromFastTime } from '@/lib/sessions/timetable';
 import type { ClockActionInput } from '@/lib/validations/live';
 
 /** A session gets at most this many clock actions (a long evening has a few dozen). */

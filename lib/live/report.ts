@@ -6,7 +6,7 @@ import { foldReports } from '@/lib/live/actuals';
 import { blockAtTime } from '@/lib/live/blocks';
 import { buildLiveState, repairTotals, timetableInForce } from '@/lib/live/state';
 import type { LiveState } from '@/lib/live/types';
-import { loadSessionPlan } from '@/lib/sessions/builder';
+import { loadSessionPlan } from '@/lib/sessions/timetable';
 
 export type ReportRun = {
   runId: string;

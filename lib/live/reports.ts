@@ -8,7 +8,7 @@ import { formatFast } from '@/lib/planning';
 import { foldReports, reportRefusal } from '@/lib/live/actuals';
 import { fastClockOf, readClockNow } from '@/lib/live/clock';
 import { repairTotals } from '@/lib/live/state';
-import { departureFromFastTime, loadSessionPlan } from '@/lib/sessions/builder';
+import { departureFromFastTime, loadSessionPlan } from '@/lib/sessions/timetable';
 import type { RunReportHistory } from '@/lib/live/types';
 import type { ReportInput } from '@/lib/validations/live';
 

@@ -4,7 +4,7 @@ import { applyRetime, checkPlan, propagateDelays, suggestRetime, type Finding, t
 import { foldReports, type KnownRun } from '@/lib/live/actuals';
 import { clockView } from '@/lib/live/clock';
 import type { LiveFinding, LiveState } from '@/lib/live/types';
-import { loadSessionPlan, type SessionRows } from '@/lib/sessions/builder';
+import { loadSessionPlan, type SessionRows } from '@/lib/sessions/timetable';
 
 /** Clashes a delay can create: blocks, cabs, operators and trains booked twice. */
 const CLASH_KINDS = new Set<Finding['kind']>(['block-overlap', 'cab-double-booked', 'operator-double-booked', 'train-double-booked']);

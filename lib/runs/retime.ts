@@ -3,9 +3,9 @@ import { shiftRuns } from '@/db/queries/runs';
 import type { Session } from '@/db/schema';
 import { AppError } from '@/lib/errors';
 import { suggestRetime } from '@/lib/planning';
-import { loadSessionPlan, sessionLengthS } from '@/lib/sessions/builder';
+import { loadSessionPlan, sessionLengthS } from '@/lib/sessions/timetable';
 import { auditRunChange, changeAnswer } from '@/lib/sessions/changes';
-import type { BuilderChange, RetimeSuggestion } from '@/lib/sessions/types';
+import type { TimetableChange, RetimeSuggestion } from '@/lib/sessions/types';
 import type { RetimeMoves } from '@/lib/runs/schema';
 import { editableTimetable, settle } from '@/lib/runs/service';
 
@@ -42,7 +42,7 @@ function assertMovesInWindow(session: Session, moves: RetimeMoves): void {
  * Shifts runs by the given delays in one transaction (all or nothing: a stale version answers 409
  * with the runs as they are now). The answer carries the moves that take it back.
  */
-export async function applyMoves(sessionId: string, moves: RetimeMoves, action: 'retime' | 'undo-retime'): Promise<BuilderChange> {
+export async function applyMoves(sessionId: string, moves: RetimeMoves, action: 'retime' | 'undo-retime'): Promise<TimetableChange> {
   const { session, member } = await editableTimetable(sessionId);
   if (new Set(moves.map((m) => m.runId)).size !== moves.length) {
     throw new AppError('bad_request', 'Each run may be moved once per request.');

@@ -3,7 +3,7 @@ import type { Session } from '@/db/schema';
 import { AppError, type Issue } from '@/lib/errors';
 import { formatIssuePath, planSchema, routeThrough, timeRun, toPlanJson, type Plan, type TimedRun } from '@/lib/planning';
 import { planBlockOf, planLinkOf } from '@/lib/layouts/track-rows';
-import { sessionLengthS, type SessionRows } from '@/lib/sessions/builder';
+import { sessionLengthS, type SessionRows } from '@/lib/sessions/timetable';
 import { trainRamps } from '@/lib/sessions/to-plan';
 
 // The rules a run must keep to be written: references that resolve on the session's layout, times

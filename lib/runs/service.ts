@@ -19,13 +19,13 @@ import {
   type UpdateRunInput,
 } from '@/lib/runs/schema';
 import { requireSession } from '@/lib/auth/sessions';
-import { departureFromFastTime, loadSessionPlan } from '@/lib/sessions/builder';
+import { departureFromFastTime, loadSessionPlan } from '@/lib/sessions/timetable';
 import { assertTimetableEditable, auditRunChange, changeAnswer } from '@/lib/sessions/changes';
-import type { BuilderChange } from '@/lib/sessions/types';
+import type { TimetableChange } from '@/lib/sessions/types';
 
 // Every write to a session's runs: who may (planner or host of the session's railway, a timetable
 // that is not cancelled), the rules (lib/runs/rules.ts), one transaction, an audit line, and one
-// answer, the re-checked session (BuilderChange). Route handlers parse and call these, nothing more.
+// answer, the re-checked session (TimetableChange). Route handlers parse and call these, nothing more.
 
 // The schema and the table hold the same fields: a field added to one and not the other fails here.
 type OnlyIn<A, B> = Exclude<keyof A, keyof B>;
@@ -56,7 +56,7 @@ function storedRun(sessionId: string, runId: string): Run {
 }
 
 /** Adds a run, timed from a fast-clock departure and a route, or given whole. Answers with the new run. */
-export async function addRun(sessionId: string, input: CreateRunInput): Promise<BuilderChange> {
+export async function addRun(sessionId: string, input: CreateRunInput): Promise<TimetableChange> {
   const { session, member } = await editableTimetable(sessionId);
   const { rows, plan } = loadSessionPlan(session.id);
   let values: RunFields;
@@ -81,7 +81,7 @@ export async function addRun(sessionId: string, input: CreateRunInput): Promise<
  * Edits a run at the version the caller saw: any attributes, and one of a new departure (the whole
  * run moves), a new timing from route and speed, or the timing given whole.
  */
-export async function editRun(sessionId: string, runId: string, input: UpdateRunInput): Promise<BuilderChange> {
+export async function editRun(sessionId: string, runId: string, input: UpdateRunInput): Promise<TimetableChange> {
   const { session, member } = await editableTimetable(sessionId);
   const { rows, plan } = loadSessionPlan(session.id);
   const current = storedRun(session.id, runId);
@@ -105,7 +105,7 @@ export async function editRun(sessionId: string, runId: string, input: UpdateRun
 }
 
 /** Deletes a run at the version the caller saw; the answer carries it, so it can be put back. */
-export async function removeRun(sessionId: string, runId: string, version: number): Promise<BuilderChange> {
+export async function removeRun(sessionId: string, runId: string, version: number): Promise<TimetableChange> {
   const { session, member } = await editableTimetable(sessionId);
   const deleted = settle(deleteRun(session.id, runId, version));
   auditRunChange(member, 'delete', runId, { sessionId: session.id });
@@ -113,7 +113,7 @@ export async function removeRun(sessionId: string, runId: string, version: numbe
 }
 
 /** Copies a run `count` times, each `everyFastMin` fast minutes after the one before, in one transaction. */
-export async function copyRunAsSeries(sessionId: string, runId: string, input: SeriesBody): Promise<BuilderChange> {
+export async function copyRunAsSeries(sessionId: string, runId: string, input: SeriesBody): Promise<TimetableChange> {
   const { session, member } = await editableTimetable(sessionId);
   const { plan } = loadSessionPlan(session.id);
   const source = storedRun(session.id, runId);
@@ -142,7 +142,7 @@ function fieldsOutsidePlan(posted: Partial<OutsidePlan>, stored: OutsidePlan | u
  * (the session settings hold those). A run keeps what the plan does not carry (speed, note) from
  * the posted run, or else from the stored run of the same id.
  */
-export async function replaceRunsFromPlan(sessionId: string, posted: PostedPlan): Promise<BuilderChange> {
+export async function replaceRunsFromPlan(sessionId: string, posted: PostedPlan): Promise<TimetableChange> {
   const { session, member } = await editableTimetable(sessionId);
   const { rows, plan } = loadSessionPlan(session.id);
   const runs = posted.runs.map((r) => toPlanRun(r));

@@ -3,8 +3,8 @@ import { recordAudit } from '@/db/queries/railways';
 import type { Session } from '@/db/schema';
 import type { Member } from '@/lib/auth';
 import { AppError } from '@/lib/errors';
-import { snapshotOf } from '@/lib/sessions/builder';
-import type { BuilderChange } from '@/lib/sessions/types';
+import { snapshotOf } from '@/lib/sessions/timetable';
+import type { TimetableChange } from '@/lib/sessions/types';
 import type { Run } from '@/lib/runs/schema';
 
 /** Timetables of cancelled sessions stay as they were; reopen the session as a draft to change it. */
@@ -15,7 +15,7 @@ export function assertTimetableEditable(session: Session): void {
 }
 
 /** The answer to a change: the re-checked session, plus what the change made. */
-export function changeAnswer(sessionId: string, extra: Omit<Partial<BuilderChange>, 'runs'> & { runId?: string } = {}): BuilderChange {
+export function changeAnswer(sessionId: string, extra: Omit<Partial<TimetableChange>, 'runs'> & { runId?: string } = {}): TimetableChange {
   const snapshot = snapshotOf(sessionId);
   const { runId, ...rest } = extra;
   const run: Run | undefined = runId ? snapshot.runs.find((r) => r.id === runId) : undefined;

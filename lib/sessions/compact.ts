@@ -5,7 +5,7 @@
 // compiler refuses a run or step field that has neither. Plain functions, no server imports: the page encodes, the builder decodes in the browser.
 import type { Finding, LoadProfile, LoadSeries } from '@/lib/planning';
 import { FINDING_KINDS } from '@/lib/planning/finding';
-import type { BuilderLayout, BuilderSnapshot } from '@/lib/sessions/types';
+import type { TimetableLayout, TimetableSnapshot } from '@/lib/sessions/types';
 import type { Run, Step } from '@/lib/runs/schema';
 
 /** An id as its place in a layout list, or the id itself when the list does not hold it. */
@@ -80,7 +80,7 @@ type WireOf<K> = K extends keyof typeof RUN_CODECS ? ReturnType<(typeof RUN_CODE
 /** A run on the wire: each field's wire form in RUN_ORDER (derived, so the two cannot drift apart). */
 export type CompactRun = { -readonly [I in keyof typeof RUN_ORDER]: WireOf<(typeof RUN_ORDER)[I]> };
 
-export type CompactSnapshot = Omit<BuilderSnapshot, 'runs' | 'findings'> & { runs: CompactRun[]; findings: CompactFindings };
+export type CompactSnapshot = Omit<TimetableSnapshot, 'runs' | 'findings'> & { runs: CompactRun[]; findings: CompactFindings };
 
 function indexer(list: readonly { id: string }[]): (id: string) => Ref {
   const at = new Map(list.map((item, i) => [item.id, i]));
@@ -103,12 +103,12 @@ export function decodeRun(wire: CompactRun, refs: Decoders): Run {
   return Object.fromEntries(RUN_ORDER.map((key, i) => [key, codecOf(key).decode(wire[i], refs)])) as Run;
 }
 
-export function compactSnapshot(snapshot: BuilderSnapshot, layout: BuilderLayout): CompactSnapshot {
+export function compactSnapshot(snapshot: TimetableSnapshot, layout: TimetableLayout): CompactSnapshot {
   const refs: Encoders = { trains: indexer(layout.trains), cabs: indexer(layout.cabs), operators: indexer(layout.operators), blocks: indexer(layout.blocks) };
   return { ...snapshot, runs: snapshot.runs.map((r) => encodeRun(r, refs)), findings: compactFindings(snapshot.findings, knownIds(snapshot.runs, layout)) };
 }
 
-export function expandSnapshot(compact: CompactSnapshot, layout: BuilderLayout): BuilderSnapshot {
+export function expandSnapshot(compact: CompactSnapshot, layout: TimetableLayout): TimetableSnapshot {
   const refs: Decoders = { trains: resolver(layout.trains), cabs: resolver(layout.cabs), operators: resolver(layout.operators), blocks: resolver(layout.blocks) };
   const runs = compact.runs.map((r) => decodeRun(r, refs));
   return { ...compact, runs, findings: expandFindings(compact.findings, knownIds(runs, layout)) };
@@ -137,7 +137,7 @@ const everyFindingFieldWritten: [Exclude<keyof Finding, FindingFieldsWritten>] e
 void everyFindingFieldWritten;
 
 /** The ids a builder already holds, in an order both ends derive the same way: runs, then the layout's lists. */
-export function knownIds(runs: readonly { id: string }[], layout?: BuilderLayout): string[] {
+export function knownIds(runs: readonly { id: string }[], layout?: TimetableLayout): string[] {
   const lists = layout ? [layout.blocks, layout.cabs, layout.drivers, layout.supplies, layout.trains, layout.operators] : [];
   return [runs, ...lists].flatMap((list) => list.map((item) => item.id));
 }
@@ -203,7 +203,7 @@ export function compactLoad(load: LoadProfile): CompactLoad {
 }
 
 /** The load profile with each series' name read from the layout. */
-export function expandLoad(load: CompactLoad, layout: Pick<BuilderLayout, 'supplies' | 'drivers' | 'cabs'>): LoadProfile {
+export function expandLoad(load: CompactLoad, layout: Pick<TimetableLayout, 'supplies' | 'drivers' | 'cabs'>): LoadProfile {
   const named = (list: CompactSeries[], names: readonly { id: string; name: string }[]) => {
     const nameOf = new Map(names.map((n) => [n.id, n.name]));
     return list.map((s) => ({ ...s, name: nameOf.get(s.id) ?? 'Unnamed' }));

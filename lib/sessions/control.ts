@@ -16,7 +16,7 @@ import {
 } from '@/lib/control';
 import { AppError, badRequest } from '@/lib/errors';
 import type { Plan } from '@/lib/planning';
-import { loadSessionPlan } from './builder';
+import { loadSessionPlan } from './timetable';
 
 export interface SessionControl {
   plan: Plan;

@@ -1,5 +1,5 @@
 import 'server-only';
-import { loadSessionPlan } from '@/lib/sessions/builder';
+import { loadSessionPlan } from '@/lib/sessions/timetable';
 import { storedCheck } from '@/lib/sessions/stored-check';
 
 /** How many errors the engine finds in each stored session (for lists and the dashboard). */

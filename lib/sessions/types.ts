@@ -1,4 +1,4 @@
-// Shapes the builder's route handlers answer with and its client components read. Plain types
+// Shapes the timetable's route handlers answer with and its client components read. Plain types
 // only, so client code can import them without pulling in anything from the server.
 import type { Finding, FindingKind } from '@/lib/planning';
 import type { SessionStatus } from '@/db/enums';
@@ -6,7 +6,7 @@ import type { Move, Run } from '@/lib/runs/schema';
 
 export type { SessionStatus };
 
-export type BuilderSession = {
+export type TimetableSession = {
   id: string;
   railwayId: string;
   title: string;
@@ -24,8 +24,8 @@ export type BuilderSession = {
 };
 
 /** The session as stored, with the engine's findings for it (its load profile: `GET …/check?only=load`). */
-export type BuilderSnapshot = {
-  session: BuilderSession;
+export type TimetableSnapshot = {
+  session: TimetableSession;
   runs: Run[];
   /** The findings listed (capped: see `counts`). */
   findings: Finding[];
@@ -40,7 +40,7 @@ export type BuilderSnapshot = {
 };
 
 /** What a change answers: the new snapshot, and what to send to take the change back. */
-export type BuilderChange = BuilderSnapshot & {
+export type TimetableChange = TimetableSnapshot & {
   run?: Run;
   runs: Run[];
   /** Runs created by the change (a series). */
@@ -51,8 +51,8 @@ export type BuilderChange = BuilderSnapshot & {
   undo?: Move[];
 };
 
-/** The layout and crew the builder draws with; loaded once with the page. */
-export type BuilderLayout = {
+/** The layout and crew the timetable draws with; loaded once with the page. */
+export type TimetableLayout = {
   scaleRatio: number;
   blocks: { id: string; name: string; lengthMm: number; positionMm: number; reversingPlace?: boolean; reversingSection?: boolean }[];
   /** Rail joints: end aEnd of block a meets end bEnd of block b. */

@@ -95,10 +95,10 @@ describe('finding 2: one stored run or layout far outside physical ranges', () =
     const { GET } = await import('@/app/api/sessions/[sessionId]/check/route');
     expect((await GET(new Request(url(`/api/sessions/${session.id}/check`)), ctx({ sessionId: session.id }))).status).toBe(200);
     // What the session page does (app/(app)/railways/[railwayId]/sessions/[sessionId]/page.tsx).
-    const { builderPageProps, loadSessionPlan } = await import('@/lib/sessions/builder');
+    const { timetablePageProps, loadSessionPlan } = await import('@/lib/sessions/timetable');
     const { TimetableBuilder } = await import('@/components/timetable/timetable-builder');
     const loaded = loadSessionPlan(session.id);
-    const props = { sessionId: session.id, ...builderPageProps(session.id, loaded), canEdit: true, dateLabel: 'test evening' };
+    const props = { sessionId: session.id, ...timetablePageProps(session.id, loaded), canEdit: true, dateLabel: 'test evening' };
     const html = renderToString(createElement(TimetableBuilder, props));
     expect(html).toContain('data-testid="train-graph"');
     // Grid lines stay a handful, however far the run reaches (before: one per fast step up to 1e12 s).

@@ -10,7 +10,7 @@ import { GET as getPlan, POST as postPlan } from '@/app/api/sessions/[sessionId]
 import { getRun } from '@/db/queries/runs';
 import { RUN_FIELD_NAMES, restoreEdit, runFieldsOf, runFieldsSchema, shiftTiming, type RunFields } from '@/lib/runs/schema';
 import { planSchema, toPlanJson } from '@/lib/planning';
-import type { BuilderChange } from '@/lib/sessions/types';
+import type { TimetableChange } from '@/lib/sessions/types';
 import { makeSessionWorld, timedSteps } from './authz/sessions';
 import { signInAs } from './caller';
 import { makeWorld } from './world';
@@ -47,7 +47,7 @@ function setup() {
 }
 
 async function addSample(sid: string, sample: RunFields) {
-  const change = await ok<BuilderChange>(await createRun(json('POST', `/api/sessions/${sid}/runs`, sample), ctx({ sessionId: sid })), 201);
+  const change = await ok<TimetableChange>(await createRun(json('POST', `/api/sessions/${sid}/runs`, sample), ctx({ sessionId: sid })), 201);
   return getRun(sid, change.run!.id)!;
 }
 
@@ -80,7 +80,7 @@ describe('every field of a run travels through each copy path', () => {
     const { sid, sample } = setup();
     const source = await addSample(sid, sample);
     const path = `/api/sessions/${sid}/runs/${source.id}/series`;
-    const change = await ok<BuilderChange>(await postSeries(json('POST', path, { everyFastMin: 20, count: 2 }), ctx({ sessionId: sid, runId: source.id })), 201);
+    const change = await ok<TimetableChange>(await postSeries(json('POST', path, { everyFastMin: 20, count: 2 }), ctx({ sessionId: sid, runId: source.id })), 201);
     expect(change.createdIds).toHaveLength(2);
     // 20 fast minutes at 4:1 are 20 × 60 / 4 = 300 real seconds.
     change.createdIds!.forEach((id, i) => expectSameFields(getRun(sid, id)!, sample, 300 * (i + 1)));
@@ -109,7 +109,7 @@ describe('every field of a run travels through each copy path', () => {
     const { sid, sample } = setup();
     const source = await addSample(sid, sample);
     const path = `/api/sessions/${sid}/runs/${source.id}?version=${source.version}`;
-    const deleted = await ok<BuilderChange>(await DELETE(json('DELETE', path), ctx({ sessionId: sid, runId: source.id })));
+    const deleted = await ok<TimetableChange>(await DELETE(json('DELETE', path), ctx({ sessionId: sid, runId: source.id })));
     expect(getRun(sid, source.id)).toBeUndefined();
     const back = await addSample(sid, runFieldsOf(deleted.deleted!));
     expectSameFields(back, sample);

@@ -8,7 +8,7 @@ import { eq } from 'drizzle-orm';
 import { getDb } from '@/db';
 import { getRun } from '@/db/queries/runs';
 import * as t from '@/db/schema';
-import type { BuilderChange, BuilderSnapshot, RetimeSuggestion } from '@/lib/sessions/types';
+import type { TimetableChange, TimetableSnapshot, RetimeSuggestion } from '@/lib/sessions/types';
 import { makeSessionWorld } from './authz/sessions';
 import { signInAs } from './caller';
 import { makeWorld } from './world';
@@ -28,7 +28,7 @@ function setup() {
   return { w, s, sid };
 }
 
-async function snapshot(sid: string): Promise<BuilderSnapshot> {
+async function snapshot(sid: string): Promise<TimetableSnapshot> {
   const res = await listRuns(new Request(url(`/api/sessions/${sid}/runs`)), ctx({ sessionId: sid }));
   expect(res.status).toBe(200);
   return res.json();
@@ -40,7 +40,7 @@ describe('runs', () => {
     const body = { trainId: s.layout.trains.t1, cabId: s.layout.cabs.c1, depart: '09:00', waypoints: [s.layout.blocks.A, s.layout.blocks.D], speedKmh: 60, standBeforeS: 30, standAfterS: 30 };
     const res = await createRun(json('POST', `/api/sessions/${sid}/runs`, body), ctx({ sessionId: sid }));
     expect(res.status).toBe(201);
-    const answer: BuilderChange = await res.json();
+    const answer: TimetableChange = await res.json();
     // 09:00 fast with the clock starting at 06:00 and running 4:1 is 3 h × 3600 / 4 = 2700 s real.
     expect(answer.run?.departS).toBe(2700);
     expect(answer.run?.steps.map((st) => st.blockId)).toEqual(['A', 'B', 'C', 'D'].map((k) => s.layout.blocks[k]));
@@ -59,7 +59,7 @@ describe('runs', () => {
     const { s, sid } = setup();
     getDb().update(t.trains).set({ accelKmhPerS: 30 }).where(eq(t.trains.id, s.layout.trains.t1)).run();
     const body = { trainId: s.layout.trains.t1, cabId: s.layout.cabs.c1, depart: '09:00', waypoints: [s.layout.blocks.A, s.layout.blocks.D], speedKmh: 60, standBeforeS: 30, standAfterS: 30 };
-    const answer: BuilderChange = await (await createRun(json('POST', `/api/sessions/${sid}/runs`, body), ctx({ sessionId: sid }))).json();
+    const answer: TimetableChange = await (await createRun(json('POST', `/api/sessions/${sid}/runs`, body), ctx({ sessionId: sid }))).json();
     // 30 km/h per second (95.79 mm/s²): 2 s to 60 km/h over 191.6 mm, then (500 − 191.6) / 191.57 = 1.61 s.
     const v = (60 / 3.6 / 87) * 1000;
     const a = (30 / 3.6 / 87) * 1000;
@@ -127,7 +127,7 @@ describe('runs', () => {
     const path = `/api/sessions/${sid}/runs/${runId}`;
     // Both runs on Cab 1 at overlapping times: a double-booked cab.
     const res = await PATCH(json('PATCH', path, { version: 1, cabId: s.layout.cabs.c1 }), ctx({ sessionId: sid, runId }));
-    const answer: BuilderChange = await res.json();
+    const answer: TimetableChange = await res.json();
     const cab = answer.findings.find((f) => f.kind === 'cab-double-booked');
     expect(cab?.ids[0]).toBe(s.layout.cabs.c1);
     expect(cab?.message).toContain('Cab 1 is booked for');
@@ -142,7 +142,7 @@ describe('runs', () => {
     expect(stale.status).toBe(409);
     const res = await DELETE(new Request(url(`/api/sessions/${sid}/runs/${runId}?version=1`), { method: 'DELETE' }), ctx({ sessionId: sid, runId }));
     expect(res.status).toBe(200);
-    const answer: BuilderChange = await res.json();
+    const answer: TimetableChange = await res.json();
     expect(answer.runs).toHaveLength(1);
     expect(answer.findings.some((f) => f.kind === 'block-overlap')).toBe(false);
     const { deleted } = answer;
@@ -154,7 +154,7 @@ describe('runs', () => {
       ctx({ sessionId: sid }),
     );
     expect(put.status).toBe(201);
-    const back: BuilderChange = await put.json();
+    const back: TimetableChange = await put.json();
     expect(back.run?.steps).toEqual(deleted!.steps);
     expect(back.findings.some((f) => f.kind === 'block-overlap')).toBe(true);
   });
@@ -165,7 +165,7 @@ describe('runs', () => {
     const source = getRun(sid, runId)!;
     const res = await postSeries(json('POST', `/api/sessions/${sid}/runs/${runId}/series`, { everyFastMin: 40, count: 3 }), ctx({ sessionId: sid, runId }));
     expect(res.status).toBe(201);
-    const answer: BuilderChange = await res.json();
+    const answer: TimetableChange = await res.json();
     expect(answer.createdIds).toHaveLength(3);
     // 40 fast minutes at 4:1 are 600 real seconds.
     const departures = answer.createdIds!.map((id) => answer.runs.find((r) => r.id === id)!.departS);
@@ -191,7 +191,7 @@ describe('runs', () => {
       ctx({ sessionId: sid }),
     );
     expect(applied.status).toBe(200);
-    const after: BuilderChange = await applied.json();
+    const after: TimetableChange = await applied.json();
     expect(after.findings.filter((f) => TIMING_KINDS.includes(f.kind))).toEqual([]);
 
     // The same moves again are stale: all or nothing.
@@ -203,7 +203,7 @@ describe('runs', () => {
 
     const undone = await undoRetime(json('POST', `/api/sessions/${sid}/retime/undo`, { moves: after.undo }), ctx({ sessionId: sid }));
     expect(undone.status).toBe(200);
-    const restored: BuilderChange = await undone.json();
+    const restored: TimetableChange = await undone.json();
     // Shifting by d and then by −d is exact up to floating-point rounding (well below a millisecond).
     for (const run of before.runs) {
       const back = restored.runs.find((r) => r.id === run.id)!;
@@ -259,7 +259,7 @@ describe('runs on the engine’s model of issue 12', () => {
     // From A it runs in through the facing turnout; each step records the ends it enters and leaves by.
     const straight = await post('09:00', [A, siding]);
     expect(straight.status).toBe(201);
-    const first: BuilderChange = await straight.json();
+    const first: TimetableChange = await straight.json();
     const ends = (runId: string) => getRun(sid, runId)!.steps.map((st) => [st.blockId, st.fromEnd, st.toEnd]);
     expect(ends(first.run!.id)).toEqual([
       [A, 'a', 'b'],
@@ -271,7 +271,7 @@ describe('runs on the engine’s model of issue 12', () => {
     db.update(t.blocks).set({ reversingPlace: true }).where(eq(t.blocks.id, B)).run();
     const turned = await post('10:00', [C, siding]);
     expect(turned.status).toBe(201);
-    expect(ends(((await turned.json()) as BuilderChange).run!.id)).toEqual([
+    expect(ends(((await turned.json()) as TimetableChange).run!.id)).toEqual([
       [C, 'b', 'a'],
       [B, 'b', 'b'],
       [siding, 'a', 'b'],
@@ -286,7 +286,7 @@ describe('runs on the engine’s model of issue 12', () => {
     const post = async (depart: string, waypoints: string[]) => {
       const res = await createRun(json('POST', `/api/sessions/${sid}/runs`, body(s, depart, waypoints)), ctx({ sessionId: sid }));
       expect(res.status).toBe(201);
-      return (await res.json()) as BuilderChange;
+      return (await res.json()) as TimetableChange;
     };
     // No stand times given: the builder's defaults, 60 s before departure and 120 s after arrival.
     const out = await post('09:00', [A, D]);

@@ -2,11 +2,11 @@ import { describe, expect, it } from 'vitest';
 import type { LoadProfile } from '@/lib/planning';
 import { compactFindings, compactLoad, compactSnapshot, expandFindings, expandLoad, expandSnapshot, knownIds } from '@/lib/sessions/compact';
 import type { Finding } from '@/lib/planning';
-import type { BuilderLayout, BuilderSnapshot } from '@/lib/sessions/types';
+import type { TimetableLayout, TimetableSnapshot } from '@/lib/sessions/types';
 
 // The builder page's compact props must decode to exactly what the server computed (common practice:
 // an encoding is checked by its round trip), and must actually be smaller than the plain JSON.
-const layout: BuilderLayout = {
+const layout: TimetableLayout = {
   scaleRatio: 87,
   blocks: [
     { id: 'block-aaaaaaaa-1', name: 'Yard', lengthMm: 1200, positionMm: 0 },
@@ -20,7 +20,7 @@ const layout: BuilderLayout = {
   operators: [{ id: 'op-1', name: 'Ann', reply: null }],
 };
 
-const snapshot: BuilderSnapshot = {
+const snapshot: TimetableSnapshot = {
   session: {
     id: 's1', railwayId: 'r1', title: 'Evening', status: 'draft', version: 3, sequence: 0, startsAtMs: 0, endsAtMs: 3_600_000,
     timeZone: 'UTC', clockRatio: 4, fastStart: '06:00', headwayS: 30, surgeS: 2, derate: 0.8,
@@ -42,7 +42,7 @@ const snapshot: BuilderSnapshot = {
     { id: 'run-3', version: 1, trainId: 'train-1', cabId: 'cab-1', operatorId: null, departS: 200, arriveS: 230, speedKmh: null, note: '', steps: [] },
   ],
   findings: [{ kind: 'block-overlap', severity: 'error', ids: ['block-aaaaaaaa-1', 'run-1', 'run-2'], fromS: 10, toS: 20, message: 'Two runs share Yard.' }],
-  counts: {} as BuilderSnapshot['counts'],
+  counts: {} as TimetableSnapshot['counts'],
   totals: { errors: 1, warnings: 0 },
   truncated: false,
   checkMs: 1.5,

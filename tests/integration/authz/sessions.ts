@@ -182,7 +182,7 @@ export const SESSION_CASES: AuthzCase[] = [
     target: 'app/api/sessions/[sessionId]/plan/route.ts#POST',
     call: async (w) => {
       const { session } = makeSessionWorld(w);
-      const { loadSessionPlan } = await import('@/lib/sessions/builder');
+      const { loadSessionPlan } = await import('@/lib/sessions/timetable');
       const { POST } = await import('@/app/api/sessions/[sessionId]/plan/route');
       const body = toPlanJson(loadSessionPlan(session.id).plan);
       return (await POST(json('POST', `/api/sessions/${session.id}/plan`, body), ctx({ sessionId: session.id }))).status;
@@ -301,7 +301,7 @@ export const SESSION_CASES: AuthzCase[] = [
     target: 'app/api/plans/check/route.ts#POST',
     call: async (w) => {
       const { session } = makeSessionWorld(w);
-      const { loadSessionPlan } = await import('@/lib/sessions/builder');
+      const { loadSessionPlan } = await import('@/lib/sessions/timetable');
       const { resetRateLimits } = await import('@/lib/rate-limit');
       resetRateLimits();
       const { POST } = await import('@/app/api/plans/check/route');

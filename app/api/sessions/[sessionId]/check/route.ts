@@ -1,6 +1,6 @@
 import { parseOrThrow } from '@/lib/errors';
 import { handler } from '@/lib/http';
-import { chartLoad, loadSessionPlan, snapshotOf } from '@/lib/sessions/builder';
+import { chartLoad, loadSessionPlan, snapshotOf } from '@/lib/sessions/timetable';
 import { compactLoad } from '@/lib/sessions/compact';
 import { storedCheck } from '@/lib/sessions/stored-check';
 import { requireSession } from '@/lib/auth/sessions';

@@ -2,7 +2,7 @@ import { parseOrThrow, readJson } from '@/lib/errors';
 import { handler } from '@/lib/http';
 import { addRun } from '@/lib/runs/service';
 import { requireSession } from '@/lib/auth/sessions';
-import { snapshotOf } from '@/lib/sessions/builder';
+import { snapshotOf } from '@/lib/sessions/timetable';
 import { createRunSchema, sessionParamsSchema } from './schema';
 
 export const dynamic = 'force-dynamic';

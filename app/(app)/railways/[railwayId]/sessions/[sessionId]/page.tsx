@@ -6,12 +6,12 @@ import { SessionStatusBadge } from '@/components/sessions/session-status';
 import { formatInZone, formatTimeInZone } from '@/lib/time-zone';
 import { memberForPage } from '@/lib/auth/pages';
 import { roleAtLeast } from '@/lib/roles';
-import { builderPageProps, loadSessionPlan } from '@/lib/sessions/builder';
+import { timetablePageProps, loadSessionPlan } from '@/lib/sessions/timetable';
 import { sessionForPage } from '@/lib/auth/pages';
 
 export const metadata: Metadata = { title: 'Timetable' };
 
-export default async function SessionBuilderPage({ params }: { params: Promise<{ railwayId: string; sessionId: string }> }) {
+export default async function SessionTimetablePage({ params }: { params: Promise<{ railwayId: string; sessionId: string }> }) {
   const { railwayId, sessionId } = await params;
   const { member } = await memberForPage(railwayId, 'operator', `/railways/${railwayId}/sessions/${sessionId}`);
   if (!member) notFound();
@@ -19,7 +19,7 @@ export default async function SessionBuilderPage({ params }: { params: Promise<{
   const canEdit = roleAtLeast(member.role, 'planner');
   const loaded = loadSessionPlan(session.id);
   const { rows } = loaded;
-  const { initial, layout } = builderPageProps(session.id, loaded);
+  const { initial, layout } = timetablePageProps(session.id, loaded);
   const dateLabel = `${formatInZone(session.startsAt, session.timeZone)}–${formatTimeInZone(session.endsAt, session.timeZone)} (${session.timeZone})`;
   const base = `/railways/${railwayId}/sessions/${session.id}`;
   return (

@@ -15,7 +15,7 @@ import {
 import { compactSnapshot, type CompactSnapshot } from '@/lib/sessions/compact';
 import { storedCheck } from '@/lib/sessions/stored-check';
 import { sessionToPlan } from '@/lib/sessions/to-plan';
-import type { BuilderLayout, BuilderSession, BuilderSnapshot } from '@/lib/sessions/types';
+import type { TimetableLayout, TimetableSession, TimetableSnapshot } from '@/lib/sessions/types';
 import type { Run, Step } from '@/lib/runs/schema';
 
 export type SessionRows = NonNullable<ReturnType<typeof loadSessionRows>>;
@@ -27,7 +27,7 @@ export function loadSessionPlan(sessionId: string): { rows: SessionRows; plan: P
   return { rows, plan: sessionToPlan(rows) };
 }
 
-export function sessionView(session: Session): BuilderSession {
+export function sessionView(session: Session): TimetableSession {
   return {
     id: session.id,
     railwayId: session.railwayId,
@@ -56,7 +56,7 @@ export function runsOf(rows: SessionRows): Run[] {
   const stepsOf = new Map<string, Step[]>();
   for (const s of rows.steps) {
     const list = stepsOf.get(s.runId) ?? [];
-    // Milliseconds are plenty for the builder's views, and the answer is a third smaller.
+    // Milliseconds are plenty for the timetable's views, and the answer is a third smaller.
     list.push({ blockId: s.blockId, enterS: round(s.enterS, 3), exitS: round(s.exitS, 3) });
     stepsOf.set(s.runId, list);
   }
@@ -86,10 +86,10 @@ export function chartLoad(load: LoadProfile): LoadProfile {
 }
 
 /**
- * The session as stored, checked now: what every builder handler answers with. The load profile is
+ * The session as stored, checked now: what every timetable handler answers with. The load profile is
  * not in it: the Load view asks `GET …/check?only=load` when it is opened.
  */
-export function snapshotOf(sessionId: string, loaded?: { rows: SessionRows; plan: Plan }): BuilderSnapshot {
+export function snapshotOf(sessionId: string, loaded?: { rows: SessionRows; plan: Plan }): TimetableSnapshot {
   const started = performance.now();
   const { rows, plan } = loaded ?? loadSessionPlan(sessionId);
   const { check } = storedCheck(plan);
@@ -104,8 +104,8 @@ export function snapshotOf(sessionId: string, loaded?: { rows: SessionRows; plan
   };
 }
 
-/** The layout and crew the builder draws with. */
-export function builderLayout(rows: SessionRows): BuilderLayout {
+/** The layout and crew the timetable draws with. */
+export function timetableLayout(rows: SessionRows): TimetableLayout {
   const topSpeed = new Map(rows.locomotives.map((l) => [l.id, l.topSpeedKmh]));
   const consist = new Map<string, number[]>();
   for (const c of rows.consists) consist.set(c.trainId, [...(consist.get(c.trainId) ?? []), topSpeed.get(c.locomotiveId) ?? Infinity]);
@@ -127,11 +127,11 @@ export function builderLayout(rows: SessionRows): BuilderLayout {
 }
 
 /**
- * What the builder page hands the builder: the layout and crew, and the session's runs and findings
+ * What the timetable page hands the timetable screen: the layout and crew, and the session's runs and findings
  * compact (runs refer to the layout's lists by place), so the page's payload carries them once and small.
  */
-export function builderPageProps(sessionId: string, loaded: { rows: SessionRows; plan: Plan }): { initial: CompactSnapshot; layout: BuilderLayout } {
-  const layout = builderLayout(loaded.rows);
+export function timetablePageProps(sessionId: string, loaded: { rows: SessionRows; plan: Plan }): { initial: CompactSnapshot; layout: TimetableLayout } {
+  const layout = timetableLayout(loaded.rows);
   return { layout, initial: compactSnapshot(snapshotOf(sessionId, loaded), layout) };
 }
 
