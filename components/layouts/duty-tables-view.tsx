@@ -24,7 +24,7 @@ export function DutyTablesView({ tables }: { tables: DutyTable[] }) {
             <p className="mt-2 text-sm text-muted">No cabs yet.</p>
           ) : (
             <div className="mt-2 overflow-x-auto">
-              <table className="w-full min-w-max text-left text-sm">
+              <table className="w-full text-left text-sm">
                 <thead className="text-xs uppercase text-muted">
                   <tr>
                     <th className="px-2 py-1">Scale speed</th>

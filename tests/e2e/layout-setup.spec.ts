@@ -58,6 +58,11 @@ test('issue 13 point 5: at laptop width no table of either demo layout scrolls s
       for (const id of ids) await expect(page.getByTestId(id)).toBeVisible();
       expect(await tablesScrollingSideways(page, ids), `${name}, ${tab}`).toEqual([]);
     }
+    // The PWM duty tables under the trains, opened: their notes wrap rather than widen the table.
+    const duty = page.getByTestId('duty-table');
+    for (const details of await duty.all()) await details.locator('summary').click();
+    const wide = await duty.locator('table').evaluateAll((tables) => tables.filter((t) => t.parentElement!.scrollWidth > t.parentElement!.clientWidth).length);
+    expect(wide, `${name}, duty tables`).toBe(0);
   }
   // The driver's further ratings sit on a line under its main cells, each with its heading, and still edit.
   await layout.openTab('Power');
