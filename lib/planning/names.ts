@@ -1,4 +1,5 @@
 import { fastFormatter } from './clock';
+import { firstById } from './plan-index';
 import type { Plan } from './schema';
 
 /** How findings name the things of a plan: by the names people gave them, never by ids. */
@@ -18,11 +19,7 @@ export interface PlanNames {
   span(fromS: number, toS: number): string;
 }
 
-function namesOf(list: readonly { id: string; name: string }[]): Map<string, string> {
-  const map = new Map<string, string>();
-  for (const item of list) if (!map.has(item.id)) map.set(item.id, item.name.trim());
-  return map;
-}
+const namesOf = (list: readonly { id: string; name: string }[]) => firstById(list, (item) => item.name.trim());
 
 /**
  * Name lookups for a plan's findings. A thing with an empty name (or an id the plan does not
@@ -36,8 +33,7 @@ export function planNames(plan: Plan): PlanNames {
   const drivers = namesOf(plan.drivers);
   const supplies = namesOf(plan.supplies);
   const locomotives = namesOf(plan.locomotives);
-  const runs = new Map<string, { trainId: string; departS: number }>();
-  for (const run of plan.runs) if (!runs.has(run.id)) runs.set(run.id, run);
+  const runs: Map<string, { trainId: string; departS: number }> = firstById(plan.runs, (run) => run);
   const lookup = (map: Map<string, string>) => (id: string) => {
     const name = map.get(id);
     return name ? name : `"${id}"`;

@@ -25,13 +25,16 @@ export interface PlanIndex {
   stepExit: Float64Array;
 }
 
-function positions(list: readonly { id: string }[]): Map<string, number> {
-  const map = new Map<string, number>();
+/** Each id of `list` mapped to `value` of its first item (a repeated id is the schema's finding, not a second entry). */
+export function firstById<T extends { id: string }, V>(list: readonly T[], value: (item: T, index: number) => V): Map<string, V> {
+  const map = new Map<string, V>();
   list.forEach((item, i) => {
-    if (!map.has(item.id)) map.set(item.id, i);
+    if (!map.has(item.id)) map.set(item.id, value(item, i));
   });
   return map;
 }
+
+const positions = (list: readonly { id: string }[]) => firstById(list, (_, i) => i);
 
 /** Resolves a plan's references once; see PlanIndex. */
 export function indexPlan(plan: Plan): PlanIndex {
