@@ -1,12 +1,12 @@
 // npm run screenshots:readme — the README's pictures, taken from the browser tests' screenshots.
 // Run the browser tests first (they save every screen at 1366 and 390 px into tests/e2e/screenshots/);
 // this keeps the top of each page (what the window shows, a little more) and writes it as a palette PNG
-// into docs/screenshots/. sharp comes with Next.js (its image optimiser), so nothing new is installed.
+// into tests/e2e/readme/. sharp comes with Next.js (its image optimiser), so nothing new is installed.
 import fs from 'node:fs';
 import path from 'node:path';
 
 const FROM = 'tests/e2e/screenshots';
-const TO = 'docs/screenshots';
+const TO = 'tests/e2e/readme';
 
 /** README picture ← browser test screenshot (the test that saves it is named in the README). */
 const PICTURES = [
