@@ -23,6 +23,8 @@ type Props = {
 /** Characters of a block's name that fit over its segment at 11 px. */
 const NAME_CHARS = 19;
 const TAG_CHARS = 12;
+/** The least the drawing shrinks to fit its frame (see the svg style below). */
+const MIN_SCALE = 0.9;
 
 const short = (text: string, chars: number) => (text.length > chars ? `${text.slice(0, chars - 1)}…` : text);
 /** Long names keep their start and their end ("Larkholm…road 3"): the end often tells blocks apart. */
@@ -59,7 +61,9 @@ export function TrackDiagram({ blocks, links, title, picked = [], route = [], ma
           viewBox={`0 0 ${d.width} ${d.height}`}
           width={d.width}
           height={d.height}
-          style={{ width: '100%', height: 'auto', maxWidth: d.width, minWidth: Math.round(d.width * 0.6) }}
+          // Shrink at most to 90 %: block names (11 px) and train tags stay readable at about 10 px; a wider
+          // layout scrolls sideways in its frame instead of shrinking into unreadable type.
+          style={{ width: '100%', height: 'auto', maxWidth: d.width, minWidth: Math.round(d.width * MIN_SCALE) }}
           role={onPick ? 'group' : 'img'}
           aria-labelledby={`${idPrefix}-title ${idPrefix}-desc`}
           className="block select-none"
