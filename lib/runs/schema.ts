@@ -71,7 +71,10 @@ const everyFieldPlaced: [Unplaced] extends [never] ? true : Unplaced = true;
 void everyFieldPlaced;
 
 /** The fields outside the plan, as they may come with a posted plan's run (each optional). */
-export const runFieldsOutsidePlanSchema = z.object({ speedKmh: runShape.speedKmh, note: runShape.note }).partial();
+// Every name of RUN_FIELDS_OUTSIDE_PLAN must be here (the satisfies fails to compile otherwise), or a posted
+// plan's run would have the new field stripped by the parse.
+const OUTSIDE_PLAN_MASK = { speedKmh: true, note: true } as const satisfies Record<(typeof RUN_FIELDS_OUTSIDE_PLAN)[number], true>;
+export const runFieldsOutsidePlanSchema = z.object(runShape).pick(OUTSIDE_PLAN_MASK).partial();
 
 /** A posted plan interchange (a session's plan, a plan to check) is read up to this many bytes: a few thousand runs fit well inside. */
 export const PLAN_MAX_BYTES = 5_000_000;
