@@ -21,7 +21,7 @@ export function makeSessionWorld(w: World, options: SessionOptions = {}) {
   const layout = db.insert(t.layouts).values({ railwayId: w.railway.id, name: 'Test branch', scaleName: 'H0', scaleRatio: 87 }).returning().get();
   const [b1, b2, b3] = ['Yard', 'Main', 'Ærø halt'].map((name, i) =>
     db.insert(t.blocks).values({ layoutId: layout.id, name, lengthMm: 1000, positionMm: i * 1000 }).returning().get(),
-  ) as [t.Block, t.Block, t.Block];
+  ) as [typeof t.blocks.$inferSelect, typeof t.blocks.$inferSelect, typeof t.blocks.$inferSelect];
   const supply = db.insert(t.supplies).values({ layoutId: layout.id, name: 'Bench supply', volts: 12, amps: 2 }).returning().get();
   const driver = db
     .insert(t.drivers)
@@ -64,7 +64,7 @@ export function makeSessionWorld(w: World, options: SessionOptions = {}) {
     })
     .returning()
     .get();
-  const run = (train: t.Block | typeof local, cab: typeof cabA, operatorId: string, departS: number) => {
+  const run = (train: typeof t.blocks.$inferSelect | typeof local, cab: typeof cabA, operatorId: string, departS: number) => {
     const r = db
       .insert(t.runs)
       .values({ sessionId: session.id, trainId: train.id, cabId: cab.id, operatorId, departS, arriveS: departS + 60 })
