@@ -30,7 +30,8 @@ export function getTransport(): Transporter {
       socketTimeout: 10_000,
       ignoreTLS: parsed.hostname === '127.0.0.1' || parsed.hostname === 'localhost',
     };
-    globalForMail.fishplateTransport = nodemailer.createTransport(url, options);
+    // One argument: nodemailer reads a second one as defaults for every message, not as transport options.
+    globalForMail.fishplateTransport = nodemailer.createTransport(options);
     globalForMail.fishplateSmtpUrl = url;
   }
   return globalForMail.fishplateTransport;
