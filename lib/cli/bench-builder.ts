@@ -9,30 +9,19 @@
  * SQLite file in the system's temp folder with the demo railway seeded.
  */
 import fs from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { eq } from 'drizzle-orm';
-import { openDatabase } from '@/db';
 import * as t from '@/db/schema';
-import { seedDemoRailway } from '@/lib/demo/demo-railway';
+import { openDemoBenchDatabase } from './bench-database';
+import { median } from './bench-server';
 import { checkPlan, suggestRetime } from '@/lib/planning';
 
 const RUNS = Number(process.env.BENCH_RUNS ?? 200);
 const REPEATS = 25;
 
-function median(values: number[]): number {
-  const sorted = [...values].sort((a, b) => a - b);
-  return sorted[Math.floor(sorted.length / 2)]!;
-}
-
 async function main() {
-  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'fishplate-bench-'));
-  const file = path.join(dir, 'bench.db');
-  process.env.DATABASE_URL = file;
-  const db = openDatabase(file);
-  (globalThis as unknown as { fishplateDb?: typeof db }).fishplateDb = db;
-  const { sessionId } = seedDemoRailway(db, { passwordHash: 'not-used' });
+  const { db, dir, demo: seeded } = openDemoBenchDatabase('fishplate-bench-');
+  const { sessionId } = seeded;
 
   const { snapshotOf, loadSessionPlan } = await import('@/lib/sessions/timetable');
   const { assertRunsValid } = await import('@/lib/runs/rules');

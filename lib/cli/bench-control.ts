@@ -1,21 +1,14 @@
 // npm run bench (second part) — compiling the control schedule for the 200-run session
 // (the demo session's twenty runs repeated ten times, 17 real minutes apart), target under 200 ms.
 import fs from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
-import { openDatabase } from '@/db';
 import * as t from '@/db/schema';
-import { seedDemoRailway, seedLargeSession } from '@/lib/demo/demo-railway';
+import { seedLargeSession } from '@/lib/demo/demo-railway';
+import { openDemoBenchDatabase } from './bench-database';
 
 const REPEATS = 25;
 
 async function main() {
-  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'fishplate-bench-control-'));
-  const file = path.join(dir, 'bench.db');
-  process.env.DATABASE_URL = file;
-  const db = openDatabase(file);
-  (globalThis as unknown as { fishplateDb?: typeof db }).fishplateDb = db;
-  seedDemoRailway(db, { passwordHash: 'not-used' });
+  const { db, dir } = openDemoBenchDatabase('fishplate-bench-control-');
   const { sessionId, runCount } = seedLargeSession(db, 10);
   const { sessionControl } = await import('@/lib/sessions/control');
   const { compileSchedule } = await import('@/lib/control');
