@@ -1,6 +1,16 @@
 import { z } from 'zod';
 import { defaultRamps } from './motion';
-import { timeOfDaySchema } from './time-of-day';
+import { timeOfDayPattern, type TimeOfDayOptions } from './time-of-day';
+
+/**
+ * A zod string for a time of day that `parseTimeOfDay` reads (same pattern, so the two never
+ * disagree), trimmed. `missing` is the message for a value that is not a string, `invalid` for one
+ * that is not a time of day.
+ */
+export function timeOfDaySchema(messages: { invalid: string; missing?: string }, options: TimeOfDayOptions = {}) {
+  const text = messages.missing === undefined ? z.string() : z.string({ error: messages.missing });
+  return text.trim().regex(timeOfDayPattern(options), messages.invalid);
+}
 
 /**
  * What an id in a plan may look like: a letter or digit, then up to 63 letters, digits, `.`, `_`,

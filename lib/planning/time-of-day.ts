@@ -1,6 +1,6 @@
 // The one reader of a written time of day (`HH:MM`, or `HH:MM:SS` where seconds are allowed), for the
-// fast clock and the wall clock alike. Imports nothing of the engine, so every module can use it.
-import { z } from 'zod';
+// fast clock and the wall clock alike. Imports nothing (no zod either: the browser's clock code uses it),
+// so every module can; its zod schema, timeOfDaySchema, lives in ./schema.
 
 /** Seconds in a day. */
 export const DAY_S = 86_400;
@@ -16,7 +16,8 @@ export type TimeOfDayOptions = {
   seconds?: boolean;
 };
 
-function patternOf(options: TimeOfDayOptions): RegExp {
+/** The pattern parseTimeOfDay reads, for the zod schema built on it (./schema's timeOfDaySchema). */
+export function timeOfDayPattern(options: TimeOfDayOptions = {}): RegExp {
   return options.seconds ? PATTERNS.seconds : PATTERNS.minutes;
 }
 
@@ -25,17 +26,7 @@ function patternOf(options: TimeOfDayOptions): RegExp {
  * or `HH:MM:SS` when `seconds` is set; null for anything else. Surrounding blanks are ignored.
  */
 export function parseTimeOfDay(text: string, options: TimeOfDayOptions = {}): number | null {
-  const match = patternOf(options).exec(text.trim());
+  const match = timeOfDayPattern(options).exec(text.trim());
   if (match === null) return null;
   return Number(match[1]) * 3600 + Number(match[2]) * 60 + Number(match[3] ?? 0);
-}
-
-/**
- * A zod string for a time of day that `parseTimeOfDay` reads (same pattern, so the two never
- * disagree), trimmed. `missing` is the message for a value that is not a string, `invalid` for one
- * that is not a time of day.
- */
-export function timeOfDaySchema(messages: { invalid: string; missing?: string }, options: TimeOfDayOptions = {}) {
-  const text = messages.missing === undefined ? z.string() : z.string({ error: messages.missing });
-  return text.trim().regex(patternOf(options), messages.invalid);
 }
