@@ -49,6 +49,13 @@ export function startLocalMailServer(port: number, host = '127.0.0.1'): Promise<
   return new Promise((resolve, reject) => {
     server.once('error', reject);
     server.listen(port, host, () => {
+      // From now on an error is one client's connection (a sender killed mid-message resets it): log it and
+      // serve on. smtp-server emits connection errors on the server, and an 'error' with no listener would
+      // throw and take the whole app's process down with it.
+      server.off('error', reject);
+      server.on('error', (error: NodeJS.ErrnoException) => {
+        if (error.code !== 'ECONNRESET' && error.code !== 'EPIPE') console.warn(`local mail catcher: ${error.message}`);
+      });
       const address = server.server.address();
       const actual = typeof address === 'object' && address ? address.port : port;
       resolve(Object.assign(server, { port: actual }));
