@@ -24,6 +24,7 @@ const all = [
 ];
 // Folders of pure code (zod schemas, the engine, chart ticks, the control exporters): their unit tests
 // are the ones meant to catch a bug, and an integration test per mutant costs seconds on two cores.
+// lib/control adds the toolchain tests that compile and run its generated programs (vitest.config.mts).
 const UNIT_ONLY = new Set(['planning', 'validations', 'charts', 'control']);
 const args = process.argv.slice(2);
 const options = {};
