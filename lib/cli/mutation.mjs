@@ -1,4 +1,4 @@
-// npm run test:mutation [-- target …] [--unit] [--concurrency 1] — Stryker over lib/, one folder at a time
+// npm run test:mutation [-- target …] [--unit] [--force] [--concurrency 1] [--table] — Stryker over lib/, one folder at a time
 // (stryker.config.mjs), then the score of every folder that has a report. A target is a folder (a
 // sub-folder of lib/, or "root" for the files directly in lib/) or one file (lib/calendar/ics.ts), for
 // a quick look while writing its tests. Each target keeps its own incremental file in reports/mutation/
@@ -43,7 +43,8 @@ if (unknown.length) {
   process.exit(2);
 }
 // The engine last: it is the largest and is often the one being changed.
-const targets = asked.length ? asked : [...all.filter((f) => f !== 'planning'), 'planning'];
+// --table: print the table of the reports already written, running nothing.
+const targets = args.includes('--table') ? [] : asked.length ? asked : [...all.filter((f) => f !== 'planning'), 'planning'];
 fs.mkdirSync(OUT, { recursive: true });
 
 for (const target of targets) {
@@ -77,15 +78,29 @@ const reports = fs
   .filter((f) => f.endsWith('.json') && !f.endsWith('.incremental.json'))
   .map((f) => f.slice(0, -'.json'.length))
   .sort((a, b) => Number(!all.includes(a.split('.')[0])) - Number(!all.includes(b.split('.')[0])) || a.localeCompare(b));
-const rows = [];
-for (const name of reports) {
-  const report = JSON.parse(fs.readFileSync(path.join(OUT, `${name}.json`), 'utf8'));
+const tally = (names) => {
   const count = { Killed: 0, Timeout: 0, Survived: 0, NoCoverage: 0 };
-  for (const f of Object.values(report.files)) for (const m of f.mutants) if (m.status in count) count[m.status] += 1;
+  for (const name of names) {
+    const report = JSON.parse(fs.readFileSync(path.join(OUT, `${name}.json`), 'utf8'));
+    for (const f of Object.values(report.files)) for (const m of f.mutants) if (m.status in count) count[m.status] += 1;
+  }
+  return count;
+};
+const row = (what, when, count) => {
   const valid = count.Killed + count.Timeout + count.Survived + count.NoCoverage;
   const score = valid ? (100 * (count.Killed + count.Timeout)) / valid : 100;
-  const when = fs.statSync(path.join(OUT, `${name}.json`)).mtime.toISOString().slice(0, 16).replace('T', ' ');
-  rows.push(`| ${label(name)} | ${when} | ${valid} | ${count.Killed + count.Timeout} | ${count.Survived} | ${count.NoCoverage} | ${score.toFixed(1)} % |`);
+  return `| ${what} | ${when} | ${valid} | ${count.Killed + count.Timeout} | ${count.Survived} | ${count.NoCoverage} | ${score.toFixed(1)} % |`;
+};
+const written = (name) => fs.statSync(path.join(OUT, `${name}.json`)).mtime.toISOString().slice(0, 16).replace('T', ' ');
+const rows = reports.map((name) => row(label(name), written(name), tally([name])));
+// A folder with no report of its own whose every file has one (each measured with the same tests a
+// folder run uses): its score is the sum of its files' reports, each as of when it was written.
+for (const folder of all.filter((f) => f !== 'root' && !reports.includes(f))) {
+  const files = fs.readdirSync(`lib/${folder}`).filter((f) => f.endsWith('.ts') && !f.endsWith('.d.ts'));
+  const names = files.map((f) => `${folder}--${f.slice(0, -'.ts'.length)}`);
+  if (!files.length || !names.every((n) => reports.includes(n))) continue;
+  const times = names.map(written).sort();
+  rows.push(row(`\`lib/${folder}/\` (sum of its ${files.length} files' reports)`, `${times[0]} – ${times.at(-1)}`, tally(names)));
 }
 console.log('\n| Target | Report written (UTC) | Mutants | Killed | Survived | No coverage | Score |\n|---|---|---|---|---|---|---|');
 console.log(rows.join('\n'));
