@@ -75,8 +75,8 @@ describe('apiCall: what the route handler receives', () => {
     try {
       await apiCall('GET', `${base}/api/sessions`);
       await apiCall('GET', `${base}/api/sessions/2/check`, { cache: 'no-cache' });
-      expect(spy.mock.calls[0][1]?.cache).toBe('no-store');
-      expect(spy.mock.calls[1][1]?.cache).toBe('no-cache');
+      expect(spy.mock.calls[0]?.[1]?.cache).toBe('no-store');
+      expect(spy.mock.calls[1]?.[1]?.cache).toBe('no-cache');
     } finally {
       spy.mockRestore();
     }
@@ -100,7 +100,7 @@ describe('apiCall: refusals and lost connections', () => {
       ['text/html', '<h1>Bad gateway</h1>'],
       ['application/json', '{"error":{"nested":true}}'],
       ['application/json', 'null'],
-    ]) {
+    ] as const) {
       answer = { status: 502, type, body };
       const error = (await apiCall('GET', `${base}/api/sessions`).catch((e: unknown) => e)) as ApiError;
       expect(error, body).toBeInstanceOf(ApiError);
