@@ -63,3 +63,18 @@ export const entries: ControlEntry[] = [
   { atMs: 4500, kind: 'speed', cabId: 'c1', from: 90, to: 0, rampMs: 300 },
   { atMs: 5000, kind: 'direction', cabId: 'c1', direction: 'off' },
 ];
+
+/** The same cabs and blocks on one 40-pin-header Linux board (its published pinout: GPIO numbers). */
+export const oneLinuxBoard: WiringSheet = {
+  version: 1,
+  boards: [{ id: 'p', kind: 'header40', name: 'Linux board', emergencyStopPin: 'GPIO4', startPin: 'pin 36' }],
+  cabs: [
+    { cabId: 'c1', boardId: 'p', forwardPin: 'GPIO17', reversePin: 'GPIO27', pwmPin: 'GPIO18', bothHighBrakes: false },
+    { cabId: 'c2', boardId: 'p', forwardPin: 'GPIO22', reversePin: 'GPIO23', pwmPin: 'pin 32', bothHighBrakes: false },
+  ],
+  blocks: [
+    { blockId: 'b1', boardId: 'p', feeds: [{ cabId: 'c2', pin: 'GPIO5' }, { cabId: 'c1', pin: 'GPIO6' }], polarityPin: null, forwardTowards: [] },
+    { blockId: 'b2', boardId: 'p', feeds: [{ cabId: 'c2', pin: 'GPIO13' }, { cabId: 'c1', pin: 'GPIO19' }], polarityPin: 'GPIO26', forwardTowards: [] },
+  ],
+  timing,
+};
