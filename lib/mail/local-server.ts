@@ -25,7 +25,8 @@ export function startLocalMailServer(port: number, host = '127.0.0.1'): Promise<
       const chunks: Buffer[] = [];
       stream.on('data', (chunk: Buffer) => chunks.push(chunk));
       stream.on('end', () => {
-        if (stream.sizeExceeded) return callback(new Error('Message too large'));
+        // 552, a permanent refusal (RFC 1870 6.1): with smtp-server's default 450 the sender would try again.
+        if (stream.sizeExceeded) return callback(Object.assign(new Error('Message too large'), { responseCode: 552 }));
         const raw = Buffer.concat(chunks);
         simpleParser(raw)
           .then((parsed) => {
@@ -33,7 +34,7 @@ export function startLocalMailServer(port: number, host = '127.0.0.1'): Promise<
             const to = [...new Set([...envelopeTo, ...addressesOf(parsed.to)])];
             storeCaughtMail({
               messageId: parsed.messageId ?? null,
-              fromAddress: addressesOf(parsed.from)[0] ?? session.envelope.mailFrom?.toString() ?? '',
+              fromAddress: addressesOf(parsed.from)[0] ?? (session.envelope.mailFrom ? session.envelope.mailFrom.address.toLowerCase() : ''),
               toAddresses: `,${to.join(',')},`,
               subject: parsed.subject ?? '(no subject)',
               text: parsed.text ?? '',
