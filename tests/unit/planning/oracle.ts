@@ -123,8 +123,11 @@ export function oracleClashes(plan: Plan): OracleFinding[] {
           for (const y of held(plan, trains[j]!.id, block.id, h)) {
             if (!(x.enterS < y.exitS + h - TIME_TOL && y.enterS < x.exitS + h - TIME_TOL)) continue;
             const lastIn = Math.max(x.enterS, y.enterS);
+            const firstOut = Math.min(x.exitS, y.exitS);
             const kind = x.stand || y.stand ? 'block-occupied' : 'block-overlap';
-            out.push({ kind, severity: 'error', ids: [block.id, ...pair(runs[x.runAt(lastIn)]!.id, runs[y.runAt(lastIn)]!.id)] });
+            // The time both hold the block, or the too-short gap between them.
+            const [fromS, toS] = lastIn < firstOut ? [lastIn, firstOut] : [firstOut, lastIn];
+            out.push({ kind, severity: 'error', ids: [block.id, ...pair(runs[x.runAt(lastIn)]!.id, runs[y.runAt(lastIn)]!.id)], fromS, toS });
           }
         }
       }
@@ -136,19 +139,36 @@ export function oracleClashes(plan: Plan): OracleFinding[] {
       const a = runs[i]!;
       const b = runs[j]!;
       if (!bookedTogether(a, b)) continue;
-      if (a.cabId === b.cabId) out.push({ kind: 'cab-double-booked', severity: 'error', ids: [a.cabId, ...pair(a.id, b.id)] });
+      const at = { fromS: Math.max(a.departS, b.departS), toS: Math.min(a.arriveS, b.arriveS) };
+      if (a.cabId === b.cabId) out.push({ kind: 'cab-double-booked', severity: 'error', ids: [a.cabId, ...pair(a.id, b.id)], ...at });
       if (a.operatorId !== null && a.operatorId === b.operatorId) {
-        out.push({ kind: 'operator-double-booked', severity: 'error', ids: [a.operatorId, ...pair(a.id, b.id)] });
+        out.push({ kind: 'operator-double-booked', severity: 'error', ids: [a.operatorId, ...pair(a.id, b.id)], ...at });
       }
-      if (a.trainId === b.trainId) out.push({ kind: 'train-double-booked', severity: 'error', ids: [a.trainId, ...pair(a.id, b.id)] });
+      if (a.trainId === b.trainId) out.push({ kind: 'train-double-booked', severity: 'error', ids: [a.trainId, ...pair(a.id, b.id)], ...at });
     }
   }
   // A locomotive in two trains: every train with runs is on the track for the whole session.
+  // It is on the track from the session's start (or its first step, if earlier) to the session's end
+  // (or its last step, if later).
   const onTrack = trains.filter((t) => runs.some((r) => r.trainId === t.id));
+  const sessionEnd = plan.sessionEndS ?? Math.max(...runs.flatMap((r) => r.steps.map((s) => s.exitS)));
+  const span = (t: Plan['trains'][number]) => {
+    const steps = runs.filter((r) => r.trainId === t.id).flatMap((r) => r.steps);
+    return { from: Math.min(0, ...steps.map((s) => s.enterS)), to: Math.max(sessionEnd, ...steps.map((s) => s.exitS)) };
+  };
   for (const locomotive of plan.locomotives) {
     const inIt = onTrack.filter((t) => t.locomotiveIds.includes(locomotive.id));
     for (let i = 0; i < inIt.length; i++) {
-      for (let j = i + 1; j < inIt.length; j++) out.push({ kind: 'locomotive-in-two-trains', severity: 'error', ids: [locomotive.id, ...pair(inIt[i]!.id, inIt[j]!.id)] });
+      for (let j = i + 1; j < inIt.length; j++) {
+        const [x, y] = [span(inIt[i]!), span(inIt[j]!)];
+        out.push({
+          kind: 'locomotive-in-two-trains',
+          severity: 'error',
+          ids: [locomotive.id, ...pair(inIt[i]!.id, inIt[j]!.id)],
+          fromS: Math.max(x.from, y.from),
+          toS: Math.min(x.to, y.to),
+        });
+      }
     }
   }
   return out;
@@ -160,7 +180,13 @@ export function oracleStepGaps(plan: Plan): OracleFinding[] {
   for (const run of plan.runs) {
     for (let i = 1; i < run.steps.length; i++) {
       if (run.steps[i]!.enterS - run.steps[i - 1]!.exitS > TIME_TOL) {
-        out.push({ kind: 'step-gap', severity: 'error', ids: [run.id, run.steps[i - 1]!.blockId, run.steps[i]!.blockId] });
+        out.push({
+          kind: 'step-gap',
+          severity: 'error',
+          ids: [run.id, run.steps[i - 1]!.blockId, run.steps[i]!.blockId],
+          fromS: run.steps[i - 1]!.exitS,
+          toS: run.steps[i]!.enterS,
+        });
       }
     }
   }
@@ -177,7 +203,8 @@ export function oracleContinuityAndRoutes(plan: Plan): OracleFinding[] {
       const earlier = own[i - 1]!;
       const later = own[i]!;
       if (earlier.steps.at(-1)!.blockId !== later.steps[0]!.blockId) {
-        out.push({ kind: 'train-continuity', severity: 'warning', ids: [train.id, earlier.id, later.id] });
+        const [fromS, toS] = [earlier.arriveS, later.departS].sort((p, q) => p - q);
+        out.push({ kind: 'train-continuity', severity: 'warning', ids: [train.id, earlier.id, later.id], fromS, toS });
       }
     }
   }
@@ -186,13 +213,23 @@ export function oracleContinuityAndRoutes(plan: Plan): OracleFinding[] {
       const a = run.steps[i - 1]!.blockId;
       const b = run.steps[i]!.blockId;
       const linked = plan.links.some((l) => (l.a === a && l.b === b) || (l.a === b && l.b === a));
-      if (a !== b && !linked) out.push({ kind: 'route-gap', severity: 'error', ids: [run.id, a, b] });
+      const [fromS, toS] = [run.steps[i - 1]!.exitS, run.steps[i]!.enterS].sort((p, q) => p - q);
+      if (a !== b && !linked) out.push({ kind: 'route-gap', severity: 'error', ids: [run.id, a, b], fromS, toS });
     }
     const train = plan.trains.find((t) => t.id === run.trainId)!;
-    const stands = new Set([run.steps[0]!.blockId, run.steps.at(-1)!.blockId]);
-    for (const blockId of stands) {
+    const first = run.steps[0]!;
+    const last = run.steps.at(-1)!;
+    // Where the train stands before it departs and after it arrives; one stand when both are one block.
+    const stands =
+      first.blockId === last.blockId
+        ? [{ blockId: first.blockId, fromS: first.enterS, toS: last.exitS }]
+        : [
+            { blockId: first.blockId, fromS: first.enterS, toS: run.departS },
+            { blockId: last.blockId, fromS: run.arriveS, toS: last.exitS },
+          ];
+    for (const { blockId, fromS, toS } of stands) {
       const block = plan.blocks.find((b) => b.id === blockId)!;
-      if (block.lengthMm < train.lengthMm) out.push({ kind: 'train-too-long', severity: 'warning', ids: [run.id, blockId] });
+      if (block.lengthMm < train.lengthMm) out.push({ kind: 'train-too-long', severity: 'warning', ids: [run.id, blockId], fromS, toS });
     }
   }
   return out;
