@@ -37,9 +37,12 @@ if (args.includes('--force')) options.force = true;
 const unitFlag = args.includes('--unit');
 const asked = args.filter((a, i) => !a.startsWith('-') && args[i - 1] !== '--concurrency');
 const fileTarget = (t) => /^lib\/[a-z-]+\/[a-z0-9-]+\.ts$/.test(t) && fs.existsSync(t);
-const unknown = asked.filter((t) => !all.includes(t) && !fileTarget(t));
+// A group `runs+sessions+live`: one Stryker run over several folders that are not unit-only, sharing the
+// first (coverage) run of the whole suite, which takes minutes here; the table gives each folder its row.
+const groupTarget = (t) => t.includes('+') && t.split('+').every((f) => all.includes(f) && !UNIT_ONLY.has(f));
+const unknown = asked.filter((t) => !all.includes(t) && !fileTarget(t) && !groupTarget(t));
 if (unknown.length) {
-  console.error(`Unknown target ${unknown.join(', ')}; a file lib/<folder>/<name>.ts or one of: ${all.join(', ')}`);
+  console.error(`Unknown target ${unknown.join(', ')}; a file lib/<folder>/<name>.ts, folders joined by + (not ${[...UNIT_ONLY].join(', ')}) or one of: ${all.join(', ')}`);
   process.exit(2);
 }
 // The engine last: it is the largest and is often the one being changed.
@@ -51,8 +54,9 @@ for (const target of targets) {
   const file = fileTarget(target);
   const folder = file ? target.split('/')[1] : target;
   const name = (file ? target.slice('lib/'.length, -'.ts'.length).replace('/', '--') : target) + (unitFlag && !UNIT_ONLY.has(folder) ? '.unit' : '');
-  const mutate = file ? [target] : folder === 'root' ? ['lib/*.ts', '!lib/*.d.ts'] : [`lib/${folder}/**/*.ts`, '!lib/**/*.d.ts'];
-  console.log(`\n== ${file ? target : `lib/${folder === 'root' ? '' : `${folder}/`}`} ==`);
+  const globs = (f) => (f === 'root' ? ['lib/*.ts', '!lib/*.d.ts'] : [`lib/${f}/**/*.ts`, '!lib/**/*.d.ts']);
+  const mutate = file ? [target] : target.split('+').flatMap(globs);
+  console.log(`\n== ${file ? target : target.split('+').map((f) => `lib/${f === 'root' ? '' : `${f}/`}`).join(' ')} ==`);
   // Read by vitest.config.mts.
   if (unitFlag || UNIT_ONLY.has(folder)) process.env.FISHPLATE_MUTATION_UNIT_ONLY = '1';
   else delete process.env.FISHPLATE_MUTATION_UNIT_ONLY;
@@ -92,10 +96,23 @@ const row = (what, when, count) => {
   return `| ${what} | ${when} | ${valid} | ${count.Killed + count.Timeout} | ${count.Survived} | ${count.NoCoverage} | ${score.toFixed(1)} % |`;
 };
 const written = (name) => fs.statSync(path.join(OUT, `${name}.json`)).mtime.toISOString().slice(0, 16).replace('T', ' ');
-const rows = reports.map((name) => row(label(name), written(name), tally([name])));
+const folderOf = (file) => (path.dirname(file) === 'lib' ? 'root' : path.dirname(file).split('/')[1]);
+const rows = reports.flatMap((name) => {
+  const base = name.split('.')[0];
+  if (!base.includes('+')) return [row(label(name), written(name), tally([name]))];
+  // A group's report: a row per folder, counted from the report's files in that folder.
+  const report = JSON.parse(fs.readFileSync(path.join(OUT, `${name}.json`), 'utf8'));
+  return base.split('+').map((folder) => {
+    const count = { Killed: 0, Timeout: 0, Survived: 0, NoCoverage: 0 };
+    for (const [file, f] of Object.entries(report.files))
+      if (folderOf(path.relative(process.cwd(), path.resolve(file))) === folder) for (const m of f.mutants) if (m.status in count) count[m.status] += 1;
+    return row(`${label(folder)} (run with ${base.split('+').filter((f) => f !== folder).join(', ')})`, written(name), count);
+  });
+});
 // A folder with no report of its own whose every file has one (each measured with the same tests a
 // folder run uses): its score is the sum of its files' reports, each as of when it was written.
-for (const folder of all.filter((f) => f !== 'root' && !reports.includes(f))) {
+const measured = new Set(reports.flatMap((name) => name.split('.')[0].split('+')));
+for (const folder of all.filter((f) => f !== 'root' && !measured.has(f))) {
   const files = fs.readdirSync(`lib/${folder}`).filter((f) => f.endsWith('.ts') && !f.endsWith('.d.ts'));
   const names = files.map((f) => `${folder}--${f.slice(0, -'.ts'.length)}`);
   if (!files.length || !names.every((n) => reports.includes(n))) continue;
