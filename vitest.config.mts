@@ -16,10 +16,6 @@ const childProcessTests = !underStryker ? [] : ['tests/integration/crash-and-con
 // random plans take long and test lib/control.
 const unitOnly = process.env.FISHPLATE_MUTATION_UNIT_ONLY === '1';
 const engineRun = process.env.FISHPLATE_MUTATION_FOLDER === 'planning';
-// lib/control's generated programs (board-program, the AVR firmware, the Python controller) are checked by
-// compiling and running them (avr-gcc + simavr, python3 with gpiozero's mock pins): its mutation run adds
-// those integration tests, whose generator runs in-process and so sees the mutant, and no other.
-const controlRun = process.env.FISHPLATE_MUTATION_FOLDER === 'control';
 
 const unit: TestProjectInlineConfiguration = {
   extends: true,
@@ -36,7 +32,7 @@ const integration: TestProjectInlineConfiguration = {
   extends: true,
   test: {
     name: 'integration',
-    include: controlRun ? ['tests/integration/control-*.test.ts'] : ['tests/integration/**/*.test.ts'],
+    include: ['tests/integration/**/*.test.ts'],
     exclude: ['**/node_modules/**', ...childProcessTests],
     environment: 'node',
     setupFiles: ['tests/integration/setup.ts', ...(underStryker ? ['tests/shared/mutation-setup.ts'] : [])],
@@ -53,6 +49,6 @@ export default defineConfig({
     alias: { 'server-only': fileURLToPath(new URL('./tests/stubs/empty.ts', import.meta.url)) },
   },
   test: {
-    projects: unitOnly && !controlRun ? [unit] : [unit, integration],
+    projects: unitOnly ? [unit] : [unit, integration],
   },
 });
