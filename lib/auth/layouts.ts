@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { getLayout, getLayoutRailwayId } from '@/db/queries/layouts';
 import type { Layout, Role } from '@/db/schema';
 import { requireMember, requireUser, type Member } from '@/lib/auth';
-import { notFound, parseOrThrow } from '@/lib/errors';
+import { AppError, notFound, parseOrThrow } from '@/lib/errors';
 
 export type LayoutContext = { member: Member; layout: Layout };
 
@@ -28,5 +28,11 @@ export async function requireLayoutById(layoutId: string, minimumRole: Role, wha
   await requireUser();
   const railwayId = getLayoutRailwayId(parseOrThrow(idSchema, layoutId));
   if (!railwayId) throw notFound('That layout');
-  return requireLayout(railwayId, layoutId, minimumRole, what);
+  try {
+    return await requireLayout(railwayId, layoutId, minimumRole, what);
+  } catch (error) {
+    // Another railway's layout answers as an unknown id does, so its ids reveal nothing.
+    if (error instanceof AppError && error.status === 404) throw notFound('That layout');
+    throw error;
+  }
 }

@@ -2,7 +2,7 @@ import 'server-only';
 import { getSessionById, isInvited } from '@/db/queries/session-records';
 import type { Session } from '@/db/schema';
 import { requireMember, requireUser, type Member } from '@/lib/auth';
-import { notFound } from '@/lib/errors';
+import { AppError, notFound } from '@/lib/errors';
 
 /**
  * The gate for one session. `edit` needs a planner or host of the session's railway; `view` lets an
@@ -17,10 +17,10 @@ export async function requireSession(sessionId: string, need: 'view' | 'edit'): 
   try {
     member = await requireMember(session.railwayId, need === 'edit' ? 'planner' : 'operator', 'change this timetable');
   } catch (error) {
-    // An operator who may not even see the session should not learn that it exists.
-    if (need === 'edit' && error instanceof Error && 'status' in error && error.status === 403 && !operatorMaySee(session, user.id)) {
-      throw notFound('That session');
-    }
+    // Neither someone outside the railway nor an operator who may not even see the session should learn
+    // that it exists: both get the answer an unknown id gets. (A 403 here is an operator asking to edit.)
+    const status = error instanceof AppError ? error.status : undefined;
+    if (status === 404 || (status === 403 && !operatorMaySee(session, user.id))) throw notFound('That session');
     throw error;
   }
   if (member.role === 'operator' && !operatorMaySee(session, user.id)) throw notFound('That session');
