@@ -5,9 +5,10 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { getDb } from '@/db';
 import * as t from '@/db/schema';
-import { BOARDS, boardProgram, generateAvrFirmware, generatePythonController, estimateFirmwareSize, type BoardProgram, type WiringSheet } from '@/lib/control';
+import { BOARDS, boardProgram, compileSchedule, generateAvrFirmware, generatePythonController, estimateFirmwareSize, type BoardProgram, type WiringSheet } from '@/lib/control';
 import { hasDemoData, seedDemoRailway } from '@/lib/demo/demo-railway';
 import { sessionControl, type SessionControl } from '@/lib/sessions/control';
+import { plan as workedPlan, wiring as workedWiring } from '../unit/control/worked-example-plan';
 import { toolchainStatus } from './control/toolchain';
 
 /*
@@ -72,9 +73,9 @@ interface Trace {
   endState: number;
 }
 
-function simulate(program: BoardProgram, elf: string, estopAtMs: number | null): Trace {
+function simulate(program: BoardProgram, elf: string, estopAtMs: number | null, scale = SCALE): Trace {
   const startCycle = 1_000_000;
-  const toCycle = (ms: number) => Math.round(startCycle + (ms / SCALE) * (HZ / 1000));
+  const toCycle = (ms: number) => Math.round(startCycle + (ms / scale) * (HZ / 1000));
   const pins = [...program.cabs.flatMap((c) => [c.forward, c.reverse]), ...program.blocks.flatMap((b) => [...b.feeds.map((f) => f.pin), ...(b.polarity ? [b.polarity] : [])])];
   const ocrs = program.cabs.map((c) => `0x${c.pwm.pwm!.ocrAddress.toString(16)}`);
   const args = [
@@ -101,7 +102,7 @@ function simulate(program: BoardProgram, elf: string, estopAtMs: number | null):
     const m = /^(\d+) (\S+) ?(.*)$/.exec(line);
     if (!m) continue;
     const cycle = Number(m[1]);
-    const ms = ((cycle - startCycle) / (HZ / 1000)) * SCALE;
+    const ms = ((cycle - startCycle) / (HZ / 1000)) * scale;
     const [kind, rest] = [m[2]!, m[3]!];
     if (kind === 'uart') trace.uart.push(rest);
     else if (kind === 'press' && rest === 'stop') trace.stopCycle = cycle;
@@ -191,6 +192,32 @@ function checkInterlocksOnPins(program: BoardProgram, events: Trace['events'], p
   }
 }
 
+/**
+ * The worked example (tests/unit/control/worked-example-plan.ts) with b2 a reversing section and b3 wired
+ * the other way, so the cab reverses inside b2 and its polarity relay swaps (NEM 631 2.3), on one board.
+ */
+function workedWiringOn(kind: 'atmega328p' | 'atmega2560' | 'header40'): WiringSheet {
+  const pins = {
+    atmega328p: { stop: 'PD2', start: 'PD4', cab: ['PD7', 'PB0', 'PD6'], feeds: ['PC0', 'PC1', 'PC3'], polarity: 'PC2' },
+    atmega2560: { stop: 'PA0', start: 'PA1', cab: ['PA2', 'PA3', 'PL3'], feeds: ['PC0', 'PC1', 'PC3'], polarity: 'PC2' },
+    header40: { stop: 'GPIO4', start: null, cab: ['GPIO17', 'GPIO27', 'GPIO18'], feeds: ['GPIO5', 'GPIO6', 'GPIO13'], polarity: 'GPIO19' },
+  }[kind];
+  return {
+    ...workedWiring,
+    boards: [{ id: 'u', kind, name: 'Loop board', emergencyStopPin: pins.stop, startPin: pins.start }],
+    cabs: [{ cabId: 'c1', boardId: 'u', forwardPin: pins.cab[0]!, reversePin: pins.cab[1]!, pwmPin: pins.cab[2]!, bothHighBrakes: false }],
+    blocks: workedWiring.blocks.map((b, i) => ({ ...b, feeds: [{ cabId: 'c1', pin: pins.feeds[i]! }], polarityPin: b.blockId === 'b2' ? pins.polarity : null })),
+  };
+}
+function reversingSchedule(wiring: WiringSheet) {
+  const loop = workedPlan();
+  loop.blocks = loop.blocks.map((b) => (b.id === 'b3' ? { ...b, positiveRail: 'right' } : b.id === 'b2' ? { ...b, reversingSection: true } : b));
+  loop.runs = [loop.runs[0]!];
+  const schedule = compileSchedule({ plan: loop, wiring, runSpeedKmh: { out: null }, locomotiveTopSpeedKmh: { l: 120 } });
+  expect(schedule.findings.map((f) => f.kind)).toEqual(['control-reversing-stop']);
+  return schedule;
+}
+
 describe.skipIf(skip)('generated AVR firmware in avr-gcc and simavr', () => {
   for (const [boardId, kind] of [['cab-board', 'atmega328p'], ['line-board', 'atmega2560']] as const) {
     it(`${BOARDS[kind].title}: compiles, fits flash and RAM (datasheet), and the estimate is not below avr-size`, () => {
@@ -264,6 +291,43 @@ describe.skipIf(skip)('generated AVR firmware in avr-gcc and simavr', () => {
     for (const e of trace.events) level.set(e.what, e.value);
     for (const v of level.values()) expect(v).toBe(0);
   }, 150_000);
+
+  it('a reversing section (the worked example): the polarity relay and the cab\'s reversal at their scheduled times, after the dead time', () => {
+    const program = boardProgram(reversingSchedule(workedWiringOn('atmega328p')), workedWiringOn('atmega328p'), 'u');
+    expect(program.entries.filter((e) => e.kind === 'polarity').map((e) => (e.kind === 'polarity' ? e.swapped : null))).toEqual([false, true]);
+    // 100 times fast, not 1000: the status lines go out at 57 600 baud in real time, and at 1000 times
+    // the schedule's three settings at 22.427 s would find the serial buffer still full.
+    const scale = 100;
+    const tolerance = 2 * 12.8 + 10; // two timer-0 ticks (2048 cycles = 12.8 ms of schedule at 100 times) and the loop
+    const trace = simulate(program, build(program, `-DFP_TIME_SCALE=${scale} -DFP_SIM`), null, scale);
+    expect(trace.uart.some((l) => l.startsWith('HALT'))).toBe(false);
+    // Status lines at fast-clock time (07:00 + session seconds; origin −1 s): the section swapped at 22.427 s.
+    expect(trace.uart).toEqual(expect.arrayContaining(['07:00:17 block B2 polarity normal', '07:00:22 block B2 polarity swapped', '07:00:22 cab Cab 1 forward', 'end of session']));
+    const key = (name: string) => harnessPin(name);
+    const ocr = () => `0x${program.cabs[0]!.pwm.pwm!.ocrAddress.toString(16)}`;
+    comparePins(trace.events, expectedPinChanges(program, key), tolerance);
+    // Normal is the relay at rest; it closes for the swap and stays so (the block is released, no current flows).
+    expect(trace.events.filter((e) => e.what === key('PC2')).map((e) => e.value)).toEqual([1]);
+    checkInterlocksOnPins(program, trace.events, key, ocr, tolerance);
+  }, 150_000);
+
+  it('the Makefile\'s upload line names a part and a programmer avrdude knows, the part being the board\'s chip', () => {
+    for (const kind of ['atmega328p', 'atmega2560'] as const) {
+      const program = boardProgram(reversingSchedule(workedWiringOn(kind)), workedWiringOn(kind), 'u');
+      const folder = fs.mkdtempSync(path.join(dir, `upload-${kind}-`));
+      for (const file of generateAvrFirmware(program, { title: 'upload', generatedAt: 'test' })) fs.writeFileSync(path.join(folder, file.name), file.text);
+      // make -n prints the commands without running them (firmware.hex is made up so only the upload is listed).
+      fs.writeFileSync(path.join(folder, 'firmware.hex'), '');
+      const upload = execFileSync('make', ['-n', '-o', 'firmware.hex', 'upload'], { cwd: folder }).toString().trim();
+      const part = /-p (\S+)/.exec(upload)![1]!;
+      const programmer = /-c (\S+)/.exec(upload)![1]!;
+      // avrdude lists its parts for "-p ?" and its programmers for "-c ?" (on stderr).
+      const parts = spawnSync('avrdude', ['-c', programmer, '-p', '?']).stderr.toString();
+      expect(parts).toMatch(new RegExp(`^\\s+${part}\\s+= ${kind === 'atmega328p' ? 'ATmega328P' : 'ATmega2560'}\\b`, 'm'));
+      const programmers = spawnSync('avrdude', ['-c', '?']).stderr.toString();
+      expect(programmers).toMatch(new RegExp(`^\\s+${programmer}\\s+=`, 'm'));
+    }
+  }, 60_000);
 });
 
 describe.skipIf(skip)('generated Python program under gpiozero mock pins', () => {
@@ -333,5 +397,21 @@ describe.skipIf(skip)('generated Python program under gpiozero mock pins', () =>
     for (const e of events) level.set(e.what, e.value);
     for (const [pin, v] of level) expect(v, pin).toBe(0);
     expect(events.filter((e) => e.ms > stopAt + PY_STEP_MS && e.value !== 0)).toEqual([]);
+  }, 60_000);
+
+  it('a reversing section (the worked example): the polarity relay and the cab\'s reversal at their scheduled times', () => {
+    const wiring = workedWiringOn('header40');
+    const program = boardProgram(reversingSchedule(wiring), wiring, 'u');
+    const { events, said } = runPython(program, -1);
+    expect(said.some((l) => l.startsWith('HALT'))).toBe(false);
+    // Status lines at fast-clock time (07:00 + session seconds; origin −1 s): the section swapped at 22.427 s.
+    expect(said).toEqual(expect.arrayContaining(['07:00:17 block B2 polarity normal', '07:00:22 block B2 polarity swapped', '07:00:22 cab Cab 1 forward']));
+    // The runner samples the pins once per step, in GPIO order: within one step, take the falls before the
+    // rises, so what is checked is the state each step leaves (reverse to forward at the flip is one step).
+    const changes = events.filter((e) => !(e.ms === 0 && e.value === 0)).sort((a, b) => a.ms - b.ms || a.value - b.value);
+    const pinsOnly = changes.filter((e) => e.what !== program.cabs[0]!.pwm.name);
+    comparePins(pinsOnly, expectedPinChanges(program, (name) => name), PY_STEP_MS);
+    expect(pinsOnly.filter((e) => e.what === 'GPIO19').map((e) => e.value)).toEqual([1]);
+    checkInterlocksOnPins(program, changes, (name) => name, () => program.cabs[0]!.pwm.name, PY_STEP_MS);
   }, 60_000);
 });
