@@ -3,7 +3,7 @@ import { requireMember } from '@/lib/auth';
 import { requireLayout, requireLayoutById } from '@/lib/auth/layouts';
 import { requireSession } from '@/lib/auth/sessions';
 import { AppError } from '@/lib/errors';
-import { makeLayout, makeSessionWorld } from './authz/sessions';
+import { HIDDEN_FROM_OPERATOR, makeLayout, makeSessionWorld } from './authz/sessions';
 import { signInAs } from './caller';
 import { makeWorld } from './world';
 
@@ -79,12 +79,8 @@ describe('requireSession', () => {
       message: 'Your role on this railway does not allow you to change this timetable.',
     });
     const unknown = await refusal(() => requireSession('no-such-session', 'view'));
-    for (const [status, inviteOperator] of [
-      ['draft', true],
-      ['cancelled', true],
-      ['published', false],
-    ] as const) {
-      const { session } = makeSessionWorld(world, { status, inviteOperator });
+    for (const hidden of HIDDEN_FROM_OPERATOR) {
+      const { session } = makeSessionWorld(world, hidden);
       expect(await refusal(() => requireSession(session.id, 'view'))).toEqual(unknown);
       expect(await refusal(() => requireSession(session.id, 'edit'))).toEqual(unknown);
     }

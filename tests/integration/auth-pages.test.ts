@@ -3,7 +3,7 @@ import type { Role } from '@/db/schema';
 import type { Member } from '@/lib/auth';
 import { memberForPage, sessionForPage } from '@/lib/auth/pages';
 import { canEdit } from '@/lib/auth/sessions';
-import { makeSessionWorld } from './authz/sessions';
+import { HIDDEN_FROM_OPERATOR, makeSessionWorld } from './authz/sessions';
 import { caller, signInAs } from './caller';
 import { makeWorld, type RoleKey } from './world';
 
@@ -121,12 +121,8 @@ describe('sessionForPage: the session a page shows', () => {
     const world = makeWorld();
     const seen = makeSessionWorld(world, { status: 'published', inviteOperator: true }).session;
     expect(sessionForPage(memberOf(world, 'operator'), seen.id)).toEqual(seen);
-    for (const [status, inviteOperator] of [
-      ['draft', true],
-      ['cancelled', true],
-      ['published', false],
-    ] as const) {
-      const { session } = makeSessionWorld(world, { status, inviteOperator });
+    for (const hidden of HIDDEN_FROM_OPERATOR) {
+      const { session } = makeSessionWorld(world, hidden);
       expect(await thrownDigest(() => sessionForPage(memberOf(world, 'operator'), session.id))).toBe(NOT_FOUND);
       // The same session is there for the planner: the 404 is the operator's rule, not a missing row.
       expect(sessionForPage(memberOf(world, 'planner'), session.id)).toEqual(session);

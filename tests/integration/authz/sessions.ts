@@ -79,6 +79,13 @@ export function timedSteps(layout: ReturnType<typeof makeLayout>, keys: string[]
 /** What makeSessionWorld makes when not told: tests/integration/authz-operator.test.ts re-runs the matrix's rows with others. */
 export const sessionWorldDefaults: { status: t.SessionStatus; inviteOperator: boolean } = { status: 'published', inviteOperator: true };
 
+/** The sessions an operator of the railway may not see (README, Roles: only published ones they are invited to). */
+export const HIDDEN_FROM_OPERATOR = [
+  { status: 'draft', inviteOperator: true },
+  { status: 'cancelled', inviteOperator: true },
+  { status: 'published', inviteOperator: false },
+] as const;
+
 /**
  * A published session on a fresh test layout, with the world's operator invited and two runs that
  * meet in block B (a block clash) — and a session of the other railway.
