@@ -10,28 +10,28 @@ import { plan, wiring } from './worked-example-plan';
  * ATmega2560 datasheet with its common board's labels: 22 is PA0; the 40-pin header's pinout: pin 12 is GPIO18).
  */
 describe('boardProgram: one board of the wiring sheet, its pins from the published pinouts', () => {
-  const u = boardProgram(schedule(entries), twoBoards, 'u');
-  const v = boardProgram(schedule(entries), twoBoards, 'v');
+  const u = () => boardProgram(schedule(entries), twoBoards, 'u');
+  const v = () => boardProgram(schedule(entries), twoBoards, 'v');
 
   it('takes the board, its kind and title, the schedule clock, origin and the sheet timing', () => {
-    expect(u.board).toBe(twoBoards.boards[0]);
-    expect([u.kind, u.title, v.kind, v.title]).toEqual(['atmega328p', 'ATmega328P board', 'atmega2560', 'ATmega2560 board']);
-    expect([u.originS, u.clock, u.deadTimeMs, u.breakMs]).toEqual([-7, { ratio: 4, fastStart: '06:30' }, 300, 50]);
+    expect(u().board).toBe(twoBoards.boards[0]);
+    expect([u().kind, u().title, v().kind, v().title]).toEqual(['atmega328p', 'ATmega328P board', 'atmega2560', 'ATmega2560 board']);
+    expect([u().originS, u().clock, u().deadTimeMs, u().breakMs]).toEqual([-7, { ratio: 4, fastStart: '06:30' }, 300, 50]);
   });
 
   it('resolves pins written by name or by header label (ATmega328P: 4 is PD4, 8 is PB0, 6 is PD6 with OC0A; ATmega2560: 22 is PA0, 46 is PL3 with OC5A)', () => {
-    expect(u.emergencyStop.name).toBe('PD2');
-    expect(u.start?.name).toBe('PD4');
-    expect(v.emergencyStop.name).toBe('PA0');
-    expect(v.start).toBeNull();
-    expect(u.cabs.map((c) => [c.cabId, c.name, c.forward.name, c.reverse.name, c.pwm.name])).toEqual([['c1', 'Cab one', 'PD7', 'PB0', 'PD6']]);
-    expect(u.cabs[0]!.pwm.pwm).toEqual({ timer: 0, channel: 'A', ocrAddress: 0x47 }); // ATmega328P register summary: OCR0A 0x47
-    expect(v.cabs.map((c) => [c.cabId, c.pwm.name, c.pwm.pwm?.timer, c.pwm.pwm?.channel])).toEqual([['c2', 'PL3', 5, 'A']]);
+    expect(u().emergencyStop.name).toBe('PD2');
+    expect(u().start?.name).toBe('PD4');
+    expect(v().emergencyStop.name).toBe('PA0');
+    expect(v().start).toBeNull();
+    expect(u().cabs.map((c) => [c.cabId, c.name, c.forward.name, c.reverse.name, c.pwm.name])).toEqual([['c1', 'Cab one', 'PD7', 'PB0', 'PD6']]);
+    expect(u().cabs[0]!.pwm.pwm).toEqual({ timer: 0, channel: 'A', ocrAddress: 0x47 }); // ATmega328P register summary: OCR0A 0x47
+    expect(v().cabs.map((c) => [c.cabId, c.pwm.name, c.pwm.pwm?.timer, c.pwm.pwm?.channel])).toEqual([['c2', 'PL3', 5, 'A']]);
   });
 
   it('keeps only the blocks of this board that the schedule has, with every relay of the sheet in its order', () => {
     // b9 is on the sheet but not in the schedule; b2 is on the other board.
-    expect(u.blocks).toEqual([
+    expect(u().blocks).toEqual([
       {
         blockId: 'b1',
         name: 'Yard',
@@ -42,11 +42,11 @@ describe('boardProgram: one board of the wiring sheet, its pins from the publish
         polarity: null,
       },
     ]);
-    expect(v.blocks.map((b) => [b.blockId, b.feeds.map((f) => f.pin.name), b.polarity?.name])).toEqual([['b2', ['PA1', 'PA2'], 'PA3']]);
+    expect(v().blocks.map((b) => [b.blockId, b.feeds.map((f) => f.pin.name), b.polarity?.name])).toEqual([['b2', ['PA1', 'PA2'], 'PA3']]);
   });
 
   it('carries only the entries touching its own cabs and blocks, with local indices, relay within the block and direction codes', () => {
-    expect(u.entries).toEqual([
+    expect(u().entries).toEqual([
       { atMs: 0, kind: 'feed', block: 0, relay: 1 },
       { atMs: 0, kind: 'direction', cab: 0, direction: 2 },
       { atMs: 1000, kind: 'speed', cab: 0, from: 0, to: 90, rampMs: 2000 },
@@ -54,7 +54,7 @@ describe('boardProgram: one board of the wiring sheet, its pins from the publish
       { atMs: 4500, kind: 'speed', cab: 0, from: 90, to: 0, rampMs: 300 },
       { atMs: 5000, kind: 'direction', cab: 0, direction: 0 },
     ]);
-    expect(v.entries).toEqual([
+    expect(v().entries).toEqual([
       { atMs: 10, kind: 'feed', block: 0, relay: 1 },
       { atMs: 10, kind: 'polarity', block: 0, swapped: true },
       { atMs: 20, kind: 'direction', cab: 0, direction: 1 },
@@ -64,8 +64,8 @@ describe('boardProgram: one board of the wiring sheet, its pins from the publish
   });
 
   it('ends when its last setting ends, a ramp included', () => {
-    expect(u.endMs).toBe(5000);
-    expect(v.endMs).toBe(4000);
+    expect(u().endMs).toBe(5000);
+    expect(v().endMs).toBe(4000);
     // Without the final direction change the board's last setting is the ramp down, which ends at 4 500 + 300 ms.
     expect(boardProgram(schedule(entries.slice(0, -1)), twoBoards, 'u').endMs).toBe(4800);
     expect(boardProgram(schedule([]), twoBoards, 'u').endMs).toBe(0);

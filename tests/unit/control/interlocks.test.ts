@@ -17,12 +17,14 @@ type Speed = Extract<ControlEntry, { kind: 'speed' }>;
  * session second -1, so an entry at atMs is at session second atMs / 1000 − 1.
  */
 const thePlan = plan();
-const schedule = compileSchedule({ plan: thePlan, wiring, runSpeedKmh: { out: null, back: null }, locomotiveTopSpeedKmh: { l: 120 } });
-const atS = (ms: number) => ms / 1000 + schedule.originS;
+// Compiled inside each test (a mutant is switched on only while the tests run, not while they are collected).
+const schedule = () => compileSchedule({ plan: thePlan, wiring, runSpeedKmh: { out: null, back: null }, locomotiveTopSpeedKmh: { l: 120 } });
+const atS = (ms: number) => ms / 1000 + schedule().originS;
 
 function withEntries(change: (entries: ControlEntry[]) => ControlEntry[]): ControlFinding[] {
-  const entries = change(schedule.entries.map((e) => ({ ...e }))).sort(compareEntries);
-  return checkInterlocks({ ...schedule, entries }, thePlan);
+  const compiled = schedule();
+  const entries = change(compiled.entries.map((e) => ({ ...e }))).sort(compareEntries);
+  return checkInterlocks({ ...compiled, entries }, thePlan);
 }
 const finding = (kind: ControlFinding['kind'], ids: string[], atMs: number, message: string): ControlFinding => ({
   kind,
@@ -33,15 +35,15 @@ const finding = (kind: ControlFinding['kind'], ids: string[], atMs: number, mess
   message,
 });
 /** The out run's last ramp down: 113 → 0 from 32 380 ms over 3 000 ms, so PWM is 0 from 35 380 ms. */
-const outStop = () => schedule.entries.find((e): e is Speed => e.kind === 'speed' && e.to === 0)!;
+const outStop = () => schedule().entries.find((e): e is Speed => e.kind === 'speed' && e.to === 0)!;
 const outOff = (entries: ControlEntry[]) => entries.find((e) => e.kind === 'direction' && e.direction === 'off')!;
 
 describe('checkInterlocks on the worked example (common practice for H-bridge cab control with block relays)', () => {
   it('the schedule as compiled breaks none, and its timings are the ones these tests move', () => {
-    expect(checkInterlocks(schedule, thePlan)).toEqual([]);
-    expect(schedule.originS).toBe(-1);
+    expect(checkInterlocks(schedule(), thePlan)).toEqual([]);
+    expect(schedule().originS).toBe(-1);
     expect(outStop()).toMatchObject({ atMs: 32_380, rampMs: 3000 });
-    expect(outOff(schedule.entries).atMs).toBe(35_680); // exactly the 300 ms dead time after PWM reaches 0
+    expect(outOff(schedule().entries).atMs).toBe(35_680); // exactly the 300 ms dead time after PWM reaches 0
   });
 
   it('a direction change 1 ms inside the dead time is refused; exactly at its end it is not', () => {

@@ -5,20 +5,21 @@ import { plan, T, wiring } from './worked-example-plan';
 type Speed = Extract<ControlEntry, { kind: 'speed' }>;
 
 describe('control schedule worked example (H0, common-practice ramps, NEM 631 2.3)', () => {
-  const schedule = compileSchedule({ plan: plan(), wiring, runSpeedKmh: { out: null, back: null }, locomotiveTopSpeedKmh: { l: 120 } });
-  const atS = (ms: number) => ms / 1000 + schedule.originS;
+  // Compiled inside each test (a mutant is switched on only while the tests run, not while they are collected).
+  const schedule = () => compileSchedule({ plan: plan(), wiring, runSpeedKmh: { out: null, back: null }, locomotiveTopSpeedKmh: { l: 120 } });
+  const atS = (ms: number) => ms / 1000 + schedule().originS;
 
   it('schedules both runs at the speed the engine planned (plannedSpeedKmh) and its dutyFor value', () => {
-    expect(schedule.findings).toEqual([]);
-    expect(schedule.runs.map((r) => r.runId)).toEqual(['out', 'back']);
-    for (const run of schedule.runs) {
+    expect(schedule().findings).toEqual([]);
+    expect(schedule().runs.map((r) => r.runId)).toEqual(['out', 'back']);
+    for (const run of schedule().runs) {
       expect(run.speedKmh).toBeCloseTo(60, 6); // T was built from 60 km/h
       expect(run.pwm).toBe(113); // 6 V ÷ 13.5 V × 255 = 113.3
     }
   });
 
   it('ramps up over 60 ÷ 15 = 4 s from departure and down over 60 ÷ 20 = 3 s ending at arrival (common practice rates)', () => {
-    const speeds = schedule.entries.filter((e): e is Speed => e.kind === 'speed');
+    const speeds = schedule().entries.filter((e): e is Speed => e.kind === 'speed');
     expect(speeds).toHaveLength(4);
     const [up, down] = speeds;
     expect(up).toMatchObject({ from: 0, to: 113, rampMs: 4000 });
@@ -30,10 +31,10 @@ describe('control schedule worked example (H0, common-practice ramps, NEM 631 2.
   });
 
   it('drives reverse heading for b and forward heading for a on blocks wired + on the left (NEM 631 2.3), whatever forwardTowards says', () => {
-    const byRun = new Map(schedule.runs.map((r) => [r.runId, r.directions]));
+    const byRun = new Map(schedule().runs.map((r) => [r.runId, r.directions]));
     expect(byRun.get('out')).toEqual(['reverse', 'reverse', 'reverse']);
     expect(byRun.get('back')).toEqual(['forward', 'forward', 'forward']);
-    const directions = schedule.entries.filter((e) => e.kind === 'direction').map((e) => (e.kind === 'direction' ? e.direction : ''));
+    const directions = schedule().entries.filter((e) => e.kind === 'direction').map((e) => (e.kind === 'direction' ? e.direction : ''));
     expect(directions).toEqual(['reverse', 'off', 'forward', 'off']);
   });
 
