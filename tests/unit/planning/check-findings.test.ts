@@ -20,7 +20,11 @@ const timedOf = (findings: readonly (OracleFinding | Finding)[], kinds: readonly
 
 describe('checkPlan finding times against brute force', () => {
   for (const timeScale of [1, 0.1]) {
-    const plans = planArbitrary({ timeScale });
+    // Half the plans end the session at a given time (before, at or after the last step's exit), so
+    // the stands after each train's last run reach it.
+    const plans = fc
+      .tuple(planArbitrary({ timeScale }), fc.option(fc.integer({ min: 0, max: 120 }), { nil: undefined }))
+      .map(([plan, end]): Plan => (end === undefined ? plan : { ...plan, sessionEndS: end * timeScale }));
 
     it(`times × ${timeScale}: each clash covers the time both hold the block, cab, operator, train or locomotive, or the too-short gap`, () => {
       fc.assert(
@@ -237,6 +241,59 @@ describe('checkPlan messages on worked examples', () => {
       // Two runs of one train at once: this finding only, not a clash in Yard.
       ['cab-double-booked', ['c2', 'rc', 'rd'], 120, 125, 'Cab 2 is booked for Goods (06:10 departure) and Goods (06:12 departure) at once, at 06:12 fast'],
       ['train-double-booked', ['t1', 'rc', 'rd'], 120, 125, 'Train Goods is booked for Goods (06:10 departure) and Goods (06:12 departure) at once, at 06:12 fast'],
+    ]);
+  });
+
+  it('times compare with a 1 ms tolerance: a clash must last, and a gap fall short of the headway, by more than 1 ms (common practice)', () => {
+    const goods: Plan['runs'][number] = {
+      id: 'r1', trainId: 't1', cabId: 'c1', operatorId: null, departS: 0, arriveS: 40,
+      steps: [{ blockId: 'A', enterS: 0, exitS: 40 }, { blockId: 'B', enterS: 40, exitS: 50 }],
+    };
+    const local = (departS: number, steps: Plan['runs'][number]['steps']): Plan['runs'][number] => ({ id: 'r2', trainId: 't2', cabId: 'c2', operatorId: null, departS, arriveS: 100, steps });
+    // Local enters Yard as Goods leaves it: no shared time, a gap of 0 s, inside the 30 s headway.
+    const touching = base([goods, local(40, [{ blockId: 'C', enterS: 0, exitS: 40 }, { blockId: 'A', enterS: 40, exitS: 100 }])], noSharedLoco);
+    expect(found(touching).filter((f) => f[0] === 'block-overlap')).toEqual([
+      ['block-overlap', ['A', 'r1', 'r2'], 40, 40, 'Goods (06:00 departure) and Local (06:04 departure) pass through block Yard only 0 s apart (at 06:04 fast); the headway is 30 s'],
+    ]);
+    // With no headway, Local is in Yard with Goods for exactly 1 ms (0.001 to 0.002 s): no clash there;
+    // in Main block they are both from 40 to 50 s, and Goods stands there after its run.
+    const oneMs = base([goods, local(0.001, [{ blockId: 'A', enterS: 0.001, exitS: 0.002 }, { blockId: 'B', enterS: 0.002, exitS: 100 }])], {
+      ...noSharedLoco,
+      rules: { headwayS: 0, surgeS: 0, derate: 1 },
+    });
+    expect(found(oneMs).filter((f) => CLASH_KINDS.includes(f[0] as string))).toEqual([
+      ['block-overlap', ['B', 'r1', 'r2'], 40, 50, 'Goods (06:00 departure) and Local (06:00 departure) are both in Main block from 06:04 to 06:05 fast'],
+      ['block-occupied', ['B', 'r1', 'r2'], 50, 100, 'Goods stands in Main block from 06:05 to 06:10 fast, after Goods (06:00 departure); Local (06:00 departure) runs through it from 06:05 to 06:10 fast'],
+    ]);
+    // Local waits 1 ms in Yard before its run (0 to 0.001 s): no stand, so only the two runs clash there.
+    const shortWait = base([goods, local(0.001, [{ blockId: 'A', enterS: 0.001, exitS: 100 }])], noSharedLoco);
+    expect(found(shortWait).filter((f) => CLASH_KINDS.includes(f[0] as string))).toEqual([
+      ['block-overlap', ['A', 'r1', 'r2'], 0.001, 40, 'Goods (06:00 departure) and Local (06:00 departure) are both in block Yard from 06:00 to 06:04 fast'],
+    ]);
+  });
+
+  it('a booking or a time on the track of 1 ms clashes with nothing (common practice: the 1 ms tolerance)', () => {
+    const runOf = (id: string, trainId: string, cabId: string, blockId: string, departS: number, arriveS: number): Plan['runs'][number] => ({
+      id, trainId, cabId, operatorId: null, departS, arriveS, steps: [{ blockId, enterS: departS, exitS: arriveS }],
+    });
+    // Cab North: Goods 0–40, Local for 1 ms at 10 s, then Local again 30–60 (a real double booking).
+    const cab = base([runOf('r1', 't1', 'c1', 'A', 0, 40), runOf('r3', 't2', 'c1', 'C', 10, 10.001), runOf('r4', 't2', 'c1', 'C', 30, 60)], noSharedLoco);
+    expect(found(cab).filter((f) => f[0] === 'cab-double-booked')).toEqual([
+      ['cab-double-booked', ['c1', 'r1', 'r4'], 30, 40, 'Cab North is booked for Goods (06:00 departure) and Local (06:03 departure) at once, from 06:03 to 06:04 fast'],
+    ]);
+    // The session ends at 0: Goods (0–10 s) and Express (0–5 s) share the locomotive; Local, on the track
+    // for 1 ms only, shares it with neither.
+    const trains = [
+      { id: 't1', name: 'Goods', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
+      { id: 't2', name: 'Local', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
+      { id: 't3', name: 'Express', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 },
+    ];
+    const loco = base([runOf('r1', 't1', 'c1', 'A', 0, 10), runOf('r2', 't2', 'c2', 'C', 0, 0.001), runOf('r3', 't3', 'c2', 'B', 20, 25)], {
+      trains,
+      sessionEndS: 0,
+    });
+    expect(found(loco).filter((f) => f[0] === 'locomotive-in-two-trains')).toEqual([
+      ['locomotive-in-two-trains', ['l1', 't1', 't3'], 0, 10, 'Locomotive Tank engine is in train Goods and train Express, which are both on the track from 06:00 to 06:01 fast'],
     ]);
   });
 

@@ -148,13 +148,13 @@ export function oracleClashes(plan: Plan): OracleFinding[] {
     }
   }
   // A locomotive in two trains: every train with runs is on the track for the whole session.
-  // It is on the track from the session's start (or its first step, if earlier) to the session's end
-  // (or its last step, if later).
+  // It is on the track from the session's start (or a run's first step, if earlier) to the session's
+  // end (or a run's last step, if later).
   const onTrack = trains.filter((t) => runs.some((r) => r.trainId === t.id));
   const sessionEnd = plan.sessionEndS ?? Math.max(...runs.flatMap((r) => r.steps.map((s) => s.exitS)));
   const span = (t: Plan['trains'][number]) => {
-    const steps = runs.filter((r) => r.trainId === t.id).flatMap((r) => r.steps);
-    return { from: Math.min(0, ...steps.map((s) => s.enterS)), to: Math.max(sessionEnd, ...steps.map((s) => s.exitS)) };
+    const own = runs.filter((r) => r.trainId === t.id);
+    return { from: Math.min(0, ...own.map((r) => r.steps[0]!.enterS)), to: Math.max(sessionEnd, ...own.map((r) => r.steps.at(-1)!.exitS)) };
   };
   for (const locomotive of plan.locomotives) {
     const inIt = onTrack.filter((t) => t.locomotiveIds.includes(locomotive.id));
