@@ -297,6 +297,30 @@ describe('checkPlan messages on worked examples', () => {
     ]);
   });
 
+  it('a step gap of exactly 1 ms is none; 2.5 ms is one, written to the millisecond (common practice: the 1 ms tolerance)', () => {
+    const plan = base(
+      [
+        {
+          id: 'r1',
+          trainId: 't1',
+          cabId: 'c1',
+          operatorId: null,
+          departS: 0,
+          arriveS: 10,
+          steps: [
+            { blockId: 'A', enterS: 0, exitS: 0.001 },
+            { blockId: 'B', enterS: 0.002, exitS: 5 },
+            { blockId: 'A', enterS: 5.0025, exitS: 10 },
+          ],
+        },
+      ],
+      { trains: [{ id: 't1', name: 'Goods', locomotiveIds: ['l1'], lightingAmps: 0, lengthMm: 1000 }] },
+    );
+    expect(found(plan)).toEqual([
+      ['step-gap', ['r1', 'B', 'A'], 5, 5.0025, 'Goods (06:00 departure) leaves Main block 0.002 s before it enters block Yard: between them the train is nowhere'],
+    ]);
+  });
+
   it('words the shape warnings: where a too-long train starts and ends, route and step gaps, a continuity break', () => {
     const plan = base(
       [
