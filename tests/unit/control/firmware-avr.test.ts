@@ -1,4 +1,8 @@
-import { describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { boardProgram, estimateFirmwareSize, generateAvrFirmware, wiringSheetSchema, type BoardProgram, type WiringSheet } from '@/lib/control';
 import { entries, schedule, twoBoards } from './two-boards';
 import { wiring as headerWiring } from './worked-example-plan';
@@ -27,7 +31,15 @@ const fullerSchedule = () => {
   return { ...s, cabs: [...s.cabs, { cabId: 'c0', name: 'Cab "zero"' }], blocks: [...s.blocks, { blockId: 'b9', name: 'Siding\\north', reversing: false }] };
 };
 
+/** c0's PWM on OC2B (PD3), c1's on OC1A (PB1, header 9): the cabs use timer 2, then timer 1. */
+const timersOutOfOrder = () => boardProgram(fullerSchedule(), { ...fuller, cabs: fuller.cabs.map((c) => (c.cabId === 'c1' ? { ...c, pwmPin: '9' } : c)) }, 'u');
+
 describe('generateAvrFirmware: schedule.h against the ATmega328P and ATmega2560 datasheets', () => {
+  it('timers are set up in number order whatever order the cabs use them (here timer 2, then 1)', () => {
+    const h = lines(files(timersOutOfOrder())['schedule.h']!).filter((l) => /^\s+TCCR\dA = /.test(l));
+    expect(h.map((l) => l.trim().slice(0, 6))).toEqual(['TCCR0A', 'TCCR1A', 'TCCR2A']);
+  });
+
   const u = () => files(boardProgram(schedule(entries), twoBoards, 'u'));
   const v = () => files(boardProgram(schedule(entries), twoBoards, 'v'));
   const full = () => files(boardProgram(fullerSchedule(), fuller, 'u'));
@@ -275,5 +287,114 @@ describe('estimateFirmwareSize: the model measured with avr-gcc -Os (checked aga
     const size = estimateFirmwareSize(big);
     expect(size.ramBytes).toBe(420 + 16 + 1300 * 6);
     expect(size.advice).toBe(`needs about ${(size.flashBytes / 1024).toFixed(1)} KB flash and 8236 bytes RAM, more than the ATmega2560 board has: split the session`);
+  });
+});
+
+const avrGcc = spawnSync('avr-gcc', ['--version']).status === 0 && spawnSync('make', ['--version']).status === 0;
+
+/*
+ * avr-gcc and GNU make themselves (Debian's gcc-avr and avr-libc, installed by .ci/run): each generated
+ * program goes through its own Makefile with -fsyntax-only -Werror, so every line of schedule.h and main.c
+ * must be C that avr-libc accepts for the board's part, warnings included. A check of the C, not of what it
+ * does (tests/integration/control-toolchain.test.ts builds and runs it in simavr); it takes a tenth of a second.
+ */
+describe.skipIf(!avrGcc)('generateAvrFirmware: the files avr-gcc and make accept', () => {
+  let dir: string;
+  beforeAll(() => {
+    dir = fs.mkdtempSync(path.join(os.tmpdir(), 'fishplate-fw-unit-'));
+  });
+  afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
+  const writeOut = (program: BoardProgram) => {
+    const folder = fs.mkdtempSync(path.join(dir, `${program.kind}-`));
+    for (const file of generateAvrFirmware(program, meta)) fs.writeFileSync(path.join(folder, file.name), file.text);
+    return folder;
+  };
+  const make = (folder: string, ...args: string[]) => spawnSync('make', args, { cwd: folder, encoding: 'utf8' });
+
+  it('compiles for both parts without a warning: two boards, a polarity relay, timers 0, 1, 2 and 5, and a board with nothing on it', () => {
+    const programs = [
+      boardProgram(schedule(entries), twoBoards, 'u'),
+      boardProgram(schedule(entries), twoBoards, 'v'),
+      boardProgram(fullerSchedule(), fuller, 'u'),
+      timersOutOfOrder(),
+      boardProgram(schedule([]), { ...twoBoards, cabs: [], blocks: [] }, 'v'),
+    ];
+    for (const program of programs) {
+      const run = make(writeOut(program), '-s', 'firmware.elf', 'EXTRA_CFLAGS=-fsyntax-only -Werror');
+      expect(run.status, `${program.board.name}: ${run.stderr}`).toBe(0);
+    }
+  });
+
+  it('schedule.h stands on its own and may be included twice (its own includes and guard: C11 6.10.1, common practice)', () => {
+    const folder = writeOut(boardProgram(schedule(entries), twoBoards, 'u'));
+    fs.writeFileSync(path.join(folder, 'twice.c'), '#include "schedule.h"\n#include "schedule.h"\nint main(void) { fp_timers_init(); return 0; }\n');
+    const run = spawnSync('avr-gcc', ['-std=gnu99', '-mmcu=atmega328p', '-Wall', '-Wno-unused', '-Werror', '-fsyntax-only', 'twice.c'], { cwd: folder, encoding: 'utf8' });
+    expect(run.status, run.stderr).toBe(0);
+  });
+
+  it('make builds the hex file and the size by default, with the part and clock on the command line; upload, size and clean do what they say', () => {
+    const folder = writeOut(boardProgram(schedule(entries), twoBoards, 'u'));
+    const all = make(folder, '-n');
+    expect(all.status, all.stderr).toBe(0);
+    expect(all.stdout.split('\n')).toEqual([
+      'avr-gcc -std=gnu99 -Os -Wall -Wextra -Wno-type-limits -mmcu=atmega328p -DF_CPU=16000000UL  -o firmware.elf main.c ',
+      'avr-objcopy -O ihex -R .eeprom firmware.elf firmware.hex',
+      'avr-size -A firmware.elf',
+      '',
+    ]);
+    expect(make(folder, '-n', 'upload', 'PORT=/dev/ttyACM0').stdout).toContain('avrdude -p m328p -c stk500v1 -P /dev/ttyACM0 -b 115200 -D -U flash:w:firmware.hex:i');
+    expect(make(folder, '-n', '-o', 'firmware.hex', 'upload').stdout.trim()).toBe('avrdude -p m328p -c stk500v1 -P /dev/ttyUSB0 -b 115200 -D -U flash:w:firmware.hex:i');
+    // A file called "clean" does not stop the clean target: it is phony (GNU make manual 4.6).
+    fs.writeFileSync(path.join(folder, 'clean'), '');
+    expect(make(folder, '-n', 'clean').stdout.trim()).toBe('rm -f firmware.elf firmware.hex');
+  });
+});
+
+describe('generateAvrFirmware: the README\'s instructions and safety cautions', () => {
+  it('says how to start, stop and flash, at the firmware\'s 57 600 baud (UBRR 34 with U2X at 16 MHz, ATmega328P datasheet 24.11)', () => {
+    const program = boardProgram(schedule(entries), twoBoards, 'u');
+    const r = lines(files(program)['README.txt']!);
+    expect(r.slice(3, 10)).toEqual([
+      `Size: ${estimateFirmwareSize(program).advice}. Run "make" to build and see avr-size's figures; "make upload PORT=/dev/ttyUSB0" to flash.`,
+      '',
+      'Start: press the start button, or send the line "start" on the serial port (57600 baud, 8N1). The board',
+      'then runs the session on its own clock and prints one line per change: fast-clock time and what changed.',
+      'Emergency stop: opening the stop contact sets every PWM output to 0, clears every direction input and',
+      'opens every relay at once; the board stays stopped until it is reset.',
+      '',
+    ]);
+    expect(files(program)['main.c']).toContain('UBRR0 = 34;');
+  });
+
+  it('carries the safety cautions DOMAIN.md asks of every README (shoot-through, fuses, heat, mains, outdoors, planning aids), and the relay drive limits (ATmega328P datasheet: 40 mA absolute maximum per pin)', () => {
+    const r = lines(files(boardProgram(schedule(entries), twoBoards, 'v'))['README.txt']!);
+    expect(r.slice(r.indexOf('SAFETY'))).toEqual([
+      'SAFETY',
+      '- Never switch both transistors of one side of an H-bridge on together: it shorts the supply',
+      '  (shoot-through). This firmware never drives both direction inputs high; prefer driver chips with',
+      '  built-in protection.',
+      '- Fuse or current-limit every supply output; an overloaded supply or driver overheats.',
+      '- Driver heat sinks can reach burn temperatures; allow airflow.',
+      '- Relays need a driver transistor and a flyback diode (or a relay module that has them); a board pin',
+      '  sources only a few tens of mA (40 mA absolute maximum per pin, ATmega328P datasheet).',
+      '- Mains-side work is hazardous: use enclosed, certified supplies; leave mains wiring to a qualified person.',
+      '- Outdoor layouts: low voltage only on the track, weatherproof connections, residual-current protection.',
+      '- These programs are planning aids, not a substitute for the manufacturer\'s ratings, local codes or a',
+      '  licensed electrician. Try the session with the track power off first.',
+      '',
+    ]);
+    expect(r[r.indexOf('SAFETY') - 1]).toBe('');
+  });
+});
+
+describe('estimateFirmwareSize at the datasheets\' limits exactly', () => {
+  it('a program using exactly the 32 256 bytes of flash and the 2 048 bytes of RAM of the ATmega328P board fits', () => {
+    const u = boardProgram(schedule(entries), twoBoards, 'u');
+    // Flash: 3 700 + 2 845 × 10 + 11 ("Cab one!!!") + 5 ("Yard") + 60 + 30 = 32 256.
+    const flash = { ...u, cabs: u.cabs.map((c) => ({ ...c, name: 'Cab one!!!' })), entries: Array.from({ length: 2845 }, () => u.entries[0]!) };
+    expect(estimateFirmwareSize(flash)).toMatchObject({ flashBytes: 32256, fits: true });
+    // RAM: 420 + 2 cabs × 16 + 266 blocks × 6 = 2 048.
+    const ram = { ...u, cabs: [u.cabs[0]!, u.cabs[0]!], blocks: Array.from({ length: 266 }, () => ({ ...u.blocks[0]!, feeds: [], name: '' })) };
+    expect(estimateFirmwareSize(ram)).toMatchObject({ ramBytes: 2048, fits: true });
   });
 });
