@@ -1,4 +1,5 @@
 import 'server-only';
+import type { AddressInfo } from 'node:net';
 import { simpleParser, type AddressObject } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import { storeCaughtMail } from '@/db/queries/caught-mail';
@@ -57,9 +58,8 @@ export function startLocalMailServer(port: number, host = '127.0.0.1'): Promise<
       server.on('error', (error: NodeJS.ErrnoException) => {
         if (error.code !== 'ECONNRESET' && error.code !== 'EPIPE') console.warn(`local mail catcher: ${error.message}`);
       });
-      const address = server.server.address();
-      const actual = typeof address === 'object' && address ? address.port : port;
-      resolve(Object.assign(server, { port: actual }));
+      // Listening on a TCP port, the address is always { address, family, port } (Node.js net server.address()).
+      resolve(Object.assign(server, { port: (server.server.address() as AddressInfo).port }));
     });
   });
 }

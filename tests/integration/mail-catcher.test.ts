@@ -1,7 +1,8 @@
 import net from 'node:net';
+import path from 'node:path';
 import { eq, like } from 'drizzle-orm';
-import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import { getDb } from '@/db';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { closeDb, getDb } from '@/db';
 import { caughtMail } from '@/db/schema';
 import { startLocalMailServer } from '@/lib/mail/local-server';
 import { rawSmtp } from './smtp-client';
@@ -11,11 +12,13 @@ import { rawSmtp } from './smtp-client';
 
 let server: Awaited<ReturnType<typeof startLocalMailServer>>;
 
-beforeAll(async () => {
+// A catcher per test, started in beforeEach rather than beforeAll: the mutation run (Stryker's per-test
+// coverage) only credits a test with the code that runs inside it or its beforeEach.
+beforeEach(async () => {
   server = await startLocalMailServer(0);
 });
 
-afterAll(async () => {
+afterEach(async () => {
   await new Promise<void>((resolve) => server.close(() => resolve()));
 });
 
@@ -160,6 +163,47 @@ describe('the local mail catcher', () => {
     const reply = await deliver({ from: 'big@sender.test', to: ['crew@test.example'] }, [`Subject: ${m}`, '', ...body]);
     expect(reply).toMatch(/^552 Message too large/);
     expect(getDb().select().from(caughtMail).where(eq(caughtMail.subject, m)).all()).toEqual([]);
+  });
+});
+
+describe('the local mail catcher, odd cases', () => {
+  it('keeps a message with no text part at all with empty text (an attachment only)', async () => {
+    const m = marker();
+    await deliver({ from: 'a@sender.test', to: ['crew@test.example'] }, [
+      `Subject: ${m}`,
+      'MIME-Version: 1.0',
+      'Content-Type: application/octet-stream',
+      'Content-Transfer-Encoding: base64',
+      '',
+      Buffer.from(`binary ${m}`).toString('base64'),
+    ]);
+    const row = caught(m);
+    expect(row.text).toBe('');
+    expect(row.html).toBeNull();
+  });
+
+  it('answers a message it cannot keep with a transient 4xx, not silence (RFC 5321 4.2.1, 4.5.4.1: the sender tries again)', async () => {
+    const databaseUrl = process.env.DATABASE_URL!;
+    try {
+      // A directory is no SQLite file: storing the message fails.
+      closeDb();
+      process.env.DATABASE_URL = path.dirname(databaseUrl);
+      const reply = await deliver({ from: 'a@sender.test', to: ['crew@test.example'] }, ['Subject: unkept', '', 'Body.']);
+      expect(reply).toMatch(/^4\d\d /);
+    } finally {
+      process.env.DATABASE_URL = databaseUrl;
+    }
+  });
+
+  it('writes nothing to the log for a message it keeps: sign-in links and reply tokens stay out of logs (OWASP Logging Cheat Sheet)', async () => {
+    const spies = (['log', 'info', 'warn', 'error', 'debug'] as const).map((level) => vi.spyOn(console, level).mockImplementation(() => undefined));
+    try {
+      const m = marker();
+      expect(await deliver({ from: 'a@sender.test', to: ['crew@test.example'] }, [`Subject: ${m}`, '', 'https://fishplate.test/sign-in/link?token=secret'])).toMatch(/^250 /);
+      for (const spy of spies) expect(spy).not.toHaveBeenCalled();
+    } finally {
+      for (const spy of spies) spy.mockRestore();
+    }
   });
 });
 
