@@ -101,6 +101,57 @@ describe('checkInterlocks on the worked example (common practice for H-bridge ca
   });
 });
 
+describe('checkInterlocks at the edges of occupancy and of the dead time (common practice, as above)', () => {
+  it('a train is in a block from the moment its head enters to the moment its tail clears: switching at either instant under current is refused', () => {
+    // The out run with its b2 entry at session second 18.125 and its b1 exit at 19.125 (binary-exact, so the
+    // instants are exact milliseconds: 19 125 and 20 125 ms); PWM 113 then.
+    const exact = plan();
+    const out = exact.runs[0]!;
+    out.steps = out.steps.map((st) => (st.blockId === 'b2' ? { ...st, enterS: 18.125 } : st.blockId === 'b1' ? { ...st, exitS: 19.125 } : st));
+    const check = (change: (entries: ControlEntry[]) => ControlEntry[]) => checkInterlocks({ ...schedule(), entries: change(schedule().entries).sort(compareEntries) }, exact);
+    expect(check((entries) => entries)).toEqual([]);
+    const atEntry = check((entries) => entries.map((e) => (e.kind === 'feed' && e.blockId === 'b2' && e.atMs === 18_127 ? { ...e, atMs: 19_125 } : e)));
+    expect(atEntry).toEqual([finding('interlock-break-before-make', ['b2'], 19_125, 'block b2 switches while current flows through it')]);
+    const atExit = check((entries) => [...entries.filter((e) => !(e.kind === 'feed' && e.blockId === 'b1' && e.atMs === 20_627)), { atMs: 20_125, kind: 'feed', blockId: 'b1', cabId: null }]);
+    expect(atExit).toEqual([finding('interlock-break-before-make', ['b1'], 20_125, 'block b1 switches while current flows through it')]);
+    // On the compiled plan, a release 600 ms before the tail clears b1 (at 20 127 ms) is refused too.
+    const early = withEntries((entries) => [...entries.filter((e) => !(e.kind === 'feed' && e.blockId === 'b1' && e.atMs === 20_627)), { atMs: 19_500, kind: 'feed', blockId: 'b1', cabId: null }]);
+    expect(early).toEqual([finding('interlock-break-before-make', ['b1'], 19_500, 'block b1 switches while current flows through it')]);
+  });
+
+  it('releasing a released block again is harmless (only a connect waits for the break time)', () => {
+    expect(withEntries((entries) => [...entries, { atMs: 20_637, kind: 'feed', blockId: 'b1', cabId: null }])).toEqual([]);
+  });
+
+  it('a cab never driven is at PWM 0 from the start: holding it at 0 and setting its direction at once is safe', () => {
+    const fresh = withEntries((entries) => [
+      ...entries,
+      { atMs: 5000, kind: 'speed', cabId: 'c2', from: 0, to: 0, rampMs: 0 },
+      { atMs: 5001, kind: 'direction', cabId: 'c2', direction: 'forward' },
+    ]);
+    expect(fresh).toEqual([]);
+  });
+
+  it('a cut to PWM 0 (a 0 → 0 setting while the cab drives or ramps down) starts the dead time at the cut', () => {
+    // While driving at 113: cut at 20 000 ms, direction off exactly 300 ms later.
+    const cut = withEntries((entries) => [
+      ...entries,
+      { atMs: 20_000, kind: 'speed', cabId: 'c1', from: 0, to: 0, rampMs: 0 },
+      { atMs: 20_300, kind: 'direction', cabId: 'c1', direction: 'off' },
+    ]);
+    expect(cut).toEqual([]);
+    // During the ramp down (PWM 0 only at 35 380 ms): cut at 35 000, direction off at 35 300.
+    const early = withEntries((entries) => [
+      ...entries.map((e) => (e.kind === 'direction' && e.direction === 'off' && e.atMs === 35_680 ? { ...e, atMs: 35_300 } : e)),
+      { atMs: 35_000, kind: 'speed', cabId: 'c1', from: 0, to: 0, rampMs: 0 },
+    ]);
+    expect(early).toEqual([]);
+    // A 0 → 0 ramp starting the moment PWM reached 0 keeps the dead time running from then.
+    const held = withEntries((entries) => [...entries, { atMs: 35_380, kind: 'speed', cabId: 'c1', from: 0, to: 0, rampMs: 100 }]);
+    expect(held).toEqual([]);
+  });
+});
+
 describe('pwmAt: a ramp entry gives PWM linearly from `from` to `to` over rampMs (the schedule format)', () => {
   const up: Speed = { atMs: 1000, kind: 'speed', cabId: 'c', from: 0, to: 100, rampMs: 1000 };
   it('is 0 before any speed entry and `to` at once for a ramp of 0 ms', () => {
