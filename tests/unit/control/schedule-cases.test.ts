@@ -49,6 +49,15 @@ describe('compileSchedule leaves out, with a finding, every run it cannot drive 
     expect(s.findings).toEqual([leftOut('B2 has no relay to Cab 1', ['b2'])]);
   });
 
+  it('names a cab or block the plan does not know by its id', () => {
+    const p = outOnly();
+    p.runs[0] = { ...p.runs[0]!, cabId: 'c9' };
+    expect(compile({ plan: p, wiring }).findings).toEqual([leftOut('c9 is not on the wiring sheet')]);
+    const q = outOnly();
+    q.runs[0]!.steps[1] = { ...q.runs[0]!.steps[1]!, blockId: 'b9' };
+    expect(compile({ plan: q, wiring }).findings).toEqual([leftOut('b9 has no relay to Cab 1', ['b9'])]);
+  });
+
   it('a run that stays in one block', () => {
     const p = outOnly();
     p.runs[0]!.steps = [{ blockId: 'b1', enterS: 10, exitS: 10 + T }];

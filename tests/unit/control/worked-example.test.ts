@@ -47,6 +47,30 @@ describe('control schedule worked example (H0, common-practice ramps, NEM 631 2.
     expect(legacy.runs.map((r) => r.directions[0])).toEqual(['forward', 'reverse']);
   });
 
+  it('a layout that records any end at all (one end of one link, or of one step of one run) is read by its ends, not by forwardTowards', () => {
+    const withoutEnds = () => {
+      const p = plan();
+      p.links = p.links.map(({ a, b }) => ({ a, b }));
+      return p;
+    };
+    const variants: ((p: ReturnType<typeof plan>) => void)[] = [
+      (p) => (p.links[0] = { ...p.links[0]!, bEnd: 'a' }),
+      (p) => (p.links[1] = { ...p.links[1]!, aEnd: 'b' }),
+      (p) => (p.runs[0]!.steps[0] = { ...p.runs[0]!.steps[0]!, toEnd: 'b' }),
+      (p) => (p.runs[1]!.steps[1] = { ...p.runs[1]!.steps[1]!, fromEnd: 'b' }),
+    ];
+    for (const change of variants) {
+      const p = withoutEnds();
+      change(p);
+      const compiled = compileSchedule({ plan: p, wiring, runSpeedKmh: { out: null, back: null }, locomotiveTopSpeedKmh: { l: 120 } });
+      // NEM 631 2.3 with + on the left rail: reverse heading for b, forward heading back (the sheet would say the opposite).
+      expect(compiled.runs.map((r) => r.directions)).toEqual([
+        ['reverse', 'reverse', 'reverse'],
+        ['forward', 'forward', 'forward'],
+      ]);
+    }
+  });
+
   it('flips a reversing section with the engine: polarity normal while the cab drives what the section needs, swapped after the cab reverses', () => {
     // b3 wired the other way (+ on the right looking to b): heading for b it needs forward, b1 and b2 reverse
     // (NEM 631 2.3), so the cab must change direction while the train is wholly inside b2.
