@@ -7,7 +7,8 @@ const globalForMail = globalThis as unknown as { fishplateTransport?: Transporte
 
 /** Where mail goes: SMTP_URL, or Fishplate's own local catcher on loopback. */
 export function smtpUrl(): string {
-  return env().SMTP_URL ?? `smtp://127.0.0.1:${localSmtpActualPort() ?? env().LOCAL_SMTP_PORT}`;
+  // An empty SMTP_URL is unset, as everywhere else (server-start.ts starts the catcher for it).
+  return env().SMTP_URL || `smtp://127.0.0.1:${localSmtpActualPort() ?? env().LOCAL_SMTP_PORT}`;
 }
 
 /** One pooled SMTP transport per process (rebuilt if the URL changes, as in tests). */

@@ -42,6 +42,10 @@ describe('where mail goes without SMTP_URL', () => {
     // Set by the server once the catcher listens (it may have taken another port); read fresh, no cache reset.
     vi.stubEnv('LOCAL_SMTP_ACTUAL_PORT', '2611');
     expect(smtpUrl()).toBe('smtp://127.0.0.1:2611');
+    // `SMTP_URL=` in an env file: no mail server, as lib/server-start.ts reads it (it starts the catcher).
+    vi.stubEnv('SMTP_URL', '');
+    resetEnvCache();
+    expect(smtpUrl()).toBe('smtp://127.0.0.1:2611');
     vi.stubEnv('SMTP_URL', 'smtp://relay.example.test:587');
     resetEnvCache();
     expect(smtpUrl()).toBe('smtp://relay.example.test:587');
