@@ -21,6 +21,16 @@
 // - lib/control/schedule.ts checkInterlocks(): `if (e.cabId === null) lastRelease.set(…)` → `if (true)`: a
 //   connect's time is then also kept as a "release", but a block can only be connected again after a
 //   release (a second connect takes the two-cabs branch), and that release overwrites it first.
+// - lib/auth/pages.ts memberForPage(): `error.status === 404` → `true` in the last of its three checks, and
+//   lib/auth/sessions.ts requireSession(): `error instanceof AppError ? error.status : undefined` → `true ? …`.
+//   requireMember's refusals are AppErrors with 401, 403 or 404 and nothing else (lib/auth/index.ts), so the
+//   404 check sees no other AppError; and the errors it lets through unchanged (SQLite's, the session
+//   lookup's) carry a `code`, never a `status`. tests/integration/auth-pages.test.ts passes a foreign error
+//   with a status through memberForPage, where the user lookup can throw one.
+// - lib/mail/local-server.ts: `server.off('error', reject)` → `off('', …)` leaves the start-up promise's
+//   reject listening, but rejecting a settled promise does nothing, and the catcher's own error listener
+//   still runs. `session.envelope.mailFrom ? … : ''`: the `''` is unreachable, smtp-server calls onData only
+//   after a MAIL FROM was accepted (RFC 5321 3.3), so mailFrom is always an address object there.
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',
