@@ -104,6 +104,18 @@ describe('compileSchedule leaves out, with a finding, every run it cannot drive 
     ]);
   });
 
+  it('a first block the layout calls a reversing section, with no polarity relay on the sheet, is named as such', () => {
+    // b1 wired + on the right: heading for b it needs forward, b2 and b3 reverse (NEM 631 2.3).
+    const p = outOnly();
+    p.blocks = p.blocks.map((b) => (b.id === 'b1' ? { ...b, positiveRail: 'right', reversingSection: true } : b));
+    expect(compile({ plan: p, wiring }).findings).toEqual([leftOut('B1 is a reversing section on the layout but the wiring sheet gives it no polarity relay')]);
+    // With its relay the run starts in the section, swapped, and the cab drives what b2 and b3 need throughout.
+    const s = compile({ plan: p, wiring: withBlock(wiring, 'b1', { polarityPin: 'GPIO19' }) });
+    expect(s.findings).toEqual([]);
+    expect(s.runs[0]!.directions).toEqual(['reverse', 'reverse', 'reverse']);
+    expect(plain(s.entries, s.originS).filter((e) => e.kind === 'polarity')).toEqual([{ at: 9, kind: 'polarity', blockId: 'b1', polarity: 'swapped' }]);
+  });
+
   it('a run whose locomotive top speed, driver or supply is missing', () => {
     expect(compile({ plan: outOnly(), wiring, tops: {} }).findings).toEqual([leftOut('its locomotives, driver or supply are missing')]);
     const p = outOnly();
@@ -131,9 +143,36 @@ describe('compileSchedule leaves out, with a finding, every run it cannot drive 
     // Listed in the plan in the other order, departing together: "back" sorts before "out".
     const q = plan();
     q.runs = [q.runs[0]!, { ...q.runs[0]!, id: 'back' }];
-    const t = compile({ plan: q, wiring });
-    expect(t.runs.map((r) => r.runId)).toEqual(['back']);
-    expect(t.findings.map((f) => f.ids)).toEqual([['out', 'back']]);
+    for (const runs of [q.runs, [...q.runs].reverse()]) {
+      const t = compile({ plan: { ...q, runs }, wiring });
+      expect(t.runs.map((r) => r.runId)).toEqual(['back']);
+      expect(t.findings.map((f) => f.ids)).toEqual([['out', 'back']]);
+    }
+  });
+
+  it('a cab is busy from a lead second before departure until the dead time after arrival (its direction off), or its last release if later', () => {
+    // Release 0.1 s, shorter than the 0.3 s dead time: the out run holds c1 until 34.38 + 0.3 s.
+    const quick = { ...wiring, timing: { ...wiring.timing, releaseS: 0.1 } };
+    const second = (departS: number) => {
+      const p = plan();
+      const back = p.runs[1]!;
+      p.runs[1] = { ...back, departS, arriveS: departS + T, steps: back.steps.map((st) => ({ ...st, enterS: st.enterS - 100 + departS, exitS: st.exitS - 100 + departS })) };
+      return compile({ plan: p, wiring: quick });
+    };
+    // The back run's window opens a lead second (1 s) before its departure.
+    expect(second(10 + T + 0.3 + 1 + 0.01).findings).toEqual([]);
+    expect(second(10 + T + 0.3 + 1 - 0.01).findings.map((f) => f.message)).toEqual(['Goods (07:00 departure) is left out of the control schedule: Cab 1 is still driving another run']);
+    // A run ending just as the out run's window opens (9 s) is clear of it; one a moment later is not.
+    const before = (arriveS: number) => {
+      const p = plan();
+      const back = p.runs[1]!;
+      const departS = arriveS - T;
+      p.runs[1] = { ...back, departS, arriveS, steps: back.steps.map((st) => ({ ...st, enterS: st.enterS - 100 + departS, exitS: st.exitS - 100 + departS })) };
+      return compile({ plan: p, wiring: quick });
+    };
+    expect(before(-100).runs.map((r) => r.runId)).toEqual(['back', 'out']);
+    expect(before(9 - 0.3 - 0.01).runs.map((r) => r.runId)).toEqual(['back', 'out']);
+    expect(before(9 - 0.3 + 0.01).runs.map((r) => r.runId)).toEqual(['back']);
   });
 
   it('runs in departure order whatever the plan\'s order', () => {
