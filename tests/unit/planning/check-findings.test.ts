@@ -50,7 +50,7 @@ describe('checkPlan finding times against brute force', () => {
 describe('checkPlan caps: listed, counted and totalled', () => {
   const total = (counts: Record<string, number>) => FINDING_KINDS.reduce((sum, kind) => sum + counts[kind]!, 0);
   // More runs than the property tests use, so that kinds run past small caps.
-  const plans = planArbitrary({ maxRuns: 12 });
+  const plans = planArbitrary({ maxRuns: 10 });
 
   it('with a per-kind cap: counts and totals as uncapped, each kind listed up to the cap, every listed finding one of the uncapped ones', () => {
     fc.assert(
@@ -79,7 +79,7 @@ describe('checkPlan caps: listed, counted and totalled', () => {
           at = next;
         }
       }),
-      { numRuns: 200 },
+      { numRuns: 100 },
     );
   });
 
@@ -93,7 +93,7 @@ describe('checkPlan caps: listed, counted and totalled', () => {
         expect(capped.totals).toEqual(all.totals);
         expect(capped.truncated).toBe(maxFindings < all.findings.length);
       }),
-      { numRuns: 200 },
+      { numRuns: 100 },
     );
   });
 
@@ -107,7 +107,7 @@ describe('checkPlan caps: listed, counted and totalled', () => {
           expect(order, `${a.kind} ${a.ids} before ${b.kind} ${b.ids}`).toBeLessThan(0);
         }
       }),
-      { numRuns: 200 },
+      { numRuns: 100 },
     );
   });
 });
