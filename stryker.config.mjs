@@ -21,6 +21,22 @@
 // - lib/control/schedule.ts checkInterlocks(): `if (e.cabId === null) lastRelease.set(…)` → `if (true)`: a
 //   connect's time is then also kept as a "release", but a block can only be connected again after a
 //   release (a second connect takes the two-cabs branch), and that release overwrites it first.
+// - lib/planning/check.ts, the capped finding list. Messages of findings past a kind's cap are never read
+//   (add() only counts them), so these change nothing: `lists()`'s `kept < maxPerKind` → `<=` or `true`,
+//   and a check's `willList(…) ? message : ''` → `true` or `''` → another string; the sweeps' stops
+//   `return --room > 0` → `>= 0` and `if (room > 0)` → `>= 0`/`true` (the one pair more they visit is past
+//   the cap, or there is none: the sweep visits only real pairs); `findings.length > maxFindings` → `>=`
+//   (sets the length it has); countAll's `severity === 'error' ? …` → `true` (every caller passes 'error').
+// - lib/planning/check.ts, values kept as the same value: the stay merge's `stepExit[k] > exitAll[last]`
+//   → `>=`, a train's `first < firstEnter[t]` → `<=` and `last > lastExit[t]` → `>=`; the owner groups'
+//   `before < 0 ||` → `false` and `k > 0 ?` → `k >= 0 ?` (group[-1] and group[undefined] are undefined,
+//   unlike every group, so the first interval opens a group either way); earlierFirst's `x.id < y.id` →
+//   `<=` (a plan's run ids are unique).
+// - lib/planning/check.ts, guards for references an accepted plan always resolves (planSchema refuses a
+//   run naming an unknown train, cab or block, and a link or train naming an unknown block or locomotive;
+//   checkPlan takes accepted plans only): a run's owner `runTrain[r] >= 0 ? … : trainCount + r` → `true`,
+//   `if (t < 0) continue`, `if (l === undefined) continue`, findRouteGaps' `a === undefined || b ===
+//   undefined` and `a >= 0 && b >= 0`, findTooLong's `train === undefined`, `b >= 0` and `block === undefined`.
 // - lib/auth/pages.ts memberForPage(): `error.status === 404` → `true` in the last of its three checks, and
 //   lib/auth/sessions.ts requireSession(): `error instanceof AppError ? error.status : undefined` → `true ? …`.
 //   requireMember's refusals are AppErrors with 401, 403 or 404 and nothing else (lib/auth/index.ts), so the
