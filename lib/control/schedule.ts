@@ -185,7 +185,11 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
         message: `${label} is left out of the control schedule: ${why}`,
       });
     const cab = cabWiring.get(run.cabId);
-    if (!cab || !train) {
+    if (!train) {
+      leaveOut(`its train ${run.trainId} is not in the plan`);
+      continue;
+    }
+    if (!cab) {
       leaveOut(`${cabName(run.cabId)} is not on the wiring sheet`);
       continue;
     }
@@ -253,7 +257,8 @@ export function compileSchedule(input: ControlInput): ControlSchedule {
     const brakingKmhPerS = train.brakingKmhPerS ?? rampDefault.brakingKmhPerS;
     const speedKmh = input.runSpeedKmh[run.id] ?? plannedSpeedKmh(plan, run, blockLength, { accelKmhPerS, brakingKmhPerS });
     if (speedKmh === null) {
-      leaveOut('it does not leave its block');
+      // Its route has two blocks or more (checked above): plannedSpeedKmh found no length for one of them.
+      leaveOut('the length of its route is unknown (a block is not on the layout), so its speed is too');
       continue;
     }
     let pwm = 0;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Plan } from '@/lib/planning';
-import { compareEntries, compileSchedule, travelDirections, type ControlEntry, type ControlFinding, type WiringSheet } from '@/lib/control';
+import { cabDirections, compareEntries, compileSchedule, travelDirections, type ControlEntry, type ControlFinding, type WiringSheet } from '@/lib/control';
 import { plan, T, wiring } from './worked-example-plan';
 
 /*
@@ -114,6 +114,63 @@ describe('compileSchedule leaves out, with a finding, every run it cannot drive 
     expect(s.findings).toEqual([]);
     expect(s.runs[0]!.directions).toEqual(['reverse', 'reverse', 'reverse']);
     expect(plain(s.entries, s.originS).filter((e) => e.kind === 'polarity')).toEqual([{ at: 9, kind: 'polarity', blockId: 'b1', polarity: 'swapped' }]);
+  });
+
+  it('a run whose train the plan does not have', () => {
+    const p = outOnly();
+    p.runs[0] = { ...p.runs[0]!, trainId: 't9' };
+    expect(compile({ plan: p, wiring }).findings).toEqual([
+      { ...leftOut('its train t9 is not in the plan'), message: 't9 (07:00 departure) is left out of the control schedule: its train t9 is not in the plan' },
+    ]);
+  });
+
+  it('a run through a block with relays to other cabs only', () => {
+    const w = withBlock(wiring, 'b2', { feeds: [{ cabId: 'c2', pin: 'GPIO6' }] });
+    expect(compile({ plan: outOnly(), wiring: w }).findings).toEqual([leftOut('B2 has no relay to Cab 1', ['b2'])]);
+  });
+
+  it('a run through a block wired on the sheet but not on the layout: its length, and so its speed, is unknown', () => {
+    const p = outOnly();
+    // Every block wired the same way round (no positive rail recorded), so the directions agree.
+    p.blocks = p.blocks.map(({ positiveRail: _, ...b }) => b);
+    p.runs[0]!.steps[1] = { ...p.runs[0]!.steps[1]!, blockId: 'b9' };
+    const w = { ...wiring, blocks: [...wiring.blocks, { blockId: 'b9', boardId: 'u', feeds: [{ cabId: 'c1', pin: 'GPIO26' }], polarityPin: null, forwardTowards: [] }] };
+    expect(compile({ plan: p, wiring: w }).findings).toEqual([leftOut('the length of its route is unknown (a block is not on the layout), so its speed is too')]);
+  });
+
+  it('a broken direction is reported before a missing locomotive figure', () => {
+    const p = outOnly();
+    p.blocks = p.blocks.map((b) => (b.id === 'b3' ? { ...b, positiveRail: 'right' } : b));
+    expect(compile({ plan: p, wiring, tops: {} }).findings).toEqual([
+      leftOut('the cab would have to drive B2 and B3 in opposite directions with no reversing section between: the train would short the gap'),
+    ]);
+  });
+
+  it('a run whose cab, driver, supply or one of its locomotives the plan does not have', () => {
+    const missing = leftOut('its locomotives, driver or supply are missing');
+    // A cab on the sheet (c9, fed everywhere) that the plan does not have: no driver.
+    const p = outOnly();
+    p.runs[0] = { ...p.runs[0]!, cabId: 'c9' };
+    const w: WiringSheet = {
+      ...wiring,
+      cabs: [...wiring.cabs, { cabId: 'c9', boardId: 'u', forwardPin: 'GPIO22', reversePin: 'GPIO23', pwmPin: 'GPIO12', bothHighBrakes: false }],
+      blocks: wiring.blocks.map((b, i) => ({ ...b, feeds: [...b.feeds, { cabId: 'c9', pin: `GPIO${[24, 25, 16][i]}` }] })),
+    };
+    expect(compile({ plan: p, wiring: w }).findings).toEqual([missing]);
+    // A driver whose supply is not in the plan.
+    const q = outOnly();
+    q.drivers = q.drivers.map((d) => ({ ...d, supplyId: 'nowhere' }));
+    expect(compile({ plan: q, wiring }).findings).toEqual([missing]);
+    // A second locomotive the plan does not have.
+    const r = outOnly();
+    r.trains = r.trains.map((t) => ({ ...t, locomotiveIds: ['l', 'l9'] }));
+    expect(compile({ plan: r, wiring, tops: { l: 120, l9: 120 } }).findings).toEqual([missing]);
+  });
+
+  it('a locomotive that needs 2.1 V to start gets the PWM dutyFor gives it: (2.1 + 9.9 × 60 ÷ 120) V of 13.5 V × 255 = 133', () => {
+    const p = outOnly();
+    p.locomotives = p.locomotives.map((l) => ({ ...l, startVolts: 2.1 }));
+    expect(compile({ plan: p, wiring }).runs.map((r) => r.pwm)).toEqual([133]);
   });
 
   it('a run whose locomotive top speed, driver or supply is missing', () => {
@@ -333,6 +390,18 @@ describe('compareEntries and travelDirections', () => {
       '5 speed',
     ]);
     expect(compareEntries(list[0]!, list[5]!)).toBe(1);
+    // Both ways round, pair by pair (a sort may compare either way).
+    const order = [list[5]!, list[4]!, list[3]!, list[2]!, list[1]!, list[0]!];
+    order.forEach((x, i) =>
+      order.forEach((y, j) => {
+        expect(Math.sign(compareEntries(x, y)), `${i} vs ${j}`).toBe(Math.sign(i - j));
+      }),
+    );
+  });
+
+  it('cabDirections takes an old sheet\'s directions when it is given them, whatever the ends say', () => {
+    const travel = { fromEnd: [undefined, 'a' as const], toEnd: ['b' as const, undefined] };
+    expect(cabDirections(['b1', 'b2'], travel as never, () => 'left', () => ['off', 'forward'])).toEqual(['off', 'forward']);
   });
 
   it('an old sheet\'s forwardTowards: forward towards a block it names, reverse otherwise; the last block by where the train came from', () => {
