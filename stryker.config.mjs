@@ -47,6 +47,8 @@
 //   reject listening, but rejecting a settled promise does nothing, and the catcher's own error listener
 //   still runs. `session.envelope.mailFrom ? … : ''`: the `''` is unreachable, smtp-server calls onData only
 //   after a MAIL FROM was accepted (RFC 5321 3.3), so mailFrom is always an address object there.
+//   `authOptional: true` → `false`: smtp-server 3 asks for authentication only while it offers AUTH, and
+//   the catcher disables AUTH (disabledCommands), so the option is never read.
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',
