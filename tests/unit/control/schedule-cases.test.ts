@@ -360,6 +360,47 @@ describe('compileSchedule: the settings of the worked example, worked by hand', 
     expect(s.blocks.map((b) => b.reversing)).toEqual([false, true, false]);
   });
 
+  it('a reversing section entered swapped and left normal: b2 and b3 wired + on the right, b1 on the left (NEM 631 2.3)', () => {
+    const loop = outOnly();
+    loop.blocks = loop.blocks.map((b) => (b.id === 'b1' ? b : { ...b, positiveRail: 'right', reversingSection: b.id === 'b2' }));
+    const s = compile({ plan: loop, wiring: withBlock(wiring, 'b2', { polarityPin: 'GPIO19' }) });
+    expect(s.runs[0]!.directions).toEqual(['reverse', 'forward', 'forward']);
+    expect(plain(s.entries, s.originS).filter((e) => e.kind === 'polarity')).toEqual([
+      { at: 17.127, kind: 'polarity', blockId: 'b2', polarity: 'swapped' },
+      { at: 22.427, kind: 'polarity', blockId: 'b2', polarity: 'normal' },
+    ]);
+  });
+
+  it('a reversing section the train starts in and needs no flip in is set normal', () => {
+    const s = compile({ plan: outOnly(), wiring: withBlock(wiring, 'b1', { polarityPin: 'GPIO19' }) });
+    expect(s.findings).toEqual([]);
+    expect(plain(s.entries, s.originS).filter((e) => e.kind === 'polarity')).toEqual([{ at: 9, kind: 'polarity', blockId: 'b1', polarity: 'normal' }]);
+  });
+
+  it('a block the train stands in before departure or after arrival is fed only from a lead second before departure to the release after arrival', () => {
+    const p = outOnly();
+    const steps = p.runs[0]!.steps;
+    p.runs[0]!.steps = [{ ...steps[0]!, enterS: 2 }, steps[1]!, { ...steps[2]!, exitS: 50 }];
+    const s = compile({ plan: p, wiring });
+    expect(plain(s.entries, s.originS).filter((e) => e.kind === 'feed' && (e.blockId === 'b1' || e.blockId === 'b3'))).toEqual([
+      { at: 9, kind: 'feed', blockId: 'b1', cabId: 'c1' },
+      { at: 19.627, kind: 'feed', blockId: 'b1', cabId: null },
+      { at: 25.253, kind: 'feed', blockId: 'b3', cabId: 'c1' },
+      { at: 34.88, kind: 'feed', blockId: 'b3', cabId: null },
+    ]);
+  });
+
+  it('lists only the cabs and blocks of the sheet that the plan has, with the plan\'s names', () => {
+    const w: WiringSheet = {
+      ...wiring,
+      cabs: [...wiring.cabs, { cabId: 'c9', boardId: 'u', forwardPin: 'GPIO22', reversePin: 'GPIO23', pwmPin: 'GPIO12', bothHighBrakes: false }],
+      blocks: [...wiring.blocks, { blockId: 'b9', boardId: 'u', feeds: [], polarityPin: null, forwardTowards: [] }],
+    };
+    const s = compile({ plan: outOnly(), wiring: w });
+    expect(s.cabs).toEqual([{ cabId: 'c1', name: 'Cab 1' }]);
+    expect(s.blocks.map((b) => b.blockId)).toEqual(['b1', 'b2', 'b3']);
+  });
+
   it('a reversing section too short to stop in and reverse is left out, naming the braking time', () => {
     const loop = outOnly();
     loop.blocks = loop.blocks.map((b) => (b.id === 'b3' ? { ...b, positiveRail: 'right' } : b.id === 'b2' ? { ...b, reversingSection: true } : b));
