@@ -21,6 +21,28 @@
 // - lib/control/schedule.ts checkInterlocks(): `if (e.cabId === null) lastRelease.set(…)` → `if (true)`: a
 //   connect's time is then also kept as a "release", but a block can only be connected again after a
 //   release (a second connect takes the two-cabs branch), and that release overwrites it first.
+// - lib/control/wiring.ts: `code: 'custom'` → `""` (as for lib/validations above); claim()'s `if (!board) return`
+//   → `if (false)`: claim is only called for a board the sheet has (a cab or block on an unknown board is
+//   reported and returns before claiming its pins).
+// - lib/control/schedule.ts checkInterlocks(): the `?? []` of an occupancy list → `["Stryker was here"]` (2):
+//   a string has no fromMs/toMs, so both comparisons are false, as for an empty list; `e.kind === 'feed' ||
+//   e.kind === 'polarity'` → `true`: no other kind reaches that branch; a polarity entry's `involved` →
+//   `[current, e.cabId]` and `c !== null` → `true`: pwmAt of a cab with no speed entry (undefined, null) is 0;
+//   stillZero's `e.to === 0` → `true`: stillZero is read only when e.to is 0.
+// - lib/control/schedule.ts pwmAt(): `atMs >= entry.atMs + entry.rampMs` → `>`: at the ramp's end the
+//   interpolation gives from + (to − from) × 1 = to, a whole number; `entry.rampMs === 0` → `false` differs only
+//   before a 0 ms entry's start (0 / 0), and checkInterlocks only asks with the last entry at or before the time.
+// - lib/control/schedule.ts compileSchedule(): the schedule's endMs `+ (e.kind === 'speed' ? e.rampMs : 0)` (3:
+//   `-`, `false`, `""`): a run's last ramp ends at its arrival and its direction off (arrival + dead time) and
+//   last release (arrival + release time) come later, so a ramp never sets the end; `Math.max(stillPwm, …)` →
+//   `Math.min`: dutyFor gives PWM 0 at 0 km/h (lib/planning/duty.ts), so the standing value is 0 either way; in
+//   the direction loop `previous >= 0 && reversing[previous] && previous > 0` (4: either bound → `true`,
+//   `>=`/`>` swapped) and the else's `previous >= 0` → `true`: the first mismatch is never at step 0, nor at
+//   step 1 after a reversing first block, because the cab starts with the first fixed block's direction; the
+//   driver and supply lookups' `?? ''` → `"Stryker was here!"` (2): no driver or supply has that id either;
+//   travelDirections' `?? []` → `["Stryker was here"]`: only a block with that id would be named ahead.
+// - lib/control/firmware-avr.ts schedule.h: `#include <avr/io.h>` → `""`: avr/pgmspace.h, included next,
+//   includes avr/io.h itself (avr-libc).
 // - lib/planning/check.ts, the capped finding list. Messages of findings past a kind's cap are never read
 //   (add() only counts them), so these change nothing: `lists()`'s `kept < maxPerKind` → `<=` or `true`,
 //   and a check's `willList(…) ? message : ''` → `true` or `''` → another string; the sweeps' stops

@@ -47,6 +47,24 @@ describe('control schedule worked example (H0, common-practice ramps, NEM 631 2.
     expect(legacy.runs.map((r) => r.directions[0])).toEqual(['forward', 'reverse']);
   });
 
+  it('a layout without ends is read by forwardTowards only when the sheet names a block ahead somewhere', () => {
+    const old = plan();
+    old.links = old.links.map(({ a, b }) => ({ a, b }));
+    const compile = (w: typeof wiring) => compileSchedule({ plan: old, wiring: w, runSpeedKmh: { out: null, back: null }, locomotiveTopSpeedKmh: { l: 120 } });
+    // Nothing named ahead: the blocks' wiring decides (NEM 631 2.3, + on the left), both runs go.
+    const none = compile({ ...wiring, blocks: wiring.blocks.map((b) => ({ ...b, forwardTowards: [] })) });
+    expect(none.runs.map((r) => r.directions)).toEqual([
+      ['reverse', 'reverse', 'reverse'],
+      ['forward', 'forward', 'forward'],
+    ]);
+    // Only b3 names b2 ahead: the sheet decides, and the back run would drive b3 forward and b2 reverse across a gap.
+    const one = compile({ ...wiring, blocks: wiring.blocks.map((b) => ({ ...b, forwardTowards: b.blockId === 'b3' ? ['b2'] : [] })) });
+    expect(one.runs.map((r) => r.directions)).toEqual([['reverse', 'reverse', 'reverse']]);
+    expect(one.findings.map((f) => f.message)).toEqual([
+      'Goods (07:01 departure) is left out of the control schedule: the cab would have to drive B3 and B2 in opposite directions with no reversing section between: the train would short the gap',
+    ]);
+  });
+
   it('a layout that records any end at all (one end of one link, or of one step of one run) is read by its ends, not by forwardTowards', () => {
     const withoutEnds = () => {
       const p = plan();
