@@ -167,6 +167,13 @@ describe('compileSchedule leaves out, with a finding, every run it cannot drive 
     expect(compile({ plan: r, wiring, tops: { l: 120, l9: 120 } }).findings).toEqual([missing]);
   });
 
+  it('a MOSFET bridge drops 0.5 Ω × the train\'s running current (DOMAIN.md, dual low-voltage MOSFET class): 0.15 V at 0.3 A, so 6 V of 14.85 V × 255 = 103', () => {
+    const p = outOnly();
+    const line = { fixedVolts: 0, ohms: 0.5 };
+    p.drivers = p.drivers.map((d) => ({ ...d, dropVolts: undefined, drop: { min: line, max: line } }));
+    expect(compile({ plan: p, wiring }).runs.map((r) => r.pwm)).toEqual([103]);
+  });
+
   it('a locomotive that needs 2.1 V to start gets the PWM dutyFor gives it: (2.1 + 9.9 × 60 ÷ 120) V of 13.5 V × 255 = 133', () => {
     const p = outOnly();
     p.locomotives = p.locomotives.map((l) => ({ ...l, startVolts: 2.1 }));
