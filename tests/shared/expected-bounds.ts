@@ -56,3 +56,21 @@ export function withinBounds(input: Record<string, unknown>, bounds: Bound[]): b
     return Number.isFinite(n) && (b.gt ? n > b.min : n >= b.min) && n <= b.max && (!b.int || Number.isInteger(n));
   });
 }
+
+/** Counts and lengths of a run and of the builder's request bodies: the most (and least) each takes. */
+export const RUN_LIMITS = {
+  /** An id's characters: database ids (UUIDs, 36) fit with room (common practice). */
+  idChars: { min: 1, max: 100, source: 'common practice: a UUID is 36 characters' },
+  /** A note's characters: a line or two on a timetable (common practice). */
+  noteChars: { max: 500, source: 'common practice: a timetable note is a line or two' },
+  /** Blocks a run passes through: the plan interchange's own limit per run. */
+  steps: { min: 1, max: 500, source: 'common practice: a run passes at least one block; a long run on a large layout passes a few hundred' },
+  /** Blocks picked to time a route: first and last at least. */
+  waypoints: { min: 2, max: 100, source: 'common practice: a route has a first and a last block' },
+  /** Runs moved by one retime request. */
+  moves: { min: 1, max: 5000, source: 'common practice: a session holds a few thousand runs at most' },
+  /** How far one move shifts a run, in real seconds: a week either way. */
+  moveS: { max: 7 * 86_400, source: 'common practice: a session lasts a day; a week leaves room' },
+  /** The edit number a caller saw: the first stored edit is version 1. */
+  version: { min: 1, source: 'common practice: optimistic-lock versions count from 1' },
+} as const;
