@@ -40,7 +40,11 @@
 //   `>=`/`>` swapped) and the else's `previous >= 0` → `true`: the first mismatch is never at step 0, nor at
 //   step 1 after a reversing first block, because the cab starts with the first fixed block's direction; the
 //   driver and supply lookups' `?? ''` → `"Stryker was here!"` (2): no driver or supply has that id either;
-//   travelDirections' `?? []` → `["Stryker was here"]`: only a block with that id would be named ahead.
+//   travelDirections' `?? []` → `["Stryker was here"]`: only a block with that id would be named ahead; the
+//   cab and block window lists' `?? []` → `["Stryker was here"]` (4): a string in a window list has no
+//   fromS/heldFrom, so it never clashes; the cab window's `run.departS - timing.leadS` → `+`: the first feed
+//   window opens at departure − lead and the cab window is widened to it; `still.ok ? '' : still.reason` →
+//   `"Stryker was here!"`: dutyFor at 0 km/h fails only on inputs that fail at the cruise too.
 // - lib/control/firmware-avr.ts schedule.h: `#include <avr/io.h>` → `""`: avr/pgmspace.h, included next,
 //   includes avr/io.h itself (avr-libc).
 // - lib/planning/check.ts, the capped finding list. Messages of findings past a kind's cap are never read
