@@ -113,4 +113,38 @@ describe('retime moves and the session window', () => {
     const order = moves.map((m) => m.oldDepartS);
     expect(order).toEqual([...order].sort((x, y) => x - y));
   });
+
+  it('answers a stale move with the run as it is now, and several stale moves with each run (409)', async () => {
+    const { s, sid } = setup();
+    const before = await snapshot(sid);
+    const [a, b] = s.runIds.map((id) => before.runs.find((r) => r.id === id)!);
+    const one = await post(sid, [{ runId: a!.id, version: a!.version + 5, delayS: 10 }]);
+    expect(one.status).toBe(409);
+    expect(((await one.json()) as { current: { id: string; version: number } }).current).toMatchObject({ id: a!.id, version: a!.version });
+    const two = await post(sid, [
+      { runId: a!.id, version: a!.version + 5, delayS: 10 },
+      { runId: b!.id, version: b!.version + 5, delayS: 10 },
+    ]);
+    expect(two.status).toBe(409);
+    const current = ((await two.json()) as { current: { id: string }[] }).current;
+    expect(current.map((r) => r.id).sort()).toEqual([a!.id, b!.id].sort());
+    expect((await snapshot(sid)).runs).toEqual(before.runs);
+  });
+
+  it('answers a move of a run not in the session with 404, naming it when there are several moves', async () => {
+    const { s, sid } = setup();
+    const before = await snapshot(sid);
+    const a = before.runs.find((r) => r.id === s.runIds[0])!;
+    const alone = await post(sid, [{ runId: 'no-such-run', version: 1, delayS: 10 }]);
+    expect(alone.status).toBe(404);
+    expect(await alone.json()).toMatchObject({ error: 'That run was not found.' });
+    const among = await post(sid, [
+      { runId: a.id, version: a.version, delayS: 10 },
+      { runId: 'no-such-run', version: 1, delayS: 10 },
+      { runId: 'nor-this-one', version: 1, delayS: 10 },
+    ]);
+    expect(among.status).toBe(404);
+    expect(await among.json()).toMatchObject({ error: 'Run no-such-run was not found.' });
+    expect((await snapshot(sid)).runs).toEqual(before.runs);
+  });
 });
