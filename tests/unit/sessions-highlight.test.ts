@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest';
+import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { FINDING_KINDS, type Finding, type FindingKind } from '@/lib/planning';
 import { clashingRuns, FINDING_LABELS, highlightOf, TIMING_KINDS } from '@/lib/sessions/highlight';
 
@@ -77,12 +77,10 @@ describe('highlightOf: each kind marks what its ids name', () => {
     });
   }
 
-  it('missing ids mark nothing instead of an empty name', () => {
+  it('missing ids mark nothing (no undefined or empty name in any set)', () => {
     for (const [kind] of cases) {
       const h = marks(finding(kind, []));
-      expect(h.blocks, kind).toEqual([]);
-      expect(h.cabs.filter((c) => c === '' || c === 'undefined'), kind).toEqual([]);
-      expect(h.runs.filter((r) => r === '' || r === 'undefined'), kind).toEqual([]);
+      expect({ runs: h.runs, blocks: h.blocks, cabs: h.cabs }, kind).toEqual({ runs: [], blocks: [], cabs: [] });
     }
     // A two-run finding with one run named marks that one.
     expect(marks(finding('block-overlap', ['B1', 'r1'])).runs).toEqual(['r1']);
@@ -131,5 +129,37 @@ describe('clashingRuns and TIMING_KINDS', () => {
   it('a retime can clear block clashes and double bookings, not a standing train, power or wiring', () => {
     expect([...TIMING_KINDS].sort()).toEqual(['block-overlap', 'cab-double-booked', 'operator-double-booked', 'train-double-booked']);
     for (const kind of ['block-occupied', 'channel-overload', 'joint-wiring', 'route-gap'] as const) expect(TIMING_KINDS.has(kind)).toBe(false);
+  });
+});
+
+// The labels and the retime kinds are built when the module is imported; Stryker's Vitest runner switches
+// a mutant on in a beforeAll hook, after this file's own imports, so these checks load a fresh copy.
+describe('FINDING_LABELS and TIMING_KINDS as loaded', () => {
+  let fresh: typeof import('@/lib/sessions/highlight');
+  beforeEach(async () => {
+    vi.resetModules();
+    fresh = await import('@/lib/sessions/highlight');
+  });
+
+  it('every kind has its own label: a short phrase starting with a capital, none shared (common practice for list headings)', () => {
+    const labels = FINDING_KINDS.map((kind) => fresh.FINDING_LABELS[kind]);
+    for (const [i, label] of labels.entries()) expect(label, FINDING_KINDS[i]).toMatch(/^[A-Z][a-z-]*( [A-Za-z-]+){1,6}$/);
+    expect(new Set(labels).size).toBe(FINDING_KINDS.length);
+  });
+
+  it('a label names what its kind is about', () => {
+    const about: Record<FindingKind, RegExp> = {
+      'block-overlap': /block/i, 'block-occupied': /block/i, 'cab-double-booked': /cab/i, 'operator-double-booked': /operator/i,
+      'train-double-booked': /train/i, 'locomotive-in-two-trains': /locomotive/i, 'train-continuity': /train/i, 'route-gap': /route/i,
+      'step-gap': /steps/i, 'train-too-long': /long/i, 'route-reversal': /revers/i, 'reversing-loop': /loop/i, 'joint-wiring': /joint/i,
+      'joint-short': /short/i, 'reversing-section-short': /reversing section/i, 'channel-overload': /channel/i,
+      'channel-peak-overload': /surge/i, 'driver-overload': /driver/i, 'driver-heat': /hot/i, 'supply-overload': /supply/i,
+      'supply-derate': /supply/i, 'track-voltage-high': /voltage high/i, 'track-voltage-low': /voltage low/i, 'speed-not-reachable': /speed/i,
+    };
+    for (const kind of FINDING_KINDS) expect(fresh.FINDING_LABELS[kind], kind).toMatch(about[kind]);
+  });
+
+  it('the retime kinds are the four clashes of timing', () => {
+    expect([...fresh.TIMING_KINDS].sort()).toEqual(['block-overlap', 'cab-double-booked', 'operator-double-booked', 'train-double-booked']);
   });
 });
