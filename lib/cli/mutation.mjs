@@ -1,7 +1,8 @@
 // npm run test:mutation [-- target …] [--unit] [--force] [--concurrency 1] [--table] — Stryker over lib/, one folder at a time
 // (stryker.config.mjs), then the score of every folder that has a report. A target is a folder (a
 // sub-folder of lib/, or "root" for the files directly in lib/) or one file (lib/calendar/ics.ts), for
-// a quick look while writing its tests. Each target keeps its own incremental file in reports/mutation/
+// a quick look while writing its tests, or files of one folder joined by + (lib/planning/track.ts+route.ts:
+// the names after the first are in its folder), for a folder whose whole run outlasts an afternoon here. Each target keeps its own incremental file in reports/mutation/
 // (git-ignored: it holds this machine's results, and a clean clone starts over), so a second run
 // re-tests only mutants whose code or tests changed.
 import fs from 'node:fs';
@@ -42,10 +43,17 @@ const asked = args.filter((a, i) => !a.startsWith('-') && args[i - 1] !== '--con
 const fileTarget = (t) => /^lib\/[a-z-]+\/[a-z0-9-]+\.ts$/.test(t) && fs.existsSync(t);
 // A group `runs+sessions+live`: one Stryker run over several folders that are not unit-only, sharing the
 // first (coverage) run of the whole suite, which takes minutes here; the table gives each folder its row.
+// Files of one folder in one run: lib/planning/track.ts+route.ts+voltage.ts.
+const filesOf = (t) => {
+  const [first, ...rest] = t.split('+');
+  if (!fileTarget(first)) return undefined;
+  const files = [first, ...rest.map((n) => path.posix.join(path.posix.dirname(first), n))];
+  return files.every(fileTarget) && new Set(files).size === files.length ? files : undefined;
+};
 const groupTarget = (t) => t.includes('+') && t.split('+').every((f) => all.includes(f) && !UNIT_ONLY.has(f));
-const unknown = asked.filter((t) => !all.includes(t) && !fileTarget(t) && !groupTarget(t));
+const unknown = asked.filter((t) => !all.includes(t) && !filesOf(t) && !groupTarget(t));
 if (unknown.length) {
-  console.error(`Unknown target ${unknown.join(', ')}; a file lib/<folder>/<name>.ts, folders joined by + (not ${[...UNIT_ONLY].join(', ')}) or one of: ${all.join(', ')}`);
+  console.error(`Unknown target ${unknown.join(', ')}; a file lib/<folder>/<name>.ts (more of its folder after +: lib/<folder>/a.ts+b.ts), folders joined by + (not ${[...UNIT_ONLY].join(', ')}) or one of: ${all.join(', ')}`);
   process.exit(2);
 }
 // The engine last: it is the largest and is often the one being changed.
@@ -54,12 +62,14 @@ const targets = args.includes('--table') ? [] : asked.length ? asked : [...all.f
 fs.mkdirSync(OUT, { recursive: true });
 
 for (const target of targets) {
-  const file = fileTarget(target);
+  const files = filesOf(target);
+  const file = Boolean(files);
   const folder = file ? target.split('/')[1] : target;
-  const name = (file ? target.slice('lib/'.length, -'.ts'.length).replace('/', '--') : target) + (unitFlag && !UNIT_ONLY.has(folder) ? '.unit' : '');
+  // lib/planning/track.ts → planning--track; lib/planning/track.ts+route.ts → planning--track+route.
+  const name = (file ? `${folder}--${files.map((f) => path.posix.basename(f, '.ts')).join('+')}` : target) + (unitFlag && !UNIT_ONLY.has(folder) ? '.unit' : '');
   const globs = (f) => (f === 'root' ? ['lib/*.ts', '!lib/*.d.ts'] : [`lib/${f}/**/*.ts`, '!lib/**/*.d.ts']);
-  const mutate = file ? [target] : target.split('+').flatMap(globs);
-  console.log(`\n== ${file ? target : target.split('+').map((f) => `lib/${f === 'root' ? '' : `${f}/`}`).join(' ')} ==`);
+  const mutate = file ? files : target.split('+').flatMap(globs);
+  console.log(`\n== ${file ? files.join(' ') : target.split('+').map((f) => `lib/${f === 'root' ? '' : `${f}/`}`).join(' ')} ==`);
   // Read by vitest.config.mts.
   if (unitFlag || UNIT_ONLY.has(folder)) process.env.FISHPLATE_MUTATION_UNIT_ONLY = '1';
   else delete process.env.FISHPLATE_MUTATION_UNIT_ONLY;
@@ -103,6 +113,18 @@ const folderOf = (file) => (path.dirname(file) === 'lib' ? 'root' : path.dirname
 const rows = reports.flatMap((name) => {
   const base = name.split('.')[0];
   if (!base.includes('+')) return [row(label(name), written(name), tally([name]))];
+  if (base.includes('--')) {
+    // Files of one folder run together: a row per file.
+    const report = JSON.parse(fs.readFileSync(path.join(OUT, `${name}.json`), 'utf8'));
+    const [folder, names] = base.split('--');
+    return names.split('+').map((n) => {
+      const count = { Killed: 0, Timeout: 0, Survived: 0, NoCoverage: 0 };
+      for (const [file, f] of Object.entries(report.files))
+        if (path.relative(process.cwd(), path.resolve(file)) === `lib/${folder}/${n}.ts`) for (const m of f.mutants) if (m.status in count) count[m.status] += 1;
+      const others = names.split('+').filter((o) => o !== n).map((o) => `${o}.ts`);
+      return row(`\`lib/${folder}/${n}.ts\` (run with ${others.join(', ')})${name.includes('.unit') ? ' (unit tests only)' : ''}`, written(name), count);
+    });
+  }
   // A group's report: a row per folder, counted from the report's files in that folder.
   const report = JSON.parse(fs.readFileSync(path.join(OUT, `${name}.json`), 'utf8'));
   return base.split('+').map((folder) => {
@@ -128,7 +150,7 @@ for (const name of reports) {
 for (const folder of all.filter((f) => f !== 'root')) {
   const files = fs.readdirSync(`lib/${folder}`).filter((f) => f.endsWith('.ts') && !f.endsWith('.d.ts')).map((f) => `lib/${folder}/${f}`);
   // A file that a whole-folder report leaves out has no mutants (an index of re-exports).
-  const whole = reports.some((n) => !n.includes('.unit') && n.split('.')[0].split('+').includes(folder));
+  const whole = reports.some((n) => !n.includes('.unit') && !n.includes('--') && n.split('.')[0].split('+').includes(folder));
   const found = files.map((f) => newest.get(f) ?? (whole ? { when: '', mutants: [] } : undefined));
   const fileReports = reports.some((n) => !n.includes('.unit') && n.startsWith(`${folder}--`));
   if (!files.length || found.some((x) => !x) || !fileReports) continue;
