@@ -63,6 +63,17 @@
 //   checkPlan takes accepted plans only): a run's owner `runTrain[r] >= 0 ? … : trainCount + r` → `true`,
 //   `if (t < 0) continue`, `if (l === undefined) continue`, findRouteGaps' `a === undefined || b ===
 //   undefined` and `a >= 0 && b >= 0`, findTooLong's `train === undefined`, `b >= 0` and `block === undefined`.
+// - lib/planning/check.ts, more of the same kinds (from the survivors of the run of 3 December, 14:28): the
+//   loops' bounds `<` → `<=` at lines 197, 250, 267, 328, 449, 502, 537 and 554 only visit one index past
+//   the end, where the typed arrays read undefined and the visit does nothing (Stryker saw no test fail,
+//   and none can: no value is written there); `room()`'s `-` → `+` (kept is 0 whenever room is asked,
+//   before the sweep lists anything of that kind) and `lists()` → `{}` (read as "lists", and a message
+//   past the cap is never read, above); the `to` of a one-step stay (line 239) and of a stand (248) are
+//   never read; `x >= sessionEnd` (245, the same value kept); the tie sort's start `offsets[t] − 1`
+//   (538, a pass that moves nothing); the sweeps' `Math.min(room, pairs)` → `Math.max`, `++room` and
+//   `return true` (373, 383, 388, 419, 475: the same findings, only the cost the caps exist to bound);
+//   findTooLong's pre-filter `shorter()` (615–616: the per-stand length test decides); countAll's
+//   'warnings' string and the unknown-train owner (86, 199: no coverage, an accepted plan has neither).
 // - lib/auth/pages.ts memberForPage(): `error.status === 404` → `true` in the last of its three checks, and
 //   lib/auth/sessions.ts requireSession(): `error instanceof AppError ? error.status : undefined` → `true ? …`.
 //   requireMember's refusals are AppErrors with 401, 403 or 404 and nothing else (lib/auth/index.ts), so the
