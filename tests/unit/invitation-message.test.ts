@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { RunAssignment } from '@/lib/invitations/assignments';
+import { sampleRun } from '../shared/run-assignment';
 import { assignmentSummary, buildInvitationBody, sessionSpan, subjectOf, type InvitationContent } from '@/lib/invitations/message';
 
 // The e-mail an invitee reads. Times: Europe/Berlin is UTC+1 in December (CET), so 17:00Z is 18:00
@@ -16,27 +16,7 @@ const session = {
   sequence: 0,
 };
 
-const run: RunAssignment = {
-  runId: 'r1',
-  operatorId: 'u-ann',
-  operatorName: 'Ann',
-  trainName: 'Goods',
-  cabName: 'Cab 1',
-  route: ['Yard', 'Main', 'Halt'],
-  departS: 600,
-  arriveS: 720,
-  departAt: new Date('2026-12-12T17:10:00Z'),
-  arriveAt: new Date('2026-12-12T17:12:00Z'),
-  realDepart: '18:10',
-  realArrive: '18:12',
-  fastDepart: '06:40',
-  fastArrive: '06:48',
-  standBeforeS: 60,
-  standAfterS: 90,
-  before: { operatorId: 'u-bob', operatorName: 'Bob', trainName: 'Local', fastDepart: '06:10' } as RunAssignment['before'],
-  after: { operatorId: 'u-ann', operatorName: 'Ann', trainName: 'Express', fastDepart: '07:20' } as RunAssignment['after'],
-  note: '',
-};
+const run = sampleRun;
 
 // CLDR 42 and later write "Sat, 12 Dec 2026" in en-GB, earlier ICU data "Sat 12 Dec 2026"; either is right.
 const norm = (text: string) => text.replace(/\b(Mon|Tue|Wed|Thu|Fri|Sat|Sun), /g, '$1 ');
