@@ -1,5 +1,5 @@
 import crypto from 'node:crypto';
-import { and, eq } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { replyToInvitation } from '@/app/(app)/my-runs/actions';
 import { replyByToken } from '@/app/(public)/reply/actions';
@@ -8,8 +8,8 @@ import { getDb } from '@/db';
 import { listSessionInvitations } from '@/db/queries/invitation-records';
 import * as t from '@/db/schema';
 import { resetEnvCache } from '@/lib/env';
-import { inspectReplyToken } from '@/lib/invitations/reply';
-import { signReplyToken, verifyReplyToken } from '@/lib/invitations/reply-token';
+import { inspectReplyToken, isLate, recordOwnReply, recordReply } from '@/lib/invitations/reply';
+import { replyExpiry, signReplyToken, verifyReplyToken } from '@/lib/invitations/reply-token';
 import { resetRateLimits } from '@/lib/rate-limit';
 import { makeSessionWorld } from './authz/invitations';
 import { signInAs } from './caller';
@@ -150,5 +150,73 @@ describe('replying with a link, without signing in', () => {
     expect(await replyToInvitation(invitation.id, null, formData({ reply: 'declined' }))).toMatchObject({ ok: false, status: 404 });
     signInAs(w.operator);
     expect(await replyToInvitation(invitation.id, null, formData({ reply: 'maybe' }))).toMatchObject({ ok: false, status: 400 });
+  });
+});
+
+describe('the reply service, as it answers and records', () => {
+  const REFUSED_LINK = 'This reply link is not valid. Use the buttons in the latest invitation e-mail.';
+  const auditOf = (invitationId: string) =>
+    getDb().select().from(t.auditLog).where(and(eq(t.auditLog.entity, 'invitation'), eq(t.auditLog.entityId, invitationId))).orderBy(sql`rowid`).all();
+
+  it('a reply is late only strictly after the deadline, and only when both times are known', () => {
+    const deadline = new Date('2026-12-10T18:00:00Z');
+    expect(isLate(deadline, new Date(deadline.getTime() + 1))).toBe(true);
+    expect(isLate(deadline, new Date(deadline.getTime()))).toBe(false);
+    expect(isLate(deadline, new Date(deadline.getTime() - 1))).toBe(false);
+    expect(isLate(deadline, null)).toBe(false);
+    expect(isLate(null, new Date(deadline.getTime() + 1))).toBe(false);
+  });
+
+  it('opening a link says exactly what is wrong with it, or what it points at', () => {
+    const { w, session, invitation, tokenFor } = setup();
+    expect(inspectReplyToken('x'.repeat(40))).toEqual({ ok: false, error: REFUSED_LINK });
+    expect(inspectReplyToken(tokenFor(undefined, { expiresAt: Date.now() - 1000 }))).toEqual({ ok: false, error: 'This reply link has expired.' });
+    expect(inspectReplyToken(tokenFor(undefined, { railwayId: w.otherRailway.id }))).toEqual({ ok: false, error: REFUSED_LINK });
+    expect(inspectReplyToken(tokenFor('no-such-invitation'))).toEqual({ ok: false, error: REFUSED_LINK });
+    expect(inspectReplyToken(tokenFor(undefined, { nonce: 1 }))).toEqual({
+      ok: false,
+      error: 'This reply link was already used. Your reply is recorded; sign in to change it, or use the buttons shown after your last reply.',
+      current: 'needs-action',
+    });
+    expect(inspectReplyToken(tokenFor())).toMatchObject({
+      ok: true,
+      found: { invitation: { id: invitation.id, replyNonce: 0 }, session: { id: session.id }, railwayName: 'Test railway', inviteeName: w.operator.name },
+    });
+  });
+
+  it('a reply by link: the result, a fresh token for the next change, and the audit entry', () => {
+    const { w, session, invitation, tokenFor } = setup();
+    const now = new Date();
+    const result = recordReply(tokenFor(), 'tentative', now);
+    expect(result).toEqual({ reply: 'tentative', sessionTitle: 'Test running evening', railwayName: 'Test railway', joined: false, nextToken: expect.any(String), late: false });
+    expect(verifyReplyToken(result.nextToken, now.getTime())).toEqual({
+      ok: true,
+      claim: { railwayId: w.railway.id, invitationId: invitation.id, nonce: 1, expiresAt: replyExpiry(session.endsAt, now.getTime()) },
+    });
+    expect(listSessionInvitations(session.id)[0]!.comment).toBe('');
+    recordReply(result.nextToken, 'accepted', now, 'Bringing a cab');
+    expect(auditOf(invitation.id).map((a) => [a.railwayId, a.userId, a.action, a.detail])).toEqual([
+      [w.railway.id, w.operator.id, 'reply', { reply: 'tentative', via: 'link', joined: false, late: false, comment: false }],
+      [w.railway.id, w.operator.id, 'reply', { reply: 'accepted', via: 'link', joined: false, late: false, comment: true }],
+    ]);
+    getDb().update(t.sessions).set({ status: 'cancelled' }).where(eq(t.sessions.id, session.id)).run();
+    expect(() => recordReply(tokenFor(undefined, { nonce: 2 }), 'declined', now)).toThrow(
+      expect.objectContaining({ status: 400, message: 'This session is not open for replies (it was cancelled or withdrawn).' }),
+    );
+  });
+
+  it('a reply on My runs: the result, the audit entry, and refusals', () => {
+    const { w, session, invitation } = setup();
+    expect(recordOwnReply({ userId: w.operator.id, invitationId: invitation.id, reply: 'declined' })).toEqual({ reply: 'declined' });
+    expect(auditOf(invitation.id).map((a) => [a.railwayId, a.userId, a.action, a.detail])).toEqual([
+      [w.railway.id, w.operator.id, 'reply', { reply: 'declined', via: 'my-runs' }],
+    ]);
+    expect(() => recordOwnReply({ userId: w.planner.id, invitationId: invitation.id, reply: 'accepted' })).toThrow(
+      expect.objectContaining({ status: 404, message: 'That invitation was not found.' }),
+    );
+    getDb().update(t.sessions).set({ status: 'cancelled' }).where(eq(t.sessions.id, session.id)).run();
+    expect(() => recordOwnReply({ userId: w.operator.id, invitationId: invitation.id, reply: 'accepted' })).toThrow(
+      expect.objectContaining({ status: 400, message: 'This session is not open for replies.' }),
+    );
   });
 });
