@@ -74,6 +74,24 @@
 //   `return true` (373, 383, 388, 419, 475: the same findings, only the cost the caps exist to bound);
 //   findTooLong's pre-filter `shorter()` (615–616: the per-stand length test decides); countAll's
 //   'warnings' string and the unknown-train owner (86, 199: no coverage, an accepted plan has neither).
+// - lib/planning/propagate.ts and retime.ts, the run order's tie-break `x.id < y.id ? -1 : x.id > y.id ? 1 : 0`:
+//   `<` → `<=` and the inner test → `true`/`>=` (run ids are unique), and → `false`/`<=` (a 0 for a later id):
+//   V8's Array.prototype.sort only asks whether a comparator's answer is below 0, so 0 and 1 sort alike.
+// - lib/planning/propagate.ts, more of the same kinds: `new Array(n)` → `new Array()` (the loop writes every
+//   index); the operator lookup's `operatorId === null ? undefined :` → `false` and `operatorId !== null` →
+//   `true` when recording it (a run without an operator then meets only another null, which is never looked up);
+//   `nowS > arriveS` → `>=` and `extra <= 0` → `< 0` (the same value kept: now, or steps shifted by 0);
+//   `nowS !== null && nowS > arriveS` with the first → `true` (a departed run's arrival is at least its
+//   planned one, and null compares as 0 only against an arrival before the session's start: a run that
+//   departed before it but is still running has arriveS ≥ its departure + duration; tested below 0 too);
+//   the last `if (actual.arriveS === undefined) arriveS = Math.max(…)` → `false` (every branch that gets
+//   there already keeps the arrival at or after the planned one).
+// - lib/planning/voltage.ts: the guards for references an accepted plan always resolves, as in check.ts
+//   (`cab < 0 || driver === undefined || supply === undefined` and its 6 parts, `train === undefined`,
+//   `l === undefined`, the first-of-duplicate-ids `has()` tests); the key `cab × n + l` → `cab × n − l` (still
+//   one key per pair, as 0 ≤ l < n); `highest > entry.track` → `>=` (equal voltages at one driver come from
+//   equal currents, so the same values); plannedSpeedKmh's `discriminant < 0` → `<=` (at 0 both roots give
+//   2D/T: T/2k with T² = 4kD); a message past its kind's cap, `''` → another string (as in check.ts).
 // - lib/auth/pages.ts memberForPage(): `error.status === 404` → `true` in the last of its three checks, and
 //   lib/auth/sessions.ts requireSession(): `error instanceof AppError ? error.status : undefined` → `true ? …`.
 //   requireMember's refusals are AppErrors with 401, 403 or 404 and nothing else (lib/auth/index.ts), so the

@@ -75,8 +75,6 @@ export function plannedSpeedKmh(plan: Plan, run: Plan['runs'][number], blockLeng
  *   greatest drop at the train's running current). Only for locomotives with a top speed recorded.
  */
 export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: FindingSink, names: PlanNames = planNames(plan)): void {
-  const gauge = gaugeForScale(plan.scale);
-  const nominal = gauge === null ? null : nominalTrackVolts(gauge);
   const locomotiveOf = new Map<string, number>();
   plan.locomotives.forEach((locomotive, i) => {
     if (!locomotiveOf.has(locomotive.id)) locomotiveOf.set(locomotive.id, i);
@@ -148,7 +146,9 @@ export function findVoltageIssues(plan: Plan, index: PlanIndex, findings: Findin
     });
   }
 
-  if (nominal === null || gauge === null) return;
+  const gauge = gaugeForScale(plan.scale);
+  if (gauge === null) return;
+  const nominal = nominalTrackVolts(gauge);
   for (const [cabIndex, load] of cabLoad) {
     const cab = plan.cabs[cabIndex]!;
     const driver = plan.drivers[index.cabDriver[cabIndex]!]!;
@@ -189,7 +189,9 @@ function reachFinding(
     // A speed that rounds to the top speed is the top speed (times are stored to the millisecond).
     targetSpeedKmh: Math.abs(speedKmh - topSpeedKmh) < 1e-6 * topSpeedKmh ? topSpeedKmh : speedKmh,
   });
-  if (result.ok || result.code === 'bad-input') return;
+  // No 'bad-input' escape: every figure here comes from an accepted plan (a top speed recorded, a start
+  // voltage below the rated one, a run that moves), so any refusal is a finding worth seeing.
+  if (result.ok) return;
   findings.push({
     kind: 'speed-not-reachable',
     severity: 'warning',

@@ -199,3 +199,116 @@ describe('the engine’s retime restricted to the future', () => {
     );
   });
 });
+
+describe('delay propagation, edges', () => {
+  // b1 then b2; the tail clears b1 at 250 and the head enters b2 at 240 (a 160 s and a 160 s block).
+  const twoBlocks = () => {
+    const p = plan([{ id: 'A', train: 'T1', cab: 'C1', op: null, dep: 100, arr: 400 }]);
+    p.runs[0]!.steps = [
+      { blockId: 'b1', enterS: 100, exitS: 250 },
+      { blockId: 'b2', enterS: 240, exitS: 400 },
+    ];
+    return p;
+  };
+
+  it('runs leaving at the same planned time go in run-id order, whatever the order of the list (common practice: a stable tie-break)', () => {
+    // A (T1, 100–150) and B (T2, 100–200) share cab C1. By id A goes first; it left at 130, so it
+    // arrives 130 + 50 = 180, and B may leave at 180 + min(0, 100 − 150) = 130.
+    const rows = [
+      { id: 'B', train: 'T2', cab: 'C1', op: null, dep: 100, arr: 200 },
+      { id: 'A', train: 'T1', cab: 'C1', op: null, dep: 100, arr: 150 },
+    ];
+    for (const list of [rows, [...rows].reverse()]) {
+      const result = byId(propagateDelays({ plan: plan(list), actuals: new Map([['A', { departS: 130 }]]), nowS: null, standS: 0 }));
+      expect(result.get('B')).toMatchObject({ departS: 130, arriveS: 230, heldBy: 'A', departDelayS: 30 });
+    }
+  });
+
+  it('a predecessor that arrives exactly the stand time before the departure does not hold the run', () => {
+    const base = plan([
+      { id: 'A', train: 'T1', cab: 'C1', op: 'O1', dep: 100, arr: 400 },
+      { id: 'B', train: 'T1', cab: 'C2', op: 'O2', dep: 460, arr: 700 },
+    ]);
+    // 400 + min(60, 460 − 400) = 460: B leaves on time and nothing holds it.
+    const result = byId(propagateDelays({ plan: base, actuals: new Map(), nowS: null, standS: 60 }));
+    expect(result.get('B')).toMatchObject({ departS: 460, heldBy: null, status: 'waiting' });
+  });
+
+  it('a run is due from the second of its planned departure; held to the second the clock reaches, it is still held', () => {
+    const base = plan([
+      { id: 'A', train: 'T1', cab: 'C1', op: 'O1', dep: 100, arr: 400 },
+      { id: 'B', train: 'T1', cab: 'C2', op: 'O2', dep: 460, arr: 700 },
+    ]);
+    expect(byId(propagateDelays({ plan: base, actuals: new Map(), nowS: 100, standS: 60 })).get('A')).toMatchObject({ departS: 100, status: 'due' });
+    expect(byId(propagateDelays({ plan: base, actuals: new Map(), nowS: 99, standS: 60 })).get('A')).toMatchObject({ departS: 100, status: 'waiting' });
+    // A ran 220–520: B may leave at 520 + 60 = 580, and the clock says 580: A still holds it.
+    const held = byId(propagateDelays({ plan: base, actuals: new Map([['A', { departS: 220, arriveS: 520 }]]), nowS: 580, standS: 60 }));
+    expect(held.get('B')).toMatchObject({ departS: 580, heldBy: 'A', status: 'due' });
+    // One second later the clock, not A, sets it.
+    const late = byId(propagateDelays({ plan: base, actuals: new Map([['A', { departS: 220, arriveS: 520 }]]), nowS: 581, standS: 60 }));
+    expect(late.get('B')).toMatchObject({ departS: 581, heldBy: null });
+  });
+
+  it('before the clock starts nothing is overdue, even a run planned before the session’s start (times may be negative)', () => {
+    const early = plan([{ id: 'N', train: 'T1', cab: 'C1', op: null, dep: -120, arr: -30 }]);
+    expect(byId(propagateDelays({ plan: early, actuals: new Map(), nowS: null, standS: 0 })).get('N')).toEqual({
+      runId: 'N',
+      plannedDepartS: -120,
+      plannedArriveS: -30,
+      departS: -120,
+      arriveS: -30,
+      departDelayS: 0,
+      arriveDelayS: 0,
+      status: 'waiting',
+      heldBy: null,
+    });
+    // Reported away on time: arrives −120 + 90 = −30, not at a clock that has not started.
+    const away = byId(propagateDelays({ plan: early, actuals: new Map([['N', { departS: -120 }]]), nowS: null, standS: 0 }));
+    expect(away.get('N')).toMatchObject({ arriveS: -30, status: 'running' });
+    // Standing since −100 with no clock: still −30 (what was left, 70 s, counts only from a known now).
+    const standing = byId(propagateDelays({ plan: early, actuals: new Map([['N', { departS: -120, stops: [{ fromS: -100, toS: null }] }]]), nowS: null, standS: 0 }));
+    expect(standing.get('N')).toMatchObject({ arriveS: -30, status: 'stopped' });
+  });
+
+  it('a train still running past its predicted arrival arrives now at the earliest; its last block is held the longer', () => {
+    const { runs, predicted } = propagateDelays({ plan: twoBlocks(), actuals: new Map([['A', { departS: 100 }]]), nowS: 450, standS: 0 });
+    expect(runs[0]).toMatchObject({ arriveS: 450, arriveDelayS: 50, status: 'running' });
+    // No stop reported: the 50 s go to the last step (b2 exits 400 + 50), b1 is as planned.
+    expect(predicted.runs[0]!.steps).toEqual([
+      { blockId: 'b1', enterS: 100, exitS: 250 },
+      { blockId: 'b2', enterS: 240, exitS: 450 },
+    ]);
+  });
+
+  it('a stop in the second block stretches that block only', () => {
+    const { predicted } = propagateDelays({ plan: twoBlocks(), actuals: new Map([['A', { departS: 100, stops: [{ fromS: 300, toS: 330 }] }]]), nowS: 340, standS: 0 });
+    // Stood 30 s from 300, after b1's exit (250): arrives 430, b2 exits 430, b1 unchanged.
+    expect(predicted.runs[0]).toMatchObject({ departS: 100, arriveS: 430 });
+    expect(predicted.runs[0]!.steps).toEqual([
+      { blockId: 'b1', enterS: 100, exitS: 250 },
+      { blockId: 'b2', enterS: 240, exitS: 430 },
+    ]);
+  });
+
+  it('a stop at the very second the tail would clear b1 keeps b1 held (common practice: a block is free once the tail has passed its end)', () => {
+    const { predicted } = propagateDelays({ plan: twoBlocks(), actuals: new Map([['A', { departS: 100, stops: [{ fromS: 250, toS: 280 }] }]]), nowS: 290, standS: 0 });
+    // Stood 30 s: b1 exits 250 + 30 = 280; b2 moves on by 30 (270–430).
+    expect(predicted.runs[0]!.steps).toEqual([
+      { blockId: 'b1', enterS: 100, exitS: 280 },
+      { blockId: 'b2', enterS: 270, exitS: 430 },
+    ]);
+  });
+
+  it('an early arrival shifts the steps with the departure and stretches nothing', () => {
+    const { predicted } = propagateDelays({ plan: twoBlocks(), actuals: new Map([['A', { departS: 90, arriveS: 380 }]]), nowS: 385, standS: 0 });
+    // Left 10 s early: every step moves −10 s; it arrived 380, before the shifted 390, so no step grows.
+    expect(predicted.runs[0]).toMatchObject({ departS: 90, arriveS: 380 });
+    expect(predicted.runs[0]!.steps).toEqual([
+      { blockId: 'b1', enterS: 90, exitS: 240 },
+      { blockId: 'b2', enterS: 230, exitS: 390 },
+    ]);
+    // With no reports at all the predicted plan is the plan itself, steps included.
+    const p = twoBlocks();
+    expect(propagateDelays({ plan: p, actuals: new Map(), nowS: null, standS: 0 }).predicted.runs).toEqual(p.runs);
+  });
+});
