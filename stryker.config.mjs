@@ -80,18 +80,24 @@
 // - lib/planning/propagate.ts, more of the same kinds: `new Array(n)` → `new Array()` (the loop writes every
 //   index); the operator lookup's `operatorId === null ? undefined :` → `false` and `operatorId !== null` →
 //   `true` when recording it (a run without an operator then meets only another null, which is never looked up);
-//   `nowS > arriveS` → `>=` and `extra <= 0` → `< 0` (the same value kept: now, or steps shifted by 0);
-//   `nowS !== null && nowS > arriveS` with the first → `true` (a departed run's arrival is at least its
-//   planned one, and null compares as 0 only against an arrival before the session's start: a run that
-//   departed before it but is still running has arriveS ≥ its departure + duration; tested below 0 too);
-//   the last `if (actual.arriveS === undefined) arriveS = Math.max(…)` → `false` (every branch that gets
-//   there already keeps the arrival at or after the planned one).
+//   `nowS > arriveS` → `>=` and `extra <= 0` → `< 0` (the same value kept: now, or steps shifted by 0); the
+//   last `if (actual.arriveS === undefined) arriveS = Math.max(…)` → `false` (every branch that gets there
+//   already keeps the arrival at or after the planned one).
+// - lib/planning/retime.ts: fixedFirst's second `order.filter(…)` → `order` (a fixed run placed again, at
+//   delay 0, adds intervals already there); `runs.length > 1` → `true`/`>= 1` (one run: both orders agree);
+//   the `cab >= 0`/`operator >= 0`/`block >= 0` lookups → `true`, and the recording side's `cab >= 0`/
+//   `operator >= 0` → `true` and `block < 0` → `false` (a −1 key is written only by one mutant and read
+//   only by another); `depart < freeAt` → `<=` (shiftReaching(t, t) is 0); `arrival > freeAt` → `>=`.
+// - lib/planning/timing.ts timeRun(): `!lengthOf.has(id)` → `true` (its callers pass a plan's blocks, whose
+//   ids planSchema keeps unique); `stretches` `[]` → `["Stryker was here"]` (find's search never settles on
+//   index 0: it would only for x = 0 with movingOn false, and a tail is at x ≥ trainLengthMm > 0).
 // - lib/planning/voltage.ts: the guards for references an accepted plan always resolves, as in check.ts
 //   (`cab < 0 || driver === undefined || supply === undefined` and its 6 parts, `train === undefined`,
 //   `l === undefined`, the first-of-duplicate-ids `has()` tests); the key `cab × n + l` → `cab × n − l` (still
 //   one key per pair, as 0 ≤ l < n); `highest > entry.track` → `>=` (equal voltages at one driver come from
 //   equal currents, so the same values); plannedSpeedKmh's `discriminant < 0` → `<=` (at 0 both roots give
-//   2D/T: T/2k with T² = 4kD); a message past its kind's cap, `''` → another string (as in check.ts).
+//   2D/T: T/2k with T² = 4kD); the top-speed allowance `< 1e-6 × top` → `<=` (they differ only at a speed of exactly
+//   top × (1 + 10⁻⁶) in floating point, which timed runs do not produce); a message past its cap, `''` → another string.
 // - lib/auth/pages.ts memberForPage(): `error.status === 404` → `true` in the last of its three checks, and
 //   lib/auth/sessions.ts requireSession(): `error instanceof AppError ? error.status : undefined` → `true ? …`.
 //   requireMember's refusals are AppErrors with 401, 403 or 404 and nothing else (lib/auth/index.ts), so the
