@@ -1,0 +1,421 @@
+import { eq } from 'drizzle-orm';
+import { describe, expect, it, vi } from 'vitest';
+import { getDb } from '@/db';
+import { listClockEvents, listReports } from '@/db/queries/live';
+import * as t from '@/db/schema';
+import type { Member } from '@/lib/auth';
+import { AppError } from '@/lib/errors';
+import { applyClockAction, clockView, MAX_CLOCK_ACTIONS, readClockNow } from '@/lib/live/clock';
+import { CATCH_UP_LIMIT, catchUpFrames, eventFrame, liveSubscriberCount, publishLive, subscribeLive } from '@/lib/live/hub';
+import { makeReport, MAX_REPORTS, runReportHistory } from '@/lib/live/reports';
+import { lastEventIdOf, livePoll, liveStream, MAX_STREAMS } from '@/lib/live/stream';
+import { makeSessionWorld } from './authz/sessions';
+import { makeWorld } from './world';
+
+// The session world (tests/integration/authz/sessions.ts): a 4:1 fast clock from 06:00; run 0 of
+// "Morning stopper" (the world's operator's) leaves at 60 s, run 1 of "Evening goods" (no operator)
+// at 65 s. Times are injected (nowMs), never waited for.
+const T0 = Date.UTC(2031, 3, 12, 18, 0, 0);
+const at = (realS: number) => T0 + realS * 1000;
+
+function setup() {
+  const w = makeWorld();
+  const s = makeSessionWorld(w);
+  const as = (user: Member['user'], role: Member['role']): Member => ({ user, railwayId: w.railway.id, role });
+  return { w, s, session: s.session, sid: s.session.id, host: as(w.host, 'host'), planner: as(w.planner, 'planner'), operator: as(w.operator, 'operator') };
+}
+
+/** The AppError a call throws (fails the test when it throws nothing or something else). */
+function refusal(call: () => unknown): AppError {
+  try {
+    call();
+  } catch (error) {
+    if (error instanceof AppError) return error;
+    throw error;
+  }
+  throw new Error('expected a refusal');
+}
+
+describe('the shared fast clock (lib/live/clock.ts)', () => {
+  it('words each action with the fast time it happened at and who did it; pause and resume store no time', () => {
+    const { sid, session, planner, host } = setup();
+    // Fast clock ratio arithmetic (common practice): at 4:1, 60 real s are 240 fast s = 4 fast min.
+    const started = applyClockAction(session, planner, { action: 'start' }, at(0));
+    expect(started.live).toMatchObject({ seq: 1, type: 'clock', summary: `Clock started at 06:00 by ${planner.user.name}` });
+    expect(started.event).toMatchObject({ action: 'start', sessionS: 0, byUserId: planner.user.id });
+    expect(started.event.at.getTime()).toBe(at(0));
+    const paused = applyClockAction(session, host, { action: 'pause' }, at(60));
+    expect(paused.live.summary).toBe(`Clock paused at 06:04 by ${host.user.name}`);
+    expect(paused.event.sessionS).toBeNull();
+    // Paused for a minute: it still reads 06:04.
+    expect(applyClockAction(session, host, { action: 'resume' }, at(120)).live.summary).toBe(`Clock resumed at 06:04 by ${host.user.name}`);
+    const set = applyClockAction(session, host, { action: 'set', fast: '07:00' }, at(150));
+    // 07:00 is 3600 fast s after 06:00 = 900 real s at 4:1.
+    expect(set.event.sessionS).toBe(900);
+    expect(set.live).toMatchObject({ seq: 4, summary: `Clock set to 07:00 by ${host.user.name}` });
+
+    // 30 real s after the set: 930 s, 06:00 + 3720 fast s = 07:02.
+    const view = clockView(session, listClockEvents(sid), at(180));
+    expect(view).toEqual({
+      records: [
+        { action: 'start', atMs: at(0), sessionS: 0 },
+        { action: 'pause', atMs: at(60), sessionS: null },
+        { action: 'resume', atMs: at(120), sessionS: null },
+        { action: 'set', atMs: at(150), sessionS: 900 },
+      ],
+      clock: { ratio: 4, fastStart: '06:00' },
+      serverMs: at(180),
+      state: 'running',
+      sessionS: 930,
+      fast: '07:02',
+    });
+    expect(readClockNow(session, at(180))).toMatchObject({ state: 'running', sessionS: 930 });
+  });
+
+  it('a start at a typed time starts there; a refused action names the field and stores nothing', () => {
+    const { sid, session, host } = setup();
+    // 06:30 is 1800 fast s = 450 real s at 4:1.
+    expect(applyClockAction(session, host, { action: 'start', fast: '06:30' }, at(0)).live.summary).toBe(`Clock started at 06:30 by ${host.user.name}`);
+    const error = refusal(() => applyClockAction(session, host, { action: 'resume' }, at(10)));
+    expect(error.code).toBe('bad_request');
+    expect(error.message).toBe('The clock is already running.');
+    expect(error.extra.issues).toEqual([{ path: 'action', message: 'The clock is already running.' }]);
+    expect(listClockEvents(sid)).toHaveLength(1);
+    expect(readClockNow(session, at(10)).sessionS).toBe(460);
+  });
+
+  it(`takes ${MAX_CLOCK_ACTIONS} actions and refuses the one after`, () => {
+    const { sid, session, host } = setup();
+    const rows = Array.from({ length: MAX_CLOCK_ACTIONS - 1 }, (_, i) => ({ sessionId: sid, action: 'set' as const, at: new Date(at(i)), sessionS: i, byUserId: host.user.id }));
+    for (let i = 0; i < rows.length; i += 100) getDb().insert(t.clockEvents).values(rows.slice(i, i + 100)).run();
+    expect(applyClockAction(session, host, { action: 'set', fast: '08:00' }, at(1000)).live.seq).toBe(1);
+    const error = refusal(() => applyClockAction(session, host, { action: 'set', fast: '09:00' }, at(1001)));
+    expect(error.message).toBe(`This session's clock has had ${MAX_CLOCK_ACTIONS} actions; no more can be stored.`);
+    expect(listClockEvents(sid)).toHaveLength(MAX_CLOCK_ACTIONS);
+  });
+});
+
+describe('reports from operators (lib/live/reports.ts)', () => {
+  it('refuses every report before the clock starts, and a run the session does not have', () => {
+    const { session, s, operator, host } = setup();
+    const error = refusal(() => makeReport(session, operator, s.runIds[0], { kind: 'departed' }, at(0)));
+    expect([error.code, error.message]).toEqual(['bad_request', 'The session’s clock has not started yet.']);
+    applyClockAction(session, host, { action: 'start' }, at(0));
+    expect(refusal(() => makeReport(session, host, 'no-such-run', { kind: 'departed' }, at(1))).code).toBe('not_found');
+    expect(listReports(session.id)).toEqual([]);
+  });
+
+  it('says how late or early a departure is in whole fast minutes (rounded) against the timetable in force', () => {
+    // Fast clock ratio arithmetic (common practice): at 4:1 a real second is 4 fast seconds; the run is planned at 60 s.
+    const cases: [number, string][] = [
+      [60, ', on time'],
+      [67, ', on time'], // 28 fast s
+      [68, ', 1 fast min late'], // 32 fast s rounds up
+      [150, ', 6 fast min late'], // 90 s late = 6 fast min
+      [30, ', 2 fast min early'], // 30 s early = 2 fast min
+    ];
+    for (const [realS, lateness] of cases) {
+      const { session, s, operator } = setup();
+      applyClockAction(session, operator, { action: 'start' }, at(0));
+      const { live, report } = makeReport(session, operator, s.runIds[0], { kind: 'departed' }, at(realS));
+      const fast = new Date((6 * 3600 + realS * 4) * 1000).toISOString().slice(11, 16);
+      expect(live.summary).toBe(`Morning stopper departed at ${fast}${lateness}`);
+      expect(report).toMatchObject({ kind: 'departed', sessionS: realS, reason: null, correction: false, withdrawn: false, byUserId: operator.user.id });
+      expect(report.reportedAt.getTime()).toBe(at(realS));
+    }
+    // A repair of 90 s moved the run to 150 s: leaving then is on time.
+    const { session, s, operator, host } = setup();
+    getDb().insert(t.runRepairs).values({ sessionId: session.id, runId: s.runIds[0], delayS: 90, appliedAt: new Date(at(0)), byUserId: host.user.id }).run();
+    applyClockAction(session, operator, { action: 'start' }, at(0));
+    expect(makeReport(session, operator, s.runIds[0], { kind: 'departed' }, at(150)).live.summary).toBe('Morning stopper departed at 06:10, on time');
+  });
+
+  it('words stops, arrivals, corrections and withdrawals, and keeps an audit of corrections', () => {
+    const { session, s, operator, host, w } = setup();
+    const mine = s.runIds[0];
+    applyClockAction(session, host, { action: 'start' }, at(0));
+    makeReport(session, operator, mine, { kind: 'departed' }, at(60));
+    expect(makeReport(session, operator, mine, { kind: 'stopped' }, at(75)).live.summary).toBe('Morning stopper stopped — needs help at 06:05');
+    expect(makeReport(session, operator, mine, { kind: 'departed' }, at(90)).live.summary).toBe('Morning stopper departed at 06:06, 2 fast min late');
+    const stopped = makeReport(session, operator, mine, { kind: 'stopped', reason: 'derailed' }, at(120));
+    expect(stopped.live.summary).toBe('Morning stopper stopped — derailed at 06:08');
+    expect(stopped.report.reason).toBe('derailed');
+    expect(makeReport(session, operator, mine, { kind: 'arrived' }, at(240)).live.summary).toBe('Morning stopper arrived at 06:16');
+
+    // The run's operator corrects the departure to 06:05 (75 s: 15 s = 1 fast min late).
+    const corrected = makeReport(session, operator, mine, { kind: 'departed', fast: '06:05' }, at(250));
+    expect(corrected.live.summary).toBe(`Morning stopper departed at 06:05, 1 fast min late (corrected by ${operator.user.name})`);
+    expect(corrected.report).toMatchObject({ sessionS: 75, correction: true, withdrawn: false });
+    // The host withdraws the arrival.
+    const withdrawn = makeReport(session, host, mine, { kind: 'arrived', withdraw: true }, at(260));
+    expect(withdrawn.live.summary).toBe(`Morning stopper: “arrived” withdrawn by ${host.user.name}`);
+    expect(withdrawn.report).toMatchObject({ kind: 'arrived', correction: true, withdrawn: true, sessionS: 260 });
+    // A withdrawal of what is not there is refused, naming the field.
+    const error = refusal(() => makeReport(session, host, mine, { kind: 'arrived', withdraw: true }, at(270)));
+    expect(error.message).toBe('There is no “arrived” report to withdraw.');
+    expect(error.extra.issues).toEqual([{ path: 'kind', message: 'There is no “arrived” report to withdraw.' }]);
+    // A typed stop time corrects the latest stop (the one the withdrawn arrival had ended).
+    expect(makeReport(session, host, mine, { kind: 'stopped', fast: '06:07' }, at(280)).report.correction).toBe(true);
+
+    const audit = getDb().select().from(t.auditLog).where(eq(t.auditLog.entityId, mine)).all();
+    expect(audit.map((a) => [a.action, a.userId, a.entity, a.railwayId])).toEqual([
+      ['report-correct', operator.user.id, 'run', w.railway.id],
+      ['report-withdraw', host.user.id, 'run', w.railway.id],
+      ['report-correct', host.user.id, 'run', w.railway.id],
+    ]);
+    const detail = (i: number) => audit[i]!.detail;
+    expect(detail(0)).toEqual({ sessionId: session.id, kind: 'departed', fast: '06:05', reportId: corrected.report.id });
+    expect(detail(1)).toEqual({ sessionId: session.id, kind: 'arrived', reportId: withdrawn.report.id });
+  });
+
+  it('lets the run’s operator, a planner or the host report; only the operator or the host correct', () => {
+    const { session, s, operator, planner, host } = setup();
+    applyClockAction(session, host, { action: 'start' }, at(0));
+    expect(refusal(() => makeReport(session, operator, s.runIds[1], { kind: 'departed' }, at(65))).code).toBe('forbidden');
+    expect(makeReport(session, planner, s.runIds[1], { kind: 'departed' }, at(65)).live.summary).toBe('Evening goods departed at 06:04, on time');
+    expect(refusal(() => makeReport(session, planner, s.runIds[1], { kind: 'departed', fast: '06:05' }, at(70))).code).toBe('forbidden');
+    expect(refusal(() => makeReport(session, planner, s.runIds[1], { kind: 'departed', withdraw: true }, at(70))).code).toBe('forbidden');
+    expect(makeReport(session, host, s.runIds[1], { kind: 'departed', withdraw: true }, at(70)).report.withdrawn).toBe(true);
+    // No audit row for a plain report.
+    expect(getDb().select().from(t.auditLog).where(eq(t.auditLog.entityId, s.runIds[1])).all().map((a) => a.action)).toEqual(['report-withdraw']);
+  });
+
+  it(`keeps ${MAX_REPORTS} reports a session and refuses the one after`, () => {
+    const { session, s, host } = setup();
+    applyClockAction(session, host, { action: 'start' }, at(0));
+    // Reports of the other run, so that run 0 may still depart.
+    const rows = Array.from({ length: MAX_REPORTS - 1 }, (_, i) => ({
+      sessionId: session.id,
+      runId: s.runIds[1],
+      kind: 'departed' as const,
+      sessionS: i,
+      reportedAt: new Date(at(0)),
+      byUserId: host.user.id,
+    }));
+    for (let i = 0; i < rows.length; i += 500) getDb().insert(t.runReports).values(rows.slice(i, i + 500)).run();
+    makeReport(session, host, s.runIds[0], { kind: 'departed' }, at(60));
+    const error = refusal(() => makeReport(session, host, s.runIds[0], { kind: 'arrived' }, at(61)));
+    expect(error.message).toBe(`This session already has ${MAX_REPORTS} reports.`);
+  });
+
+  it('a run’s history names who reported what (a former member when the account is gone); an operator reads only their own runs', () => {
+    const { session, s, operator, planner, host } = setup();
+    applyClockAction(session, host, { action: 'start' }, at(0));
+    makeReport(session, planner, s.runIds[0], { kind: 'departed' }, at(64));
+    makeReport(session, operator, s.runIds[0], { kind: 'stopped', reason: 'blocked' }, at(80));
+    getDb().delete(t.users).where(eq(t.users.id, planner.user.id)).run();
+    const history = runReportHistory(session, operator, s.runIds[0]);
+    expect(history).toEqual({
+      runId: s.runIds[0],
+      reports: [
+        { id: expect.any(String), kind: 'departed', reason: null, fast: '06:04', reportedAt: new Date(at(64)).toISOString(), by: 'a former member', correction: false, withdrawn: false },
+        { id: expect.any(String), kind: 'stopped', reason: 'blocked', fast: '06:05', reportedAt: new Date(at(80)).toISOString(), by: operator.user.name, correction: false, withdrawn: false },
+      ],
+    });
+    expect(refusal(() => runReportHistory(session, operator, s.runIds[1])).code).toBe('forbidden');
+    expect(runReportHistory(session, host, s.runIds[1]).reports).toEqual([]);
+    expect(refusal(() => runReportHistory(session, host, 'no-such-run')).code).toBe('not_found');
+  });
+});
+
+// The event stream: WHATWG HTML Living Standard §9.2 "Server-sent events" (event stream
+// interpretation: `id:`, `event:`, `data:` fields, a blank line dispatches the event; `retry:` sets
+// the reconnection time; a line starting with a colon is a comment; the Last-Event-ID header on
+// reconnection).
+describe('the event stream hub (lib/live/hub.ts)', () => {
+  const addEvents = (sessionId: string, from: number, to: number) => {
+    const rows = [];
+    for (let seq = from; seq <= to; seq++) rows.push({ sessionId, seq, type: 'report', summary: `event ${seq}`, at: new Date(at(seq)) });
+    for (let i = 0; i < rows.length; i += 200) getDb().insert(t.liveEvents).values(rows.slice(i, i + 200)).run();
+  };
+
+  it('writes one event as id, event and data lines ended by a blank line, the state inside the data when given', () => {
+    const event = { seq: 7, type: 'report', summary: 'Morning stopper departed', at: new Date(at(5)) };
+    expect(eventFrame(event, null)).toBe(`id: 7\nevent: live\ndata: {"seq":7,"type":"report","summary":"Morning stopper departed","at":${at(5)}}\n\n`);
+    expect(eventFrame(event, '{"seq":7}')).toBe(`id: 7\nevent: live\ndata: {"seq":7,"type":"report","summary":"Morning stopper departed","at":${at(5)},"state":{"seq":7}}\n\n`);
+  });
+
+  it('catches a client up on what it missed, the state on the last frame only; beyond the limit it is first told to reload', () => {
+    const { sid } = setup();
+    addEvents(sid, 1, 3);
+    const frames = (text: string) => text.split('\n\n').filter(Boolean);
+    const caught = catchUpFrames(sid, 1, '{"now":1}');
+    expect(caught.lastSeq).toBe(3);
+    expect(frames(caught.frames)).toEqual([
+      `id: 2\nevent: live\ndata: {"seq":2,"type":"report","summary":"event 2","at":${at(2)}}`,
+      `id: 3\nevent: live\ndata: {"seq":3,"type":"report","summary":"event 3","at":${at(3)},"state":{"now":1}}`,
+    ]);
+    expect(catchUpFrames(sid, 3, '{}')).toEqual({ frames: '', lastSeq: 3 });
+
+    // Exactly CATCH_UP_LIMIT missed: all of them, no reload.
+    addEvents(sid, 4, CATCH_UP_LIMIT + 3);
+    const all = frames(catchUpFrames(sid, 3, '{}').frames);
+    expect(all).toHaveLength(CATCH_UP_LIMIT);
+    expect(all[0]).toMatch(/^id: 4\n/);
+    // One more: the reload event first, then the last CATCH_UP_LIMIT.
+    const over = catchUpFrames(sid, 2, '{"now":2}');
+    const list = frames(over.frames);
+    expect(list).toHaveLength(CATCH_UP_LIMIT + 1);
+    expect(list[0]).toBe('event: reload\ndata: {}');
+    expect(list[1]).toMatch(/^id: 4\n/);
+    expect(list.at(-1)).toMatch(new RegExp(`^id: ${CATCH_UP_LIMIT + 3}\\n.*"state":\\{"now":2\\}\\}$`, 's'));
+    expect(over.lastSeq).toBe(CATCH_UP_LIMIT + 3);
+  });
+
+  it('publishes each change once to every open stream behind it, several changes of a tick together; counts and forgets subscribers', async () => {
+    const { sid, session, host } = setup();
+    const before = liveSubscriberCount();
+    const behind: string[] = [];
+    const current: string[] = [];
+    const broken = { lastSeq: 0, write: () => { throw new Error('closed'); } };
+    const a = { lastSeq: 0, write: (chunk: string) => void behind.push(chunk) };
+    const b = { lastSeq: 0, write: (chunk: string) => void current.push(chunk) };
+    const off = [subscribeLive(sid, broken), subscribeLive(sid, a), subscribeLive(sid, b)];
+    expect(liveSubscriberCount()).toBe(before + 3);
+
+    applyClockAction(session, host, { action: 'start' }, Date.now());
+    b.lastSeq = 1; // b has read event 1 already
+    publishLive(sid);
+    applyClockAction(session, host, { action: 'pause' }, Date.now());
+    publishLive(sid);
+    await new Promise((resolve) => setImmediate(resolve));
+    // One write to each, with both events for a and the second for b; the state on the last frame.
+    expect(behind).toHaveLength(1);
+    expect(behind[0]).toMatch(/^id: 1\nevent: live\ndata: \{"seq":1,"type":"clock","summary":"Clock started at 06:00 by [^"]+","at":\d+\}\n\nid: 2\n.*"state":\{"seq":2,/s);
+    expect(current).toHaveLength(1);
+    expect(current[0]).toMatch(/^id: 2\nevent: live\ndata: \{"seq":2,"type":"clock","summary":"Clock paused at/);
+    expect([a.lastSeq, b.lastSeq, broken.lastSeq]).toEqual([2, 2, 2]);
+
+    // Nothing new: nothing written.
+    publishLive(sid);
+    await new Promise((resolve) => setImmediate(resolve));
+    expect([behind.length, current.length]).toEqual([1, 1]);
+
+    for (const unsubscribe of off) unsubscribe();
+    off[0]!();
+    expect(liveSubscriberCount()).toBe(before);
+    // No stream open: publishing does nothing (not even build the state).
+    applyClockAction(session, host, { action: 'resume' }, Date.now());
+    publishLive(sid);
+    await new Promise((resolve) => setImmediate(resolve));
+    expect(behind).toHaveLength(1);
+  });
+
+  it('logs a change it could not publish and goes on', async () => {
+    const { sid, session, host } = setup();
+    const written: string[] = [];
+    const off = subscribeLive(sid, { lastSeq: 0, write: (chunk) => void written.push(chunk) });
+    applyClockAction(session, host, { action: 'start' }, Date.now());
+    // The session is gone by the time the change is published: its state cannot be built.
+    getDb().delete(t.sessions).where(eq(t.sessions.id, sid)).run();
+    const logged = vi.spyOn(console, 'error').mockImplementation(() => {});
+    publishLive(sid);
+    await new Promise((resolve) => setImmediate(resolve));
+    expect(logged).toHaveBeenCalledWith('live: could not publish', expect.any(Error));
+    logged.mockRestore();
+    expect(written).toEqual([]);
+    off();
+  });
+});
+
+describe('the stream and the poll (lib/live/stream.ts)', () => {
+  const request = (headers: Record<string, string> = {}, query = '', signal?: AbortSignal) => new Request(`http://127.0.0.1:3999/api/sessions/x/live${query}`, { headers, signal });
+
+  it('reads the last event id from the Last-Event-ID header, else from ?after=, as up to 15 digits', () => {
+    expect(lastEventIdOf(request({ 'last-event-id': '12' }, '?after=3'))).toBe(12);
+    expect(lastEventIdOf(request({ 'last-event-id': ' 7 ' }))).toBe(7);
+    expect(lastEventIdOf(request({}, '?after=3'))).toBe(3);
+    expect(lastEventIdOf(request({}, '?after=%203%20'))).toBe(3);
+    expect(lastEventIdOf(request())).toBeNull();
+    expect(lastEventIdOf(request({ 'last-event-id': '' }))).toBeNull();
+    expect(lastEventIdOf(request({ 'last-event-id': 'x12' }))).toBeNull();
+    expect(lastEventIdOf(request({ 'last-event-id': '12x' }))).toBeNull();
+    expect(lastEventIdOf(request({ 'last-event-id': '-1' }))).toBeNull();
+    expect(lastEventIdOf(request({ 'last-event-id': '123456789012345' }))).toBe(123456789012345);
+    expect(lastEventIdOf(request({ 'last-event-id': '1234567890123456' }))).toBeNull();
+  });
+
+  it('greets a new client with the state as a hello numbered with the last event, then streams; pings an idle stream; stops on abort', async () => {
+    const { sid, session, host } = setup();
+    applyClockAction(session, host, { action: 'start' }, Date.now());
+    vi.useFakeTimers({ toFake: ['setInterval', 'clearInterval'] });
+    try {
+      const abort = new AbortController();
+      const before = liveSubscriberCount();
+      // A client that has read everything (after = last) is greeted the same way.
+      const res = liveStream(sid, request({ 'last-event-id': '1' }, '', abort.signal));
+      expect(Object.fromEntries(res.headers)).toEqual({
+        'content-type': 'text/event-stream; charset=utf-8',
+        'cache-control': 'no-cache, no-transform',
+        connection: 'keep-alive',
+        'x-accel-buffering': 'no',
+      });
+      const reader = res.body!.getReader();
+      const decoder = new TextDecoder();
+      const next = async () => decoder.decode((await reader.read()).value);
+      const hello = await next();
+      expect(hello).toMatch(/^retry: 2000\n\nid: 1\nevent: live\ndata: \{"seq":1,"type":"hello","summary":"","at":\d+,"state":\{"seq":1,/);
+      expect(hello.endsWith('}\n\n')).toBe(true);
+      expect(liveSubscriberCount()).toBe(before + 1);
+
+      vi.advanceTimersByTime(15_000);
+      expect(await next()).toBe(': ping\n\n');
+
+      applyClockAction(session, host, { action: 'pause' }, Date.now());
+      publishLive(sid);
+      expect(await next()).toMatch(/^id: 2\nevent: live\ndata: \{"seq":2,"type":"clock"/);
+
+      abort.abort();
+      expect(await reader.read()).toEqual({ done: true, value: undefined });
+      expect(liveSubscriberCount()).toBe(before);
+      // The heartbeat stopped with it.
+      expect(vi.getTimerCount()).toBe(0);
+    } finally {
+      vi.useRealTimers();
+    }
+  });
+
+  it('a reconnecting client gets what it missed instead of a hello; a cancelled stream is forgotten', async () => {
+    const { sid, session, host } = setup();
+    applyClockAction(session, host, { action: 'start' }, Date.now());
+    applyClockAction(session, host, { action: 'pause' }, Date.now());
+    const before = liveSubscriberCount();
+    const res = liveStream(sid, request({}, '?after=1'));
+    const reader = res.body!.getReader();
+    const text = new TextDecoder().decode((await reader.read()).value);
+    expect(text).toMatch(/^retry: 2000\n\nid: 2\nevent: live\ndata: \{"seq":2,"type":"clock","summary":"Clock paused at [^"]+","at":\d+,"state":\{"seq":2,/);
+    expect(text).not.toMatch(/hello/);
+    expect(liveSubscriberCount()).toBe(before + 1);
+    await reader.cancel();
+    expect(liveSubscriberCount()).toBe(before);
+  });
+
+  it(`serves at most ${MAX_STREAMS} streams; the one after is told to poll`, () => {
+    const { sid } = setup();
+    const off: (() => void)[] = [];
+    try {
+      while (liveSubscriberCount() < MAX_STREAMS - 1) off.push(subscribeLive('elsewhere', { lastSeq: 0, write: () => {} }));
+      const res = liveStream(sid, request());
+      void res.body!.cancel();
+      off.push(subscribeLive('elsewhere', { lastSeq: 0, write: () => {} }));
+      const error = refusal(() => liveStream(sid, request()));
+      expect([error.code, error.message, error.extra.retryAfterS]).toEqual(['rate_limited', 'Too many open live screens; the page will poll instead.', 5]);
+    } finally {
+      for (const unsubscribe of off) unsubscribe();
+    }
+  });
+
+  it('answers a poll with the events after the number asked for and the state, never cached', async () => {
+    const { sid, session, host } = setup();
+    applyClockAction(session, host, { action: 'start' }, at(0));
+    applyClockAction(session, host, { action: 'pause' }, at(60));
+    const res = livePoll(sid, 1);
+    expect(res.headers.get('content-type')).toBe('application/json');
+    expect(res.headers.get('cache-control')).toBe('no-store');
+    const body = await res.json();
+    expect(body.seq).toBe(2);
+    expect(body.events).toEqual([{ seq: 2, type: 'clock', summary: `Clock paused at 06:04 by ${host.user.name}`, at: at(60) }]);
+    expect(body.state).toMatchObject({ seq: 2, session: { id: sid } });
+    expect((await livePoll(sid, 0).json()).events.map((e: { seq: number }) => e.seq)).toEqual([1, 2]);
+  });
+});
