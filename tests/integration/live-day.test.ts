@@ -9,7 +9,12 @@ import { applyClockAction, clockView, MAX_CLOCK_ACTIONS, readClockNow } from '@/
 import { CATCH_UP_LIMIT, catchUpFrames, eventFrame, liveSubscriberCount, publishLive, subscribeLive } from '@/lib/live/hub';
 import { makeReport, MAX_REPORTS, runReportHistory } from '@/lib/live/reports';
 import { lastEventIdOf, livePoll, liveStream, MAX_STREAMS } from '@/lib/live/stream';
-import { makeSessionWorld } from './authz/sessions';
+import { applyRepair, assertHost } from '@/lib/live/repair';
+import { buildLiveState, liveStateJson } from '@/lib/live/state';
+import { insertRuns } from '@/db/queries/runs';
+import { getSessionById } from '@/db/queries/session-records';
+import { followingSession } from './authz/live';
+import { makeSessionWorld, timedSteps } from './authz/sessions';
 import { makeWorld } from './world';
 
 // The session world (tests/integration/authz/sessions.ts): a 4:1 fast clock from 06:00; run 0 of
@@ -417,5 +422,133 @@ describe('the stream and the poll (lib/live/stream.ts)', () => {
     expect(body.events).toEqual([{ seq: 2, type: 'clock', summary: `Clock paused at 06:04 by ${host.user.name}`, at: at(60) }]);
     expect(body.state).toMatchObject({ seq: 2, session: { id: sid } });
     expect((await livePoll(sid, 0).json()).events.map((e: { seq: number }) => e.seq)).toEqual([1, 2]);
+  });
+});
+
+describe('the live state (lib/live/state.ts)', () => {
+  it('shows each run planned, in force (planned + the repairs so far), predicted and actual, with the open stop', () => {
+    const { sid, session, s, host, operator } = setup();
+    const [mine, other] = s.runIds;
+    // Two repairs of the other run add up.
+    for (const delayS of [30, 15]) getDb().insert(t.runRepairs).values({ sessionId: sid, runId: other, delayS, appliedAt: new Date(at(0)), byUserId: host.user.id }).run();
+    applyClockAction(session, host, { action: 'start' }, at(0));
+    makeReport(session, operator, mine, { kind: 'departed' }, at(62));
+    makeReport(session, operator, mine, { kind: 'stopped', reason: 'stalled' }, at(64));
+    const state = buildLiveState(sid, at(64));
+    expect(state.seq).toBe(3);
+    expect(state.session).toEqual({ id: sid, railwayId: session.railwayId, title: 'Test evening', status: 'published', standS: 60, punctualFastMin: 3 });
+    expect(state.clock).toMatchObject({ state: 'running', sessionS: 64, serverMs: at(64) });
+    expect(state.names.trains.map((x) => x.name).sort()).toEqual(['Evening goods', 'Morning stopper']);
+    expect(state.names.cabs.map((x) => x.name)).toEqual(['Cab 1', 'Cab 2']);
+    expect(state.names.blocks.map((x) => x.name)).toEqual(['Block A', 'Block B', 'Block C', 'Block D']);
+    expect(state.names.operators.map((x) => x.id)).toContain(operator.user.id);
+    const [first, second] = state.runs;
+    expect(first).toMatchObject({ id: mine, trainId: s.layout.trains.t1, cabId: s.layout.cabs.c1, operatorId: operator.user.id, plannedDepartS: 60, repairS: 0, departS: 62, departDelayS: 2, status: 'stopped' });
+    expect(first!.actual).toEqual({ departS: 62, arriveS: null, stop: { fromS: 64, reason: 'stalled' } });
+    // The predicted steps, to the millisecond (shifted by the 2 s late start at least).
+    expect(first!.steps[0]!.blockId).toBe(s.layout.blocks.A);
+    expect(first!.steps.every((step) => step.enterS === Math.round(step.enterS * 1000) / 1000)).toBe(true);
+    expect(second).toMatchObject({ id: other, plannedDepartS: 65, repairS: 45, departS: 110, status: 'waiting', actual: { departS: null, arriveS: null, stop: null } });
+    // Its delay is against the timetable in force, which already has the repairs.
+    expect(second!.departDelayS).toBe(0);
+    // Moving again, the stop is closed: no open stop on the board.
+    makeReport(session, operator, mine, { kind: 'departed' }, at(70));
+    expect(buildLiveState(sid, at(70)).runs[0]!.actual.stop).toBeNull();
+  });
+
+  it('lists runs by planned departure, ties by id', () => {
+    const { sid, s } = setup();
+    const steps = timedSteps(s.layout, ['A', 'B'], 500);
+    const ids = insertRuns(sid, [
+      { trainId: s.layout.trains.t1, cabId: s.layout.cabs.c1, operatorId: null, speedKmh: 60, note: '', ...steps },
+      { trainId: s.layout.trains.t2, cabId: s.layout.cabs.c2, operatorId: null, speedKmh: 60, note: '', ...steps },
+    ]);
+    const order = buildLiveState(sid, at(0)).runs.map((r) => r.id);
+    expect(order.slice(0, 2)).toEqual(s.runIds);
+    expect(order.slice(2)).toEqual([...ids].sort((a, b) => a.localeCompare(b)));
+  });
+
+  it('names only the clashes a delay created, and proposes moving the runs not yet departed (common practice: keep what has left)', () => {
+    const { w } = setup();
+    const f = followingSession(w);
+    const session = getSessionById(f.sid)!;
+    const host: Member = { user: w.host, railwayId: w.railway.id, role: 'host' };
+    applyClockAction(session, host, { action: 'start' }, at(0));
+    // No delay, no clash: nothing to repair.
+    const calm = buildLiveState(f.sid, at(10));
+    expect([calm.newFindings, calm.repair]).toEqual([[], []]);
+    // The leader leaves 90 s late: it runs into the follower's path.
+    makeReport(session, host, f.leader, { kind: 'departed' }, at(150));
+    const late = buildLiveState(f.sid, at(150));
+    expect(late.newFindings.length).toBeGreaterThan(0);
+    for (const finding of late.newFindings) {
+      expect(finding).toEqual({ kind: expect.any(String), severity: 'error', ids: expect.arrayContaining([f.leader, f.follower]), fromS: expect.any(Number), toS: expect.any(Number), message: expect.any(String) });
+      expect(finding.fromS).toBe(Math.round(finding.fromS * 1000) / 1000);
+      expect(finding.toS).toBeGreaterThan(finding.fromS);
+    }
+    expect(late.repair).toHaveLength(1);
+    const [move] = late.repair;
+    expect(move!.runId).toBe(f.follower);
+    expect(move!.newDepartS).toBeCloseTo(f.second.departS + move!.delayS, 3);
+    expect(move!.delayS).toBe(Math.round(move!.delayS * 1000) / 1000);
+    // Once the follower has left too, it is kept where it is: nothing left to propose.
+    makeReport(session, host, f.follower, { kind: 'departed' }, at(151));
+    expect(buildLiveState(f.sid, at(151)).repair).toEqual([]);
+  });
+
+  it('serves the same JSON for a second while nothing changes', () => {
+    const { sid, session, host } = setup();
+    const first = liveStateJson(sid, at(0));
+    expect(JSON.parse(first)).toMatchObject({ seq: 0, clock: { serverMs: at(0) } });
+    expect(liveStateJson(sid, at(0.999))).toBe(first);
+    expect(JSON.parse(liveStateJson(sid, at(1))).clock.serverMs).toBe(at(1));
+    applyClockAction(session, host, { action: 'start' }, at(1.5));
+    expect(JSON.parse(liveStateJson(sid, at(1.5)))).toMatchObject({ seq: 1, clock: { state: 'running' } });
+  });
+});
+
+describe('the host’s repair (lib/live/repair.ts)', () => {
+  it('is the host’s alone', () => {
+    const { session, planner, operator } = setup();
+    for (const member of [planner, operator]) expect(refusal(() => applyRepair(session, member, { moves: [{ runId: 'x', delayS: 1 }] }, at(0))).code).toBe('forbidden');
+    expect(() => assertHost(planner)).toThrow('Your role on this railway does not allow you to repair the running session (the host does).');
+  });
+
+  it('applies the repair it was shown (each move within 90 s of the current one), storing the current moves; planned times stay', () => {
+    const { sid, session, s, host } = setup();
+    // The world's two runs meet in block B as planned: the repair moves the later one.
+    const proposed = buildLiveState(sid, at(0)).repair;
+    expect(proposed.map((m) => m.runId)).toEqual([s.runIds[1]]);
+    const delayS = proposed[0]!.delayS;
+    const conflictOf = (moves: { runId: string; delayS: number }[]) => {
+      const error = refusal(() => applyRepair(session, host, { moves }, at(0)));
+      expect(error.code).toBe('conflict');
+      expect(error.extra.current).toEqual({ repair: proposed });
+    };
+    conflictOf([{ runId: s.runIds[1], delayS: delayS + 91 }]);
+    conflictOf([{ runId: s.runIds[1], delayS: delayS - 91 }]);
+    conflictOf([{ runId: s.runIds[0], delayS }]);
+    conflictOf([{ runId: s.runIds[1], delayS }, { runId: s.runIds[1], delayS }]);
+    conflictOf([{ runId: s.runIds[1], delayS }, { runId: s.runIds[0], delayS: 10 }]);
+    expect(getDb().select().from(t.runRepairs).where(eq(t.runRepairs.sessionId, sid)).all()).toEqual([]);
+
+    const live = applyRepair(session, host, { moves: [{ runId: s.runIds[1], delayS: delayS + 90 }] }, at(5));
+    expect(live).toMatchObject({ seq: 1, type: 'repair', summary: `${host.user.name} repaired the timetable: 1 run of 1 train moved` });
+    expect(live.at.getTime()).toBe(at(5));
+    const stored = getDb().select().from(t.runRepairs).where(eq(t.runRepairs.sessionId, sid)).all();
+    expect(stored.map((r) => [r.runId, r.delayS, r.byUserId, r.appliedAt.getTime()])).toEqual([[s.runIds[1], delayS, host.user.id, at(5)]]);
+    expect(buildLiveState(sid, at(6)).repair).toEqual([]);
+  });
+
+  it('counts the runs and trains it moved', () => {
+    const { sid, session, s, host } = setup();
+    // A second meeting in block B later on, the other way round: Evening goods first, then Morning stopper.
+    insertRuns(sid, [
+      { trainId: s.layout.trains.t2, cabId: s.layout.cabs.c2, operatorId: null, speedKmh: 60, note: '', ...timedSteps(s.layout, ['D', 'C', 'B'], 600) },
+      { trainId: s.layout.trains.t1, cabId: s.layout.cabs.c1, operatorId: null, speedKmh: 60, note: '', ...timedSteps(s.layout, ['A', 'B', 'C'], 605) },
+    ]);
+    const moves = buildLiveState(sid, at(0)).repair.map((m) => ({ runId: m.runId, delayS: m.delayS }));
+    expect(moves).toHaveLength(2);
+    expect(applyRepair(session, host, { moves }, at(0)).summary).toBe(`${host.user.name} repaired the timetable: 2 runs of 2 trains moved`);
   });
 });

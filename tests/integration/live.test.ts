@@ -11,9 +11,9 @@ import { GET as reportRoute } from '@/app/api/sessions/[sessionId]/report/route'
 import Papa from 'papaparse';
 import { GET as proposeRepair, POST as repairAction } from '@/app/api/sessions/[sessionId]/repair/route';
 import { getDb } from '@/db';
-import { insertRuns } from '@/db/queries/runs';
 import * as t from '@/db/schema';
-import { makeSessionWorld, timedSteps } from './authz/sessions';
+import { followingSession } from './authz/live';
+import { makeSessionWorld } from './authz/sessions';
 import { signInAs } from './caller';
 import { makeWorld } from './world';
 
@@ -160,22 +160,6 @@ describe('correcting reports', () => {
     ]);
   });
 });
-
-/** A second session on the same test layout: train 1 runs A→C at 60 s, train 2 follows the same way 60 s after it arrives. */
-function followingSession(w: ReturnType<typeof makeWorld>) {
-  const s = makeSessionWorld(w);
-  const db = getDb();
-  const { id: _id, createdAt: _c, ...rest } = s.session;
-  const session = db.insert(t.sessions).values({ ...rest, title: 'Following trains' }).returning().get();
-  db.insert(t.invitations).values({ sessionId: session.id, userId: w.operator.id, email: w.operator.email }).run();
-  const first = timedSteps(s.layout, ['A', 'B', 'C'], 60);
-  const second = timedSteps(s.layout, ['A', 'B', 'C'], first.arriveS + 60);
-  const [leader, follower] = insertRuns(session.id, [
-    { trainId: s.layout.trains.t1, cabId: s.layout.cabs.c1, operatorId: w.operator.id, speedKmh: 60, note: '', ...first },
-    { trainId: s.layout.trains.t2, cabId: s.layout.cabs.c2, operatorId: w.planner.id, speedKmh: 60, note: '', ...second },
-  ]) as [string, string];
-  return { sid: session.id, leader, follower, first, second };
-}
 
 async function readUntil(reader: ReadableStreamDefaultReader<Uint8Array>, pattern: RegExp): Promise<string> {
   const decoder = new TextDecoder();

@@ -1,4 +1,7 @@
-import { makeSessionWorld } from './sessions';
+import { getDb } from '@/db';
+import { insertRuns } from '@/db/queries/runs';
+import * as t from '@/db/schema';
+import { makeSessionWorld, timedSteps } from './sessions';
 import { anyMember, hostOnly, plannerUp, type AuthzCase, type AuthzExemption, type Expect, type World } from './shared';
 
 const ctx = <P>(params: P) => ({ params: Promise.resolve(params) });
@@ -12,6 +15,22 @@ export async function startedSessionWorld(w: World) {
   const { applyClockAction } = await import('@/lib/live/clock');
   applyClockAction(world.session, { user: w.planner, railwayId: w.railway.id, role: 'planner' }, { action: 'start' });
   return world;
+}
+
+/** A second session on the same test layout: train 1 runs A→C at 60 s, train 2 follows the same way 60 s after it arrives. */
+export function followingSession(w: World) {
+  const s = makeSessionWorld(w);
+  const db = getDb();
+  const { id: _id, createdAt: _c, ...rest } = s.session;
+  const session = db.insert(t.sessions).values({ ...rest, title: 'Following trains' }).returning().get();
+  db.insert(t.invitations).values({ sessionId: session.id, userId: w.operator.id, email: w.operator.email }).run();
+  const first = timedSteps(s.layout, ['A', 'B', 'C'], 60);
+  const second = timedSteps(s.layout, ['A', 'B', 'C'], first.arriveS + 60);
+  const [leader, follower] = insertRuns(session.id, [
+    { trainId: s.layout.trains.t1, cabId: s.layout.cabs.c1, operatorId: w.operator.id, speedKmh: 60, note: '', ...first },
+    { trainId: s.layout.trains.t2, cabId: s.layout.cabs.c2, operatorId: w.planner.id, speedKmh: 60, note: '', ...second },
+  ]) as [string, string];
+  return { sid: session.id, leader, follower, first, second };
 }
 
 export const LIVE_CASES: AuthzCase[] = [
