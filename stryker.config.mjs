@@ -110,6 +110,33 @@
 //   after a MAIL FROM was accepted (RFC 5321 3.3), so mailFrom is always an address object there.
 //   `authOptional: true` → `false`: smtp-server 3 asks for authentication only while it offers AUTH, and
 //   the catcher disables AUTH (disabledCommands), so the option is never read.
+// - lib/invitations/changes.ts (run of 3 December, 16:10): parseTold()'s `if (!json) return null` → `if (false)`:
+//   JSON.parse('') throws and JSON.parse(null) gives null, which toldSchema refuses, so both still end in null;
+//   summariseChanges' `count.time`, `count.place`, `count.title` `+= 1` → `-= 1` (3): these three are read only
+//   as "any?" (a session-level change is said once), and −1 is as truthy as 1.
+// - lib/invitations/, lookups that cannot miss: tracker.ts needsCancel()'s `inv.mail?.calendarMethod` → `inv.mail.`:
+//   read only when mailCount > 0, and listSessionInvitations sets `mail` from the same outbox rows it counts;
+//   crew-status.ts `standings.get(i.id)?.affected` → `.get(i.id).affected`: the standings are built from the same
+//   list; its operator set without the null filter (the `.filter` dropped, `id !== null` → `true`): a null never
+//   equals an invitation's user id (NOT NULL); my-runs.ts `if (!rows) continue` → `if (false)`: loadSessionRows finds
+//   every session listInvitedSessions has just listed; reply.ts recordOwnReply()'s `if (!updated)` → `false` (and
+//   its message, no coverage): the update has no nonce condition and follows the read of that row in one transaction.
+// - lib/invitations/send.ts queueNotices(): `if (!railway || !rows)` → `false` or `&&` (and its message, no coverage):
+//   it runs after loadSession found the session in the same transaction, and a session's railway is a NOT NULL foreign
+//   key; a CANCEL's `(inv.sentSequence ?? -1) + 1` → `?? +1` (no coverage): a cancellation goes only to invitations
+//   sent something, whose sentSequence is written with that mail; isUpdate's `input.method === 'REQUEST'` → `true` or
+//   `||` (3): for a CANCEL the subject and body read the method before isUpdate, and list changes for a REQUEST only;
+//   isUpdate's `inv.mailCount > 0` → `>= 0` or `true` (2): with no mail the standing is never affected (standingOf
+//   returns early); a reminder's `if (added)` → `true` and its else (no coverage, 2): the reminder's key counts
+//   reminderCount, which each reminder raises in the same transaction, so it is always new; a reminder mark's
+//   `sentSequence ?? session.sequence` → `&&`: markInvitationsReminded reads only the ids; remindAwaitingReply's
+//   `method: 'REQUEST'` → `''`: a reminder's subject and body tell only CANCEL apart.
+// - lib/invitations/send.ts, shortcuts and guards: inviteToSession()'s members-by-address map emptied (line 231, 2):
+//   getUserByEmail then finds the same user; its already-invited filter dropped (247, 248): insertInvitations skips
+//   existing invitations (onConflictDoNothing) and returns only the new rows; queueSessionNotices' `kind === 'update'`
+//   → `true` computes standings "pending" does not read, and the optional chaining in `standings?.get(i.id)?.affected`
+//   (2): in that branch the standings exist and hold every invitation; queueInvitationAgain's `resend: mailCount > 0`
+//   → `>= 0` or `true` (2): with mailCount 0 invitationDedupeKey's `resend ? … : ''` reads 0 as no resend.
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',

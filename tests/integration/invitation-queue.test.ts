@@ -1,6 +1,6 @@
 import { and, desc, eq, sql } from 'drizzle-orm';
 import ICAL from 'ical.js';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it, vi } from 'vitest';
 import { getDb } from '@/db';
 import { getRailwaySession, listSessionInvitations } from '@/db/queries/invitation-records';
 import * as t from '@/db/schema';
@@ -138,6 +138,19 @@ describe('queueing the invitations', () => {
     expect(planner.text).toContain('Your runs (2):');
     expect(inv(w.operator.id)).toMatchObject({ mailCount: 1, sentSequence: 0 });
     expect(audit('send-pending')).toEqual([expect.objectContaining({ userId: w.host.id, entity: 'session', entityId: session.id, detail: { queued: 3, skipped: 0 } })]);
+  });
+
+  it('an invitation and a reminder are each marked with their kind in the outbox', async () => {
+    // Imported afresh here: the kinds are module-level values, and a mutation test switches its change
+    // on only after the test file's own imports have run.
+    vi.resetModules();
+    const fresh = await import('@/lib/invitations/send');
+    const { w, session, inv, mailOf } = world();
+    fresh.queueSessionNotices({ railwayId: w.railway.id, sessionId: session.id, host: w.host, kind: 'pending' });
+    fresh.remindAwaitingReply({ railwayId: w.railway.id, sessionId: session.id, host: w.host });
+    const op = inv(w.operator.id);
+    expect(mailOf(op.id).map((m) => m.kind)).toEqual(['session-invitation']);
+    expect(db().select().from(t.outbox).where(eq(t.outbox.dedupeKey, `reminder:${op.id}:1`)).get()!.kind).toBe('session-reminder');
   });
 
   it('"pending" goes only to those never sent anything', () => {

@@ -1,7 +1,16 @@
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import type { RunAssignment } from '@/lib/invitations/assignments';
 import { sampleRun } from '../shared/run-assignment';
-import { changesBetween, describeChange, parseTold, summariseChanges, toldOf, type Change, type Told } from '@/lib/invitations/changes';
+import { changesBetween, summariseChanges, toldOf, type Change, type Told } from '@/lib/invitations/changes';
+
+/**
+ * The module imported afresh inside a test: its schema and its run wording are module-level values,
+ * and a mutation test switches its change on only after the test file's own imports have run.
+ */
+async function freshChanges() {
+  vi.resetModules();
+  return import('@/lib/invitations/changes');
+}
 
 // What an invitee was told, and what changed for them since (lib/invitations/changes.ts). No
 // published source defines this comparison: the checks follow common practice for calendar updates
@@ -48,7 +57,8 @@ describe('what an invitation told a person (the stored snapshot)', () => {
     expect(toldOf(session, [])).toEqual(told([]));
   });
 
-  it('reads back what it stored, and takes a missing, unreadable or oversized snapshot as none', () => {
+  it('reads back what it stored, and takes a missing, unreadable or oversized snapshot as none', async () => {
+    const { parseTold } = await freshChanges();
     const snapshot = toldOf(session, [assignment(), assignment({ runId: 'r2', route: [] })]);
     expect(parseTold(JSON.stringify(snapshot))).toEqual(snapshot);
     expect(parseTold(JSON.stringify(told([])))).toEqual(told([]));
@@ -120,7 +130,8 @@ describe('what changed for a person', () => {
 });
 
 describe('saying what changed', () => {
-  it('one sentence per change, as the update e-mail writes it', () => {
+  it('one sentence per change, as the update e-mail writes it', async () => {
+    const { describeChange } = await freshChanges();
     const before = runTold();
     const after = runTold({ fastDepart: '07:00', fastArrive: '07:08', realDepart: '18:15', realArrive: '18:17', trainName: 'Local', cabName: 'Cab 2', route: ['Yard', 'Halt'] });
     expect(describeChange({ kind: 'session-time', before: 'Sat 12 Dec, 18:00 to 21:00', after: 'Sat 12 Dec, 19:00 to 22:00' })).toBe(
