@@ -137,6 +137,15 @@
 //   → `true` computes standings "pending" does not read, and the optional chaining in `standings?.get(i.id)?.affected`
 //   (2): in that branch the standings exist and hold every invitation; queueInvitationAgain's `resend: mailCount > 0`
 //   → `>= 0` or `true` (2): with mailCount 0 invitationDedupeKey's `resend ? … : ''` reads 0 as no resend.
+// - lib/invitations/message.ts formatInZone()'s cache of formatted times: its key (35, 36: the options written
+//   another way), the lookup (38, `=== undefined` → `true`) and the size bound (39, 4): a miss or a clear formats the
+//   same string again, and the callers pass either no options or the one date-only set, so no two keys collide;
+//   `c.method === 'CANCEL' || !c.replyBy` → `false`/`''` (120, 2): a cancellation writes no reply lines to put the
+//   deadline in. assignments.ts `byCab.get(run.cabId) ?? []` (68): byCab is built from the same runs.
+// - lib/invitations/reply-token.ts: `given.length !== expected.length ||` → `false`: the pattern admits only 43
+//   base64url characters, 32 bytes, the length of an HMAC-SHA256; claimedInvitationId's `?? ''` (split always has a
+//   first part), `[1]?.slice` → `[1].slice` (the TypeError is caught and gives 'unknown' as well) and its catch block
+//   (no coverage, 2: Buffer.from with base64url skips characters it cannot read rather than throwing).
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',

@@ -80,3 +80,24 @@ describe('a person’s runs, as the e-mail, My runs and the calendar describe th
     expect(everything.find((r) => r.runId === 'r4')).toMatchObject({ cabName: 'Cab 2', before: null, after: null, operatorName: null });
   });
 });
+
+describe('rows the description cannot fully resolve', () => {
+  it('takes steps by their position, a run without steps as standing nowhere, and names what it cannot find by a placeholder', () => {
+    const base = rows(new Date('2026-12-05T18:30:00Z'), 'Europe/London');
+    const odd = {
+      ...base,
+      // Steps in reverse order, and none for r3.
+      steps: [...base.steps].reverse().filter((s) => s.runId !== 'r3'),
+      trains: [],
+      cabs: base.cabs.filter((c) => c.id !== 'c2'),
+      blocks: base.blocks.filter((b) => b.id !== 'b2'),
+      operators: base.operators.filter((o) => o.id !== 'u2'),
+    } as Rows;
+    const byId = new Map(describeRuns(odd).map((r) => [r.runId, r]));
+    expect(byId.get('r1')).toMatchObject({ route: ['Yard', '?', 'Terminus'], trainName: 'Unknown train', cabName: 'Cab 1', standBeforeS: 120, standAfterS: 180 });
+    expect(byId.get('r1')!.after).toEqual({ runId: 'r2', operatorId: 'u2', operatorName: null, trainName: 'Unknown train', fastDepart: '07:00', realDepart: '18:45' });
+    expect(byId.get('r2')).toMatchObject({ operatorId: 'u2', operatorName: null });
+    expect(byId.get('r3')).toMatchObject({ route: [], standBeforeS: 0, standAfterS: 0 });
+    expect(byId.get('r4')).toMatchObject({ cabName: 'Unknown cab', operatorId: null, operatorName: null });
+  });
+});

@@ -148,6 +148,11 @@ describe('invitation e-mail', () => {
     expect(bare).not.toContain('Where:');
     expect(bare).not.toContain('Other duties');
     expect(bare).toContain('(Europe/Berlin)</p>\n<p>You have no runs');
+    // A cancellation with two runs and no other duties: the runs one after another, then only the footer.
+    const second = { ...run, runId: 'r2', trainName: 'Express' };
+    const cancelled = buildInvitationBody(content({ method: 'CANCEL', runs: [run, second], duties: [{ duty: 'driver', note: '' }] })).html;
+    expect(cancelled).toMatch(/Goods on Cab 1<\/strong><br>[^]*?<\/li><li><strong>06:40–06:48 fast \(18:10–18:12 real\): Express on Cab 1/);
+    expect(cancelled).toContain('</li></ol>\n<p>— Fishplate, for Valley &#38; Hill</p></body></html>');
     const quote = buildInvitationBody(content({ invitee: { name: "O'Neil", email: 'o@example.org' } })).html;
     expect(quote).toContain('<p>Hello O&#39;Neil,</p>');
   });
@@ -162,6 +167,9 @@ describe('invitation e-mail', () => {
     expect(reminder.text).toContain('\nHal has not had your reply yet for this operating session.\n');
     for (const part of [reminder.text, reminder.html, buildInvitationBody(content({ changes })).text]) expect(part).not.toContain('What changed');
     expect(buildInvitationBody(content({ method: 'CANCEL', isUpdate: true, changes })).text).not.toContain('What changed');
+    // An update with no list of changes says none.
+    const unlisted = buildInvitationBody(content({ isUpdate: true }));
+    for (const part of [unlisted.text, unlisted.html]) expect(part).not.toContain('What changed');
   });
 
   it('a reply-by time is given in the session zone, in text and HTML, and never on a cancellation', () => {

@@ -92,5 +92,8 @@ describe('reply link tokens (HMAC-SHA256, RFC 2104 / FIPS 180-4, in base64url, R
     expect(claimedInvitationId(tokenOf(`r\n${'i'.repeat(150)}\n1\n1`))).toBe('i'.repeat(100));
     expect(claimedInvitationId('bm8tbmV3bGluZQ.sig')).toBe('unknown'); // "no-newline"
     expect(claimedInvitationId('')).toBe('unknown');
+    // Only the first 600 characters of the claim are read (bounded work on input from outside, common
+    // practice): an id past them is not found.
+    expect(claimedInvitationId(tokenOf(`${'r'.repeat(500)}\ninvitation-1\n1\n1`))).toBe('unknown');
   });
 });
