@@ -7,13 +7,14 @@ import type { Member } from '@/lib/auth';
 import { AppError } from '@/lib/errors';
 import { applyClockAction, clockView, MAX_CLOCK_ACTIONS, readClockNow } from '@/lib/live/clock';
 import { CATCH_UP_LIMIT, catchUpFrames, eventFrame, liveSubscriberCount, publishLive, subscribeLive } from '@/lib/live/hub';
+import { buildSessionReport, reportCsv } from '@/lib/live/report';
 import { makeReport, MAX_REPORTS, runReportHistory } from '@/lib/live/reports';
 import { lastEventIdOf, livePoll, liveStream, MAX_STREAMS } from '@/lib/live/stream';
 import { applyRepair, assertHost } from '@/lib/live/repair';
 import { buildLiveState, liveStateJson } from '@/lib/live/state';
 import { insertRuns } from '@/db/queries/runs';
 import { getSessionById } from '@/db/queries/session-records';
-import { followingSession } from './authz/live';
+import { followingSession, sessionWithRuns } from './authz/live';
 import { makeSessionWorld, timedSteps } from './authz/sessions';
 import { makeWorld } from './world';
 
@@ -550,5 +551,211 @@ describe('the host’s repair (lib/live/repair.ts)', () => {
     const moves = buildLiveState(sid, at(0)).repair.map((m) => ({ runId: m.runId, delayS: m.delayS }));
     expect(moves).toHaveLength(2);
     expect(applyRepair(session, host, { moves }, at(0)).summary).toBe(`${host.user.name} repaired the timetable: 2 runs of 2 trains moved`);
+  });
+});
+
+/** One run along the test line at 60 km/h (timed by timeRun, tests/integration/authz/sessions.ts). */
+const runOn = (layout: Parameters<typeof timedSteps>[0], who: { trainId: string; cabId: string; operatorId: string | null }, keys: string[], departS: number) => ({
+  ...who,
+  speedKmh: 60,
+  note: '',
+  ...timedSteps(layout, keys, departS),
+});
+
+/** Starts the session's clock at T0 as the host and answers a reporter: report(runId, kind, realS, reason?). */
+function hostReporting(w: ReturnType<typeof makeWorld>, session: Parameters<typeof makeReport>[0]) {
+  const host: Member = { user: w.host, railwayId: w.railway.id, role: 'host' };
+  applyClockAction(session, host, { action: 'start' }, at(0));
+  return (runId: string, kind: 'departed' | 'arrived' | 'stopped', realS: number, reason?: 'stalled' | 'blocked') =>
+    makeReport(session, host, runId, { kind, ...(reason ? { reason } : {}) }, at(realS));
+}
+
+describe('the report after the session (lib/live/report.ts)', () => {
+  // Seven runs on the test layout at 4:1, far enough apart not to meet; the punctuality margin is
+  // the session's 3 fast minutes (45 real s). Fast clock ratio arithmetic and the tallies are common
+  // practice: fast min = real s × 4 / 60, one decimal; a median of an even count is the mean of the middle two.
+  function reportWorld() {
+    const w = makeWorld();
+    let nightMail = '';
+    const { session, runIds, layout } = sessionWithRuns(
+      w,
+      (l) => {
+        const db = getDb();
+        // A third train whose name a spreadsheet would read as a formula.
+        nightMail = db.insert(t.trains).values({ layoutId: l.layoutId, name: '=Night mail', lightingAmps: 0, lengthMm: 500 }).returning().get().id;
+        const loco = db.select().from(t.trainLocomotives).where(eq(t.trainLocomotives.trainId, l.trains.t1)).get()!.locomotiveId;
+        db.insert(t.trainLocomotives).values({ trainId: nightMail, locomotiveId: loco, position: 0 }).run();
+        const run = (trainId: string, cabId: string, operatorId: string | null, keys: string[], departS: number) => runOn(l, { trainId, cabId, operatorId }, keys, departS);
+        return [
+          run(l.trains.t1, l.cabs.c1, w.planner.id, ['A', 'B', 'C'], 100),
+          run(l.trains.t1, l.cabs.c1, w.planner.id, ['C', 'B', 'A'], 400),
+          run(l.trains.t2, l.cabs.c2, w.operator.id, ['D', 'C', 'B'], 700),
+          run(l.trains.t2, l.cabs.c2, null, ['B', 'C', 'D'], 1000),
+          run(l.trains.t2, l.cabs.c2, null, ['D', 'C', 'B'], 1300),
+          run(l.trains.t2, l.cabs.c2, null, ['B', 'C', 'D'], 1600),
+          run(nightMail, l.cabs.c1, null, ['A', 'B', 'C'], 1900),
+        ];
+      },
+      'Report evening',
+    );
+    const [r1, r2, r3, r4, r5, r6, r7] = runIds as [string, string, string, string, string, string, string];
+    const say = hostReporting(w, session);
+    say(r1, 'departed', 160); // 60 s = 4 fast min late
+    say(r1, 'arrived', 180); // planned 110.44: 69.56 s = 4.6 fast min late
+    say(r2, 'departed', 340); // 60 s early
+    say(r2, 'stopped', 342, 'stalled'); // in block B (entered at 340, C left at 342.61)
+    say(r2, 'departed', 350); // stood 8 s = 0.5 fast min
+    say(r2, 'arrived', 380); // 30.44 s early = 2.0 fast min
+    say(r3, 'departed', 760);
+    say(r3, 'arrived', 780);
+    say(r4, 'departed', 1045); // 45 s = exactly the 3 fast min margin: punctual
+    say(r4, 'arrived', 1055.44);
+    say(r5, 'departed', 1400); // 100 s = 6.7 fast min late
+    say(r5, 'arrived', 1420); // 109.56 s = 7.3 fast min late
+    say(r7, 'departed', 1850); // 50 s = 3.3 fast min early: not punctual either
+    say(r7, 'stopped', 1853, 'blocked'); // still standing
+    return { w, session, layout, ids: { r1, r2, r3, r4, r5, r6, r7 } };
+  }
+
+  it('puts every run planned against actual, counts punctuality within the margin, and tallies delay by train, operator and block', () => {
+    const { w, session, layout, ids } = reportWorld();
+    const report = buildSessionReport(session.id);
+    expect(report.session).toEqual({ id: session.id, title: 'Report evening', ratio: 4, fastStart: '06:00' });
+    expect(report.punctualWithinFastMin).toBe(3);
+    const row = (runId: string) => report.runs.find((r) => r.runId === runId);
+    expect(row(ids.r1)).toEqual({
+      runId: ids.r1, train: 'Morning stopper', cab: 'Cab 1', operator: w.planner.name,
+      plannedDepart: '06:06', actualDepart: '06:10', departDelayFastMin: 4, plannedArrive: '06:07', actualArrive: '06:12', arriveDelayFastMin: 4.6,
+      stops: 0, stoppedFastMin: 0, punctual: false, delayBeganFastMin: 4,
+    });
+    expect(row(ids.r2)).toMatchObject({ actualDepart: '06:22', departDelayFastMin: -4, arriveDelayFastMin: -2, stops: 1, stoppedFastMin: 0.5, punctual: false, delayBeganFastMin: 0 });
+    expect(row(ids.r3)).toMatchObject({ operator: w.operator.name, departDelayFastMin: 4, arriveDelayFastMin: 4.6, punctual: false });
+    expect(row(ids.r4)).toMatchObject({ operator: null, departDelayFastMin: 3, arriveDelayFastMin: 3, punctual: true, delayBeganFastMin: 3 });
+    expect(row(ids.r5)).toMatchObject({ departDelayFastMin: 6.7, arriveDelayFastMin: 7.3, punctual: false, delayBeganFastMin: 6.7 });
+    expect(row(ids.r6)).toEqual({
+      runId: ids.r6, train: 'Evening goods', cab: 'Cab 2', operator: null,
+      plannedDepart: '07:46', actualDepart: null, departDelayFastMin: null, plannedArrive: '07:47', actualArrive: null, arriveDelayFastMin: null,
+      stops: 0, stoppedFastMin: 0, punctual: null, delayBeganFastMin: 0,
+    });
+    // An open stop has lasted nothing yet.
+    expect(row(ids.r7)).toMatchObject({ train: '=Night mail', departDelayFastMin: -3.3, actualArrive: null, arriveDelayFastMin: null, stops: 1, stoppedFastMin: 0, punctual: false, delayBeganFastMin: 0 });
+    expect(report.runs.map((r) => r.runId)).toEqual([ids.r1, ids.r2, ids.r3, ids.r4, ids.r5, ids.r6, ids.r7]);
+
+    // Six departed, one punctual (the one exactly at the margin): 1/6 to three places.
+    expect(report.punctuality).toEqual({ departed: 6, punctual: 1, share: 0.167, notRun: 1 });
+    // A run's delay is the larger of its late start and its late arrival; early counts as none.
+    expect(report.delayByTrain).toEqual([
+      { name: 'Evening goods', delayFastMin: 14.9, runs: 3 },
+      { name: 'Morning stopper', delayFastMin: 4.6, runs: 2 },
+      { name: '=Night mail', delayFastMin: 0, runs: 1 },
+    ]);
+    // A tie is broken by name (the planner's runs were tallied first).
+    expect(report.delayByOperator).toEqual([
+      { name: w.operator.name, delayFastMin: 4.6, runs: 1 },
+      { name: w.planner.name, delayFastMin: 4.6, runs: 2 },
+    ]);
+    // Late starts count against the block left from, stops against the block stood in; blocks with none are left out.
+    expect(report.delayByBlock).toEqual([
+      { name: 'Block D', delayFastMin: 10.7, runs: 2 },
+      { name: 'Block A', delayFastMin: 4, runs: 2 },
+      { name: 'Block B', delayFastMin: 3.5, runs: 3 },
+    ]);
+    expect(report.delaysBeganIn).toEqual([
+      { name: 'Block D', delayFastMin: 10.7, runs: 2 },
+      { name: 'Block A', delayFastMin: 4, runs: 1 },
+      { name: 'Block B', delayFastMin: 3.5, runs: 3 },
+    ]);
+    // Evening goods: 2 of 3 late; late arrivals 69, 45 and 109.5 real s, median 69: 60 + 69 up to the next 15 s = 135.
+    // Morning stopper: 1 of 2 late (the early one is not late); 69 and 0 s, median 34.5: 60 + 34.5 → 105.
+    // Night mail ran once: no suggestion.
+    expect(report.suggestedStands).toEqual([
+      { train: 'Evening goods', lateRuns: 2, runs: 3, standS: 60, suggestedStandS: 135 },
+      { train: 'Morning stopper', lateRuns: 1, runs: 2, standS: 60, suggestedStandS: 105 },
+    ]);
+    const graph = new Map(report.graph.map((g) => [g.runId, g]));
+    expect(graph.get(ids.r6)).toMatchObject({ train: 'Evening goods', actual: null });
+    expect(graph.get(ids.r1)!.planned[0]).toMatchObject({ blockId: layout.blocks.A, enterS: 70 });
+    expect(graph.get(ids.r1)!.actual![0]).toMatchObject({ blockId: layout.blocks.A, enterS: 130 });
+    expect(report.blocks).toEqual(['A', 'B', 'C', 'D'].map((k, i) => ({ id: layout.blocks[k], name: `Block ${k}`, positionMm: i * 1000, lengthMm: 1000 })));
+  });
+
+  it('takes another margin when asked', () => {
+    const { session } = reportWorld();
+    const report = buildSessionReport(session.id, 5);
+    expect(report.punctualWithinFastMin).toBe(5);
+    // Within 5 fast min: all but the 6.7 min late one.
+    expect(report.punctuality).toEqual({ departed: 6, punctual: 5, share: 0.833, notRun: 1 });
+  });
+
+  it('writes the run table as CSV with CRLF line ends, a formula-like cell quoted with an apostrophe (OWASP "CSV injection")', () => {
+    const { session, ids } = reportWorld();
+    const lines = reportCsv(buildSessionReport(session.id)).split('\r\n');
+    expect(lines[0]).toBe('runId,train,cab,operator,plannedDepart,actualDepart,departDelayFastMin,plannedArrive,actualArrive,arriveDelayFastMin,stops,stoppedFastMin,punctual,delayBeganFastMin');
+    expect(lines).toHaveLength(8);
+    // RFC 4180: numbers, booleans and empty cells as they are; a negative number is not a formula.
+    expect(lines[6]).toBe(`${ids.r6},Evening goods,Cab 2,,07:46,,,07:47,,,0,0,,0`);
+    expect(lines[7]).toBe(`${ids.r7},'=Night mail,Cab 1,,08:06,08:03,-3.3,08:07,,,1,0,false,0`);
+    expect(lines[4]).toBe(`${ids.r4},Evening goods,Cab 2,,07:06,07:09,3,07:07,07:10,3,0,0,true,3`);
+  });
+
+  it('counts as begun with a run only the delay an earlier run did not hand on', () => {
+    const w = makeWorld();
+    // The same train and cab: A→C at 60 s, back C→A at 200 s.
+    const { session, runIds } = sessionWithRuns(w, (l) => [
+      runOn(l, { trainId: l.trains.t1, cabId: l.cabs.c1, operatorId: null }, ['A', 'B', 'C'], 60),
+      runOn(l, { trainId: l.trains.t1, cabId: l.cabs.c1, operatorId: null }, ['C', 'B', 'A'], 200),
+    ]);
+    const [out, back] = runIds as [string, string];
+    const say = hostReporting(w, session);
+    say(out, 'departed', 150);
+    say(out, 'arrived', 250);
+    // The train is back at 250 s, 50 s after the return was due: of its 80 s late start only 30 s
+    // (2.0 fast min) began with the return.
+    say(back, 'departed', 280);
+    const rows = buildSessionReport(session.id).runs;
+    expect(rows.find((r) => r.runId === back)).toMatchObject({ departDelayFastMin: 5.3, delayBeganFastMin: 2 });
+    expect(rows.find((r) => r.runId === out)).toMatchObject({ departDelayFastMin: 6, delayBeganFastMin: 6 });
+  });
+});
+
+describe('the live state: clock, clashes and what is kept (lib/live/state.ts)', () => {
+  it('a run not reported by its time is predicted to leave now once the clock runs, not before it starts', () => {
+    const { sid, session, s, host } = setup();
+    // The world's two runs meet in block B as planned: that clash is not new.
+    expect(buildLiveState(sid, at(200)).newFindings).toEqual([]);
+    expect(buildLiveState(sid, at(200)).runs[0]).toMatchObject({ departS: 60, status: 'waiting' });
+    applyClockAction(session, host, { action: 'start' }, at(0));
+    const late = buildLiveState(sid, at(200)).runs.find((r) => r.id === s.runIds[0])!;
+    expect(late.departS).toBe(200);
+    expect(late.status).not.toBe('waiting');
+  });
+
+  it('names new block, cab, operator and train clashes, and keeps a run that has left where it is, stopped or arrived', async () => {
+    const { w } = setup();
+    const { session, runIds } = sessionWithRuns(w, (l) => [
+      runOn(l, { trainId: l.trains.t1, cabId: l.cabs.c1, operatorId: w.operator.id }, ['A', 'B', 'C'], 60),
+      runOn(l, { trainId: l.trains.t1, cabId: l.cabs.c1, operatorId: w.operator.id }, ['A', 'B', 'C'], 140),
+      // Meets the first in block B as planned: a clash the timetable in force already has.
+      runOn(l, { trainId: l.trains.t2, cabId: l.cabs.c2, operatorId: null }, ['D', 'C', 'B'], 65),
+    ]);
+    const [first, second] = runIds as [string, string];
+    const say = hostReporting(w, session);
+    say(first, 'departed', 150);
+    say(second, 'departed', 151);
+    // Loaded afresh, so that its list of clash kinds is read in this test.
+    vi.resetModules();
+    const fresh = await import('@/lib/live/state');
+    const state = fresh.buildLiveState(session.id, at(152));
+    // The two runs of one train, cab and operator both under way: three clashes of the pair; and the
+    // third run, now due at 152 s, meets the first in block B later than planned.
+    const pair = state.newFindings.filter((f) => f.ids.includes(first) && f.ids.includes(second)).map((f) => f.kind);
+    expect(pair.sort()).toEqual(['cab-double-booked', 'operator-double-booked', 'train-double-booked']);
+    expect(state.newFindings.map((f) => f.kind).sort()).toEqual(['block-overlap', 'cab-double-booked', 'operator-double-booked', 'train-double-booked']);
+    expect(state.newFindings.find((f) => f.kind === 'cab-double-booked')).toMatchObject({ fromS: 151, toS: 160.44 });
+    expect(state.repair.map((m) => m.runId)).not.toContain(second);
+    say(second, 'stopped', 153);
+    expect(buildLiveState(session.id, at(154)).repair.map((m) => m.runId)).not.toContain(second);
+    say(second, 'arrived', 160);
+    expect(buildLiveState(session.id, at(161)).repair.map((m) => m.runId)).not.toContain(second);
   });
 });

@@ -1,5 +1,5 @@
 import { getDb } from '@/db';
-import { insertRuns } from '@/db/queries/runs';
+import { insertRuns, type RunValues } from '@/db/queries/runs';
 import * as t from '@/db/schema';
 import { makeSessionWorld, timedSteps } from './sessions';
 import { anyMember, hostOnly, plannerUp, type AuthzCase, type AuthzExemption, type Expect, type World } from './shared';
@@ -17,19 +17,31 @@ export async function startedSessionWorld(w: World) {
   return world;
 }
 
-/** A second session on the same test layout: train 1 runs A→C at 60 s, train 2 follows the same way 60 s after it arrives. */
-export function followingSession(w: World) {
+type Layout = ReturnType<typeof makeSessionWorld>['layout'];
+
+/** A second session on the session world's test layout (its session row copied, the operator invited) with the runs given. */
+export function sessionWithRuns(w: World, runs: (layout: Layout) => RunValues[], title = 'Following trains') {
   const s = makeSessionWorld(w);
   const db = getDb();
   const { id: _id, createdAt: _c, ...rest } = s.session;
-  const session = db.insert(t.sessions).values({ ...rest, title: 'Following trains' }).returning().get();
+  const session = db.insert(t.sessions).values({ ...rest, title }).returning().get();
   db.insert(t.invitations).values({ sessionId: session.id, userId: w.operator.id, email: w.operator.email }).run();
-  const first = timedSteps(s.layout, ['A', 'B', 'C'], 60);
-  const second = timedSteps(s.layout, ['A', 'B', 'C'], first.arriveS + 60);
-  const [leader, follower] = insertRuns(session.id, [
-    { trainId: s.layout.trains.t1, cabId: s.layout.cabs.c1, operatorId: w.operator.id, speedKmh: 60, note: '', ...first },
-    { trainId: s.layout.trains.t2, cabId: s.layout.cabs.c2, operatorId: w.planner.id, speedKmh: 60, note: '', ...second },
-  ]) as [string, string];
+  return { session, layout: s.layout, runIds: insertRuns(session.id, runs(s.layout)) };
+}
+
+/** A second session on the same test layout: train 1 runs A→C at 60 s, train 2 follows the same way 60 s after it arrives. */
+export function followingSession(w: World) {
+  let first!: ReturnType<typeof timedSteps>;
+  let second!: ReturnType<typeof timedSteps>;
+  const { session, runIds } = sessionWithRuns(w, (layout) => {
+    first = timedSteps(layout, ['A', 'B', 'C'], 60);
+    second = timedSteps(layout, ['A', 'B', 'C'], first.arriveS + 60);
+    return [
+      { trainId: layout.trains.t1, cabId: layout.cabs.c1, operatorId: w.operator.id, speedKmh: 60, note: '', ...first },
+      { trainId: layout.trains.t2, cabId: layout.cabs.c2, operatorId: w.planner.id, speedKmh: 60, note: '', ...second },
+    ];
+  });
+  const [leader, follower] = runIds as [string, string];
   return { sid: session.id, leader, follower, first, second };
 }
 
