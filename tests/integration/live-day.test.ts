@@ -177,9 +177,12 @@ describe('reports from operators (lib/live/reports.ts)', () => {
   it('lets the run’s operator, a planner or the host report; only the operator or the host correct', () => {
     const { session, s, operator, planner, host } = setup();
     applyClockAction(session, host, { action: 'start' }, at(0));
-    expect(refusal(() => makeReport(session, operator, s.runIds[1], { kind: 'departed' }, at(65))).code).toBe('forbidden');
+    const notYours = refusal(() => makeReport(session, operator, s.runIds[1], { kind: 'departed' }, at(65)));
+    expect([notYours.code, notYours.message]).toEqual(['forbidden', 'Your role on this railway does not allow you to report for a run that is not yours.']);
     expect(makeReport(session, planner, s.runIds[1], { kind: 'departed' }, at(65)).live.summary).toBe('Evening goods departed at 06:04, on time');
-    expect(refusal(() => makeReport(session, planner, s.runIds[1], { kind: 'departed', fast: '06:05' }, at(70))).code).toBe('forbidden');
+    expect(refusal(() => makeReport(session, planner, s.runIds[1], { kind: 'departed', fast: '06:05' }, at(70))).message).toBe(
+      'Your role on this railway does not allow you to correct a report (the run’s operator or the host can).',
+    );
     expect(refusal(() => makeReport(session, planner, s.runIds[1], { kind: 'departed', withdraw: true }, at(70))).code).toBe('forbidden');
     expect(makeReport(session, host, s.runIds[1], { kind: 'departed', withdraw: true }, at(70)).report.withdrawn).toBe(true);
     // No audit row for a plain report.
@@ -218,7 +221,7 @@ describe('reports from operators (lib/live/reports.ts)', () => {
         { id: expect.any(String), kind: 'stopped', reason: 'blocked', fast: '06:05', reportedAt: new Date(at(80)).toISOString(), by: operator.user.name, correction: false, withdrawn: false },
       ],
     });
-    expect(refusal(() => runReportHistory(session, operator, s.runIds[1])).code).toBe('forbidden');
+    expect(refusal(() => runReportHistory(session, operator, s.runIds[1])).message).toBe('Your role on this railway does not allow you to read the reports of a run that is not yours.');
     expect(runReportHistory(session, host, s.runIds[1]).reports).toEqual([]);
     expect(refusal(() => runReportHistory(session, host, 'no-such-run')).code).toBe('not_found');
   });
@@ -305,6 +308,28 @@ describe('the event stream hub (lib/live/hub.ts)', () => {
     publishLive(sid);
     await new Promise((resolve) => setImmediate(resolve));
     expect(behind).toHaveLength(1);
+  });
+
+  it('keeps publishing to the streams still open when one closes, and does nothing when the last closed before the change went out', async () => {
+    const { sid, session, host } = setup();
+    const kept: string[] = [];
+    const closing = subscribeLive(sid, { lastSeq: 0, write: () => {} });
+    const off = subscribeLive(sid, { lastSeq: 0, write: (chunk) => void kept.push(chunk) });
+    closing();
+    applyClockAction(session, host, { action: 'start' }, Date.now());
+    publishLive(sid);
+    await new Promise((resolve) => setImmediate(resolve));
+    expect(kept).toHaveLength(1);
+    expect(kept[0]).toMatch(/^id: 1\n/);
+
+    const logged = vi.spyOn(console, 'error').mockImplementation(() => {});
+    applyClockAction(session, host, { action: 'pause' }, Date.now());
+    publishLive(sid);
+    off();
+    await new Promise((resolve) => setImmediate(resolve));
+    expect(logged).not.toHaveBeenCalled();
+    logged.mockRestore();
+    expect(kept).toHaveLength(1);
   });
 
   it('logs a change it could not publish and goes on', async () => {
