@@ -1,4 +1,4 @@
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import { describe, expect, it, vi } from 'vitest';
 import { getDb } from '@/db';
 import { listClockEvents, listReports } from '@/db/queries/live';
@@ -702,6 +702,17 @@ describe('the report after the session (lib/live/report.ts)', () => {
     expect(graph.get(ids.r1)!.planned[0]).toMatchObject({ blockId: layout.blocks.A, enterS: 70 });
     expect(graph.get(ids.r1)!.actual![0]).toMatchObject({ blockId: layout.blocks.A, enterS: 130 });
     expect(report.blocks).toEqual(['A', 'B', 'C', 'D'].map((k, i) => ({ id: layout.blocks[k], name: `Block ${k}`, positionMm: i * 1000, lengthMm: 1000 })));
+  });
+
+  it('names an operator who has left the railway as no one on the run and "Operator" in the tally', () => {
+    const { w, session, ids } = reportWorld();
+    getDb().delete(t.memberships).where(and(eq(t.memberships.userId, w.operator.id), eq(t.memberships.railwayId, w.railway.id))).run();
+    const report = buildSessionReport(session.id);
+    expect(report.runs.find((r) => r.runId === ids.r3)!.operator).toBeNull();
+    expect(report.delayByOperator).toEqual([
+      { name: 'Operator', delayFastMin: 4.6, runs: 1 },
+      { name: w.planner.name, delayFastMin: 4.6, runs: 2 },
+    ]);
   });
 
   it('takes another margin when asked', () => {
