@@ -757,10 +757,14 @@ describe('the report after the session (lib/live/report.ts)', () => {
 describe('the live state: clock, clashes and what is kept (lib/live/state.ts)', () => {
   it('a run not reported by its time is predicted to leave now once the clock runs, not before it starts', () => {
     const { sid, session, s, host } = setup();
+    // A run due at the session's first second: before the clock starts nothing is due, not even it.
+    const [dawn] = insertRuns(sid, [{ trainId: s.layout.trains.t2, cabId: s.layout.cabs.c2, operatorId: null, speedKmh: 60, note: '', departS: 0, arriveS: 10, steps: [{ blockId: s.layout.blocks.D!, enterS: 0, exitS: 10 }] }]);
+    expect(buildLiveState(sid, at(0)).runs.find((r) => r.id === dawn)!.status).toBe('waiting');
     // The world's two runs meet in block B as planned: that clash is not new.
     expect(buildLiveState(sid, at(200)).newFindings).toEqual([]);
-    expect(buildLiveState(sid, at(200)).runs[0]).toMatchObject({ departS: 60, status: 'waiting' });
+    expect(buildLiveState(sid, at(200)).runs.find((r) => r.id === s.runIds[0])).toMatchObject({ departS: 60, status: 'waiting' });
     applyClockAction(session, host, { action: 'start' }, at(0));
+    expect(buildLiveState(sid, at(0)).runs.find((r) => r.id === dawn)!.status).toBe('due');
     const late = buildLiveState(sid, at(200)).runs.find((r) => r.id === s.runIds[0])!;
     expect(late.departS).toBe(200);
     expect(late.status).not.toBe('waiting');
