@@ -146,6 +146,27 @@
 //   base64url characters, 32 bytes, the length of an HMAC-SHA256; claimedInvitationId's `?? ''` (split always has a
 //   first part), `[1]?.slice` → `[1].slice` (the TypeError is caught and gives 'unknown' as well) and its catch block
 //   (no coverage, 2: Buffer.from with base64url skips characters it cannot read rather than throwing).
+// - lib/live/hub.ts, memos and guards: unsubscribe's map clean-up `set.size === 0 && get(id) === set` → `false`,
+//   `get(id) !== set` (an empty set left in the map: the publish it schedules finds size 0 and returns, and it
+//   counts 0 streams); publishLive's `|| hub.pending.has(id)` → `&&`/`false` and deliver's `set.size === 0` →
+//   `false` (a second delivery in the same tick finds every stream at the last event and writes nothing; an empty
+//   set loops over nothing); the catch-up memo `frames === undefined` → `true` (the same frames built again).
+// - lib/live/stream.ts: `Number(text.trim())` → `Number(text)` (ECMAScript StringToNumber skips surrounding
+//   white space); the abort listener's `{ once: true }` → `{}`/`once: false` and cleanup's `if (closed) return` →
+//   `false`, `closed = true` → `false` (the DOM Standard's "signal abort" does nothing to an aborted signal, so it fires once; a second clean-up clears a
+//   cleared interval, deletes a deleted subscriber and closes a closed controller inside its try); the
+//   heartbeat's catch block (no coverage: every way a stream ends, abort or cancel, runs cleanup first, which
+//   stops the heartbeat before a write could fail).
+// - lib/live/state.ts: timetableInForce's `filter(([, d]) => d !== 0)` → `true` and removed (repair totals are
+//   sums of positive delays, repairSchema, and applyRetime moves nothing by 0 s); clashKey's join `'|'` → `''`
+//   (ids are UUIDs of one length, so the keys stay distinct). liveStateJson's eviction `cache.size > 200` (4) and
+//   the `??=` of module-level state here and in hub.ts: which session's state is built again within its second,
+//   never what it says; the module-level lines run at import, before Stryker switches a mutant on.
+// - lib/live/reports.ts `stored.filter((r) => r.runId === runId)` → `stored`/`true` (foldReports keys by run and
+//   only this run's entry is read); the `?? 'A train'` fallback and lib/live/report.ts's `?? 'Cab'`, `'Block'`,
+//   `'Train'` (a run's train and cab and its steps' blocks are the layout's, foreign keys read with the plan);
+//   report.ts primaryDelays' `own.departS <= run.departS` → `<` (a run leaving on time begins 0 s either way);
+//   safeCell's `v === undefined` → `false` (no column of a report row is undefined).
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',
