@@ -87,7 +87,8 @@
 //   delay 0, adds intervals already there); `runs.length > 1` → `true`/`>= 1` (one run: both orders agree);
 //   the `cab >= 0`/`operator >= 0`/`block >= 0` lookups → `true`, and the recording side's `cab >= 0`/
 //   `operator >= 0` → `true` and `block < 0` → `false` (a −1 key is written only by one mutant and read
-//   only by another); `depart < freeAt` → `<=` (shiftReaching(t, t) is 0); `arrival > freeAt` → `>=`.
+//   only by another); `depart < freeAt` → `<=` (shiftReaching(t, t) is 0) and its `freeAt !== undefined` →
+//   `true` (`depart < undefined` is false); `arrival > freeAt` → `>=`.
 // - lib/planning/timing.ts timeRun(): `!lengthOf.has(id)` → `true` (its callers pass a plan's blocks, whose
 //   ids planSchema keeps unique); `stretches` `[]` → `["Stryker was here"]` (find's search never settles on
 //   index 0: it would only for x = 0 with movingOn false, and a tail is at x ≥ trainLengthMm > 0).

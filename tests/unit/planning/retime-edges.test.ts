@@ -4,7 +4,7 @@
 import { describe, expect, it } from 'vitest';
 import { applyRetime, planSchema, suggestRetime, toPlanJson, type Plan } from '@/lib/planning';
 
-type RunRow = { id: string; train: string; cab: string; block: string; dep: number; arr: number };
+type RunRow = { id: string; train: string; cab: string; block: string; dep: number; arr: number; op?: string };
 
 /** Each run stands in one block for its whole time; trains, cabs and blocks are made as named. */
 function plan(rows: RunRow[]): Plan {
@@ -21,8 +21,8 @@ function plan(rows: RunRow[]): Plan {
     links: [],
     locomotives: unique(rows.map((r) => r.train)).map((t) => ({ id: `l-${t}`, name: `Loco ${t}`, runningAmps: 0.3, stallAmps: 0.9, ratedVolts: 12 })),
     trains: unique(rows.map((r) => r.train)).map((id) => ({ id, name: id, locomotiveIds: [`l-${id}`], lightingAmps: 0, lengthMm: 1000 })),
-    operators: [],
-    runs: rows.map((r) => ({ id: r.id, trainId: r.train, cabId: r.cab, operatorId: null, departS: r.dep, arriveS: r.arr, steps: [{ blockId: r.block, enterS: r.dep, exitS: r.arr }] })),
+    operators: unique(rows.flatMap((r) => (r.op ? [r.op] : []))).map((id) => ({ id, name: id })),
+    runs: rows.map((r) => ({ id: r.id, trainId: r.train, cabId: r.cab, operatorId: r.op ?? null, departS: r.dep, arriveS: r.arr, steps: [{ blockId: r.block, enterS: r.dep, exitS: r.arr }] })),
   };
   expect(planSchema.safeParse(toPlanJson(built)).error?.issues ?? []).toEqual([]);
   return built;
@@ -59,6 +59,20 @@ describe('suggestRetime, one rule at a time', () => {
       { id: 'Z', train: 'T1', cab: 'C3', block: 'Z', dep: 160, arr: 250 },
     ]);
     expect(suggestRetime(p, { fixed: new Set(['X', 'Y']) })).toEqual([{ runId: 'Z', delayS: 40 }]);
+  });
+});
+
+describe('suggestRetime, a move that clears one clash may make another', () => {
+  it('after the operator moves a run back onto its cab’s next booking, the cab is checked again', () => {
+    // Fixed: cab C1 taken 0–100 and 150–250, operator O1 taken 100–160 (on cab C2). R (C1, O1, 0–50):
+    // the cab pushes it to 100, the operator to 160, where 160–210 meets the cab's 150–250: on to 250.
+    const p = plan([
+      { id: 'K1', train: 'T1', cab: 'C1', block: 'X', dep: 0, arr: 100 },
+      { id: 'K2', train: 'T2', cab: 'C1', block: 'Y', dep: 150, arr: 250 },
+      { id: 'M', train: 'T3', cab: 'C2', block: 'Z', dep: 100, arr: 160, op: 'O1' },
+      { id: 'R', train: 'T4', cab: 'C1', block: 'W', dep: 0, arr: 50, op: 'O1' },
+    ]);
+    expect(suggestRetime(p, { fixed: new Set(['K1', 'K2', 'M']) })).toEqual([{ runId: 'R', delayS: 250 }]);
   });
 });
 
