@@ -154,9 +154,9 @@
 //   set loops over nothing); the catch-up memo `frames === undefined` → `true` (the same frames built again).
 // - lib/live/stream.ts: `Number(text.trim())` → `Number(text)` (ECMAScript StringToNumber skips surrounding
 //   white space); the abort listener's `{ once: true }` → `{}`/`once: false` and cleanup's `if (closed) return` →
-//   `false`, `closed = true` → `false` (the DOM Standard's "signal abort" does nothing to an aborted signal, so it fires once; a second clean-up clears a
-//   cleared interval, deletes a deleted subscriber and closes a closed controller inside its try); the
-//   heartbeat's catch block (no coverage: every way a stream ends, abort or cancel, runs cleanup first, which
+//   `false`, `closed = true` → `false` (the DOM Standard's "signal abort" does nothing to an aborted signal, so
+//   it fires once; a second clean-up clears a cleared interval, deletes a deleted subscriber and closes a closed
+//   controller inside its try); the heartbeat's catch block (no coverage: every way a stream ends, abort or cancel, runs cleanup first, which
 //   stops the heartbeat before a write could fail).
 // - lib/live/state.ts: timetableInForce's `filter(([, d]) => d !== 0)` → `true` and removed (repair totals are
 //   sums of positive delays, repairSchema, and applyRetime moves nothing by 0 s); clashKey's join `'|'` → `''`
