@@ -95,14 +95,16 @@ const reports = fs
   .filter((f) => f.endsWith('.json') && !f.endsWith('.incremental.json'))
   .map((f) => f.slice(0, -'.json'.length))
   .sort((a, b) => Number(!all.includes(a.split('.')[0])) - Number(!all.includes(b.split('.')[0])) || a.localeCompare(b));
-const tally = (names) => {
+const readReport = (name) => JSON.parse(fs.readFileSync(path.join(OUT, `${name}.json`), 'utf8'));
+// A report's files by their path from the project root (Stryker may write them absolute).
+const filesOfReport = (report) => Object.entries(report.files).map(([file, f]) => [path.relative(process.cwd(), path.resolve(file)), f.mutants]);
+const countStatuses = (mutantLists) => {
   const count = { Killed: 0, Timeout: 0, Survived: 0, NoCoverage: 0 };
-  for (const name of names) {
-    const report = JSON.parse(fs.readFileSync(path.join(OUT, `${name}.json`), 'utf8'));
-    for (const f of Object.values(report.files)) for (const m of f.mutants) if (m.status in count) count[m.status] += 1;
-  }
+  for (const mutants of mutantLists) for (const m of mutants) if (m.status in count) count[m.status] += 1;
   return count;
 };
+// The statuses of the mutants of the report's files that `keep` accepts.
+const tally = (report, keep = () => true) => countStatuses(filesOfReport(report).filter(([file]) => keep(file)).map(([, mutants]) => mutants));
 const row = (what, when, count) => {
   const valid = count.Killed + count.Timeout + count.Survived + count.NoCoverage;
   const score = valid ? (100 * (count.Killed + count.Timeout)) / valid : 100;
@@ -112,25 +114,20 @@ const written = (name) => fs.statSync(path.join(OUT, `${name}.json`)).mtime.toIS
 const folderOf = (file) => (path.dirname(file) === 'lib' ? 'root' : path.dirname(file).split('/')[1]);
 const rows = reports.flatMap((name) => {
   const base = name.split('.')[0];
-  if (!base.includes('+')) return [row(label(name), written(name), tally([name]))];
+  const report = readReport(name);
+  if (!base.includes('+')) return [row(label(name), written(name), tally(report))];
   if (base.includes('--')) {
     // Files of one folder run together: a row per file.
-    const report = JSON.parse(fs.readFileSync(path.join(OUT, `${name}.json`), 'utf8'));
     const [folder, names] = base.split('--');
     return names.split('+').map((n) => {
-      const count = { Killed: 0, Timeout: 0, Survived: 0, NoCoverage: 0 };
-      for (const [file, f] of Object.entries(report.files))
-        if (path.relative(process.cwd(), path.resolve(file)) === `lib/${folder}/${n}.ts`) for (const m of f.mutants) if (m.status in count) count[m.status] += 1;
+      const count = tally(report, (file) => file === `lib/${folder}/${n}.ts`);
       const others = names.split('+').filter((o) => o !== n).map((o) => `${o}.ts`);
       return row(`\`lib/${folder}/${n}.ts\` (run with ${others.join(', ')})${name.includes('.unit') ? ' (unit tests only)' : ''}`, written(name), count);
     });
   }
   // A group's report: a row per folder, counted from the report's files in that folder.
-  const report = JSON.parse(fs.readFileSync(path.join(OUT, `${name}.json`), 'utf8'));
   return base.split('+').map((folder) => {
-    const count = { Killed: 0, Timeout: 0, Survived: 0, NoCoverage: 0 };
-    for (const [file, f] of Object.entries(report.files))
-      if (folderOf(path.relative(process.cwd(), path.resolve(file))) === folder) for (const m of f.mutants) if (m.status in count) count[m.status] += 1;
+    const count = tally(report, (file) => folderOf(file) === folder);
     return row(`${label(folder)} (run with ${base.split('+').filter((f) => f !== folder).join(', ')})`, written(name), count);
   });
 });
@@ -141,10 +138,8 @@ const newest = new Map(); // file → { when, mutants }
 for (const name of reports) {
   if (name.includes('.unit')) continue;
   const when = written(name);
-  const report = JSON.parse(fs.readFileSync(path.join(OUT, `${name}.json`), 'utf8'));
-  for (const [file, f] of Object.entries(report.files)) {
-    const key = path.relative(process.cwd(), path.resolve(file));
-    if (!newest.has(key) || newest.get(key).when < when) newest.set(key, { when, mutants: f.mutants });
+  for (const [file, mutants] of filesOfReport(readReport(name))) {
+    if (!newest.has(file) || newest.get(file).when < when) newest.set(file, { when, mutants });
   }
 }
 for (const folder of all.filter((f) => f !== 'root')) {
@@ -154,8 +149,7 @@ for (const folder of all.filter((f) => f !== 'root')) {
   const found = files.map((f) => newest.get(f) ?? (whole ? { when: '', mutants: [] } : undefined));
   const fileReports = reports.some((n) => !n.includes('.unit') && n.startsWith(`${folder}--`));
   if (!files.length || found.some((x) => !x) || !fileReports) continue;
-  const count = { Killed: 0, Timeout: 0, Survived: 0, NoCoverage: 0 };
-  for (const x of found) for (const m of x.mutants) if (m.status in count) count[m.status] += 1;
+  const count = countStatuses(found.map((x) => x.mutants));
   const times = found.map((x) => x.when).filter(Boolean).sort();
   rows.push(row(`\`lib/${folder}/\` (each of its ${files.length} files from its newest report)`, `${times[0]} – ${times.at(-1)}`, count));
 }
