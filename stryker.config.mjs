@@ -99,6 +99,27 @@
 //   equal currents, so the same values); plannedSpeedKmh's `discriminant < 0` → `<=` (at 0 both roots give
 //   2D/T: T/2k with T² = 4kD); the top-speed allowance `< 1e-6 × top` → `<=` (they differ only at a speed of exactly
 //   top × (1 + 10⁻⁶) in floating point, which timed runs do not produce); a message past its cap, `''` → another string.
+// - lib/planning/polarity.ts (run of 3 December at 8b896eb; the rest killed in tests/unit/planning/polarity-edges.test.ts):
+//   the crossing scan's early stop only skips steps that cannot match: latestExit is the running maximum of exits
+//   in entry order, so where it is ≤ after every step further back left before the crossing; hence its test
+//   `latestExit > after` → `true`/`>=` and its start `-Infinity` → `+Infinity` (107, 92) find the same step within
+//   the same cap; the latestExit loops' `b <= blocks` and `i <= offsets[b + 1]` (91, 93) write one slot past a
+//   block's steps, the next block's first, which that block's loop writes again (or past the array's end);
+//   `r !== run` → `true` (110: one run has one cab, so `runCab[r] !== runCab[run]` already refuses it);
+//   linked()'s `linkedPairs === undefined` → `true` (117: the same set built again) and its unknown-block guard
+//   (122, 4: the key `undefined × n + b` is NaN, and a query `x × n + y` never is); `x < 0` → `false` (155: a step
+//   after one in an unknown block has joined 0, and linked(−1, b) asks for a negative key, never stored);
+//   `before.toEnd !== undefined || step.fromEnd !== undefined` → `true` (163: with neither end given,
+//   travelOfSteps picks ends a link joins whenever one joins the two blocks, so joined is 0 only for unlinked
+//   pairs); `nodeEnd(1 − fromEnd)` → `1 + fromEnd` (179, 221: nodeEnd reads the low bit, the same for 1 ± 0 and
+//   1 ± 1); `leaving > 0`/`entering > 0` → `>= 0` (185: neededOutput gives ±1); bounds at a run's end: the turn
+//   test's `j + 1 < count` → `true`/`<=`/`j − 1` (138: it only matters at the last step, which `j < count − 1`
+//   already excludes), the passage loop's `j < count` → `<=` (212) and the stay's `last + 1 < count` →
+//   `true`/`<=`/`last − 1` (215: a stay run on into the next run's steps is the last one, never checked), and the
+//   section test's `j > 0` → `true`/`>=` and `last < count − 1` → `true`/`<=`/`count + 1` (217: joined is 0 at a
+//   run's first step, and at the next run's first step or past the array's end); the fit's `headOut − tailClear >
+//   TIME_TOLERANCE_S` → `>=` (224: no two ms-grained times from 8 ms to 10⁵ s differ by exactly the double 0.001,
+//   checked for every pair; the tests put the head out at 0, 0.9 and 2 ms after the tail clears).
 // - lib/auth/pages.ts memberForPage(): `error.status === 404` → `true` in the last of its three checks, and
 //   lib/auth/sessions.ts requireSession(): `error instanceof AppError ? error.status : undefined` → `true ? …`.
 //   requireMember's refusals are AppErrors with 401, 403 or 404 and nothing else (lib/auth/index.ts), so the

@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { checkJointParity, checkPlan, jointAgrees, neededOutput, planSchema, routeThrough, toPlanJson, type Plan } from '@/lib/planning';
+import { basePlan } from './polarity-plan';
 
 type End = 'a' | 'b';
 type Rail = 'right' | 'left';
@@ -21,34 +22,6 @@ const oracleOutput = (toEnd: End, positiveRail: Rail) => [1, -1].find((o) => rai
  */
 const oracleAgrees = (eX: End, wX: Rail, eY: End, wY: Rail) =>
   [1, -1].every((o) => railVolts(wX, rightRail(eX), o) === railVolts(wY, rightRail(eY === 'a' ? 'b' : 'a'), o));
-
-function basePlan(overrides: Partial<Plan>): Plan {
-  return {
-    version: 1,
-    scale: { name: 'H0', ratio: 87 },
-    clock: { ratio: 4, fastStart: '07:00' },
-    rules: { headwayS: 0, surgeS: 0, derate: 1 },
-    supplies: [{ id: 's', name: 'Supply', volts: 12, amps: 10 }],
-    drivers: [{ id: 'd', name: 'Driver', supplyId: 's', channels: 2, channelAmps: 5, channelPeakAmps: 5, totalAmps: null, dropVolts: 0 }],
-    cabs: [
-      { id: 'c1', name: 'Cab 1', driverId: 'd', channel: 1 },
-      { id: 'c2', name: 'Cab 2', driverId: 'd', channel: 2 },
-    ],
-    blocks: [],
-    links: [],
-    locomotives: [
-      { id: 'l', name: 'Loco', runningAmps: 0.3, stallAmps: 0.5, ratedVolts: 12 },
-      { id: 'l2', name: 'Railcar motor', runningAmps: 0.2, stallAmps: 0.4, ratedVolts: 12 },
-    ],
-    trains: [
-      { id: 't', name: 'Goods', locomotiveIds: ['l'], lightingAmps: 0, lengthMm: 1000 },
-      { id: 'u', name: 'Railcar', locomotiveIds: ['l2'], lightingAmps: 0, lengthMm: 400 },
-    ],
-    operators: [],
-    runs: [],
-    ...overrides,
-  };
-}
 
 const run = (id: string, trainId: string, cabId: string, blocks: string[], startS = 0, perBlock = 10, overlap = 2) => ({
   id,
