@@ -34,3 +34,26 @@ describe('finding 7: open redirect after sign-in', () => {
     expect(sameOriginPath('https://fishplate.example/my-runs', ORIGIN)).toBe('/my-runs');
   });
 });
+
+describe('sameOriginPath edges', () => {
+  it('falls back for an empty callback and for one that is not a string (a repeated ?callbackUrl= arrives as a list)', () => {
+    expect(sameOriginPath('', ORIGIN)).toBe('/railways');
+    expect(sameOriginPath(null, ORIGIN, '/my-runs')).toBe('/my-runs');
+    expect(sameOriginPath(['/my-runs', '/railways/r1'] as unknown as string, ORIGIN, '/fallback')).toBe('/fallback');
+  });
+
+  it('takes a callback of up to 2048 characters and no longer (common practice: URLs beyond ~2 kB are not kept by every browser and proxy)', () => {
+    const path = (n: number) => `/my-runs?q=${'x'.repeat(n - '/my-runs?q='.length)}`;
+    expect(path(2048)).toHaveLength(2048);
+    expect(sameOriginPath(path(2048), ORIGIN)).toBe(path(2048));
+    expect(sameOriginPath(path(2049), ORIGIN)).toBe('/railways');
+  });
+
+  it('falls back when the site origin itself does not parse', () => {
+    expect(sameOriginPath('/my-runs', 'not a url')).toBe('/railways');
+  });
+
+  it('falls back for two opaque origins: both serialise as "null" (HTML Standard, serialization of an origin) yet name no path of this site', () => {
+    expect(sameOriginPath('data:text/html,hi', 'data:text/plain,site')).toBe('/railways');
+  });
+});
