@@ -189,6 +189,19 @@
 //   `'Train'` (a run's train and cab and its steps' blocks are the layout's, foreign keys read with the plan);
 //   report.ts primaryDelays' `own.departS <= run.departS` → `<` (a run leaving on time begins 0 s either way);
 //   safeCell's `v === undefined` → `false` (no column of a report row is undefined).
+// - lib/errors.ts: toResponse's `current !== undefined ? …` → `true` (Response.json drops an undefined
+//   `current`, as JSON.stringify does); mediaTypeOf's `?? ''` → `"Stryker was here!"` (no caller accepts that
+//   type, so a request without Content-Type is refused either way); readBytes's `?? '0'` → `''` (Number('') is 0).
+// - lib/time-zone.ts: formatterFor's `if (!f)` → `true` (a new formatter for the same zone formats alike);
+//   wallClockParts' `p.type !== 'literal'` → `true` and its `''` (the literal parts land under `literal`, never
+//   read); zonedToUtc's sort of the matching instants (removed, `a + b`, `() => undefined`): two instants match
+//   only in the hour clocks go back, where the offset before the change is the larger, so its instant comes
+//   first in the set and is the earlier.
+// - lib/auth-options.ts: the dummy hash's text → `` (signInSchema refuses an empty password, so '' is
+//   never compared with it); `!ok || !user?.passwordHash` → `user.passwordHash` (with no user, `ok` is false
+//   against the dummy hash and `||` stops before reading it).
+// - lib/rate-limit.ts touch(): `if (oldest === undefined) break` → `false` (the loop runs only while the
+//   kind holds more than MAX_KEYS_PER_KIND keys, so a first key exists).
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',

@@ -46,6 +46,7 @@ export function zoneOffsetMs(utcMs: number, timeZone: string): number {
 }
 
 const pad = (n: number, width = 2) => String(n).padStart(width, '0');
+const DAY_MS = 86_400_000;
 
 /**
  * The instant a wall-clock date and time in `timeZone` names, or null when that wall time does not
@@ -57,8 +58,12 @@ export function zonedToUtc(date: string, time: string, timeZone: string): Date |
   const t = /^(\d{2}):(\d{2})$/.exec(time);
   if (!d || !t) return null;
   const wall = Date.UTC(Number(d[1]), Number(d[2]) - 1, Number(d[3]), Number(t[1]), Number(t[2]));
-  // Try both offsets seen around the wall time: the one before a change and the one after it.
-  const candidates = new Set([wall - zoneOffsetMs(wall - 86_400_000 / 2, timeZone), wall - zoneOffsetMs(wall + 86_400_000 / 2, timeZone)]);
+  // Try both offsets seen around the wall time: the one before a change and the one after it. The
+  // instant lies within 14 h of `wall` (offsets run from −12 h to +14 h), so the probes sit a day away:
+  // at half a day, a change in a zone more than 12 h ahead (Auckland's +13 → +12) fell between the
+  // instant and the earlier probe, and the first of the repeated hour was lost. No zone changes its
+  // offset twice within two days (IANA tz database 1970–2040).
+  const candidates = new Set([wall - zoneOffsetMs(wall - DAY_MS, timeZone), wall - zoneOffsetMs(wall + DAY_MS, timeZone)]);
   const matching = [...candidates].filter((utc) => utc + zoneOffsetMs(utc, timeZone) === wall).sort((a, b) => a - b);
   return matching.length ? new Date(matching[0]!) : null;
 }

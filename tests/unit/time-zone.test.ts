@@ -49,7 +49,7 @@ describe('zonedToUtc', () => {
     }
   });
 
-  it('finds the instant in the hours just after clocks go forward, where the offset of half a day before no longer holds', () => {
+  it('finds the instant in the hours just after clocks go forward, where the offset before the change no longer holds', () => {
     // London, 30 March 2031: 01:00 GMT becomes 02:00 BST, so 02:30 is BST (UTC+1).
     expect(iso(Z.zonedToUtc('2031-03-30', '02:30', 'Europe/London'))).toBe('2031-03-30T01:30:00.000Z');
     expect(iso(Z.zonedToUtc('2031-03-30', '11:00', 'Europe/London'))).toBe('2031-03-30T10:00:00.000Z');
@@ -58,10 +58,21 @@ describe('zonedToUtc', () => {
     expect(Z.zonedToUtc('2031-09-28', '02:30', 'Pacific/Auckland')).toBeNull();
   });
 
-  it('finds the instant in the hours just before clocks go back, where the offset half a day later does not hold yet', () => {
+  it('finds the instant in the hours just before clocks go back, where the offset after the change does not hold yet', () => {
     // London, 26 October 2031: 02:00 BST becomes 01:00 GMT; 00:30 is still BST.
     expect(iso(Z.zonedToUtc('2031-10-25', '23:30', 'Europe/London'))).toBe('2031-10-25T22:30:00.000Z');
     expect(iso(Z.zonedToUtc('2031-10-26', '02:30', 'Europe/London'))).toBe('2031-10-26T02:30:00.000Z');
+  });
+
+  it('takes the first of the repeated hour in zones more than 12 h ahead of UTC too (a bug found here, fixed)', () => {
+    // Auckland, 6 April 2031: 03:00 NZDT (+13) becomes 02:00 NZST (+12); 02:30 happens at 13:30 and 14:30 UTC.
+    expect(iso(Z.zonedToUtc('2031-04-06', '02:30', 'Pacific/Auckland'))).toBe('2031-04-05T13:30:00.000Z');
+    expect(iso(Z.zonedToUtc('2031-04-06', '01:59', 'Pacific/Auckland'))).toBe('2031-04-05T12:59:00.000Z');
+    expect(iso(Z.zonedToUtc('2031-04-06', '03:00', 'Pacific/Auckland'))).toBe('2031-04-05T15:00:00.000Z');
+    // Chatham, the same day: 03:45 +13:45 becomes 02:45 +12:45; 02:45 happens at 13:00 and 14:00 UTC.
+    expect(iso(Z.zonedToUtc('2031-04-06', '02:45', 'Pacific/Chatham'))).toBe('2031-04-05T13:00:00.000Z');
+    // Kiritimati, +14 all year: nothing repeats, nothing is skipped.
+    expect(iso(Z.zonedToUtc('2031-04-06', '02:30', 'Pacific/Kiritimati'))).toBe('2031-04-05T12:30:00.000Z');
   });
 });
 
