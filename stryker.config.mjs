@@ -192,8 +192,7 @@
 // - lib/errors.ts: toResponse's `current !== undefined ? …` → `true` (Response.json drops an undefined
 //   `current`, as JSON.stringify does); mediaTypeOf's `?? ''` → `"Stryker was here!"` (no caller accepts that
 //   type, so a request without Content-Type is refused either way); readBytes's `?? '0'` → `''` (Number('') is 0).
-// - lib/time-zone.ts: formatterFor's `if (!f)` → `true` (a new formatter for the same zone formats alike);
-//   wallClockParts' `p.type !== 'literal'` → `true` and its `''` (the literal parts land under `literal`, never
+// - lib/time-zone.ts: wallClockParts' `p.type !== 'literal'` → `true` and its `''` (the literal parts land under `literal`, never
 //   read); zonedToUtc's sort of the matching instants (removed, `a + b`, `() => undefined`): two instants match
 //   only in the hour clocks go back, where the offset before the change is the larger, so its instant comes
 //   first in the set and is the earlier.

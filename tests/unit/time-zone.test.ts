@@ -76,6 +76,16 @@ describe('zonedToUtc', () => {
   });
 });
 
+describe('wallClockParts', () => {
+  it('reads the wall clock with one formatter per zone, built once (building one costs far more than using it)', () => {
+    const built = countBuilt();
+    expect(Z.wallClockParts(Date.parse('2031-07-15T17:30:00Z'), 'Europe/London')).toStrictEqual({ year: 2031, month: 7, day: 15, hour: 18, minute: 30, second: 0 });
+    expect(Z.wallClockParts(Date.parse('2031-01-15T00:00:00Z'), 'Europe/London').hour).toBe(0); // h23: midnight is 0, never 24
+    expect(Z.zoneOffsetMs(Date.parse('2031-01-15T00:00:00Z'), 'Pacific/Auckland')).toBe(13 * 3_600_000);
+    expect(built.calls).toBe(2);
+  });
+});
+
 describe('utcToZoned and floatingIso write zero-padded fields', () => {
   it('pads month, day, hour, minute and second to two digits and the year to four', () => {
     expect(Z.utcToZoned(new Date('0999-01-02T03:04:05Z'), 'UTC')).toStrictEqual({ date: '0999-01-02', time: '03:04' });
