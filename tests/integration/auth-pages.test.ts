@@ -5,22 +5,10 @@ import { memberForPage, sessionForPage } from '@/lib/auth/pages';
 import { canEdit } from '@/lib/auth/sessions';
 import { HIDDEN_FROM_OPERATOR, makeSessionWorld } from './authz/sessions';
 import { caller, signInAs } from './caller';
+import { NOT_FOUND, thrownDigest } from './page-digest';
 import { makeWorld, type RoleKey } from './world';
 
-// The page gates (lib/auth/pages.ts) answer with next/navigation's redirect() and notFound(), which throw an
-// error whose `digest` tells Next.js what to render: `NEXT_REDIRECT;<type>;<url>;<status>;` (307, a temporary
-// redirect, RFC 9110 15.4.8) and `NEXT_HTTP_ERROR_FALLBACK;404`. The tests read those digests.
-const NOT_FOUND = 'NEXT_HTTP_ERROR_FALLBACK;404';
-
-async function thrownDigest(run: () => unknown): Promise<string> {
-  try {
-    await run();
-  } catch (error) {
-    if (error && typeof error === 'object' && 'digest' in error) return String(error.digest);
-    throw error;
-  }
-  throw new Error('expected the gate to throw');
-}
+// The page gates (lib/auth/pages.ts) answer by digest (./page-digest).
 
 afterEach(() => {
   // The "foreign error" tests below replace the caller with a getter that throws.

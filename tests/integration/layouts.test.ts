@@ -8,13 +8,7 @@ import { layoutToPlan } from '@/lib/sessions/to-plan';
 import { signInAs } from './caller';
 import { seedLayout } from './authz/layouts';
 import { makeSessionWorld } from './authz/sessions';
-import { formData, makeWorld } from './world';
-
-function form(fields: Record<string, string | string[]>): FormData {
-  const data = new FormData();
-  for (const [k, v] of Object.entries(fields)) for (const one of [v].flat()) data.append(k, one);
-  return data;
-}
+import { formData, formFields as form, makeWorld } from './world';
 
 function setup(role: 'planner' | 'host' = 'planner') {
   const w = makeWorld();

@@ -37,3 +37,10 @@ export function formData(fields: Record<string, string>): FormData {
   for (const [k, v] of Object.entries(fields)) data.set(k, v);
   return data;
 }
+
+/** Form fields where a field may repeat (a multi-select posts one entry per value). */
+export function formFields(fields: Record<string, string | string[]>): FormData {
+  const data = new FormData();
+  for (const [k, v] of Object.entries(fields)) for (const one of [v].flat()) data.append(k, one);
+  return data;
+}
