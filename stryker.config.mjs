@@ -201,6 +201,17 @@
 //   against the dummy hash and `||` stops before reading it).
 // - lib/rate-limit.ts touch(): `if (oldest === undefined) break` → `false` (the loop runs only while the
 //   kind holds more than MAX_KEYS_PER_KIND keys, so a first key exists).
+// - lib/layouts/layout-edits.ts, the deletes (run of 3 December at 1dad563; the rest killed in
+//   tests/integration/layout-edits.test.ts): the delete's own `rowOrThrow(…, 'That block')` → `''` and the
+//   same for supply, driver, cab, locomotive and train (6): the row was found a statement before in the same
+//   synchronous call, so deleteVersionedRow answers deleted or stale (409), never missing; removeSupply's and
+//   removeDriver's `if (!getLayoutRow(…))` → `false` (2): driversOfSupply and cabsOfDriver read this layout's
+//   rows only, so a row of another layout finds none and the delete itself answers "That supply/driver was
+//   not found." (404), the same words and status.
+// - lib/layouts/units.ts isLengthUnit(): `typeof value === 'string'` → `true` (includes() compares by
+//   SameValueZero, so no non-string equals one of the five unit strings).
+// - lib/layouts/layout-page.ts layoutForPage(): `if (!member) notFound()` → `false`: memberForPage with the
+//   lowest role, operator, never answers `denied`, so member is always there.
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',
