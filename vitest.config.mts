@@ -16,6 +16,8 @@ const childProcessTests = !underStryker ? [] : ['tests/integration/crash-and-con
 // random plans take long and test lib/control.
 const unitOnly = process.env.FISHPLATE_MUTATION_UNIT_ONLY === '1';
 const engineRun = process.env.FISHPLATE_MUTATION_FOLDER === 'planning';
+// --property-runs <fraction> (lib/cli/mutation.mjs): every property test runs that fraction of its cases.
+const fewerPropertyRuns = underStryker && process.env.FISHPLATE_MUTATION_PROPERTY_RUNS !== undefined;
 
 const unit: TestProjectInlineConfiguration = {
   extends: true,
@@ -46,7 +48,10 @@ const integration: TestProjectInlineConfiguration = {
 export default defineConfig({
   resolve: {
     tsconfigPaths: true,
-    alias: { 'server-only': fileURLToPath(new URL('./tests/stubs/empty.ts', import.meta.url)) },
+    alias: [
+      { find: 'server-only', replacement: fileURLToPath(new URL('./tests/stubs/empty.ts', import.meta.url)) },
+      ...(fewerPropertyRuns ? [{ find: /^fast-check$/, replacement: fileURLToPath(new URL('./tests/shared/fast-check-fewer-runs.ts', import.meta.url)) }] : []),
+    ],
   },
   test: {
     projects: unitOnly ? [unit] : [unit, integration],

@@ -1,4 +1,4 @@
-// npm run test:mutation [-- target …] [--unit] [--force] [--concurrency 1] [--table] — Stryker over lib/, one folder at a time
+// npm run test:mutation [-- target …] [--unit] [--force] [--concurrency 1] [--property-runs 0.1] [--table] — Stryker over lib/, one folder at a time
 // (stryker.config.mjs), then the score of every folder that has a report. A target is a folder (a
 // sub-folder of lib/, or "root" for the files directly in lib/) or one file (lib/calendar/ics.ts), for
 // a quick look while writing its tests, or files of one folder joined by + (lib/planning/track.ts+route.ts:
@@ -39,7 +39,20 @@ if (concurrencyAt >= 0) options.concurrency = Number(args[concurrencyAt + 1]);
 if (args.includes('--force')) options.force = true;
 // --unit: only the unit tests, for a quick look at one file whose unit tests are meant to catch its bugs.
 const unitFlag = args.includes('--unit');
-const asked = args.filter((a, i) => !a.startsWith('-') && args[i - 1] !== '--concurrency');
+// --property-runs 0.1: every property test runs a tenth of its cases (at least one), through
+// tests/shared/fast-check-fewer-runs.ts. Each survivor of the engine runs every property test, so its
+// run shrinks nearly in proportion; fewer cases can only let more mutants survive, never fewer.
+const propertyRunsAt = args.indexOf('--property-runs');
+if (propertyRunsAt >= 0) {
+  const fraction = args[propertyRunsAt + 1];
+  if (!(Number(fraction) > 0 && Number(fraction) <= 1)) {
+    console.error(`--property-runs takes a fraction of each property's cases, above 0 and at most 1 (not ${fraction})`);
+    process.exit(2);
+  }
+  process.env.FISHPLATE_MUTATION_PROPERTY_RUNS = fraction;
+}
+const valueOf = new Set(['--concurrency', '--property-runs']);
+const asked = args.filter((a, i) => !a.startsWith('-') && !valueOf.has(args[i - 1]));
 const fileTarget = (t) => /^lib\/[a-z-]+\/[a-z0-9-]+\.ts$/.test(t) && fs.existsSync(t);
 // A group `runs+sessions+live`: one Stryker run over several folders that are not unit-only, sharing the
 // first (coverage) run of the whole suite, which takes minutes here; the table gives each folder its row.
@@ -66,7 +79,7 @@ for (const target of targets) {
   const file = Boolean(files);
   const folder = file ? target.split('/')[1] : target;
   // lib/planning/track.ts → planning--track; lib/planning/track.ts+route.ts → planning--track+route.
-  const name = (file ? `${folder}--${files.map((f) => path.posix.basename(f, '.ts')).join('+')}` : target) + (unitFlag && !UNIT_ONLY.has(folder) ? '.unit' : '');
+  const name = (file ? `${folder}--${files.map((f) => path.posix.basename(f, '.ts')).join('+')}` : target) + (unitFlag && !UNIT_ONLY.has(folder) ? '.unit' : '') + (propertyRunsAt >= 0 ? `.cases${Math.round(100 * Number(process.env.FISHPLATE_MUTATION_PROPERTY_RUNS))}` : '');
   const globs = (f) => (f === 'root' ? ['lib/*.ts', '!lib/*.d.ts'] : [`lib/${f}/**/*.ts`, '!lib/**/*.d.ts']);
   const mutate = file ? files : target.split('+').flatMap(globs);
   console.log(`\n== ${file ? files.join(' ') : target.split('+').map((f) => `lib/${f === 'root' ? '' : `${f}/`}`).join(' ')} ==`);
@@ -85,10 +98,17 @@ for (const target of targets) {
 
 // Score = (killed + timed out) / (everything except compile errors and ignored), as Stryker counts it.
 // One row per report in reports/mutation/: the folders, then any single files looked at.
+// How a report was run, from its name's suffixes: .unit, .cases10 (10 % of each property's cases).
+const how = (name) =>
+  name
+    .split('.')
+    .slice(1)
+    .map((s) => ` (${s === 'unit' ? 'unit tests only' : `${s.slice('cases'.length)} % of property cases`})`)
+    .join('');
 const label = (name) => {
-  const [base, unit] = name.split('.');
+  const base = name.split('.')[0];
   const where = all.includes(base) ? `lib/${base === 'root' ? '' : `${base}/`}` : `lib/${base.replace('--', '/')}.ts`;
-  return `\`${where}\`${unit ? ' (unit tests only)' : ''}`;
+  return `\`${where}\`${how(name)}`;
 };
 const reports = fs
   .readdirSync(OUT)
@@ -122,24 +142,24 @@ const rows = reports.flatMap((name) => {
     return names.split('+').map((n) => {
       const count = tally(report, (file) => file === `lib/${folder}/${n}.ts`);
       const others = names.split('+').filter((o) => o !== n).map((o) => `${o}.ts`);
-      return row(`\`lib/${folder}/${n}.ts\` (run with ${others.join(', ')})${name.includes('.unit') ? ' (unit tests only)' : ''}`, written(name), count);
+      return row(`\`lib/${folder}/${n}.ts\` (run with ${others.join(', ')})${how(name)}`, written(name), count);
     });
   }
   // A group's report: a row per folder, counted from the report's files in that folder.
   return base.split('+').map((folder) => {
     const count = tally(report, (file) => folderOf(file) === folder);
-    return row(`${label(folder)} (run with ${base.split('+').filter((f) => f !== folder).join(', ')})`, written(name), count);
+    return row(`${label(folder)} (run with ${base.split('+').filter((f) => f !== folder).join(', ')})${how(name)}`, written(name), count);
   });
 });
 // A folder's newest figure: each of its files counted from the newest report (of any target, not
 // unit-only unless the folder is) that holds it — a folder measured whole, then a file of it again after
 // new tests. Only when every file of the folder has a report; the row names the span of report times.
-const newest = new Map(); // file → { when, mutants }
+const newest = new Map(); // file → { when, mutants, fewer }
 for (const name of reports) {
   if (name.includes('.unit')) continue;
   const when = written(name);
   for (const [file, mutants] of filesOfReport(readReport(name))) {
-    if (!newest.has(file) || newest.get(file).when < when) newest.set(file, { when, mutants });
+    if (!newest.has(file) || newest.get(file).when < when) newest.set(file, { when, mutants, fewer: name.includes('.cases') });
   }
 }
 for (const folder of all.filter((f) => f !== 'root')) {
@@ -151,7 +171,8 @@ for (const folder of all.filter((f) => f !== 'root')) {
   if (!files.length || found.some((x) => !x) || !fileReports) continue;
   const count = countStatuses(found.map((x) => x.mutants));
   const times = found.map((x) => x.when).filter(Boolean).sort();
-  rows.push(row(`\`lib/${folder}/\` (each of its ${files.length} files from its newest report)`, `${times[0]} – ${times.at(-1)}`, count));
+  const fewer = found.some((x) => x.fewer) ? ', some with fewer property cases' : '';
+  rows.push(row(`\`lib/${folder}/\` (each of its ${files.length} files from its newest report${fewer})`, `${times[0]} – ${times.at(-1)}`, count));
 }
 console.log('\n| Target | Report written (UTC) | Mutants | Killed | Survived | No coverage | Score |\n|---|---|---|---|---|---|---|');
 console.log(rows.join('\n'));
