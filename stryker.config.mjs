@@ -212,6 +212,11 @@
 //   SameValueZero, so no non-string equals one of the five unit strings).
 // - lib/layouts/layout-page.ts layoutForPage(): `if (!member) notFound()` → `false`: memberForPage with the
 //   lowest role, operator, never answers `denied`, so member is always there.
+// - lib/layouts/csv.ts (run of 3 December at 1dad563; the rest killed in tests/unit/layouts/csv.test.ts):
+//   `Buffer.byteLength(text, 'utf8')` → `''` (Node takes an empty encoding as its default, UTF-8); Papa.parse's
+//   `{ skipEmptyLines: false }` → `{}` (false is Papa Parse's default); formatBytes' `bytes >= 1_000_000` → `true`
+//   or `>`, and its kB branch's `` ` kB` `` → `` `` `` and `/ 1000` → `* 1000` (4): formatBytes is only called for
+//   a file over CSV_MAX_BYTES (1 000 000), so the MB branch always answers.
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',

@@ -74,3 +74,11 @@ export const RUN_LIMITS = {
   /** The edit number a caller saw: the first stored edit is version 1. */
   version: { min: 1, source: 'common practice: optimistic-lock versions count from 1' },
 } as const;
+
+/** What a CSV import takes before refusing the file (413): the bounds the file screens state. */
+export const CSV_LIMITS = {
+  /** Bytes of the file, UTF-8 (a BOM counts): 1 MB, decimal, as the refusal says. */
+  bytes: { max: 1_000_000, source: 'common practice: a few thousand rows of a layout table fit in well under 1 MB' },
+  /** Data rows, the header and blank lines not counted. */
+  rows: { max: 5_000, source: 'common practice: a large layout has a few hundred blocks or vehicles' },
+} as const;
