@@ -217,6 +217,26 @@
 //   `{ skipEmptyLines: false }` → `{}` (false is Papa Parse's default); formatBytes' `bytes >= 1_000_000` → `true`
 //   or `>`, and its kB branch's `` ` kB` `` → `` `` `` and `/ 1000` → `* 1000` (4): formatBytes is only called for
 //   a file over CSV_MAX_BYTES (1 000 000), so the MB branch always answers.
+// - lib/layouts/plan-io.ts: exportLayoutPlan's `block.get(b.id)?.` and `driver.get(d.id)?.` → `.` (3): the plan's
+//   blocks and drivers are built from the same rows, so every id is in the map; planToImport's
+//   `ext.blocks[i]?.` and `ext.drivers[i]?.` → `.` (3): extras and the plan parse the same input arrays, one entry each;
+//   `(ext.locomotives ?? ext.locos)?.[i]` → `[i]`: a version-2 plan has `locomotives`, a version-1 plan `locos`;
+//   extras' `locos` entry → `z.object({})`: `locos` is version 1's own list, whose topSpeedKmh the engine's schema
+//   already reads into the locomotive (and a version-2 plan's `locomotives` is read before it); the
+//   scale check `!inScaleRange(…)` → `false` and its issue (3): planSchema refuses a ratio outside 1–1000 first,
+//   the same range; the joint key's `join('\u0001')` → `join('')`: ids cannot hold U+0000 (PLAN_ID_PATTERN), so
+//   "id\0end" + "id\0end" still reads back one way; the result lists' `.filter(… !== null)` → removed or `true`
+//   (12): a null entry always pushed an issue, and any issue throws before the lists are built.
+// - lib/layouts/track-diagram.ts: the joint lists' `[]` → `["Stryker was here"]` (2): a string has no `to`, and
+//   `lane[undefined] !== -1` skips it; `column`'s `new Array(n).fill(0)` → `new Array()`: every column is written
+//   before it is read; `root < n` → `<=` (lane[n] is undefined, so skipped); the dedupe key's and the drawn
+//   entry's `x < y` → `x <= y` (3, with `x >= y` for the key, which only picks the other of two canonical forms):
+//   x === y is skipped just before; `Q.x > P.x` → `>=`: a right-facing end (28 + 168c + 120) and a left-facing
+//   end (28 + 168c') never share an x; the ranking's last tie-break `x.i - y.i` → `x.i + y.i` (no coverage):
+//   Array.prototype.sort is stable (ECMA-262 since 2019), and V8's insertion step asks with the later element
+//   first, so a positive answer keeps input order as the subtraction does.
+// - lib/layouts/image-type.ts: each `bytes.length >= n` → `true` alone (3): a shorter array has undefined where
+//   the signature's last byte would be, so the byte comparison fails anyway.
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',
