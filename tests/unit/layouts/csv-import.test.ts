@@ -152,6 +152,13 @@ describe('planning an import: the file as a whole', () => {
     expect(plan('blocks', 'name,length,unit\r\n"').preview.issues).toEqual([{ row: 2, column: '', message: 'The CSV is malformed here: Quoted field unterminated.' }]);
   });
 
+  it('lists a row’s own issues before a later row’s reading issue', () => {
+    expect(plan('blocks', 'name,length,unit\r\nA,x,mm\r\nB,1,mm,extra\r\nC,1,mm\r\n').preview.issues).toEqual([
+      { row: 2, column: 'length', message: 'Enter a number, like 12 or 0.5.' },
+      { row: 3, column: '', message: 'This row has 4 cells; the header has 3.' },
+    ]);
+  });
+
   it('lists issues by row and marks every row with an issue as an error, the ragged one too', () => {
     const { preview, changes } = plan('blocks', 'name,length,unit\r\nA,1,mm\r\nB,1,mm,extra\r\nC,x,mm\r\n');
     expect(preview.issues).toEqual([
@@ -363,6 +370,14 @@ describe('planning trains', () => {
     const added = plan('trains', `${header}Mail,Heron,,1,m,,\r\n`);
     expect(added.changes.changes).toEqual([{ action: 'create', values: { name: 'Mail', locomotiveIds: ['o-heron'], lightingAmps: 0, lengthMm: 1000, accelKmhPerS: null, brakingKmhPerS: null } }]);
     expect(added.preview.rows).toEqual([{ row: 2, label: 'Mail', action: 'create' }]);
+  });
+
+  it('a consist of the same length with one locomotive changed is another consist', () => {
+    const l = layout();
+    l.locomotives.push({ id: 'o-plover', name: 'Plover', runningAmps: 0.2, stallAmps: 0.6, ratedVolts: 12, topSpeedKmh: 60, startVolts: null, version: 1 });
+    const { preview, changes } = plan('trains', `${header}Goods,Heron;Plover,0,500,mm,,\r\n`, l);
+    expect(preview.rows).toEqual([{ row: 2, label: 'Goods', action: 'update' }]);
+    expect(changes.changes).toMatchObject([{ action: 'update', id: 't-goods', values: { locomotiveIds: ['o-heron', 'o-plover'] } }]);
   });
 
   it('a stored train without a consist is updated when the file gives it one', () => {
