@@ -245,6 +245,10 @@
 //   first, so a positive answer keeps input order as the subtraction does.
 // - lib/layouts/image-type.ts: each `bytes.length >= n` → `true` alone (3): a shorter array has undefined where
 //   the signature's last byte would be, so the byte comparison fails anyway.
+// - lib/layouts/power-budget.ts dutyTables(): `top === null ? [] : …` → `false` (dutySpeeds(null) is [] too: 1 <= null
+//   is false); `loads.get(train.id)?.` → `.` (loads is built from the same trains); `if (best === null)` → `false`
+//   and its cell (4): with no locomotive the speed list is empty, so no cell is built, and with one the loop
+//   returns or sets best. The driver messages' `terms[0]?.trainName` → `.` (3): a load above a rating > 0 has a train.
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',
