@@ -217,14 +217,20 @@
 //   `{ skipEmptyLines: false }` → `{}` (false is Papa Parse's default); formatBytes' `bytes >= 1_000_000` → `true`
 //   or `>`, and its kB branch's `` ` kB` `` → `` `` `` and `/ 1000` → `* 1000` (4): formatBytes is only called for
 //   a file over CSV_MAX_BYTES (1 000 000), so the MB branch always answers.
-// - lib/layouts/csv-import.ts planCsvImport() (same run; the rest killed in tests/unit/layouts/csv-import.test.ts):
-//   the `?? ''` of a required cell → `"Stryker was here!"` (8: `cells.name` at lines 128, 215, 261, `cells.block_a`/
-//   `cells.block_b` at 153–155, `cells.locomotives` at 239): readCsv gives every header column a cell and a row
-//   is only planned when the header has every required column, so the cell is always a string; the joint key's
-//   `.join('|')` → `''` (149): each half is `id:end` with a one-letter end and stored ids are UUIDs (no ':'), so
-//   the key splits one way only; the stored consist's `?? []` and `: []` → `["Stryker was here"]` (270, 2): a
-//   train without a stored consist is compared with a file's consist of at least one real locomotive id
-//   (trainSchema), which never equals that list, and for a new train `same` is false before it is read.
+// - lib/layouts/csv-import.ts (same run; the rest killed in tests/unit/layouts/csv-import.test.ts): the `?? ''` of
+//   a required cell → `"Stryker was here!"` (8: `cells.name` at 128, 215, 261, `cells.block_a`/`block_b` at
+//   153–155, `cells.locomotives` at 239): readCsv gives every header column a cell and rows are only planned
+//   when the header has every required column; the export's `?? ''` of a link's block name and a consist's
+//   locomotive name (38, 39, 58): foreign keys keep them resolvable; cellIssues' `issue.path[0] ?? ''` (88):
+//   every issue of these schemas names its field; `push(…, 'error')` → `''` (9: 128, 133, 167, 183, 190, 215,
+//   220, 261, 266): each such row has an issue, and the loop after the switch sets every row with an issue
+//   to 'error'; `lower`'s `s.trim()` → `s` and endCell's `cell.trim()` → `cell` (25, 174): every string they
+//   get is already trimmed (readCsv trims cells, the schemas trim names, stored names are stored trimmed);
+//   `bad = true` → `false` (160, 163) and `bad || !a` → `bad && !a` (166): bad is set exactly when a or b is
+//   missing, which `!a || !b` tests again; the joint key's `.join('|')` → `''` (149): each half is `id:end`
+//   with a one-letter end and stored ids are UUIDs (no ':'), so the key splits one way only; the stored
+//   consist's `?? []` and `: []` → `["Stryker was here"]` (270, 2): a file's consist holds at least one real
+//   locomotive id (trainSchema), never that list, and for a new train `same` is false before it is read.
 // - lib/layouts/plan-io.ts: exportLayoutPlan's `block.get(b.id)?.` and `driver.get(d.id)?.` → `.` (3): the plan's
 //   blocks and drivers are built from the same rows, so every id is in the map; planToImport's
 //   `ext.blocks[i]?.` and `ext.drivers[i]?.` → `.` (3): extras and the plan parse the same input arrays, one entry each;

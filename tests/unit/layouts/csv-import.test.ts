@@ -77,6 +77,12 @@ describe('export', () => {
     expect(I.exportCsv('trains', rows())).toBe('name,locomotives,lighting_amps,length,unit,accel_kmh_per_s,braking_kmh_per_s\r\nGoods,Heron; Kestrel,0,500,mm,,\r\nStopper,Kestrel,0.1,300,mm,2,3');
   });
 
+  it('writes a train without a stored consist with a blank locomotives cell', () => {
+    const l = layout();
+    l.consists = l.consists.filter((x) => x.trainId !== 't-stopper');
+    expect(I.exportCsv('trains', rows(l)).split('\r\n')[2]).toBe('Stopper,,0.1,300,mm,2,3');
+  });
+
   it('reads back what it wrote as unchanged rows', () => {
     for (const table of ['blocks', 'links', 'locomotives', 'trains'] as const) {
       const { changes, preview } = plan(table, I.exportCsv(table, rows()));
@@ -112,6 +118,8 @@ describe('the basis of a preview', () => {
     expect(basis('blocks', blockMoved)).not.toBe(basis('blocks'));
     expect(basis('links', blockMoved)).not.toBe(basis('links'));
     expect(basis('links', linkAdded)).not.toBe(basis('links'));
+    const linkReplaced = bump((l) => (l.links[0]!.id = 'l-9'));
+    expect(basis('links', linkReplaced)).not.toBe(basis('links'));
     expect(basis('locomotives', locoEdited)).not.toBe(basis('locomotives'));
     expect(basis('trains', locoEdited)).not.toBe(basis('trains'));
     expect(basis('trains', trainEdited)).not.toBe(basis('trains'));
@@ -331,6 +339,7 @@ describe('planning locomotives', () => {
     const { preview } = plan('locomotives', `${header}Plover,0.2,0.6,12,60,\r\nPLOVER,0.2,0.6,12,60,\r\n`);
     expect(preview.issues).toEqual([{ row: 3, column: 'name', message: 'The locomotive “PLOVER” is already on row 2 of this file.' }]);
     expect(preview.rows.map((r) => `${r.label} ${r.action}`)).toEqual(['Plover create', 'PLOVER error']);
+    expect(plan('locomotives', `${header}Plover,0.2,0.6,12,60,\r\nPLOVER,0.2,0.6,12,60,\r\n`).changes.changes).toHaveLength(1);
   });
 });
 
@@ -417,6 +426,7 @@ describe('planning trains', () => {
     const { preview } = plan('trains', `${header}Mail,Heron,,1,m,,\r\nmail,Heron,,1,m,,\r\n`);
     expect(preview.issues).toEqual([{ row: 3, column: 'name', message: 'The train “mail” is already on row 2 of this file.' }]);
     expect(preview.rows.map((r) => `${r.label} ${r.action}`)).toEqual(['Mail create', 'mail error']);
+    expect(plan('trains', `${header}Mail,Heron,,1,m,,\r\nmail,Heron,,1,m,,\r\n`).changes.changes).toHaveLength(1);
   });
 });
 
