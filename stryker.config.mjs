@@ -99,6 +99,10 @@
 //   equal currents, so the same values); plannedSpeedKmh's `discriminant < 0` → `<=` (at 0 both roots give
 //   2D/T: T/2k with T² = 4kD); the top-speed allowance `< 1e-6 × top` → `<=` (they differ only at a speed of exactly
 //   top × (1 + 10⁻⁶) in floating point, which timed runs do not produce); a message past its cap, `''` → another string.
+// - lib/planning/scales.ts gaugeForScale (run of 3 December, 21:20): `off <= 0.01` → `<` (no ratio is exactly 1 % off
+//   a row in floating point: every double within 5,000 ulps of each row's ±1 % was tried, none gives off === 0.01);
+//   the closer-row test → `false` (the only rows within 1 % of each other are N, TT and H0/HO with one gauge each,
+//   and S at 1:64 NEM/NMRA, equally far from any ratio, so the first row wins either way).
 // - lib/planning/polarity.ts (run of 3 December at 8b896eb; the rest killed in tests/unit/planning/polarity-edges.test.ts):
 //   the crossing scan's early stop only skips steps that cannot match: latestExit is the running maximum of exits
 //   in entry order, so where it is ≤ after every step further back left before the crossing; hence its test

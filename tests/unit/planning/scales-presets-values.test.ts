@@ -95,6 +95,9 @@ describe('gaugeForScale', () => {
 
   it('a ratio shared by two rows gives the first, NEM 22.5 mm for 1:64', () => {
     expect(scales.gaugeForScale({ name: 'My layout', ratio: 64 })).toBe(22.5);
+    // Near but not on the shared ratio both rows are equally far off, so the first still wins.
+    expect(scales.gaugeForScale({ name: 'My layout', ratio: 64.3 })).toBe(22.5);
+    expect(scales.gaugeForScale({ name: 'My layout', ratio: 63.7 })).toBe(22.5);
   });
 
   it('null just past 1 % and far from every row', () => {
