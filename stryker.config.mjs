@@ -124,6 +124,12 @@
 //   run's first step, and at the next run's first step or past the array's end); the fit's `headOut − tailClear >
 //   TIME_TOLERANCE_S` → `>=` (224: no two ms-grained times from 8 ms to 10⁵ s differ by exactly the double 0.001,
 //   checked for every pair; the tests put the head out at 0, 0.9 and 2 ms after the tail clears).
+// - lib/planning/clock.ts fastTimeToReal() (the rest killed in tests/unit/planning/clock.test.ts): `nearS !==
+//   undefined` → `true` (realToFast(undefined) is NaN, and both of the nearest-day tests are false for NaN);
+//   `ahead > DAY_S / 2` → `>=` and `-ahead > DAY_S / 2` → `>=` (at exactly half a day the shift is
+//   ceil(0.5 − 0.5) = 0 days either way).
+// - lib/planning/finding.ts: compareFindings' `x < y ? -1 : 1` → `x <= y` (reached only when x !== y);
+//   orderedPair's `a < b` → `<=` (for a === b both give [a, a]).
 // - lib/auth/pages.ts memberForPage(): `error.status === 404` → `true` in the last of its three checks, and
 //   lib/auth/sessions.ts requireSession(): `error instanceof AppError ? error.status : undefined` → `true ? …`.
 //   requireMember's refusals are AppErrors with 401, 403 or 404 and nothing else (lib/auth/index.ts), so the
