@@ -130,6 +130,22 @@
 //   ceil(0.5 − 0.5) = 0 days either way).
 // - lib/planning/finding.ts: compareFindings' `x < y ? -1 : 1` → `x <= y` (reached only when x !== y);
 //   orderedPair's `a < b` → `<=` (for a === b both give [a, a]).
+// - lib/planning/track.ts (run of 3 December at 702b1c5; the rest killed in tests/unit/planning/track-edges.test.ts):
+//   jointAgrees' `wiringSign × endSign` → `/` (49, 2: both are ±1); endAdjacency's key `min × 2n + max` → `− max`
+//   (80: still one key per pair, as 0 ≤ max < 2n); joinedEnds' `block < 0 || next < 0` (146, 4: joined[−2] and
+//   joined[−1] are undefined, which the next line catches, and a negative `next` matches no node); secondJoined's
+//   `code === 4` → `true` and its `-1` → `+1` (159: only 3 or 4 reach it); the first step's `from >= 0` → `>`
+//   (177: 1 − 0 is the default 1), its turn test's `to < 0` → `<=` (178: it only sets heading to 0, the given `to`
+//   then), `from < 0` → `true`/`<=` (178: fromEnd is the given one, and the next step's turn rule sets the same
+//   toEnd) and `next !== null` → `true` (178: no end reaches null); the two-block loop's `next === null` → `false`
+//   (201: then neither test reaches, so `one`, as firstJoined); checkJointParity's `a !== b` → `true` (256: a
+//   self-link's copy closes the same loop, and seenLink names a link once), parent's and component's `fill(-1)` →
+//   `+1` (259, 261: a root's parent is never read, the climb stops at the common ancestor; every block is given a
+//   component), `root < n` → `<=` (265: colour[n] is undefined) and `link === undefined` → `false` (291: forEach
+//   skips the holes an unknown block leaves); loopThrough's `guard++ < 4 × n` → `true`/`<=`/`guard--` (307: the
+//   climb ends within depth(u) + depth(v) < 2n steps), `depth[x] >= depth[y]` → `>` (308: which side climbs at
+//   equal depth moves no block to the other side) and `loop.length > 24` → `true`/`>=` (317: slice(0, 24) of 24 or
+//   fewer is the loop).
 // - lib/auth/pages.ts memberForPage(): `error.status === 404` → `true` in the last of its three checks, and
 //   lib/auth/sessions.ts requireSession(): `error instanceof AppError ? error.status : undefined` → `true ? …`.
 //   requireMember's refusals are AppErrors with 401, 403 or 404 and nothing else (lib/auth/index.ts), so the
