@@ -146,6 +146,19 @@
 //   climb ends within depth(u) + depth(v) < 2n steps), `depth[x] >= depth[y]` → `>` (308: which side climbs at
 //   equal depth moves no block to the other side) and `loop.length > 24` → `true`/`>=` (317: slice(0, 24) of 24 or
 //   fewer is the loop).
+// - lib/planning/heap.ts pop(): `last === undefined` → `false` (its items are route.ts's objects, never
+//   undefined, so `last` is undefined only for an empty heap, which `items.length === 0` already returns).
+// - lib/planning/motion.ts Movement: the branch bounds meet at their end points, so `needed <= distance` → `<`
+//   (there √(2·distance ÷ inverse) = cruise), `x < accelDistance` → `<=` (√(2x/a) = v/a = accelTime), `x <=
+//   brakeFrom` → `<` (both give cruiseEnd) and `x >= distance` → `>` (duration − √0) give the same time up to
+//   the last bit of rounding; `x <= 0` → `<` differs only for a movement of no distance or no speed (0 ÷ 0),
+//   which timeRun never builds (block lengths and speeds are positive).
+// - lib/planning/positions.ts: `step.exitS > end` → `>=` (the same value kept); the run order's tie-break
+//   `x.id < y.id` → `<=` and the inner `x.id > y.id ? 1 : 0` (4: → `true`, `false`, `>=`, `<=`), as for
+//   propagate.ts above (unique ids; V8's sort only asks whether the answer is below 0); standingAt's `atS <
+//   firstStep.enterS` → `<=` (planSchema wants enterS < exitS, so at enterS the first step holds the train).
+// - lib/planning/plan-index.ts: `run.operatorId === null ? -1 : …` → `false` (operatorOf.get(null) is
+//   undefined, so `?? -1` gives the same -1).
 // - lib/auth/pages.ts memberForPage(): `error.status === 404` → `true` in the last of its three checks, and
 //   lib/auth/sessions.ts requireSession(): `error instanceof AppError ? error.status : undefined` → `true ? …`.
 //   requireMember's refusals are AppErrors with 401, 403 or 404 and nothing else (lib/auth/index.ts), so the
