@@ -103,6 +103,22 @@
 //   a row in floating point: every double within 5,000 ulps of each row's ±1 % was tried, none gives off === 0.01);
 //   the closer-row test → `false` (the only rows within 1 % of each other are N, TT and H0/HO with one gauge each,
 //   and S at 1:64 NEM/NMRA, equally far from any ratio, so the first row wins either way).
+// - lib/planning/route.ts (run at 702b1c5; the rest killed in tests/unit/planning/route-edges.test.ts): label()'s
+//   `?? -1` → `+1` and `?.name` → `.name` (46: only asked for ids of listed blocks); `<` → `<=` inside less()'s
+//   `x.cost !== y.cost ?` and `x.hops !== y.hops ?` branches (104: the two differ there); previous's and origin's
+//   `fill(-1)` → `+1` (131, 132: written for every start and every relaxation before any read); the starts' test
+//   (139, 9: a leg's two starts are the two headings of one block, so each meets cost Infinity; lengths are finite);
+//   the settled-state tests `done[…] === 1` → `false` in relax (148), the leg (161) and the junction search (240,
+//   244): a settled state already has the least (length, blocks), every move adds a positive length or a block,
+//   and the strict `<` refuses the rest; the leg's stop `reached < 2` → `true`/`<=` and `reached--` (158, 165: it
+//   runs on until the heap empties, but the goals are settled and never expanded); `tail.slice(1)` → `tail` (181:
+//   the leg's first state twice in a row, which statesToSteps folds into its step); statesToSteps' `i > 0` →
+//   `true`/`>=`, `last !== undefined` → `true` and either same-block test → `true` (192: no step exists only at
+//   i = 0, and the last step is always the previous state's block); `length / 2` → `* 2` (202: a longer seen
+//   array); the junction search's `[]` → `["Stryker was here"]` (230: a string has no length, so `<` skips it),
+//   `heap.size >= 0`, its break → `false` and `done[to] !== 1` → `false` (238, 242, 250: it runs only once
+//   undirectedReach found `to`, settles it, and no later step changes a settled block's path), and
+//   `k <= blocks.length - 1` (258: travelOfRun never turns a run's last block).
 // - lib/planning/polarity.ts (run of 3 December at 8b896eb; the rest killed in tests/unit/planning/polarity-edges.test.ts):
 //   the crossing scan's early stop only skips steps that cannot match: latestExit is the running maximum of exits
 //   in entry order, so where it is ≤ after every step further back left before the crossing; hence its test
