@@ -11,7 +11,7 @@ import { checkPlan, indexPlan, TIME_TOLERANCE_S, travelOfPlan, type Finding, typ
 import { orderByKey } from '@/lib/planning/intervals';
 import { planNames } from '@/lib/planning/names';
 import { findPolarityIssues } from '@/lib/planning/polarity';
-import { basePlan } from './polarity-plan';
+import { basePlan, runOf } from './polarity-plan';
 
 const TRACK_KINDS = ['reversing-loop', 'joint-wiring', 'joint-short', 'reversing-section-short', 'route-reversal', 'route-gap'];
 const found = (plan: Plan) =>
@@ -28,16 +28,6 @@ interface StepSpec {
   fromEnd?: End;
   toEnd?: End;
 }
-
-const runOf = (id: string, trainId: string, cabId: string, steps: StepSpec[]) => ({
-  id,
-  trainId,
-  cabId,
-  operatorId: null,
-  departS: steps[0]!.enterS,
-  arriveS: steps[steps.length - 1]!.exitS,
-  steps,
-});
 
 const blocksOf = (ids: string[], rails: Partial<Record<string, Rail>> = {}) =>
   ids.map((id) => ({ id, name: id, lengthMm: 2000, ...(rails[id] ? { positiveRail: rails[id] } : {}) }));

@@ -31,3 +31,8 @@ export function basePlan(overrides: Partial<Plan>): Plan {
     ...overrides,
   };
 }
+
+/** A run with no operator that departs as its first step begins and arrives as its last one ends. */
+export function runOf(id: string, trainId: string, cabId: string, steps: Plan['runs'][number]['steps']): Plan['runs'][number] {
+  return { id, trainId, cabId, operatorId: null, departS: steps[0]!.enterS, arriveS: steps[steps.length - 1]!.exitS, steps };
+}
