@@ -65,8 +65,8 @@
 //   undefined` and `a >= 0 && b >= 0`, findTooLong's `train === undefined`, `b >= 0` and `block === undefined`.
 // - lib/planning/check.ts, more of the same kinds (from the survivors of the run of 3 December, 14:28): the
 //   loops' bounds `<` → `<=` at lines 197, 250, 267, 328, 449, 502, 537 and 554 only visit one index past
-//   the end, where the typed arrays read undefined and the visit does nothing (Stryker saw no test fail,
-//   and none can: no value is written there); `room()`'s `-` → `+` (kept is 0 whenever room is asked,
+//   the end, where the typed arrays read undefined and the visit does nothing (no value is written there;
+//   at 328 it only adds an owner group with no interval in it); `room()`'s `-` → `+` (kept is 0 whenever room is asked,
 //   before the sweep lists anything of that kind) and `lists()` → `{}` (read as "lists", and a message
 //   past the cap is never read, above); the `to` of a one-step stay (line 239) and of a stand (248) are
 //   never read; `x >= sessionEnd` (245, the same value kept); the tie sort's start `offsets[t] − 1`
@@ -74,6 +74,11 @@
 //   `return true` (373, 383, 388, 419, 475: the same findings, only the cost the caps exist to bound);
 //   findTooLong's pre-filter `shorter()` (615–616: the per-stand length test decides); countAll's
 //   'warnings' string and the unknown-train owner (86, 199: no coverage, an accepted plan has neither).
+// - lib/planning/check.ts, the rest (checked by hand on 3 December, 22:10; the others of that run not argued here are
+//   killed in tests/unit/planning/check-findings.test.ts and check-edges.test.ts): the stay merge's `last >= 0` → `true` and the owner groups' `k > 0 ?`
+//   → `true ?` (231, 330: block[−1] and items[−1] are undefined, as above); the tie sort's `id > id` → `>=` (541:
+//   items[j] is never r, and run ids are unique); findTooLong's `blockOf.get(…) ?? -1` → `?? +1` (627: a run's
+//   steps name blocks the plan has, so the lookup never misses).
 // - lib/planning/propagate.ts and retime.ts, the run order's tie-break `x.id < y.id ? -1 : x.id > y.id ? 1 : 0`:
 //   `<` → `<=` and the inner test → `true`/`>=` (run ids are unique), and → `false`/`<=` (a 0 for a later id):
 //   V8's Array.prototype.sort only asks whether a comparator's answer is below 0, so 0 and 1 sort alike.
