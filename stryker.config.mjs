@@ -180,6 +180,28 @@
 //   firstStep.enterS` → `<=` (planSchema wants enterS < exitS, so at enterS the first step holds the train).
 // - lib/planning/plan-index.ts: `run.operatorId === null ? -1 : …` → `false` (operatorOf.get(null) is
 //   undefined, so `?? -1` gives the same -1).
+// - lib/planning/intervals.ts (run of 3 December at 702b1c5; the rest killed in tests/unit/planning/intervals-edges.test.ts):
+//   loop bounds `<` → `<=` (15, 19, 32, 54, 82, 157, 191, 205, 213, 224, 228, 232, 237) only reach one index
+//   past the end, where an undefined index, group or end compares false and visits nothing and a typed array
+//   ignores the write; 200's writes counts[2048], which no 11-bit digit reads (a 16-bit pass clears it first);
+//   a list begun as `["Stryker was here"]` or `new Array()` for `new Array(groups)` (14, 53, 59, 80, 81, 87,
+//   88, 281, 282): a string's end is undefined, so keepActive drops it before any visit, and in IntervalUnion
+//   it compares false with every time (NaN), staying past the last interval, never read; groupBy's `g >= 0` →
+//   `true` (234, 240): fill[−1] is undefined and items[NaN] a write a typed array ignores.
+//   countOverlapsInGroups' shortcut `to − from < 2` → `false`/`to + from` and `ended < to` → `true`/`<=` (122,
+//   127): every caller puts an interval with end ≤ start in group −1 (check.ts), and with start < end a lone
+//   interval counts 0 and `ended` never passes i (an interval that ended by i's start began before it).
+//   orderByKey, the same order by another path: `n < 2` → `false` (every pass skipped for one key), the
+//   16-bit choice `n >= 16384` → `false`/`>`, every pass run (198 → `false`), a buffer grown at `<=` (163);
+//   the byte-order probe's `=== 1` → `true` and `1 − LOW_WORD` → `1 + LOW_WORD` (143, 167): LOW_WORD is 0 on
+//   little-endian machines (x86-64, ARM64), where both read the same words. nextUp's `x > 0` → `>=` (253: x
+//   is not 0 there). shiftReaching: one nextUp always reaches the target (round to nearest: when target − base
+//   rounds down to d, the exact difference lies within half a step above d, so base + nextUp(d) exceeds the
+//   target exactly and rounds to no less; no second step in 3·10⁶ random pairs), so the cap `i < 4` →
+//   `true`/`<=`/`i--` (265) and the scaled loop after it (266–269, 7, three of them no coverage) change
+//   nothing. IntervalUnion: `lo === 0` → `false` (297: ends[−1] is undefined, so −Infinity), `last <
+//   starts.length` → `true`/`<=` (316: starts[last] is then undefined, `<= to` false), 317's `<` → `<=` and
+//   318's `>` → `>=` (the same value kept), `last === lo` → `false` (321: splice(lo, 0, x) inserts alike).
 // - lib/auth/pages.ts memberForPage(): `error.status === 404` → `true` in the last of its three checks, and
 //   lib/auth/sessions.ts requireSession(): `error instanceof AppError ? error.status : undefined` → `true ? …`.
 //   requireMember's refusals are AppErrors with 401, 403 or 404 and nothing else (lib/auth/index.ts), so the
