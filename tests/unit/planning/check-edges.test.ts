@@ -150,4 +150,23 @@ describe('checkPlan: a session that ends at a set time', () => {
       [['Y', 'r1', 'r2'], 90, 120, 'Goods stands in block Yard from 07:04 to 07:08 fast, after Goods (07:00 departure); Railcar (07:00 departure) runs through it from 07:06 to 07:08 fast'],
     ]);
   });
+
+  it('a train runs past the set end: it is on the track to its last run’s end, whichever run the plan lists last', () => {
+    // The session ends at 30 s. Goods and Railcar share Loco. Goods runs rA in Yard 40–90 s and rB
+    // 0–10 s (listed in that order); Railcar runs in Loop 0–60 s. Goods is on the track 0–90 s,
+    // Railcar 0–60 s (both past the set end): both from 0 to 60 s (07:00 to 07:04 fast). Worked by hand.
+    const plan = accepted({
+      sessionEndS: 30,
+      trains: [
+        { id: 't', name: 'Goods', locomotiveIds: ['l'], lightingAmps: 0, lengthMm: 1000 },
+        { id: 'u', name: 'Railcar', locomotiveIds: ['l'], lightingAmps: 0, lengthMm: 400 },
+      ],
+      runs: [runOf('rA', 't', 'c1', [step('Y', 40, 90)]), runOf('rB', 't', 'c1', [step('Y', 0, 10)]), runOf('r3', 'u', 'c2', [step('L', 0, 60)])],
+    });
+    const [shared, ...more] = findingsOf(plan, 'locomotive-in-two-trains');
+    expect(more).toEqual([]);
+    expect(shared!.slice(0, 2)).toEqual([['l', 't', 'u'], 0]);
+    expect(shared![2]).toBeCloseTo(60, 6);
+    expect(shared![3]).toBe('Locomotive Loco is in train Goods and train Railcar, which are both on the track from 07:00 to 07:04 fast');
+  });
 });
